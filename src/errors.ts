@@ -1,0 +1,69 @@
+/**
+ * Errors that peakwise raises on purpose. The CLI prints these as one clear line
+ * (file:line:col key.path: message) and exits with status 1; anything else is a bug.
+ *
+ * `keyPath` is the path of the offending key in the model file, written the way a
+ * user reads it: `loads[1].where`, `plate.openings[0].circle.radius`. The CLI maps it
+ * to a line and column through the model's source map.
+ */
+export type ErrorStage = 'model' | 'geometry' | 'mesh' | 'fem' | 'solve' | 'study' | 'io' | 'usage';
+
+export class PeakwiseError extends Error {
+  readonly stage: ErrorStage;
+  readonly keyPath: string | undefined;
+  constructor(stage: ErrorStage, message: string, keyPath?: string) {
+    super(message);
+    this.name = 'PeakwiseError';
+    this.stage = stage;
+    this.keyPath = keyPath;
+  }
+}
+
+/** Bad model file content: syntax, schema, expression or value errors. */
+export class ModelError extends PeakwiseError {
+  /** 1-based line and column in the file, when the loader knows them. */
+  readonly line: number | undefined;
+  readonly col: number | undefined;
+  constructor(message: string, keyPath?: string, line?: number, col?: number) {
+    super('model', message, keyPath);
+    this.name = 'ModelError';
+    this.line = line;
+    this.col = col;
+  }
+}
+
+/** The plate outline or an opening cannot be built (crossings, oversize fillets, …). */
+export class GeometryError extends PeakwiseError {
+  constructor(message: string, keyPath?: string) {
+    super('geometry', message, keyPath);
+    this.name = 'GeometryError';
+  }
+}
+
+/** The mesher cannot produce a valid mesh (e.g. size far too small, hostile geometry). */
+export class MeshError extends PeakwiseError {
+  constructor(message: string, keyPath?: string) {
+    super('mesh', message, keyPath);
+    this.name = 'MeshError';
+  }
+}
+
+/** Loads, supports and selectors that do not fit the mesh (a selector matching nothing). */
+export class FemError extends PeakwiseError {
+  constructor(message: string, keyPath?: string) {
+    super('fem', message, keyPath);
+    this.name = 'FemError';
+  }
+}
+
+/** Numerical breakdowns: not positive definite (mechanism), residual too large, too big. */
+export class SolveError extends PeakwiseError {
+  constructor(message: string, keyPath?: string) {
+    super('solve', message, keyPath);
+    this.name = 'SolveError';
+  }
+}
+
+export function isPeakwiseError(e: unknown): e is PeakwiseError {
+  return e instanceof PeakwiseError;
+}

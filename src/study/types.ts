@@ -1,0 +1,66 @@
+import type { Point } from '../model/types.js';
+
+export type FeatureKind =
+  | 'corner'
+  | 'fillet'
+  | 'opening'
+  | 'point-load'
+  | 'point-support'
+  | 'support-edge'
+  | 'edge'
+  | 'interior';
+
+export interface SpotFeature {
+  kind: FeatureKind;
+  /** material angle at a sharp corner (deg); 180 on a straight edge; 0 when not applicable */
+  interiorAngleDeg: number;
+  /** fillet / hole radius; 0 when not applicable */
+  radius: number;
+  /** boundary conditions on the two faces of a corner */
+  faces?: 'free-free' | 'free-clamped' | 'clamped-clamped';
+  /** words for the report, e.g. "re-entrant corner of the outline, 270°" */
+  description: string;
+}
+
+export interface LevelResult {
+  /** element size near the spot at this level */
+  h: number;
+  dofs: number;
+  /** peak of the study measure within the spot neighbourhood */
+  peak: number;
+  /** where the peak sits */
+  peakAt: Point;
+  /** measure at the readout distance along the bisector (singular spots), if defined */
+  atDistance?: number;
+  /** average of the measure over a disk of the readout radius, if defined */
+  average?: number;
+}
+
+export type Verdict = 'converging' | 'singular' | 'undecided';
+
+export interface SpotResult {
+  id: string;
+  at: Point;
+  feature: SpotFeature;
+  levels: LevelResult[];
+  verdict: Verdict;
+  /** one sentence: why this verdict (reason for undecided, theory agreement, …) */
+  reason: string;
+  /** what to do next for an undecided spot */
+  advice?: string;
+  estimate: { value: number; uncertainty: number; observedOrder: number };
+  growth: { exponent: number; exponentUncertainty: number; theory: number };
+  readouts: { atDistance?: number; distance?: number; average?: number; nsif?: number; nsifUnits?: string };
+}
+
+export interface StudyResult {
+  tool: 'peakwise';
+  version: string;
+  model: { title: string; file: string };
+  units: { length: string; force: string; stress: string };
+  mesh: { nodes: number; elements: number; order: 1 | 2; minAngleDeg: number };
+  solution: { dofs: number; maxDisplacement: number; reactionSum: [number, number]; appliedSum: [number, number] };
+  measure: string;
+  spots: SpotResult[];
+  timings?: { totalS: number };
+}
