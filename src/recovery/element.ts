@@ -1,0 +1,202 @@
+import type { Mesh } from '../mesh/types.js';
+
+/**
+ * Element-level helpers shared by the recovery stage: shape functions of the 3- and 6-node
+ * triangle, area-coordinate quadrature rules and the isoparametric map.
+ *
+ * Local numbering (mesh/types.ts): corners 0, 1, 2 counter-clockwise; 3 on 0–1, 4 on 1–2, 5 on 2–0.
+ * Reference triangle (ξ, η): node 0 at (0, 0), 1 at (1, 0), 2 at (0, 1); L1 = 1 − ξ − η, L2 = ξ, L3 = η.
+ */
+
+/** A rule on the triangle: points as (ξ, η) pairs; weights sum to 1 (multiply by the area). */
+export interface TriangleRule {
+  xi: Float64Array;
+  eta: Float64Array;
+  w: Float64Array;
+}
+
+/** Centroid rule, exact for degree 1. */
+export const RULE_1: TriangleRule = { xi: Float64Array.of(1 / 3), eta: Float64Array.of(1 / 3), w: Float64Array.of(1) };
+
+/** Three interior points (1/6, 1/6, 2/3), exact for degree 2 (Strang & Fix 1973). */
+export const RULE_3: TriangleRule = {
+  xi: Float64Array.of(1 / 6, 2 / 3, 1 / 6),
+  eta: Float64Array.of(1 / 6, 1 / 6, 2 / 3),
+  w: Float64Array.of(1 / 3, 1 / 3, 1 / 3),
+};
+
+/** Seven-point rule exact for degree 5 (Radon 1948; as tabulated by Dunavant, IJNME 21, 1985). */
+export const RULE_7: TriangleRule = (() => {
+  const r = Math.sqrt(15);
+  const b1 = (6 - r) / 21;
+  const a1 = (9 + 2 * r) / 21;
+  const b2 = (6 + r) / 21;
+  const a2 = (9 - 2 * r) / 21;
+  const w1 = (155 - r) / 1200;
+  const w2 = (155 + r) / 1200;
+  // area coordinates (L1, L2, L3) → (ξ, η) = (L2, L3)
+  const pts: [number, number, number][] = [
+    [1 / 3, 1 / 3, 9 / 40],
+    [b1, b1, w1],
+    [a1, b1, w1],
+    [b1, a1, w1],
+    [b2, b2, w2],
+    [a2, b2, w2],
+    [b2, a2, w2],
+  ];
+  return {
+    xi: Float64Array.from(pts, (p) => p[0]),
+    eta: Float64Array.from(pts, (p) => p[1]),
+    w: Float64Array.from(pts, (p) => 2 * p[2]),
+  };
+})();
+// RULE_7 weights above are tabulated for the reference area ½; doubling makes them sum to 1.
+
+/** Shape functions at (ξ, η) into `N` (length 3 or 6). */
+export function shapeFunctions(nodesPerElem: 3 | 6, xi: number, eta: number, N: Float64Array): void {
+  const L1 = 1 - xi - eta;
+  if (nodesPerElem === 3) {
+    N[0] = L1;
+    N[1] = xi;
+    N[2] = eta;
+    return;
+  }
+  N[0] = L1 * (2 * L1 - 1);
+  N[1] = xi * (2 * xi - 1);
+  N[2] = eta * (2 * eta - 1);
+  N[3] = 4 * L1 * xi;
+  N[4] = 4 * xi * eta;
+  N[5] = 4 * eta * L1;
+}
+
+/** ∂N/∂ξ and ∂N/∂η at (ξ, η). */
+export function shapeDerivatives(nodesPerElem: 3 | 6, xi: number, eta: number, dXi: Float64Array, dEta: Float64Array): void {
+  if (nodesPerElem === 3) {
+    dXi[0] = -1;
+    dXi[1] = 1;
+    dXi[2] = 0;
+    dEta[0] = -1;
+    dEta[1] = 0;
+    dEta[2] = 1;
+    return;
+  }
+  const L1 = 1 - xi - eta;
+  dXi[0] = -(4 * L1 - 1);
+  dEta[0] = -(4 * L1 - 1);
+  dXi[1] = 4 * xi - 1;
+  dEta[1] = 0;
+  dXi[2] = 0;
+  dEta[2] = 4 * eta - 1;
+  dXi[3] = 4 * (L1 - xi);
+  dEta[3] = -4 * xi;
+  dXi[4] = 4 * eta;
+  dEta[4] = 4 * xi;
+  dXi[5] = -4 * eta;
+  dEta[5] = 4 * (L1 - eta);
+}
+
+/** Area of the straight triangle through the three corner nodes (positive counter-clockwise). */
+export function cornerArea(mesh: Pick<Mesh, 'xy' | 'elemNodes' | 'nodesPerElem'>, e: number): number {
+  const { xy, elemNodes } = mesh;
+  const k = mesh.nodesPerElem * e;
+  const a = elemNodes[k];
+  const b = elemNodes[k + 1];
+  const c = elemNodes[k + 2];
+  return 0.5 * ((xy[2 * b] - xy[2 * a]) * (xy[2 * c + 1] - xy[2 * a + 1]) - (xy[2 * c] - xy[2 * a]) * (xy[2 * b + 1] - xy[2 * a + 1]));
+}
+
+/**
+ * Scratch for isoparametric evaluation of one element: node coordinates, shape functions and
+ * derivatives. One per call site, refilled per element (no allocation in loops).
+ */
+export class ElementScratch {
+  readonly npe: 3 | 6;
+  readonly ex: Float64Array;
+  readonly ey: Float64Array;
+  readonly N: Float64Array;
+  readonly dXi: Float64Array;
+  readonly dEta: Float64Array;
+  /** x, y, ∂x/∂ξ, ∂x/∂η, ∂y/∂ξ, ∂y/∂η of the last `map` call made by `inverseMap` */
+  readonly m6 = new Float64Array(6);
+  constructor(npe: 3 | 6) {
+    this.npe = npe;
+    this.ex = new Float64Array(npe);
+    this.ey = new Float64Array(npe);
+    this.N = new Float64Array(npe);
+    this.dXi = new Float64Array(npe);
+    this.dEta = new Float64Array(npe);
+  }
+  load(mesh: Pick<Mesh, 'xy' | 'elemNodes'>, e: number): void {
+    const k = this.npe * e;
+    for (let i = 0; i < this.npe; i++) {
+      const n = mesh.elemNodes[k + i];
+      this.ex[i] = mesh.xy[2 * n];
+      this.ey[i] = mesh.xy[2 * n + 1];
+    }
+  }
+  /** Fills N at (ξ, η); returns the Jacobian determinant and writes x, y into `out`. */
+  map(xi: number, eta: number, out: Float64Array): number {
+    shapeFunctions(this.npe, xi, eta, this.N);
+    shapeDerivatives(this.npe, xi, eta, this.dXi, this.dEta);
+    let x = 0;
+    let y = 0;
+    let xXi = 0;
+    let xEta = 0;
+    let yXi = 0;
+    let yEta = 0;
+    for (let i = 0; i < this.npe; i++) {
+      x += this.N[i] * this.ex[i];
+      y += this.N[i] * this.ey[i];
+      xXi += this.dXi[i] * this.ex[i];
+      xEta += this.dEta[i] * this.ex[i];
+      yXi += this.dXi[i] * this.ey[i];
+      yEta += this.dEta[i] * this.ey[i];
+    }
+    out[0] = x;
+    out[1] = y;
+    out[2] = xXi;
+    out[3] = xEta;
+    out[4] = yXi;
+    out[5] = yEta;
+    return xXi * yEta - xEta * yXi;
+  }
+}
+
+/**
+ * Inverse isoparametric map by Newton's method from the straight-triangle guess. Writes (ξ, η)
+ * into `out`; returns false when Newton does not settle (badly curved element).
+ */
+export function inverseMap(s: ElementScratch, x: number, y: number, out: Float64Array): boolean {
+  // straight-triangle guess from the corners
+  const x0 = s.ex[0];
+  const y0 = s.ey[0];
+  const a = s.ex[1] - x0;
+  const b = s.ex[2] - x0;
+  const c = s.ey[1] - y0;
+  const d = s.ey[2] - y0;
+  const det = a * d - b * c;
+  let xi = (d * (x - x0) - b * (y - y0)) / det;
+  let eta = (-c * (x - x0) + a * (y - y0)) / det;
+  if (s.npe === 6) {
+    const m = s.m6;
+    const tol = 1e-13 * (Math.abs(a) + Math.abs(b) + Math.abs(c) + Math.abs(d));
+    let ok = false;
+    for (let it = 0; it < 20; it++) {
+      const J = s.map(xi, eta, m);
+      const rx = x - m[0];
+      const ry = y - m[1];
+      const dxi = (m[5] * rx - m[3] * ry) / J;
+      const deta = (-m[4] * rx + m[2] * ry) / J;
+      xi += dxi;
+      eta += deta;
+      if (Math.abs(rx) + Math.abs(ry) <= tol) {
+        ok = true;
+        break;
+      }
+    }
+    if (!ok || !Number.isFinite(xi) || !Number.isFinite(eta)) return false;
+  }
+  out[0] = xi;
+  out[1] = eta;
+  return true;
+}
