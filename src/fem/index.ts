@@ -1,0 +1,11 @@
+export type { ElasticSection, GaussStresses, Solution } from './types.js';
+export { elasticityMatrix, outOfPlaneStress } from './elasticity.js';
+export { TRI3_ETA, TRI3_W, TRI3_XI, cstGradients, gatherElementXY, lstGradients, lstShape } from './shape.js';
+export { elementStiffnessCst, elementStiffnessLst } from './elements.js';
+export { gaussStresses } from './stresses.js';
+export { assembleStiffness, csrMultiply, stiffnessPattern, type StiffnessPattern } from './assembly.js';
+export { SELECTOR_TOLERANCE, describeSelector, selectBoundary, type Selection } from './selectors.js';
+export { appliedResultant, edgeTractionLoad, loadVector, pressureLoad, type TractionField } from './loads.js';
+export { checkRigidRestraint, supportedDofs } from './supports.js';
+export { validateMesh, validateSection } from './validate.js';
+export { solvePlate, type PlateProblem, type PrescribedDisplacement } from './solve.js';

@@ -1,0 +1,162 @@
+import { FemError, SolveError } from '../errors.js';
+import type { PlateGeometry } from '../geometry/types.js';
+import {
+  NotPositiveDefiniteError,
+  analyze,
+  chooseOrdering,
+  csrSubmatrix,
+  factorize,
+  residualNorm,
+  solveFactor,
+} from '../linalg/index.js';
+import type { Mesh } from '../mesh/types.js';
+import type { Load, Support } from '../model/types.js';
+import { assembleStiffness, csrMultiply, stiffnessPattern, type StiffnessPattern } from './assembly.js';
+import { appliedResultant, loadVector } from './loads.js';
+import { checkRigidRestraint, supportedDofs } from './supports.js';
+import type { ElasticSection, Solution } from './types.js';
+import { validateMesh, validateSection } from './validate.js';
+
+/** A prescribed displacement: dof 2n is u_x of node n, 2n + 1 is u_y. */
+export interface PrescribedDisplacement {
+  dof: number;
+  value: number;
+}
+
+export interface PlateProblem {
+  mesh: Mesh;
+  geometry: Pick<PlateGeometry, 'pieces' | 'loops' | 'scale'>;
+  section: ElasticSection;
+  supports: readonly Support[];
+  loads: readonly Load[];
+  /**
+   * Non-zero (or zero) displacements imposed at single dofs, eliminated like supports.
+   * A dof both supported and prescribed takes the prescribed value.
+   */
+  prescribed?: readonly PrescribedDisplacement[];
+  /** extra nodal forces (whole thickness) added to the model loads, e.g. a traction field */
+  extraLoad?: Float64Array;
+  /** the mesh's stiffness pattern when the caller already has it */
+  pattern?: StiffnessPattern;
+}
+
+const now = (): number => performance.now() / 1000;
+
+/**
+ * One linear static solve: assemble K and f, eliminate the fixed dofs (the free-dof principal
+ * submatrix K_ff u_f = f_f − K_fc u_c, not a penalty), order, factorise, solve, and recover
+ * reactions r = K u − f at the fixed dofs.
+ */
+export function solvePlate(input: PlateProblem): Solution {
+  const { mesh, geometry, section } = input;
+  validateSection(section);
+  validateMesh(mesh);
+  const nNodes = mesh.xy.length / 2;
+  const nDof = 2 * nNodes;
+
+  const t0 = now();
+  const pattern = input.pattern ?? stiffnessPattern(mesh);
+  if (pattern.n !== nDof) throw new FemError(`stiffness pattern has ${pattern.n} dofs; the mesh has ${nDof}`);
+  const K = assembleStiffness(mesh, section, pattern);
+  const f = loadVector(mesh, geometry, section, input.loads);
+  if (input.extraLoad) {
+    if (input.extraLoad.length !== nDof) throw new FemError(`extra load has ${input.extraLoad.length} entries; the mesh has ${nDof} dofs`);
+    for (let i = 0; i < nDof; i++) f[i] += input.extraLoad[i];
+  }
+
+  const fixed = supportedDofs(mesh, geometry, input.supports);
+  const uFixed = new Float64Array(nDof);
+  for (const [k, p] of (input.prescribed ?? []).entries()) {
+    if (!(Number.isInteger(p.dof) && p.dof >= 0 && p.dof < nDof)) {
+      throw new FemError(`prescribed[${k}].dof = ${p.dof} is not a dof of the mesh (0 … ${nDof - 1})`, `prescribed[${k}]`);
+    }
+    if (!Number.isFinite(p.value)) throw new FemError(`prescribed[${k}].value = ${p.value} is not finite`, `prescribed[${k}]`);
+    fixed[p.dof] = 1;
+    uFixed[p.dof] = p.value;
+  }
+  checkRigidRestraint(mesh.xy, fixed, geometry.scale);
+
+  let nFree = 0;
+  for (let i = 0; i < nDof; i++) if (!fixed[i]) nFree++;
+  const free = new Int32Array(nFree);
+  for (let i = 0, k = 0; i < nDof; i++) if (!fixed[i]) free[k++] = i;
+
+  // right-hand side of the free dofs: f_f − K_fc u_c
+  const KuFixed = csrMultiply(K, uFixed);
+  const b = new Float64Array(nFree);
+  for (let k = 0; k < nFree; k++) b[k] = f[free[k]] - KuFixed[free[k]];
+  const Kff = csrSubmatrix(K, free);
+  const t1 = now();
+
+  const rowXY = new Float64Array(2 * nFree);
+  for (let k = 0; k < nFree; k++) {
+    const n = free[k] >> 1;
+    rowXY[2 * k] = mesh.xy[2 * n];
+    rowXY[2 * k + 1] = mesh.xy[2 * n + 1];
+  }
+  let t2 = t1;
+  let t3 = t1;
+  let nnzL = 0;
+  let residual = 0;
+  const u = uFixed;
+  if (nFree > 0) {
+    const ordering = chooseOrdering(Kff, rowXY);
+    t2 = now();
+    const symbolic = analyze(Kff, ordering);
+    let factor;
+    try {
+      factor = factorize(Kff, symbolic);
+    } catch (err) {
+      if (err instanceof NotPositiveDefiniteError) throw notHeldError(mesh, free, err.dof);
+      throw err;
+    }
+    nnzL = factor.nnzL;
+    t3 = now();
+    const uFree = solveFactor(factor, b);
+    for (let k = 0; k < nFree; k++) u[free[k]] = uFree[k];
+    residual = residualNorm(Kff, uFree, b);
+  }
+  const Ku = csrMultiply(K, u);
+  const reaction = new Float64Array(nDof);
+  for (let i = 0; i < nDof; i++) if (fixed[i]) reaction[i] = Ku[i] - f[i];
+  const t4 = now();
+
+  let maxDisplacement = 0;
+  let maxNode = 0;
+  for (let n = 0; n < nNodes; n++) {
+    const d = Math.hypot(u[2 * n], u[2 * n + 1]);
+    if (d > maxDisplacement) {
+      maxDisplacement = d;
+      maxNode = n;
+    }
+  }
+  return {
+    u,
+    reaction,
+    load: f,
+    dofs: nDof,
+    freeDofs: nFree,
+    appliedSum: appliedResultant(f),
+    reactionSum: appliedResultant(reaction),
+    maxDisplacement,
+    maxDisplacementAt: [mesh.xy[2 * maxNode], mesh.xy[2 * maxNode + 1]],
+    nnzL,
+    residual,
+    timings: { assembleS: t1 - t0, orderS: t2 - t1, factorS: t3 - t2, solveS: t4 - t3 },
+  };
+}
+
+function notHeldError(mesh: Mesh, free: Int32Array, freeIndex: number): SolveError {
+  const dof = freeIndex >= 0 && freeIndex < free.length ? free[freeIndex] : -1;
+  if (dof < 0) {
+    return new SolveError('the stiffness is not positive definite: part of the plate is not held by the supports', 'supports');
+  }
+  const n = dof >> 1;
+  const x = Number(mesh.xy[2 * n].toPrecision(6));
+  const y = Number(mesh.xy[2 * n + 1].toPrecision(6));
+  return new SolveError(
+    `the stiffness is not positive definite at node ${n} (${x}, ${y}), u_${dof & 1 ? 'y' : 'x'}: part of the plate is not held ` +
+      '(a piece not connected to the supported part, or a mechanism); connect it or support it',
+    'supports',
+  );
+}
