@@ -1,0 +1,12 @@
+/** The hot-spot study: Williams corner theory, convergence fits, verdicts, readouts, ladders. */
+export type * from './types.js';
+export { williamsRoots, familyRoots, brentRoot, kolosovKappa, type WedgeFaces, type WedgeRoot, type WilliamsRoots } from './williams.js';
+export {
+  threeLevelFit, observedOrderVariableRatio, lineFit, logLogSlope, incrementExponent, GCI_SAFETY_FACTOR,
+  type ThreeLevelFit, type ConvergenceClass,
+} from './fit.js';
+export { judgeSpot, VERDICT_RULES, type SpotVerdict, type FitHistoryEntry } from './verdict.js';
+export {
+  tanhSinh, criticalDistance, pointMethod, lineMethod, lineAverage, sampledAverage, notchStressIntensity, nsifUnits,
+  extrapolateToZero, hotSpotLinear, hotSpotQuadratic, hotSpotTypeB, hotSpotPoints,
+} from './readouts.js';

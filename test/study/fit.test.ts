@@ -1,0 +1,92 @@
+import { describe, it, expect } from 'vitest';
+import { threeLevelFit, observedOrderVariableRatio, logLogSlope, incrementExponent, judgeSpot } from '../../src/study/index.js';
+
+const rel = (a: number, b: number) => Math.abs(a / b - 1);
+
+describe('Richardson + GCI arithmetic (Roache 1998; worked example of reference notes item 10)', () => {
+  it('0.97050, 0.96854, 0.96178, r = 2 → p = 1.786170, f_ext = 0.971300, GCI₁₂ = 0.1031 %, GCI₂₃ = 0.3562 %, ratio 1.0020', () => {
+    const f = threeLevelFit(0.9705, 0.96854, 0.96178, 2);
+    expect(rel(f.p, 1.78617)).toBeLessThan(1e-6);
+    expect(rel(f.fExt, 0.9713)).toBeLessThan(1e-6);
+    expect(Math.abs(f.gciFine * 100 - 0.1031)).toBeLessThan(5e-5); // printed to 4 digits
+    expect(Math.abs(f.gciCoarse * 100 - 0.3562)).toBeLessThan(5e-5);
+    expect(Math.abs(f.asymptoticRatio - 1.002)).toBeLessThan(5e-5);
+    expect(f.kind).toBe('monotone');
+  });
+  it('synthetic singular f = h^−0.455516 (h = 1, 1/2, 1/4) → p = −0.455516 and R > 1 (divergent; Stern et al. 2001)', () => {
+    const f = (h: number) => Math.pow(h, -0.455516);
+    const fit = threeLevelFit(f(0.25), f(0.5), f(1), 2);
+    expect(rel(fit.p, -0.455516)).toBeLessThan(1e-9);
+    expect(fit.R).toBeGreaterThan(1);
+    expect(fit.kind).toBe('divergent');
+  });
+  it('oscillatory sequence has R < 0', () => {
+    expect(threeLevelFit(1.0, 1.01, 0.98, 2).kind).toBe('oscillatory');
+  });
+  it('Celik et al. (2008) variable-ratio order reduces to the constant-ratio one and recovers a known p', () => {
+    const g = (h: number) => 2 + 0.3 * h ** 1.5;
+    expect(observedOrderVariableRatio(g(1), g(2), g(4), 2, 2)).toBeCloseTo(1.5, 10);
+    expect(observedOrderVariableRatio(g(1), g(1.5), g(2.7), 1.5, 1.8)).toBeCloseTo(1.5, 8);
+  });
+});
+
+describe('log–log and increment exponents', () => {
+  it('pure power law: slope = −q exactly, zero scatter', () => {
+    const h = [1, 0.5, 0.25, 0.125];
+    const s = logLogSlope(h, h.map((x) => 3 * x ** -0.4));
+    expect(s.slope).toBeCloseTo(-0.4, 12);
+    expect(s.slopeSe).toBeLessThan(1e-12);
+  });
+  it('increments remove the regular part: f = 5 + 2h^−0.5 gives q = 0.5 exactly', () => {
+    const h = [1, 0.5, 0.25, 0.125, 0.0625];
+    const inc = incrementExponent(h, h.map((x) => 5 + 2 * x ** -0.5));
+    expect(inc.q).toBeCloseTo(0.5, 12);
+    expect(inc.sameSign).toBe(true);
+  });
+});
+
+describe('verdict rules (docs/study.md)', () => {
+  const h = [1, 0.5, 0.25, 0.125, 0.0625];
+  it('synthetic singular sequence h^−0.4555 + regular part → singular with q = 0.4555', () => {
+    const v = judgeSpot(h, h.map((x) => 1.5 + x ** -0.455516), 2, 2, 0.455516, 're-entrant corner 270°');
+    expect(v.verdict).toBe('singular');
+    expect(v.growth.exponent).toBeCloseTo(0.455516, 9);
+    expect(v.reason).toContain('as theory predicts');
+  });
+  it('converging sequence f = 3 + 0.2 h² → converging to 3 with p = 2, exact extrapolation', () => {
+    const v = judgeSpot(h, h.map((x) => 3 + 0.2 * x * x), 2, 2, 0);
+    expect(v.verdict).toBe('converging');
+    expect(v.estimate.value).toBeCloseTo(3, 12);
+    expect(v.estimate.observedOrder).toBeCloseTo(2, 10);
+    // the band is the GCI: 1.25 |f1 − f2| / (r^p − 1)
+    expect(v.estimate.uncertainty).toBeCloseTo((1.25 * 0.2 * (0.125 ** 2 - 0.0625 ** 2)) / 3, 12);
+    // band shrinks level after level
+    for (let k = 1; k < v.history.length; k++) expect(v.history[k].uncertainty).toBeLessThan(v.history[k - 1].uncertainty);
+  });
+  it('converging where theory predicts a singularity: says so', () => {
+    const v = judgeSpot(h, h.map((x) => 3 + 0.2 * x * x), 2, 2, 0.4555, 're-entrant corner 270°');
+    expect(v.verdict).toBe('converging');
+    expect(v.reason).toContain('theory predicts a singularity');
+  });
+  it('singular with a different exponent than theory: says they disagree', () => {
+    const v = judgeSpot(h, h.map((x) => x ** -0.25), 2, 2, 0.5, 'crack tip');
+    expect(v.verdict).toBe('singular');
+    expect(v.reason).toContain('disagrees');
+  });
+  it('oscillating sequence → undecided, reason "oscillating"', () => {
+    const v = judgeSpot(h, [3.1, 2.9, 3.08, 2.93, 3.06], 2, 2, 0);
+    expect(v.verdict).toBe('undecided');
+    expect(v.reason).toMatch(/^oscillating/);
+    expect(v.advice).toBeTruthy();
+  });
+  it('two levels → undecided, too few levels', () => {
+    const v = judgeSpot([1, 0.5], [3, 3.1], 2, 2, 0);
+    expect(v.verdict).toBe('undecided');
+    expect(v.reason).toContain('too few levels');
+  });
+  it('very slow convergence (p = 0.3) → undecided, not yet asymptotic', () => {
+    const v = judgeSpot(h, h.map((x) => 3 - x ** 0.3), 2, 2, 0);
+    expect(v.verdict).toBe('undecided');
+    expect(v.reason).toContain('not yet asymptotic');
+  });
+});
