@@ -24,6 +24,23 @@ export interface Symbolic {
   parent: Int32Array;
   colCounts: Int32Array;
   nnzL: number;
+  /**
+   * Supernodes (added by linalg): columns superStart[s] … superStart[s+1]-1 of the permuted
+   * matrix share one row structure superRows[superRowPtr[s] … superRowPtr[s+1]-1] (the
+   * diagonal block's rows first, ascending). Values of s sit in a dense column-major panel
+   * of (rows × cols) starting at Factor.values[superValPtr[s]].
+   */
+  nSuper: number;
+  superStart: Int32Array;
+  superRowPtr: Int32Array;
+  superRows: Int32Array;
+  superValPtr: Float64Array;
+  /** supernode of each permuted column */
+  superOfCol: Int32Array;
+  /** entries stored in the panels (≥ nnzL when supernodes were amalgamated) */
+  nnzStored: number;
+  /** floating point operations of the numeric factorisation (multiply-adds count 2) */
+  flops: number;
 }
 
 /** Numeric factor P A Pᵀ = L Lᵀ. Layout is the solver's business; it exposes nnzL and solve. */
@@ -31,4 +48,6 @@ export interface Factor {
   n: number;
   nnzL: number;
   symbolic: Symbolic;
+  /** supernodal panels of L, laid out as Symbolic.superValPtr says (added by linalg) */
+  values: Float64Array;
 }

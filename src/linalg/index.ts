@@ -1,0 +1,19 @@
+export type { Csr, Ordering, Symbolic, Factor } from './types.js';
+export { csrFromTriplets, csrMatVec, csrSubmatrix, csrGet, csrNormInf, isSymmetric, residualNorm, validateCsr } from './csr.js';
+export { NotPositiveDefiniteError } from './errors.js';
+export { amdOrder } from './amd.js';
+export { compressGraph, type NodeGraph } from './graph.js';
+export {
+  orderNatural,
+  orderAmd,
+  orderNestedDissection,
+  chooseOrdering,
+  chooseOrderingDetailed,
+  predictNnzL,
+  type OrderingChoice,
+  type NestedDissectionOptions,
+} from './ordering.js';
+export { eliminationTree, postorderTree, columnCounts, symbolicFactor, type SupernodeOptions } from './symbolic.js';
+export type { FactorOptions } from './numeric.js';
+export { analyze, factorize, refactorize, solveFactor, solveSpd, type SpdSolution } from './solve.js';
+export { toMatrixMarket, vectorToMatrixMarket, matrixMarketChunks } from './matrix-market.js';

@@ -1,0 +1,231 @@
+import { NotPositiveDefiniteError } from './errors.js';
+import type { Csr, Factor, Symbolic } from './types.js';
+
+export interface FactorOptions {
+  /** a pivot d ≤ pivotTol · |A_kk| counts as a breakdown (default 1e-12) */
+  pivotTol?: number;
+}
+
+/**
+ * Left-looking supernodal Cholesky P A Pᵀ = L Lᵀ.
+ * Ng & Peyton, "Block sparse Cholesky algorithms on advanced uniprocessor computers",
+ * SIAM J. Sci. Comput. 14(5):1034–1056, 1993. For each supernode J in turn: scatter A's
+ * columns into J's dense panel, subtract the update L_D(rows ≥ J, :) · L_D(J's cols, :)ᵀ of
+ * every earlier supernode D that has rows in J (D waits on a linked list keyed by its next row),
+ * then factor the panel densely.
+ */
+export function numericFactor(A: Csr, sym: Symbolic, options: FactorOptions = {}, reuse?: Float64Array): Factor {
+  const pivotTol = options.pivotTol ?? 1e-12;
+  const { n, nSuper, superStart, superRowPtr, superRows, superValPtr, superOfCol } = sym;
+  const { perm, iperm } = sym.ordering;
+  const total = superValPtr[nSuper];
+  let L: Float64Array;
+  if (reuse && reuse.length === total) {
+    L = reuse;
+    L.fill(0);
+  } else {
+    L = new Float64Array(total);
+  }
+  const map = new Int32Array(n);
+  const link = new Int32Array(nSuper).fill(-1);
+  const nextLink = new Int32Array(nSuper).fill(-1);
+  const nextRow = new Int32Array(nSuper); // position in D's row list of the next row to update
+  const diag = new Float64Array(n);
+  let maxRows = 0;
+  let maxCols = 0;
+  for (let s = 0; s < nSuper; s++) {
+    maxRows = Math.max(maxRows, superRowPtr[s + 1] - superRowPtr[s]);
+    maxCols = Math.max(maxCols, superStart[s + 1] - superStart[s]);
+  }
+  const work = new Float64Array(maxRows * maxCols);
+  const relRow = new Int32Array(maxRows);
+
+  for (let s = 0; s < nSuper; s++) {
+    const f = superStart[s];
+    const nc = superStart[s + 1] - f;
+    const rp = superRowPtr[s];
+    const nr = superRowPtr[s + 1] - rp;
+    const base = superValPtr[s];
+    for (let t = 0; t < nr; t++) map[superRows[rp + t]] = t;
+
+    // scatter A's columns f … f+nc-1 (lower part) into the panel
+    for (let c = 0; c < nc; c++) {
+      const col = f + c;
+      const row = perm[col];
+      const colBase = base + c * nr;
+      for (let p = A.rowPtr[row]; p < A.rowPtr[row + 1]; p++) {
+        const i = iperm[A.colIdx[p]];
+        if (i >= col) L[colBase + map[i]] += A.values[p];
+      }
+      diag[col] = L[colBase + c];
+    }
+
+    // updates from descendants
+    let d = link[s];
+    link[s] = -1;
+    while (d !== -1) {
+      const dNext = nextLink[d];
+      const drp = superRowPtr[d];
+      const dnr = superRowPtr[d + 1] - drp;
+      const dnc = superStart[d + 1] - superStart[d];
+      const dBase = superValPtr[d];
+      const p1 = nextRow[d];
+      let p2 = p1;
+      const lEnd = f + nc;
+      while (p2 < dnr && superRows[drp + p2] < lEnd) p2++;
+      const m = dnr - p1; // rows of D at or below J's first column
+      const k = p2 - p1; // of which inside J's columns
+      // work (m × k, column-major) = L_D[p1:, :] · L_D[p1:p2, :]ᵀ, lower part only
+      updateProduct(L, dBase + p1, dnr, m, k, dnc, work);
+      // scatter-subtract into J's panel
+      for (let t = 0; t < m; t++) relRow[t] = map[superRows[drp + p1 + t]];
+      for (let jj = 0; jj < k; jj++) {
+        const colBase = base + (superRows[drp + p1 + jj] - f) * nr;
+        const wBase = jj * m;
+        for (let ii = jj; ii < m; ii++) L[colBase + relRow[ii]] -= work[wBase + ii];
+      }
+      nextRow[d] = p2;
+      if (p2 < dnr) {
+        const target = superOfCol[superRows[drp + p2]];
+        nextLink[d] = link[target];
+        link[target] = d;
+      }
+      d = dNext;
+    }
+
+    denseCholeskyPanel(L, base, nr, nc, f, diag, perm, pivotTol);
+
+    nextRow[s] = nc;
+    if (nc < nr) {
+      const target = superOfCol[superRows[rp + nc]];
+      nextLink[s] = link[target];
+      link[target] = s;
+    }
+  }
+  return { n, nnzL: sym.nnzL, symbolic: sym, values: L };
+}
+
+/**
+ * C (m × k, column-major, lower trapezoid i ≥ j) = X · Yᵀ where X = panel rows 0…m-1 and
+ * Y = panel rows 0…k-1, both `kk` columns wide with leading dimension ld starting at `off`.
+ * Four columns of C per sweep so each X element loaded feeds four multiply-adds; the inner
+ * loop runs down contiguous column memory.
+ */
+function updateProduct(
+  P: Float64Array,
+  off: number,
+  ld: number,
+  m: number,
+  k: number,
+  kk: number,
+  C: Float64Array,
+): void {
+  let j = 0;
+  for (; j + 3 < k; j += 4) {
+    const c0 = j * m, c1 = c0 + m, c2 = c1 + m, c3 = c2 + m;
+    for (let i = j; i < m; i++) { C[c0 + i] = 0; C[c1 + i] = 0; C[c2 + i] = 0; C[c3 + i] = 0; }
+    for (let q = 0; q < kk; q++) {
+      const col = off + q * ld;
+      const y0 = P[col + j], y1 = P[col + j + 1], y2 = P[col + j + 2], y3 = P[col + j + 3];
+      // rows j…j+3 form the small triangle: C[i, j+t] is only needed for i ≥ j+t but
+      // computing the few extra entries keeps the loop simple
+      for (let i = j; i < m; i++) {
+        const x = P[col + i];
+        C[c0 + i] += x * y0;
+        C[c1 + i] += x * y1;
+        C[c2 + i] += x * y2;
+        C[c3 + i] += x * y3;
+      }
+    }
+  }
+  for (; j < k; j++) {
+    const c0 = j * m;
+    for (let i = j; i < m; i++) C[c0 + i] = 0;
+    for (let q = 0; q < kk; q++) {
+      const col = off + q * ld;
+      const y0 = P[col + j];
+      for (let i = j; i < m; i++) C[c0 + i] += P[col + i] * y0;
+    }
+  }
+}
+
+/**
+ * Dense Cholesky of an nr × nc panel (column-major, leading dimension nr): the top nc × nc
+ * block becomes L11 and the rows below become L21 = A21 L11⁻ᵀ. Left-looking by columns.
+ */
+function denseCholeskyPanel(
+  L: Float64Array,
+  base: number,
+  nr: number,
+  nc: number,
+  f: number,
+  diag: Float64Array,
+  perm: Int32Array,
+  pivotTol: number,
+): void {
+  for (let j = 0; j < nc; j++) {
+    const cj = base + j * nr;
+    let q = 0;
+    for (; q + 1 < j; q += 2) {
+      const cq0 = base + q * nr, cq1 = cq0 + nr;
+      const a0 = L[cq0 + j], a1 = L[cq1 + j];
+      for (let i = j; i < nr; i++) L[cj + i] -= L[cq0 + i] * a0 + L[cq1 + i] * a1;
+    }
+    for (; q < j; q++) {
+      const cq = base + q * nr;
+      const a = L[cq + j];
+      for (let i = j; i < nr; i++) L[cj + i] -= L[cq + i] * a;
+    }
+    const dj = L[cj + j];
+    const a0 = diag[f + j];
+    if (!(dj > pivotTol * Math.abs(a0)) || !(dj > 0)) {
+      throw new NotPositiveDefiniteError(perm[f + j], dj, a0);
+    }
+    const r = Math.sqrt(dj);
+    L[cj + j] = r;
+    const inv = 1 / r;
+    for (let i = j + 1; i < nr; i++) L[cj + i] *= inv;
+  }
+}
+
+/** Solve L Lᵀ (P x) = P b in place of a copy of b. */
+export function solveWithFactor(F: Factor, b: ArrayLike<number>): Float64Array {
+  const sym = F.symbolic;
+  const { n, nSuper, superStart, superRowPtr, superRows, superValPtr } = sym;
+  const { perm } = sym.ordering;
+  const L = F.values;
+  const y = new Float64Array(n);
+  for (let k = 0; k < n; k++) y[k] = b[perm[k]];
+  // forward: L y = P b
+  for (let s = 0; s < nSuper; s++) {
+    const f = superStart[s];
+    const nc = superStart[s + 1] - f;
+    const rp = superRowPtr[s];
+    const nr = superRowPtr[s + 1] - rp;
+    const base = superValPtr[s];
+    for (let j = 0; j < nc; j++) {
+      const cj = base + j * nr;
+      const yj = (y[f + j] /= L[cj + j]);
+      for (let i = j + 1; i < nc; i++) y[f + i] -= L[cj + i] * yj;
+      for (let i = nc; i < nr; i++) y[superRows[rp + i]] -= L[cj + i] * yj;
+    }
+  }
+  // backward: Lᵀ x = y
+  for (let s = nSuper - 1; s >= 0; s--) {
+    const f = superStart[s];
+    const nc = superStart[s + 1] - f;
+    const rp = superRowPtr[s];
+    const nr = superRowPtr[s + 1] - rp;
+    const base = superValPtr[s];
+    for (let j = nc - 1; j >= 0; j--) {
+      const cj = base + j * nr;
+      let sum = y[f + j];
+      for (let i = j + 1; i < nc; i++) sum -= L[cj + i] * y[f + i];
+      for (let i = nc; i < nr; i++) sum -= L[cj + i] * y[superRows[rp + i]];
+      y[f + j] = sum / L[cj + j];
+    }
+  }
+  const x = new Float64Array(n);
+  for (let k = 0; k < n; k++) x[perm[k]] = y[k];
+  return x;
+}
