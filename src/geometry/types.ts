@@ -7,12 +7,20 @@ import type { Point } from '../model/types.js';
 export type Curve =
   | { kind: 'line'; from: Point; to: Point }
   /** circle arc: point(t) = center + radius·(cos φ, sin φ), φ = startAngle + t·sweep (radians, sweep signed) */
-  | { kind: 'arc'; center: Point; radius: number; startAngle: number; sweep: number }
+  | {
+      kind: 'arc'; center: Point; radius: number; startAngle: number; sweep: number;
+      /** exact end points (the junctions shared bitwise with the neighbouring pieces); curvePoint returns them at t = 0 and 1 */
+      from?: Point; to?: Point;
+    }
   /**
    * ellipse arc: point(t) = center + R(rotation)·(a cos φ, b sin φ), φ = startParam + t·sweep
    * (φ is the eccentric-anomaly parameter, radians, sweep signed)
    */
-  | { kind: 'ellipse-arc'; center: Point; a: number; b: number; rotation: number; startParam: number; sweep: number };
+  | {
+      kind: 'ellipse-arc'; center: Point; a: number; b: number; rotation: number; startParam: number; sweep: number;
+      /** exact end points, as for 'arc' */
+      from?: Point; to?: Point;
+    };
 
 /** What a boundary piece is, for selectors, features and labels. */
 export type PieceRole = 'edge' | 'fillet' | 'circle' | 'ellipse';
@@ -24,7 +32,10 @@ export interface BoundaryPiece {
   /** 'outline' or the opening id */
   loop: string;
   role: PieceRole;
-  /** fillet radius / circle radius; 0 for straight edges */
+  /**
+   * fillet radius / circle radius; 0 for straight edges; for an ellipse the smallest radius of
+   * curvature b²/a (at the ends of the major axis)
+   */
   radius: number;
   /** key path of the feature that made this piece (`plate.outline[3]`, `plate.openings[1]`) */
   keyPath: string;

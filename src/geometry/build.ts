@@ -1,0 +1,169 @@
+/**
+ * buildGeometry: the plate of the model → exact boundary pieces, loops, corners and area, with
+ * every check that the mesher relies on (no crossings, no touching loops, openings inside the
+ * outline and not inside each other).
+ */
+import { GeometryError } from '../errors.js';
+import type { Plate, Point } from '../model/types.js';
+import type { BoundaryPiece, Corner, Loop, PlateGeometry } from './types.js';
+import { curveBBox, curveDoubleArea, curveEnd, curveStart, curveTangent, type BBox } from './curves.js';
+import { buildShapeLoop, STRAIGHT_TURN, type LoopDraft } from './loops.js';
+import { boxesOverlap, pieceContact, unionBox, windingNumber } from './checks.js';
+import { forEachOverlappingPair } from './predicates.js';
+import { fmtPoint } from './format.js';
+
+/**
+ * Two loops (or two non-neighbouring pieces of one loop) must stay this far apart, relative to
+ * the plate's bounding-box diagonal. Closer than that they count as touching: no mesh could
+ * resolve the gap.
+ */
+export const CLEARANCE_RELATIVE = 1e-8;
+
+export function buildGeometry(plate: Plate): PlateGeometry {
+  const drafts: LoopDraft[] = [];
+  drafts.push(buildShapeLoop(plate.outline, { id: 'outline', hole: false, keyPath: 'plate.outline', label: 'the outline' }));
+  const seen = new Map<string, string>();
+  for (let k = 0; k < plate.openings.length; k++) {
+    const op = plate.openings[k];
+    const keyPath = op.keyPath || `plate.openings[${k}]`;
+    if (op.id === 'outline') {
+      throw new GeometryError(`${keyPath}: an opening cannot be called 'outline'; that name means the outer boundary`, `${keyPath}.id`);
+    }
+    const before = seen.get(op.id);
+    if (before !== undefined) {
+      throw new GeometryError(`${keyPath}: opening id '${op.id}' is already used by ${before}`, `${keyPath}.id`);
+    }
+    seen.set(op.id, keyPath);
+    drafts.push(buildShapeLoop(op.shape, { id: op.id, hole: true, keyPath, label: `opening ${op.id}` }));
+  }
+
+  // ids, boxes, scale
+  const pieces: BoundaryPiece[] = [];
+  const pieceBoxes: BBox[] = [];
+  const loopPieceIds: number[][] = [];
+  for (const d of drafts) {
+    const ids: number[] = [];
+    for (const p of d.pieces) {
+      const id = pieces.length;
+      pieces.push({ id, curve: p.curve, loop: d.id, role: p.role, radius: p.radius, keyPath: p.keyPath });
+      pieceBoxes.push(curveBBox(p.curve));
+      ids.push(id);
+    }
+    loopPieceIds.push(ids);
+  }
+  const loopBoxes = loopPieceIds.map((ids) => unionBox(ids.map((i) => pieceBoxes[i])));
+  const bbox = unionBox(pieceBoxes);
+  const scale = Math.hypot(bbox.maxX - bbox.minX, bbox.maxY - bbox.minY);
+  const tol = CLEARANCE_RELATIVE * scale;
+
+  // 1. each polygon loop keeps clear of itself (fillets can reach across a narrow gap)
+  drafts.forEach((d, li) => {
+    if (d.polygon) checkLoopClear(d, loopPieceIds[li], pieces, pieceBoxes, tol);
+  });
+  // 2. openings against the outline: no contact, and inside it
+  const outlineCurves = loopPieceIds[0].map((i) => pieces[i].curve);
+  for (let li = 1; li < drafts.length; li++) {
+    const d = drafts[li];
+    const hit = loopsContact(loopPieceIds[0], loopPieceIds[li], pieces, pieceBoxes, tol);
+    if (hit) {
+      throw new GeometryError(`${d.keyPath}: ${d.label} crosses or touches the outline near ${fmtPoint(hit)}`, d.keyPath);
+    }
+    const probe = curveStart(pieces[loopPieceIds[li][0]].curve);
+    if (windingNumber(outlineCurves, probe) === 0) {
+      throw new GeometryError(`${d.keyPath}: ${d.label} lies outside the outline`, d.keyPath);
+    }
+  }
+  // 3. openings against each other: no contact, no nesting
+  const openingBoxes = loopBoxes.slice(1);
+  forEachOverlappingPair(openingBoxes, tol, (i, j) => {
+    const la = i + 1;
+    const lb = j + 1;
+    const hit = loopsContact(loopPieceIds[la], loopPieceIds[lb], pieces, pieceBoxes, tol);
+    const a = drafts[la];
+    const b = drafts[lb];
+    if (hit) {
+      throw new GeometryError(
+        `${a.keyPath}: ${a.label} overlaps or touches ${b.label} (${b.keyPath}) near ${fmtPoint(hit)}`,
+        a.keyPath,
+      );
+    }
+    const curvesOf = (l: number) => loopPieceIds[l].map((id) => pieces[id].curve);
+    const probeA = curveStart(pieces[loopPieceIds[la][0]].curve);
+    const probeB = curveStart(pieces[loopPieceIds[lb][0]].curve);
+    if (windingNumber(curvesOf(lb), probeA) !== 0) {
+      throw new GeometryError(`${a.keyPath}: ${a.label} lies inside ${b.label} (${b.keyPath})`, a.keyPath);
+    }
+    if (windingNumber(curvesOf(la), probeB) !== 0) {
+      throw new GeometryError(`${b.keyPath}: ${b.label} lies inside ${a.label} (${a.keyPath})`, b.keyPath);
+    }
+  });
+
+  // loops, corners, area
+  const loops: Loop[] = drafts.map((d, li) => ({ id: d.id, hole: d.hole, pieces: loopPieceIds[li], keyPath: d.keyPath }));
+  const corners: Corner[] = [];
+  drafts.forEach((d, li) => {
+    const ids = loopPieceIds[li];
+    for (let k = 0; k < ids.length; k++) {
+      const pin = pieces[ids[k]];
+      const pout = pieces[ids[(k + 1) % ids.length]];
+      const u = curveTangent(pin.curve, 1);
+      const v = curveTangent(pout.curve, 0);
+      const turn = Math.atan2(u[0] * v[1] - u[1] * v[0], u[0] * v[0] + u[1] * v[1]);
+      if (Math.abs(turn) <= STRAIGHT_TURN) continue;
+      corners.push({
+        at: curveEnd(pin.curve),
+        // material on the left: a left turn by τ leaves the material an angle of π − τ
+        interiorAngleDeg: ((Math.PI - turn) * 180) / Math.PI,
+        loop: d.id,
+        pieceIn: pin.id,
+        pieceOut: pout.id,
+        keyPath: d.pieces[k].endVertexPath,
+      });
+    }
+  });
+  // Green's theorem about the box centre (smaller terms, less cancellation)
+  const origin: Point = [0.5 * (bbox.minX + bbox.maxX), 0.5 * (bbox.minY + bbox.maxY)];
+  let area2 = 0;
+  for (const p of pieces) area2 += curveDoubleArea(p.curve, origin);
+  return {
+    pieces,
+    loops,
+    corners,
+    area: 0.5 * area2,
+    bbox: { minX: bbox.minX, minY: bbox.minY, maxX: bbox.maxX, maxY: bbox.maxY },
+    scale,
+  };
+}
+
+function checkLoopClear(d: LoopDraft, ids: number[], pieces: BoundaryPiece[], boxes: BBox[], tol: number): void {
+  const n = ids.length;
+  if (n < 4) return; // every pair of pieces are neighbours
+  const local = ids.map((id) => boxes[id]);
+  forEachOverlappingPair(local, tol, (i, j) => {
+    if (j === i + 1 || (i === 0 && j === n - 1)) return; // neighbours meet at their junction by construction
+    const hit = pieceContact(pieces[ids[i]].curve, pieces[ids[j]].curve, tol);
+    if (hit) {
+      throw new GeometryError(
+        `${d.keyPath}: ${d.label} crosses or touches itself near ${fmtPoint(hit)} ` +
+          `(between ${describePiece(pieces[ids[i]])} and ${describePiece(pieces[ids[j]])})`,
+        pieces[ids[i]].keyPath,
+      );
+    }
+  });
+}
+
+function describePiece(p: BoundaryPiece): string {
+  const what = p.role === 'fillet' ? 'the fillet' : p.role === 'edge' ? 'the edge' : `the ${p.role}`;
+  return `${what} at ${p.keyPath}`;
+}
+
+function loopsContact(a: number[], b: number[], pieces: BoundaryPiece[], boxes: BBox[], tol: number): Point | null {
+  for (const i of a) {
+    for (const j of b) {
+      if (!boxesOverlap(boxes[i], boxes[j], tol)) continue;
+      const hit = pieceContact(pieces[i].curve, pieces[j].curve, tol);
+      if (hit) return hit;
+    }
+  }
+  return null;
+}

@@ -1,0 +1,21 @@
+/** Geometry stage: exact plate boundary (pieces, loops, corners, area) and curve utilities. */
+export type { Curve, PieceRole, BoundaryPiece, Loop, Corner, PlateGeometry } from './types.js';
+export { buildGeometry, CLEARANCE_RELATIVE } from './build.js';
+export {
+  curvePoint,
+  curveStart,
+  curveEnd,
+  curveDerivative,
+  curveTangent,
+  curveOutwardNormal,
+  curveLength,
+  curveLengthBetween,
+  curveParamAtLength,
+  curveCurvatureRadius,
+  closestOnCurve,
+  curveBBox,
+  curveDoubleArea,
+  type ClosestPoint,
+  type BBox,
+} from './curves.js';
+export { pieceAtPoint, pointInMaterial, loopPolyline, type PieceHit } from './query.js';
