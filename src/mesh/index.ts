@@ -1,0 +1,6 @@
+export type { Mesh, MeshOptions, MeshQuality, SizeField } from './types.js';
+export { NO_ELEM } from './types.js';
+export { meshPlate, DEFAULT_MIN_ANGLE_DEG, DEFAULT_MAX_VERTICES, SIZE_FACTOR } from './mesh.js';
+export { sizeFieldFromSettings, gradedToward, CURVE_SEGMENT_ANGLE } from './sizefield.js';
+export type { SizeSettings } from './sizefield.js';
+export { meshQuality, validateMesh, findNode, elementNeighbors, nodeToElements } from './quality.js';

@@ -1,0 +1,74 @@
+/** meshPlate: the mesh stage's entry point. */
+import type { PlateGeometry } from '../geometry/types.js';
+import type { Mesh, MeshOptions } from './types.js';
+import { GeometryError, MeshError } from '../errors.js';
+import { crossingSegments, discretiseBoundary, splitSegmentsOnCurve } from './boundary.js';
+import { initialTriangulation } from './cdt.js';
+import { refineMesh } from './refine.js';
+import { buildMeshOutput } from './output.js';
+import { INSERT_REJECTED, V_FREE } from './trimesh.js';
+import type { TriMesh } from './trimesh.js';
+
+export const DEFAULT_MIN_ANGLE_DEG = 28;
+export const DEFAULT_MAX_VERTICES = 3_000_000;
+/** a triangle is split when its longest edge exceeds this multiple of the local size */
+export const SIZE_FACTOR = 1.25;
+
+/**
+ * Mesh a plate: boundary discretisation, constrained Delaunay triangulation, Delaunay
+ * refinement to the size field and angle target, then mid-side nodes for order 2.
+ */
+export function meshPlate(geom: PlateGeometry, opts: MeshOptions): Mesh {
+  if (typeof opts.sizeAt !== 'function') throw new MeshError('mesh options need a sizeAt(x, y) function');
+  if (opts.order !== 1 && opts.order !== 2) throw new MeshError(`mesh order must be 1 or 2, got ${String(opts.order)}`, 'mesh.order');
+  const minAngleDeg = opts.minAngleDeg ?? DEFAULT_MIN_ANGLE_DEG;
+  if (!(minAngleDeg > 0 && minAngleDeg <= 34)) {
+    throw new MeshError(`minimum angle target must be in (0°, 34°], got ${minAngleDeg}°`);
+  }
+  const maxVertices = opts.maxVertices ?? DEFAULT_MAX_VERTICES;
+  if (!(maxVertices >= 3)) throw new MeshError(`maxVertices must be ≥ 3, got ${maxVertices}`);
+  if (!geom || !Array.isArray(geom.pieces) || geom.pieces.length === 0 || !Array.isArray(geom.loops) || geom.loops.length === 0) {
+    throw new MeshError('plate geometry has no boundary pieces');
+  }
+  if (!(geom.scale > 0)) throw new MeshError(`plate geometry scale must be > 0, got ${geom.scale}`);
+  const tol = 1e-9 * geom.scale;
+  const required = opts.requiredPoints ?? [];
+
+  const b = discretiseBoundary(geom, opts.sizeAt, required, tol);
+  // chords of neighbouring curves can cross where the curves do not: split them until clear
+  for (let round = 0; ; round++) {
+    const bad = crossingSegments(b);
+    if (bad.length === 0) break;
+    const allCurved = splitSegmentsOnCurve(geom, b, bad);
+    if (!allCurved || round > 12) {
+      const s = bad[0];
+      const piece = geom.pieces[b.segPiece[s]];
+      const other = geom.pieces[b.segPiece[bad[bad.length - 1]]];
+      throw new GeometryError(
+        `boundary pieces cross or touch: ${piece.keyPath} (${piece.loop}) and ${other.keyPath} (${other.loop})`,
+        piece.keyPath,
+      );
+    }
+  }
+  const m = initialTriangulation(geom, b, 4 * b.piece.length);
+  for (const [x, y] of b.interior) insertRequired(m, x, y, tol);
+  refineMesh(m, geom, { sizeAt: opts.sizeAt, minAngleDeg, maxVertices, sizeFactor: SIZE_FACTOR });
+  return buildMeshOutput(m, geom, opts.order);
+}
+
+function insertRequired(m: TriMesh, x: number, y: number, tol: number): void {
+  for (let v = 0; v < m.nV; v++) {
+    if (Math.hypot(m.xy[2 * v] - x, m.xy[2 * v + 1] - y) <= tol) return;
+  }
+  let found = -1;
+  for (let t = 0; t < m.nT && found < 0; t++) {
+    const a = m.tri[3 * t], b = m.tri[3 * t + 1], c = m.tri[3 * t + 2];
+    if (m.orientP(a, b, x, y) >= 0 && m.orientP(b, c, x, y) >= 0 && m.orientP(c, a, x, y) >= 0) found = t;
+  }
+  if (found < 0) throw new MeshError(`required point (${x}, ${y}) lies outside the plate (not inside the outline, or inside an opening)`);
+  const p = m.addVertex(x, y, V_FREE, 0);
+  if (m.insertVertex(p, found, -1, false) === INSERT_REJECTED) {
+    m.popVertex();
+    throw new MeshError(`required point (${x}, ${y}) could not be inserted (too close to the boundary?)`);
+  }
+}

@@ -1,0 +1,249 @@
+/**
+ * Delaunay refinement: Ruppert, "A Delaunay refinement algorithm for quality 2-dimensional mesh
+ * generation", J. Algorithms 18 (1995), with the practical rules of Shewchuk, "Delaunay
+ * refinement algorithms for triangular mesh generation", Comput. Geom. 22 (2002): encroached
+ * segments first, then skinny or oversized triangles at their circumcentre — or at the
+ * off-centre of Üngör, "Off-centers: a new type of Steiner points for computing size-optimal
+ * quality-guaranteed Delaunay triangulations", LATIN 2004, when that is nearer the short edge.
+ * A circumcentre that encroaches a segment (or lies beyond one) is not inserted; the segment
+ * is split instead.
+ *
+ * Termination near small input angles: segments leaving a corner sharper than 60° are split on
+ * concentric shells (distances from the corner that are powers of two, Shewchuk 2002 §4), and
+ * a skinny triangle whose small angle is forced by the input — it touches such a corner, or its
+ * shortest edge joins the corner's two pieces — is left alone.
+ */
+import type { PlateGeometry } from '../geometry/types.js';
+import type { SizeField } from './types.js';
+import { MeshError } from '../errors.js';
+import { curveXY } from './curves.js';
+import { INSERT_ENCROACHES, TriMesh, V_FREE, nextHalf, prevHalf } from './trimesh.js';
+
+export interface RefineOptions {
+  sizeAt: SizeField;
+  minAngleDeg: number;
+  maxVertices: number;
+  /** a triangle is oversized when its longest edge exceeds sizeFactor · h(centroid) */
+  sizeFactor: number;
+}
+
+export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions): void {
+  const { sizeAt, maxVertices, sizeFactor } = opts;
+  const sinMin = Math.sin((opts.minAngleDeg * Math.PI) / 180);
+  // radius–edge bound B = 1 / (2 sin θmin)
+  const B = 1 / (2 * sinMin);
+  const B2 = B * B;
+  const tinyLen = 1e-9 * geom.scale;
+  const np = geom.pieces.length;
+  const acutePair = new Set<number>();
+  for (const c of geom.corners) {
+    if (c.interiorAngleDeg < 60) {
+      acutePair.add(c.pieceIn * np + c.pieceOut);
+      acutePair.add(c.pieceOut * np + c.pieceIn);
+    }
+  }
+  const segQ: number[] = [];
+  let segHead = 0;
+  const triQ: number[] = [];
+  let triHead = 0;
+  const pt = [0, 0];
+
+  const isEncroached = (e: number): boolean => {
+    const w = m.tri[prevHalf(e)];
+    return m.encroachesEdge(e, m.xy[2 * w], m.xy[2 * w + 1]);
+  };
+
+  const checkVertexCap = (): void => {
+    if (m.nV >= maxVertices) {
+      throw new MeshError(
+        `mesh would need more than ${maxVertices} vertices (plate of size ${geom.scale.toPrecision(4)}, ` +
+          `smallest requested size ${smallestSize().toPrecision(3)}); increase mesh.size or the local sizes`,
+        'mesh.size',
+      );
+    }
+  };
+  const smallestSize = (): number => {
+    let h = Infinity;
+    for (let v = 0; v < m.nV; v += Math.max(1, (m.nV / 2000) | 0)) h = Math.min(h, sizeAt(m.xy[2 * v], m.xy[2 * v + 1]));
+    return h;
+  };
+
+  const afterInsert = (): void => {
+    const n = m.nNew;
+    for (let i = 0; i < n; i++) {
+      const t = m.newTris[i];
+      triQ.push(t);
+      for (let j = 0; j < 3; j++) {
+        const e = 3 * t + j;
+        if (m.twin[e] < 0 && isEncroached(e)) segQ.push(e);
+      }
+    }
+  };
+
+  const splitSegment = (e: number): boolean => {
+    if (m.twin[e] >= 0) return false;
+    const tri = m.tri;
+    const a = tri[e];
+    const b = tri[nextHalf(e)];
+    const xy = m.xy;
+    const ax = xy[2 * a], ay = xy[2 * a + 1], bx = xy[2 * b], by = xy[2 * b + 1];
+    const L = Math.hypot(bx - ax, by - ay);
+    if (L < tinyLen) return false;
+    const piece = m.sPiece[e];
+    const t0 = m.sT0[e];
+    const t1 = m.sT1[e];
+    const curve = geom.pieces[piece].curve;
+    let x: number, y: number, tm: number;
+    if (curve.kind === 'line') {
+      let f = 0.5;
+      const acA = m.vAcute[a] === 1, acB = m.vAcute[b] === 1;
+      if (acA !== acB) {
+        // concentric shells: split at a power-of-two distance from the sharp corner
+        const d = Math.pow(2, Math.round(Math.log2(0.5 * L)));
+        f = acA ? d / L : 1 - d / L;
+      }
+      x = ax + f * (bx - ax);
+      y = ay + f * (by - ay);
+      tm = t0 + f * (t1 - t0);
+    } else {
+      tm = 0.5 * (t0 + t1);
+      curveXY(curve, tm, pt);
+      x = pt[0];
+      y = pt[1];
+    }
+    checkVertexCap();
+    const p = m.addVertex(x, y, piece, tm);
+    const r = m.insertVertex(p, (e / 3) | 0, e, false);
+    if (r < 0) {
+      m.popVertex();
+      return false;
+    }
+    afterInsert();
+    return true;
+  };
+
+  /** 0: fine; 1: needs a split */
+  const needsSplit = (t: number): boolean => {
+    const tri = m.tri;
+    const xy = m.xy;
+    const a = tri[3 * t], b = tri[3 * t + 1], c = tri[3 * t + 2];
+    const ax = xy[2 * a], ay = xy[2 * a + 1], bx = xy[2 * b], by = xy[2 * b + 1], cx = xy[2 * c], cy = xy[2 * c + 1];
+    const la = (bx - cx) ** 2 + (by - cy) ** 2; // opposite a
+    const lb = (cx - ax) ** 2 + (cy - ay) ** 2; // opposite b
+    const lc = (ax - bx) ** 2 + (ay - by) ** 2; // opposite c
+    const lmax = Math.max(la, lb, lc);
+    const h = sizeFactor * sizeAt((ax + bx + cx) / 3, (ay + by + cy) / 3);
+    if (lmax > h * h) return true;
+    const area2 = (bx - ax) * (cy - ay) - (by - ay) * (cx - ax);
+    const lmin = Math.min(la, lb, lc);
+    // R² = la lb lc / (4 area2²) ; skinny when R² > B² lmin²
+    if (la * lb * lc <= B2 * lmin * 4 * area2 * area2) return false;
+    if (lmin < tinyLen * tinyLen) return false;
+    // small angles forced by the input
+    if (m.vAcute[a] || m.vAcute[b] || m.vAcute[c]) return false;
+    let u: number, w: number;
+    if (lmin === la) {
+      u = b;
+      w = c;
+    } else if (lmin === lb) {
+      u = c;
+      w = a;
+    } else {
+      u = a;
+      w = b;
+    }
+    const pu = m.vPiece[u], pw = m.vPiece[w];
+    if (pu >= 0 && pw >= 0 && pu !== pw && acutePair.has(pu * np + pw)) return false;
+    return true;
+  };
+
+  /** circumcentre, or Üngör's off-centre when that is nearer the shortest edge */
+  const steinerPoint = (t: number, out: number[]): void => {
+    const tri = m.tri;
+    const xy = m.xy;
+    const a = tri[3 * t], b = tri[3 * t + 1], c = tri[3 * t + 2];
+    const ax = xy[2 * a], ay = xy[2 * a + 1];
+    const dx = xy[2 * b] - ax, dy = xy[2 * b + 1] - ay;
+    const ex = xy[2 * c] - ax, ey = xy[2 * c + 1] - ay;
+    const bl = dx * dx + dy * dy;
+    const cl = ex * ex + ey * ey;
+    const d = 0.5 / (dx * ey - dy * ex);
+    const ccx = ax + (ey * bl - dy * cl) * d;
+    const ccy = ay + (dx * cl - ex * bl) * d;
+    out[0] = ccx;
+    out[1] = ccy;
+    // shortest edge p→q
+    const la = (xy[2 * b] - xy[2 * c]) ** 2 + (xy[2 * b + 1] - xy[2 * c + 1]) ** 2;
+    const lmin = Math.min(la, bl, cl);
+    let p: number, q: number;
+    if (lmin === la) {
+      p = b;
+      q = c;
+    } else if (lmin === cl) {
+      p = c;
+      q = a;
+    } else {
+      p = a;
+      q = b;
+    }
+    const mx = 0.5 * (xy[2 * p] + xy[2 * q]);
+    const my = 0.5 * (xy[2 * p + 1] + xy[2 * q + 1]);
+    const L = Math.sqrt(lmin);
+    const dOff = L * (Math.sqrt(Math.max(B2 - 0.25, 0)) + B);
+    const dc = Math.hypot(ccx - mx, ccy - my);
+    if (dc > dOff && dc > 0) {
+      const f = dOff / dc;
+      out[0] = mx + f * (ccx - mx);
+      out[1] = my + f * (ccy - my);
+    }
+  };
+
+  for (let e = 0; e < 3 * m.nT; e++) if (m.twin[e] < 0 && isEncroached(e)) segQ.push(e);
+  for (let t = 0; t < m.nT; t++) triQ.push(t);
+
+  const sp = [0, 0];
+  let guard = 0;
+  const maxSteps = 40 * maxVertices + 1000;
+  for (;;) {
+    if (guard++ > maxSteps) throw new MeshError('mesh refinement did not finish (step limit); the geometry may have features far below mesh.size', 'mesh.size');
+    if (segHead < segQ.length) {
+      const e = segQ[segHead++];
+      if (segHead > 65536 && segHead * 2 > segQ.length) {
+        segQ.splice(0, segHead);
+        segHead = 0;
+      }
+      if (e < 3 * m.nT && m.twin[e] < 0 && isEncroached(e)) splitSegment(e);
+      continue;
+    }
+    if (triHead >= triQ.length) break;
+    const t = triQ[triHead++];
+    if (triHead > 65536 && triHead * 2 > triQ.length) {
+      triQ.splice(0, triHead);
+      triHead = 0;
+    }
+    if (!needsSplit(t)) continue;
+    steinerPoint(t, sp);
+    const loc = m.locate(t, sp[0], sp[1]);
+    if (loc <= -2) {
+      if (splitSegment(-(loc + 2))) triQ.push(t);
+      continue;
+    }
+    if (loc < 0) continue;
+    checkVertexCap();
+    const p = m.addVertex(sp[0], sp[1], V_FREE, 0);
+    const r = m.insertVertex(p, loc, -1, true);
+    if (r === INSERT_ENCROACHES) {
+      m.popVertex();
+      const enc = m.encroached.slice();
+      let any = false;
+      for (const e of enc) if (m.twin[e] < 0 && m.encroachesEdge(e, sp[0], sp[1]) && splitSegment(e)) any = true;
+      if (any) triQ.push(t);
+      continue;
+    }
+    if (r < 0) {
+      m.popVertex();
+      continue;
+    }
+    afterInsert();
+  }
+}
