@@ -1,0 +1,399 @@
+/**
+ * Filled contour picture of a nodal scalar field (SVG, our own drawing code).
+ *
+ * Every linear triangle (CST element, or each of the four sub-triangles of an LST element) is
+ * split into iso-band polygons (isobands.ts); the polygons of one band are gathered into one
+ * path, so the picture holds one path per band however big the mesh is. Above
+ * `maxTriangles` drawn triangles the field is first resampled onto a regular grid of
+ * triangles (point location by scanning each mesh triangle's grid nodes), and the picture is
+ * clipped to the true plate boundary, so a million-DOF mesh draws at a bounded size. The data
+ * files (CSV / JSON) are never decimated.
+ */
+import type { Mesh } from '../mesh/types.js';
+import type { Point } from '../model/types.js';
+import {
+  type Box, type Frame, boundaryLoops, c1, forEachLinearTriangle, linearTriangleCount, loopsPath, makeFrame,
+  meshBox, niceTicks, padBox, px, py,
+} from './draw.js';
+import { type BandScale, bandColour, bandEdge, bandScale, colourAt, triangleBands } from './isobands.js';
+import { escapeXml, formatNumber, safeId } from './text.js';
+
+export interface ContourOptions {
+  /** label of the colour bar, e.g. "von Mises, MPa" */
+  units: string;
+  /** heading drawn above the picture */
+  title: string;
+  /** hot spots to mark with a ring and their id */
+  spots?: { id: string; at: Point }[];
+  /** draw the deformed outline: node n moves by scale·(u[2n], u[2n+1]) */
+  deformed?: { u: Float64Array; scale: number };
+  /** draw the element edges in a `<g class="mesh-overlay">` (the HTML page toggles it) */
+  showMesh?: boolean;
+  /** window in model coordinates (default: the whole plate plus a small margin) */
+  viewBox?: Box;
+  /** picture width of the plate area in px (default 640) */
+  width?: number;
+  /** picture height limit of the plate area in px (default 520) */
+  maxHeight?: number;
+  /** colour range (default: min … max of the field inside the window) */
+  range?: [number, number];
+  /** number of colour bands (default 56) */
+  levels?: number;
+  /** above this many drawn triangles the field is resampled on a grid (default 60 000) */
+  maxTriangles?: number;
+  /** above this many element edges the mesh overlay is left out (default 150 000) */
+  maxMeshEdges?: number;
+  /** prefix for ids inside the SVG; make it unique per picture on one page (default "pw") */
+  idPrefix?: string;
+  /** extra class on the root element */
+  className?: string;
+  /** length unit, for the caption of the deformed shape */
+  lengthUnit?: string;
+}
+
+const FONT = "system-ui, -apple-system, 'Segoe UI', Roboto, sans-serif";
+export const DEFAULT_LEVELS = 56;
+export const DEFAULT_MAX_TRIANGLES = 60_000;
+
+/** Accumulates band polygons as compact path data, one string per band. */
+class BandPaths {
+  readonly d: string[];
+  polygons = 0;
+  constructor(readonly scale: BandScale, readonly frame: Frame) {
+    this.d = new Array<string>(scale.n).fill('');
+  }
+  readonly sink = (k: number, xs: Float64Array, ys: Float64Array, count: number): void => {
+    const f = this.frame;
+    let s = `M${c1(px(f, xs[0]))} ${c1(py(f, ys[0]))}`;
+    for (let i = 1; i < count; i++) s += ` ${c1(px(f, xs[i]))} ${c1(py(f, ys[i]))}`;
+    this.d[k] += s + 'Z';
+    this.polygons++;
+  };
+}
+
+function intersects(b: Box, x0: number, y0: number, x1: number, y1: number): boolean {
+  return x1 >= b.minX && x0 <= b.maxX && y1 >= b.minY && y0 <= b.maxY;
+}
+
+/** Triangles of the mesh whose bounding box meets the window. */
+function countInWindow(mesh: Mesh, box: Box): number {
+  const xy = mesh.xy;
+  let count = 0;
+  forEachLinearTriangle(mesh, (a, b, c) => {
+    const xa = xy[2 * a], xb = xy[2 * b], xc = xy[2 * c], ya = xy[2 * a + 1], yb = xy[2 * b + 1], yc = xy[2 * c + 1];
+    if (intersects(box, Math.min(xa, xb, xc), Math.min(ya, yb, yc), Math.max(xa, xb, xc), Math.max(ya, yb, yc))) count++;
+  });
+  return count;
+}
+
+function rangeInWindow(xy: Float64Array, values: Float64Array, box: Box): [number, number] {
+  let lo = Infinity, hi = -Infinity;
+  for (let n = 0; n < values.length; n++) {
+    const x = xy[2 * n], y = xy[2 * n + 1], v = values[n];
+    if (x < box.minX || x > box.maxX || y < box.minY || y > box.maxY || !Number.isFinite(v)) continue;
+    if (v < lo) lo = v;
+    if (v > hi) hi = v;
+  }
+  if (lo > hi) {
+    for (let n = 0; n < values.length; n++) {
+      const v = values[n];
+      if (!Number.isFinite(v)) continue;
+      if (v < lo) lo = v;
+      if (v > hi) hi = v;
+    }
+  }
+  return lo > hi ? [0, 1] : [lo, hi];
+}
+
+/** Fine drawing: every triangle in the window, split into bands. */
+function drawTriangles(mesh: Mesh, values: Float64Array, box: Box, paths: BandPaths): void {
+  const xy = mesh.xy;
+  forEachLinearTriangle(mesh, (a, b, c) => {
+    const xa = xy[2 * a], xb = xy[2 * b], xc = xy[2 * c], ya = xy[2 * a + 1], yb = xy[2 * b + 1], yc = xy[2 * c + 1];
+    if (!intersects(box, Math.min(xa, xb, xc), Math.min(ya, yb, yc), Math.max(xa, xb, xc), Math.max(ya, yb, yc))) return;
+    const va = values[a], vb = values[b], vc = values[c];
+    if (!Number.isFinite(va) || !Number.isFinite(vb) || !Number.isFinite(vc)) return;
+    triangleBands(xa, ya, va, xb, yb, vb, xc, yc, vc, paths.scale, paths.sink);
+  });
+}
+
+/**
+ * The field sampled on a regular grid over the window: grid node values by linear
+ * interpolation in the mesh triangle that holds them (NaN outside the plate), then two
+ * passes that give nodes just outside the plate the mean of their sampled neighbours, so grid
+ * cells cut by the boundary are filled up to the boundary clip.
+ */
+export function resampleOnGrid(
+  mesh: Mesh, values: Float64Array, box: Box, nx: number, ny: number,
+): { gx: number; gy: number; v: Float64Array } {
+  const gx = (box.maxX - box.minX) / nx, gy = (box.maxY - box.minY) / ny;
+  const stride = nx + 1;
+  const v = new Float64Array((nx + 1) * (ny + 1)).fill(NaN);
+  const xy = mesh.xy;
+  forEachLinearTriangle(mesh, (a, b, c) => {
+    const xa = xy[2 * a], xb = xy[2 * b], xc = xy[2 * c], ya = xy[2 * a + 1], yb = xy[2 * b + 1], yc = xy[2 * c + 1];
+    const i0 = Math.max(0, Math.ceil((Math.min(xa, xb, xc) - box.minX) / gx));
+    const i1 = Math.min(nx, Math.floor((Math.max(xa, xb, xc) - box.minX) / gx));
+    if (i0 > i1) return;
+    const j0 = Math.max(0, Math.ceil((Math.min(ya, yb, yc) - box.minY) / gy));
+    const j1 = Math.min(ny, Math.floor((Math.max(ya, yb, yc) - box.minY) / gy));
+    if (j0 > j1) return;
+    const det = (xb - xa) * (yc - ya) - (xc - xa) * (yb - ya);
+    if (det === 0) return;
+    const va = values[a], vb = values[b], vc = values[c];
+    const tol = -1e-9;
+    for (let j = j0; j <= j1; j++) {
+      const y = box.minY + j * gy;
+      for (let i = i0; i <= i1; i++) {
+        const x = box.minX + i * gx;
+        const la = ((xb - x) * (yc - y) - (xc - x) * (yb - y)) / det;
+        const lb = ((xc - x) * (ya - y) - (xa - x) * (yc - y)) / det;
+        const lc = 1 - la - lb;
+        if (la < tol || lb < tol || lc < tol) continue;
+        v[j * stride + i] = la * va + lb * vb + lc * vc;
+      }
+    }
+  });
+  for (let pass = 0; pass < 2; pass++) {
+    const filled = v.slice();
+    for (let j = 0; j <= ny; j++) {
+      for (let i = 0; i <= nx; i++) {
+        if (!Number.isNaN(v[j * stride + i])) continue;
+        let sum = 0, count = 0;
+        for (let dj = -1; dj <= 1; dj++) {
+          for (let di = -1; di <= 1; di++) {
+            const ii = i + di, jj = j + dj;
+            if (ii < 0 || jj < 0 || ii > nx || jj > ny) continue;
+            const w = v[jj * stride + ii];
+            if (!Number.isNaN(w)) {
+              sum += w;
+              count++;
+            }
+          }
+        }
+        if (count > 0) filled[j * stride + i] = sum / count;
+      }
+    }
+    v.set(filled);
+  }
+  return { gx, gy, v };
+}
+
+function drawGrid(mesh: Mesh, values: Float64Array, box: Box, budget: number, paths: BandPaths): number {
+  const dx = box.maxX - box.minX, dy = box.maxY - box.minY;
+  const cells = Math.max(1, Math.floor(budget / 2));
+  const nx = Math.max(1, Math.round(Math.sqrt((cells * dx) / dy)));
+  const ny = Math.max(1, Math.floor(cells / nx));
+  const { gx, gy, v } = resampleOnGrid(mesh, values, box, nx, ny);
+  const stride = nx + 1;
+  let drawn = 0;
+  for (let j = 0; j < ny; j++) {
+    const y0 = box.minY + j * gy, y1 = y0 + gy;
+    for (let i = 0; i < nx; i++) {
+      const x0 = box.minX + i * gx, x1 = x0 + gx;
+      const v00 = v[j * stride + i], v10 = v[j * stride + i + 1];
+      const v01 = v[(j + 1) * stride + i], v11 = v[(j + 1) * stride + i + 1];
+      if (!Number.isNaN(v00) && !Number.isNaN(v10) && !Number.isNaN(v11)) {
+        triangleBands(x0, y0, v00, x1, y0, v10, x1, y1, v11, paths.scale, paths.sink);
+        drawn++;
+      }
+      if (!Number.isNaN(v00) && !Number.isNaN(v11) && !Number.isNaN(v01)) {
+        triangleBands(x0, y0, v00, x1, y1, v11, x0, y1, v01, paths.scale, paths.sink);
+        drawn++;
+      }
+    }
+  }
+  return drawn;
+}
+
+/** Unique element edges inside the window as one path (straight pieces through LST mid nodes). */
+function meshOverlayPath(mesh: Mesh, f: Frame, maxEdges: number): string | undefined {
+  const nElems = Math.floor(mesh.elemNodes.length / mesh.nodesPerElem);
+  const xy = mesh.xy;
+  const en = mesh.elemNodes;
+  const npe = mesh.nodesPerElem;
+  const nNodes = xy.length / 2;
+  const seen = new Set<number>();
+  let d = '';
+  let count = 0;
+  // local corner pairs and the mid node on that edge (LST: 3 on 0–1, 4 on 1–2, 5 on 2–0)
+  const pairs = [[0, 1, 3], [1, 2, 4], [2, 0, 5]] as const;
+  for (let e = 0; e < nElems; e++) {
+    for (const [i, j, m] of pairs) {
+      const a = en[npe * e + i], b = en[npe * e + j];
+      const key = a < b ? a * nNodes + b : b * nNodes + a;
+      if (seen.has(key)) continue;
+      seen.add(key);
+      const xa = xy[2 * a], ya = xy[2 * a + 1], xb = xy[2 * b], yb = xy[2 * b + 1];
+      if (!intersects(f.box, Math.min(xa, xb), Math.min(ya, yb), Math.max(xa, xb), Math.max(ya, yb))) continue;
+      if (++count > maxEdges) return undefined;
+      d += `M${c1(px(f, xa))} ${c1(py(f, ya))}`;
+      if (npe === 6) {
+        const c = en[npe * e + m];
+        d += `L${c1(px(f, xy[2 * c]))} ${c1(py(f, xy[2 * c + 1]))} `;
+      } else d += 'L';
+      d += `${c1(px(f, xb))} ${c1(py(f, yb))}`;
+    }
+  }
+  return d;
+}
+
+/** The continuous colour bar: a slim rounded bar, ticks on its right, end values in bold. */
+export function colourBarSvg(
+  x: number, y: number, height: number, scale: BandScale, units: string, gradientId: string,
+): string {
+  const w = 14;
+  const stops: string[] = [];
+  for (let i = 0; i <= 20; i++) {
+    const t = i / 20;
+    stops.push(`<stop offset="${t}" stop-color="${colourAt(t)}"/>`);
+  }
+  const valueY = (v: number) => y + height - ((v - scale.lo) / (scale.hi - scale.lo)) * height;
+  const parts: string[] = [
+    `<g class="colour-bar">`,
+    `<defs><linearGradient id="${gradientId}" x1="0" y1="1" x2="0" y2="0">${stops.join('')}</linearGradient></defs>`,
+    `<text x="${x}" y="${y - 10}" font-size="11" font-weight="600" fill="#222">${escapeXml(units)}</text>`,
+    `<rect x="${x}" y="${y}" width="${w}" height="${height}" rx="4" fill="url(#${gradientId})" stroke="#333" stroke-width="0.6"/>`,
+  ];
+  const endLabel = (v: number, yy: number, cls: string) =>
+    `<text class="${cls}" x="${x + w + 6}" y="${c1(yy + 4)}" font-size="11" font-weight="700" fill="#111">${escapeXml(formatNumber(v))}</text>`;
+  parts.push(endLabel(scale.hi, y, 'bar-max'), endLabel(scale.lo, y + height, 'bar-min'));
+  const minGap = 14;
+  for (const t of niceTicks(scale.lo, scale.hi, 5)) {
+    const ty = valueY(t);
+    if (ty < y + minGap || ty > y + height - minGap) continue;
+    parts.push(
+      `<line x1="${x + w}" x2="${x + w + 4}" y1="${c1(ty)}" y2="${c1(ty)}" stroke="#333" stroke-width="0.8"/>`,
+      `<text x="${x + w + 6}" y="${c1(ty + 4)}" font-size="10" fill="#444">${escapeXml(formatNumber(t))}</text>`,
+    );
+  }
+  parts.push('</g>');
+  return parts.join('');
+}
+
+/** A hot-spot marker: white-and-dark double ring, a short leader and the id in a pill. */
+export function spotMarkerSvg(x: number, y: number, id: string, flipLeft: boolean): string {
+  const label = escapeXml(id);
+  const textWidth = Math.max(14, 7 * [...id].length + 10);
+  const lx = flipLeft ? x - 12 - textWidth : x + 12;
+  const ly = y - 24;
+  const leaderX = flipLeft ? x - 6 : x + 6;
+  return (
+    `<g class="spot-marker">` +
+    `<circle cx="${c1(x)}" cy="${c1(y)}" r="7" fill="none" stroke="#fff" stroke-width="3.5"/>` +
+    `<circle cx="${c1(x)}" cy="${c1(y)}" r="7" fill="none" stroke="#1b1b2f" stroke-width="1.4"/>` +
+    `<line x1="${c1(leaderX)}" y1="${c1(y - 6)}" x2="${c1(flipLeft ? lx + textWidth : lx)}" y2="${c1(ly + 9)}" stroke="#1b1b2f" stroke-width="1"/>` +
+    `<rect x="${c1(lx)}" y="${c1(ly)}" width="${textWidth}" height="17" rx="8.5" fill="#fff" fill-opacity="0.92" stroke="#1b1b2f" stroke-width="1"/>` +
+    `<text x="${c1(lx + textWidth / 2)}" y="${c1(ly + 12.5)}" text-anchor="middle" font-size="11" font-weight="700" fill="#1b1b2f">${label}</text>` +
+    `</g>`
+  );
+}
+
+/**
+ * Filled contour of a nodal field: smooth iso-bands, continuous colour bar with units and the
+ * end values, plate outline, optional deformed outline, mesh overlay and hot-spot rings.
+ */
+export function contourSvg(mesh: Mesh, values: Float64Array, opts: ContourOptions): string {
+  const nNodes = mesh.xy.length / 2;
+  if (values.length !== nNodes) {
+    throw new TypeError(`contourSvg: field must hold one value per node (${nNodes}), got ${values.length}`);
+  }
+  if (opts.deformed && opts.deformed.u.length !== 2 * nNodes) {
+    throw new TypeError(`contourSvg: displacements must hold 2 values per node (${2 * nNodes}), got ${opts.deformed.u.length}`);
+  }
+  const prefix = safeId(opts.idPrefix ?? 'pw');
+  const box = opts.viewBox ?? padBox(meshBox(mesh.xy, opts.deformed), 0.03);
+  const top = 44;
+  const frame = makeFrame(box, opts.width ?? 640, opts.maxHeight ?? 520, 12, top);
+  const [lo, hi] = opts.range ?? rangeInWindow(mesh.xy, values, box);
+  const scale = bandScale(lo, hi, opts.levels ?? DEFAULT_LEVELS);
+  const paths = new BandPaths(scale, frame);
+  const budget = opts.maxTriangles ?? DEFAULT_MAX_TRIANGLES;
+  const inWindow = countInWindow(mesh, box);
+  const loops = boundaryLoops(mesh);
+  const notes: string[] = [];
+  let clipPlate = false;
+  if (inWindow <= budget) {
+    drawTriangles(mesh, values, box, paths);
+  } else {
+    const drawn = drawGrid(mesh, values, box, budget, paths);
+    clipPlate = loops.length > 0 && loops.every((l) => l.closed);
+    notes.push(
+      `Drawn from a regular resampling (${drawn.toLocaleString('en-US')} triangles) of the ${inWindow.toLocaleString('en-US')} mesh triangles in view; the data files hold every node.`,
+    );
+  }
+
+  const barHeight = Math.max(150, Math.min(frame.height - 20, 340));
+  const barX = frame.ox + frame.width + 28;
+  const plotBottom = top + Math.max(frame.height, barHeight + 20);
+  const legend: string[] = [];
+  const outline = loopsPath(frame, mesh.xy, loops);
+  const body: string[] = [];
+  const clipRect = `${prefix}-window`;
+  body.push(
+    `<defs><clipPath id="${clipRect}"><rect x="${c1(frame.ox)}" y="${c1(frame.oy)}" width="${c1(frame.width)}" height="${c1(frame.height)}"/></clipPath>` +
+      (clipPlate ? `<clipPath id="${prefix}-plate"><path d="${outline}" clip-rule="evenodd"/></clipPath>` : '') +
+      `</defs>`,
+  );
+  body.push(`<g clip-path="url(#${clipRect})">`);
+  body.push(`<g class="bands"${clipPlate ? ` clip-path="url(#${prefix}-plate)"` : ''}>`);
+  for (let k = 0; k < scale.n; k++) {
+    if (paths.d[k] === '') continue;
+    const colour = bandColour(scale, k);
+    body.push(
+      `<path class="band" data-band="${k}" data-lo="${bandEdge(scale, k)}" data-hi="${bandEdge(scale, k + 1)}" ` +
+        `fill="${colour}" stroke="${colour}" stroke-width="0.4" stroke-linejoin="round" d="${paths.d[k]}"/>`,
+    );
+  }
+  body.push('</g>');
+  if (opts.showMesh) {
+    const d = meshOverlayPath(mesh, frame, opts.maxMeshEdges ?? 150_000);
+    if (d === undefined) notes.push('The mesh is too dense to draw at this scale; see the mesh statistics.');
+    else body.push(`<g class="mesh-overlay"><path d="${d}" fill="none" stroke="#ffffff" stroke-opacity="0.55" stroke-width="0.4"/></g>`);
+  }
+  body.push(`<path class="outline" d="${outline}" fill="none" stroke="#222" stroke-width="1.1" stroke-linejoin="round"/>`);
+  if (opts.deformed) {
+    const d = loopsPath(frame, mesh.xy, loops, opts.deformed);
+    body.push(
+      `<path class="deformed" d="${d}" fill="none" stroke="#ff3d7f" stroke-width="1.6" stroke-dasharray="6 3" stroke-linejoin="round"/>`,
+    );
+    legend.push(
+      `<line x1="0" x2="22" y1="-4" y2="-4" stroke="#ff3d7f" stroke-width="1.6" stroke-dasharray="6 3"/>` +
+        `<text x="28" y="0" font-size="11" fill="#333">deformed shape, displacements × ${escapeXml(formatNumber(opts.deformed.scale, 3))}</text>`,
+    );
+  }
+  for (const spot of opts.spots ?? []) {
+    const [x, y] = spot.at;
+    if (x < box.minX || x > box.maxX || y < box.minY || y > box.maxY) continue;
+    const sx = px(frame, x), sy = py(frame, y);
+    body.push(spotMarkerSvg(sx, sy, spot.id, sx > frame.ox + frame.width - 60));
+  }
+  body.push('</g>');
+  body.push(
+    `<rect x="${c1(frame.ox)}" y="${c1(frame.oy)}" width="${c1(frame.width)}" height="${c1(frame.height)}" fill="none" stroke="#bbb" stroke-width="0.6"/>`,
+  );
+  body.push(colourBarSvg(barX, top + 20, barHeight, scale, opts.units, `${prefix}-ramp`));
+
+  const lines: string[] = [];
+  let ly = plotBottom + 20;
+  for (const item of legend) {
+    lines.push(`<g transform="translate(${c1(frame.ox)} ${c1(ly)})">${item}</g>`);
+    ly += 18;
+  }
+  for (const note of notes) {
+    lines.push(`<text class="note" x="${c1(frame.ox)}" y="${c1(ly)}" font-size="10.5" fill="#555">${escapeXml(note)}</text>`);
+    ly += 16;
+  }
+  const width = Math.ceil(barX + 110);
+  const height = Math.ceil(ly);
+  const title = escapeXml(opts.title);
+  return (
+    `<svg xmlns="http://www.w3.org/2000/svg" class="contour${opts.className ? ' ' + escapeXml(opts.className) : ''}" ` +
+    `viewBox="0 0 ${width} ${height}" width="${width}" height="${height}" font-family="${FONT}" role="img" aria-label="${title}">` +
+    `<title>${title}</title>` +
+    `<text class="picture-title" x="${c1(frame.ox)}" y="22" font-size="14" font-weight="600" fill="#111">${title}</text>` +
+    body.join('') +
+    lines.join('') +
+    `</svg>`
+  );
+}

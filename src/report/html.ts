@@ -1,0 +1,313 @@
+/**
+ * The study report: one self-contained HTML page (inline CSS and SVG, no scripts, no external
+ * requests) that reads on screen and prints to A4 or letter. All model text is escaped.
+ */
+import type { PlateGeometry } from '../geometry/types.js';
+import type { Mesh } from '../mesh/types.js';
+import type { Model, Shape } from '../model/types.js';
+import type { SpotResult, StudyResult } from '../study/types.js';
+import { contourSvg } from './contour.js';
+import { plotCss } from './css.js';
+import { convergencePlotSvg } from './plot.js';
+import { escapeXml, formatFixed, formatNumber, safeId } from './text.js';
+import {
+  CAUTION, capitalise, describeLoad, describeSupport, featureLabel, materialLine, spotReadout, spotValue, spotWhere,
+} from './words.js';
+
+export interface ReportCheck {
+  name: string;
+  pass: boolean;
+  /** optional one-line detail, e.g. "Kt 3.003 vs 3 (Kirsch 1898)" */
+  detail?: string;
+}
+
+export interface ReportInput {
+  model: Model;
+  study: StudyResult;
+  /** the mesh the field lives on (e.g. the finest study mesh or the base solve) */
+  mesh: Mesh;
+  geometry: PlateGeometry;
+  /** study measure, one value per node of `mesh` */
+  field: Float64Array;
+  /** displacements, 2 per node of `mesh` */
+  u: Float64Array;
+  checks?: ReportCheck[];
+  /** magnification of the deformed outline (default: a round number that makes the largest displacement about 6 % of the plate size) */
+  deformationScale?: number;
+}
+
+const MEASURE_NAMES: Record<string, string> = {
+  'von-mises': 'von Mises stress',
+  'max-principal': 'maximum principal stress',
+  tresca: 'Tresca stress',
+  sxx: 'σxx',
+  syy: 'σyy',
+  sxy: 'τxy',
+};
+
+export function measureName(measure: string): string {
+  return MEASURE_NAMES[measure] ?? measure;
+}
+
+/** Largest round number (1, 2 or 5 × 10^k) not above `raw`. */
+export function roundDown125(raw: number): number {
+  if (!(raw > 0) || !Number.isFinite(raw)) return 1;
+  const mag = 10 ** Math.floor(Math.log10(raw));
+  const m = raw / mag;
+  return (m >= 5 ? 5 : m >= 2 ? 2 : 1) * mag;
+}
+
+export function autoDeformationScale(u: Float64Array, plateSize: number): number | undefined {
+  let maxU = 0;
+  for (let n = 0; n < u.length / 2; n++) maxU = Math.max(maxU, Math.hypot(u[2 * n], u[2 * n + 1]));
+  if (!(maxU > 0) || !(plateSize > 0)) return undefined;
+  return roundDown125((0.06 * plateSize) / maxU);
+}
+
+function shapeWords(shape: Shape, L: string): string {
+  const n = (v: number) => formatNumber(v);
+  switch (shape.kind) {
+    case 'circle':
+      return `circle, radius ${n(shape.radius)} ${L}, centre (${n(shape.center[0])}, ${n(shape.center[1])})`;
+    case 'ellipse':
+      return `ellipse, semi-axes ${n(shape.a)} × ${n(shape.b)} ${L} turned ${n(shape.angleDeg)}°, centre (${n(shape.center[0])}, ${n(shape.center[1])})`;
+    case 'rect':
+      return `rectangle ${n(shape.width)} × ${n(shape.height)} ${L}${shape.round > 0 ? `, corners rounded r ${n(shape.round)}` : ', sharp corners'}, centre (${n(shape.center[0])}, ${n(shape.center[1])})`;
+    case 'polygon': {
+      const rounded = shape.vertices.filter((v) => v.round > 0).length;
+      return `polygon of ${shape.vertices.length} vertices${rounded > 0 ? `, ${rounded} rounded` : ''}`;
+    }
+  }
+}
+
+interface MeshStats {
+  nodes: number;
+  vertices: number;
+  elements: number;
+  minEdge: number;
+  maxEdge: number;
+  boundaryEdges: number;
+}
+
+function meshStats(mesh: Mesh): MeshStats {
+  const en = mesh.elemNodes, npe = mesh.nodesPerElem, xy = mesh.xy;
+  const nElems = Math.floor(en.length / npe);
+  let minEdge = Infinity, maxEdge = 0;
+  for (let e = 0; e < nElems; e++) {
+    for (let i = 0; i < 3; i++) {
+      const a = en[npe * e + i], b = en[npe * e + ((i + 1) % 3)];
+      const d = Math.hypot(xy[2 * b] - xy[2 * a], xy[2 * b + 1] - xy[2 * a + 1]);
+      if (d < minEdge) minEdge = d;
+      if (d > maxEdge) maxEdge = d;
+    }
+  }
+  return {
+    nodes: xy.length / 2,
+    vertices: mesh.nVertices,
+    elements: nElems,
+    minEdge: Number.isFinite(minEdge) ? minEdge : 0,
+    maxEdge,
+    boundaryEdges: Math.floor(mesh.boundaryEdges.length / mesh.edgeStride),
+  };
+}
+
+const int = (n: number) => Math.round(n).toLocaleString('en-US');
+
+function row(label: string, value: string): string {
+  return `<tr><th scope="row">${escapeXml(label)}</th><td>${value}</td></tr>`;
+}
+
+function verdictBadge(verdict: string): string {
+  return `<span class="verdict verdict-${safeId(verdict)}">${escapeXml(verdict)}</span>`;
+}
+
+/** Section ids for spots: `spot-<id>`, made unique when cleaned ids collide. */
+export function spotSectionIds(spots: SpotResult[]): string[] {
+  const used = new Set<string>();
+  return spots.map((s, i) => {
+    let id = `spot-${safeId(s.id)}`;
+    if (used.has(id)) id = `${id}-${i + 1}`;
+    used.add(id);
+    return id;
+  });
+}
+
+export function reportHtml(input: ReportInput): string {
+  const { model, study, mesh, geometry, field, u } = input;
+  const units = study.units;
+  const L = units.length, S = units.stress;
+  const measure = measureName(study.measure);
+  const stats = meshStats(mesh);
+  const sectionIds = spotSectionIds(study.spots);
+  const deformScale = input.deformationScale ?? autoDeformationScale(u, geometry.scale);
+  const spotMarks = study.spots.map((s) => ({ id: s.id, at: s.at }));
+
+  const main = contourSvg(mesh, field, {
+    units: `${measure}, ${S}`,
+    title: `${measure} (${S}) over the plate`,
+    spots: spotMarks,
+    deformed: deformScale !== undefined ? { u, scale: deformScale } : undefined,
+    showMesh: true,
+    idPrefix: 'main',
+    className: 'contour-main',
+    lengthUnit: L,
+  });
+
+  const insetBudget = Math.max(8_000, Math.min(30_000, Math.floor(120_000 / Math.max(1, study.spots.length))));
+  const half = 0.07 * geometry.scale;
+
+  const modelRows = [
+    row('Title', escapeXml(model.title)),
+    row('Model file', model.file ? `<code>${escapeXml(model.file)}</code>` : '(built in code)'),
+    row('Units', `length ${escapeXml(units.length)}, force ${escapeXml(units.force)}, stress ${escapeXml(units.stress)}`),
+    row('Material', escapeXml(materialLine(model, S))),
+    row('Thickness', `${escapeXml(formatNumber(model.thickness))} ${escapeXml(L)}`),
+    row('State', escapeXml(model.state.replace('-', ' '))),
+    row('Outline', escapeXml(capitalise(shapeWords(model.plate.outline, L)))),
+    row(
+      'Openings',
+      model.plate.openings.length === 0
+        ? 'none'
+        : `<ul>${model.plate.openings.map((o) => `<li><b>${escapeXml(o.id)}</b>: ${escapeXml(shapeWords(o.shape, L))}</li>`).join('')}</ul>`,
+    ),
+    row('Supports', `<ul>${model.supports.map((s) => `<li>${escapeXml(describeSupport(s, L))}</li>`).join('')}</ul>`),
+    row('Loads', `<ul>${model.loads.map((l) => `<li>${escapeXml(describeLoad(l, units))}</li>`).join('')}</ul>`),
+    row('Study', escapeXml(`${measure}; ${model.study.levels} levels, element size ÷ ${formatNumber(model.study.ratio)} per level`)),
+  ];
+
+  const meshRows = [
+    row('Elements', `${int(stats.elements)} ${mesh.order === 2 ? 'six-node LST' : 'three-node CST'} triangles`),
+    row('Nodes', `${int(stats.nodes)} (${int(stats.vertices)} corner nodes)`),
+    row('Degrees of freedom', int(2 * stats.nodes)),
+    row('Element edges', `${escapeXml(formatNumber(stats.minEdge))} to ${escapeXml(formatNumber(stats.maxEdge))} ${escapeXml(L)}`),
+    row('Smallest angle', `${escapeXml(formatNumber(study.mesh.minAngleDeg, 3))}°`),
+    row('Boundary', `${int(stats.boundaryEdges)} edges on ${geometry.pieces.length} pieces, ${geometry.loops.length} loops`),
+    row('Plate area', `${escapeXml(formatNumber(geometry.area, 6))} ${escapeXml(L)}²`),
+    row(
+      'Base solve',
+      `${int(study.solution.dofs)} dofs, largest displacement ${escapeXml(formatNumber(study.solution.maxDisplacement))} ${escapeXml(L)}`,
+    ),
+  ];
+
+  const verdictRows = study.spots
+    .map(
+      (s, i) =>
+        `<tr><td><a href="#${sectionIds[i]}">${escapeXml(s.id)}</a></td><td>${escapeXml(spotWhere(s, L))}</td>` +
+        `<td>${escapeXml(featureLabel(s))}</td><td>${verdictBadge(s.verdict)}</td>` +
+        `<td>${escapeXml(spotValue(s, S))}</td><td>${escapeXml(spotReadout(s, units))}</td></tr>`,
+    )
+    .join('');
+
+  const spotSections = study.spots.map((s, i) => {
+    const levelsRows = s.levels
+      .map(
+        (l, k) =>
+          `<tr><td>${k + 1}</td><td>${escapeXml(formatNumber(l.h))}</td><td>${int(l.dofs)}</td>` +
+          `<td>${escapeXml(formatNumber(l.peak, 6))}</td><td>${l.atDistance !== undefined ? escapeXml(formatNumber(l.atDistance, 5)) : '—'}</td></tr>`,
+      )
+      .join('');
+    const r = s.readouts;
+    const readouts: string[] = [];
+    if (s.verdict === 'converging') {
+      readouts.push(row('Converged value', escapeXml(`${formatNumber(s.estimate.value, 5)} ± ${formatNumber(s.estimate.uncertainty, 2)} ${S}`)));
+      readouts.push(row('Observed order', escapeXml(formatFixed(s.estimate.observedOrder, 2))));
+    } else {
+      readouts.push(
+        row(
+          'Growth under refinement',
+          escapeXml(`peak ∝ h^−q, q = ${formatFixed(s.growth.exponent, 2)} ± ${formatFixed(s.growth.exponentUncertainty, 2)}; theory ${formatFixed(s.growth.theory, 2)}`),
+        ),
+      );
+    }
+    if (r.atDistance !== undefined) {
+      readouts.push(row(`Stress at ${r.distance !== undefined ? formatNumber(r.distance) + ' ' + L : 'the readout distance'}`, escapeXml(`${formatNumber(r.atDistance, 5)} ${S}`)));
+    }
+    if (r.average !== undefined) readouts.push(row('Mean over the readout disk', escapeXml(`${formatNumber(r.average, 5)} ${S}`)));
+    const line = r as { lineAverage?: number; lineLength?: number };
+    if (line.lineAverage !== undefined) {
+      readouts.push(row(`Mean along the bisector${line.lineLength !== undefined ? ` over ${formatNumber(line.lineLength)} ${L}` : ''}`, escapeXml(`${formatNumber(line.lineAverage, 5)} ${S}`)));
+    }
+    if (r.nsif !== undefined) readouts.push(row('Notch stress intensity', escapeXml(`${formatNumber(r.nsif, 5)} ${r.nsifUnits ?? ''}`)));
+    if (s.verdict === 'singular') {
+      readouts.push(row('Note', 'The peak grows without bound as the mesh is refined: do not read it as a stress. Use the measures above.'));
+    }
+    const inset = contourSvg(mesh, field, {
+      units: `${measure}, ${S}`,
+      title: `Around ${s.id}`,
+      spots: [{ id: s.id, at: s.at }],
+      viewBox: { minX: s.at[0] - half, maxX: s.at[0] + half, minY: s.at[1] - half, maxY: s.at[1] + half },
+      showMesh: true,
+      width: 300,
+      maxHeight: 300,
+      levels: 48,
+      maxTriangles: insetBudget,
+      maxMeshEdges: 20_000,
+      idPrefix: `inset-${i + 1}`,
+      className: 'contour-inset',
+      lengthUnit: L,
+    });
+    return (
+      `<section class="spot" id="${sectionIds[i]}">` +
+      `<h3>${escapeXml(s.id)} <span class="where">at ${escapeXml(spotWhere(s, L))}</span> ${verdictBadge(s.verdict)}</h3>` +
+      `<p class="feature">${escapeXml(capitalise(s.feature.description || featureLabel(s)))}</p>` +
+      `<p class="why"><b>Why:</b> ${escapeXml(s.reason)}</p>` +
+      (s.advice ? `<p class="advice"><b>Next step:</b> ${escapeXml(s.advice)}</p>` : '') +
+      `<table class="facts">${readouts.join('')}</table>` +
+      `<div class="spot-figures"><figure class="plot">${convergencePlotSvg(s, { units: S, lengthUnit: L, measure })}</figure>` +
+      `<figure class="inset">${inset}</figure></div>` +
+      `<details open><summary>Refinement levels</summary><table class="levels"><thead><tr><th>level</th><th>h (${escapeXml(L)})</th><th>dofs</th><th>peak (${escapeXml(S)})</th><th>at distance (${escapeXml(S)})</th></tr></thead><tbody>${levelsRows}</tbody></table></details>` +
+      `</section>`
+    );
+  });
+
+  const checks = input.checks ?? [];
+  const passed = checks.filter((c) => c.pass).length;
+  const checksHtml =
+    checks.length === 0
+      ? '<p>No verification results came with this report. <code>peakwise check</code> runs the closed-form cases.</p>'
+      : `<p>${passed} of ${checks.length} closed-form checks pass in this build.</p><ul class="checks">${checks
+          .map(
+            (c) =>
+              `<li class="${c.pass ? 'pass' : 'fail'}"><span class="mark">${c.pass ? '✓' : '✗'}</span>${escapeXml(c.name)}` +
+              `${c.detail ? ` <small>${escapeXml(c.detail)}</small>` : ''}</li>`,
+          )
+          .join('')}</ul>`;
+
+  const title = escapeXml(model.title || study.model.title || 'peakwise study');
+  const counts = (['converging', 'singular', 'undecided'] as const)
+    .map((v) => `${study.spots.filter((s) => s.verdict === v).length} ${v}`)
+    .join(', ');
+  return `<!DOCTYPE html>
+<html lang="en">
+<head>
+<meta charset="utf-8">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<title>${title}</title>
+<style>${plotCss}</style>
+</head>
+<body>
+<input type="checkbox" id="show-mesh" class="toggle-input">
+<header>
+<p class="tool">peakwise ${escapeXml(study.version)} · hot-spot study</p>
+<h1>${title}</h1>
+<p class="lede">${escapeXml(`${study.spots.length} hot spot${study.spots.length === 1 ? '' : 's'} (${counts}); measure: ${measure} in ${S}.`)}</p>
+<p class="caution" role="note">${escapeXml(CAUTION)}</p>
+</header>
+<main>
+<section id="model"><h2>Model</h2><table class="facts">${modelRows.join('')}</table></section>
+<section id="mesh"><h2>Mesh</h2><table class="facts">${meshRows.join('')}</table></section>
+<section id="picture"><h2>Stress picture</h2>
+<p class="toggle-row"><label for="show-mesh" class="toggle">show element edges</label></p>
+<figure class="figure">${main}</figure></section>
+<section id="verdicts"><h2>Verdicts</h2>
+<table class="verdicts"><thead><tr><th>spot</th><th>where</th><th>feature</th><th>verdict</th><th>value</th><th>readout</th></tr></thead><tbody>${verdictRows || '<tr><td colspan="6">No hot spots were found.</td></tr>'}</tbody></table>
+<p class="legend-text">Converging: the peak settles to a finite value (shown with its extrapolation uncertainty); design for it. Singular: the peak keeps growing like h<sup>−q</sup> as elements shrink; it is a property of the idealised model, not a stress, so use the readouts. Undecided: the levels do not yet tell.</p>
+</section>
+<section id="spots"><h2>Hot spots</h2>${spotSections.join('\n')}</section>
+<section id="verification"><h2>Verification</h2>${checksHtml}</section>
+</main>
+<footer><p class="caution">${escapeXml(CAUTION)}</p><p class="small">Made by peakwise ${escapeXml(study.version)} from ${escapeXml(study.model.file || 'a model built in code')}.</p></footer>
+</body>
+</html>
+`;
+}

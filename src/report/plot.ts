@@ -1,0 +1,272 @@
+/**
+ * Log–log convergence plot of one hot spot: peak against element size h (finer to the right)
+ * and, smaller, against degrees of freedom. Shows the levels, the fitted trend over the levels
+ * the fit used, the theory slope as a dashed reference and, for a converging spot, the
+ * extrapolated value with its uncertainty band.
+ */
+import type { SpotResult } from '../study/types.js';
+import { c1, niceTicks } from './draw.js';
+import { escapeXml, formatFixed, formatNumber } from './text.js';
+
+export interface ConvergencePlotOptions {
+  /** stress unit for the peak axis, e.g. "MPa" */
+  units: string;
+  /** length unit for the h axis, e.g. "mm" */
+  lengthUnit?: string;
+  /** name of the measure, e.g. "von Mises" (default "peak") */
+  measure?: string;
+  /** how many of the finest levels the fit used (default 3, or all when fewer) */
+  fitLevels?: number;
+}
+
+const FONT = "system-ui, -apple-system, 'Segoe UI', Roboto, sans-serif";
+const INK = '#1f2933';
+const POINT = '#3b3b98';
+const FIT = '#d9480f';
+const THEORY = '#52606d';
+const BAND = '#2b8a3e';
+
+/** One axis: value → pixel, either logarithmic (all values > 0) or linear. */
+interface Axis {
+  log: boolean;
+  lo: number;
+  hi: number;
+  p0: number;
+  p1: number;
+  at(v: number): number;
+  ticks(): number[];
+}
+
+function makeAxis(values: number[], p0: number, p1: number, allowLog: boolean): Axis {
+  const finite = values.filter((v) => Number.isFinite(v));
+  let lo = Math.min(...finite), hi = Math.max(...finite);
+  if (!(lo <= hi)) {
+    lo = 1;
+    hi = 10;
+  }
+  const log = allowLog && lo > 0;
+  let a: number, b: number;
+  if (log) {
+    a = Math.log10(lo);
+    b = Math.log10(hi);
+    if (b - a < 1e-6) {
+      a -= 0.01;
+      b += 0.01;
+    }
+    const pad = (b - a) * 0.08;
+    a -= pad;
+    b += pad;
+  } else {
+    a = lo;
+    b = hi;
+    if (b - a < 1e-12 * Math.max(1, Math.abs(a))) {
+      a -= Math.abs(a) * 0.01 || 1;
+      b += Math.abs(b) * 0.01 || 1;
+    }
+    const pad = (b - a) * 0.08;
+    a -= pad;
+    b += pad;
+  }
+  const t = (v: number) => (log ? Math.log10(v) : v);
+  return {
+    log,
+    lo: log ? 10 ** a : a,
+    hi: log ? 10 ** b : b,
+    p0,
+    p1,
+    at: (v: number) => p0 + ((t(v) - a) / (b - a)) * (p1 - p0),
+    ticks: () => {
+      if (log && b - a >= 1.5) {
+        const out: number[] = [];
+        for (let k = Math.ceil(a); k <= Math.floor(b); k++) {
+          for (const m of b - a <= 3 ? [1, 2, 5] : [1]) {
+            const v = m * 10 ** k;
+            if (Math.log10(v) >= a && Math.log10(v) <= b) out.push(v);
+          }
+        }
+        return out;
+      }
+      return niceTicks(log ? 10 ** a : a, log ? 10 ** b : b, 4).filter((v) => !log || v > 0);
+    },
+  };
+}
+
+interface Panel {
+  x: number;
+  y: number;
+  w: number;
+  h: number;
+}
+
+function axesSvg(panel: Panel, ax: Axis, ay: Axis, xLabel: string, yLabel: string, small: boolean): string {
+  const fs = small ? 9.5 : 10.5;
+  const parts: string[] = [
+    `<rect x="${panel.x}" y="${panel.y}" width="${panel.w}" height="${panel.h}" fill="#fbfcfd" stroke="#9aa5b1" stroke-width="0.8"/>`,
+  ];
+  for (const t of ax.ticks()) {
+    const X = ax.at(t);
+    if (X < panel.x - 0.5 || X > panel.x + panel.w + 0.5) continue;
+    parts.push(
+      `<line x1="${c1(X)}" x2="${c1(X)}" y1="${panel.y}" y2="${panel.y + panel.h}" stroke="#e4e7eb" stroke-width="0.7"/>`,
+      `<line x1="${c1(X)}" x2="${c1(X)}" y1="${panel.y + panel.h}" y2="${panel.y + panel.h + 4}" stroke="${INK}" stroke-width="0.8"/>`,
+      `<text x="${c1(X)}" y="${panel.y + panel.h + 15}" font-size="${fs}" text-anchor="middle" fill="${INK}">${escapeXml(formatNumber(t, 3))}</text>`,
+    );
+  }
+  for (const t of ay.ticks()) {
+    const Y = ay.at(t);
+    if (Y < panel.y - 0.5 || Y > panel.y + panel.h + 0.5) continue;
+    parts.push(
+      `<line x1="${panel.x}" x2="${panel.x + panel.w}" y1="${c1(Y)}" y2="${c1(Y)}" stroke="#e4e7eb" stroke-width="0.7"/>`,
+      `<line x1="${panel.x - 4}" x2="${panel.x}" y1="${c1(Y)}" y2="${c1(Y)}" stroke="${INK}" stroke-width="0.8"/>`,
+      `<text x="${panel.x - 6}" y="${c1(Y + 3.5)}" font-size="${fs}" text-anchor="end" fill="${INK}">${escapeXml(formatNumber(t, 4))}</text>`,
+    );
+  }
+  parts.push(
+    `<text class="axis-label" x="${c1(panel.x + panel.w / 2)}" y="${panel.y + panel.h + 32}" font-size="${fs + 0.5}" text-anchor="middle" fill="${INK}">${escapeXml(xLabel)}</text>`,
+    `<text class="axis-label" transform="translate(${panel.x - (small ? 40 : 52)} ${c1(panel.y + panel.h / 2)}) rotate(-90)" font-size="${fs + 0.5}" text-anchor="middle" fill="${INK}">${escapeXml(yLabel)}</text>`,
+  );
+  return parts.join('');
+}
+
+function polyline(points: [number, number][]): string {
+  return points.map(([x, y], i) => `${i === 0 ? 'M' : 'L'}${c1(x)} ${c1(y)}`).join('');
+}
+
+/** Slope label text: the growth exponent q (singular, undecided) or the observed order p (converging). */
+export function slopeLabel(spot: SpotResult): string {
+  return spot.verdict === 'converging'
+    ? `observed order p = ${formatFixed(spot.estimate.observedOrder, 2)}`
+    : `fitted q = ${formatFixed(spot.growth.exponent, 2)}`;
+}
+
+export function convergencePlotSvg(spot: SpotResult, opts: ConvergencePlotOptions): string {
+  const units = opts.units;
+  const L = opts.lengthUnit ?? '';
+  const measure = opts.measure ?? 'peak';
+  const levels = spot.levels.filter((l) => l.h > 0 && Number.isFinite(l.peak));
+  const width = 660, height = 330;
+  const head = `<svg xmlns="http://www.w3.org/2000/svg" class="convergence-plot" data-spot="${escapeXml(spot.id)}" viewBox="0 0 ${width} ${height}" width="${width}" height="${height}" font-family="${FONT}" role="img" aria-label="${escapeXml(`convergence of ${spot.id}`)}">`;
+  const title = `<text x="12" y="18" font-size="13" font-weight="600" fill="${INK}">${escapeXml(`${spot.id}: ${measure} peak under refinement`)}</text>`;
+  if (levels.length === 0) {
+    return `${head}${title}<text x="12" y="60" font-size="12" fill="${INK}">No refinement levels were computed for this spot.</text></svg>`;
+  }
+  const hs = levels.map((l) => l.h);
+  const peaks = levels.map((l) => l.peak);
+  const used = Math.min(levels.length, Math.max(2, opts.fitLevels ?? 3));
+  const fitSet = levels.slice(-used);
+  const hFit0 = Math.max(...fitSet.map((l) => l.h)), hFit1 = Math.min(...fitSet.map((l) => l.h));
+  const hMax = Math.max(...hs), hMin = Math.min(...hs);
+  const finest = levels[levels.length - 1];
+  const converging = spot.verdict === 'converging';
+  const est = spot.estimate;
+
+  // fitted trend, sampled in h over the levels the fit used
+  const fitCurve: [number, number][] = [];
+  const nSamples = 32;
+  if (converging && Number.isFinite(est.value) && est.observedOrder > 0) {
+    // peak(h) = value + c·h^p, c by least squares over the fitted levels with p fixed
+    const p = est.observedOrder;
+    let num = 0, den = 0;
+    for (const l of fitSet) {
+      const hp = l.h ** p;
+      num += (l.peak - est.value) * hp;
+      den += hp * hp;
+    }
+    const c = den > 0 ? num / den : 0;
+    for (let i = 0; i <= nSamples; i++) {
+      const h = hFit0 * (hFit1 / hFit0) ** (i / nSamples);
+      fitCurve.push([h, est.value + c * h ** p]);
+    }
+  } else if (!converging && Number.isFinite(spot.growth.exponent) && fitSet.every((l) => l.peak > 0)) {
+    // log peak = b − q log h, b by least squares over the fitted levels with q fixed
+    const q = spot.growth.exponent;
+    const b = fitSet.reduce((acc, l) => acc + Math.log(l.peak) + q * Math.log(l.h), 0) / fitSet.length;
+    for (const h of [hFit0, hFit1]) fitCurve.push([h, Math.exp(b - q * Math.log(h))]);
+  }
+  // theory reference through the finest level, over the whole h range
+  const theory = spot.growth.theory;
+  const theoryLine: [number, number][] =
+    Number.isFinite(theory) && finest.peak > 0
+      ? [hMax, hMin].map((h) => [h, finest.peak * (h / finest.h) ** -theory] as [number, number])
+      : [];
+
+  const yValues = [...peaks, ...fitCurve.map((p) => p[1]), ...theoryLine.map((p) => p[1])];
+  const band = converging && Number.isFinite(est.value) && Number.isFinite(est.uncertainty);
+  if (band) yValues.push(est.value - Math.abs(est.uncertainty), est.value + Math.abs(est.uncertainty));
+  const allowLogY = yValues.every((v) => v > 0);
+
+  const main: Panel = { x: 72, y: 34, w: 330, h: 210 };
+  // finer to the right: the h axis runs from hMax at the left to hMin at the right
+  const axH = makeAxis([hMin, hMax], main.x + main.w, main.x, true);
+  const ayMain = makeAxis(yValues, main.y + main.h, main.y, allowLogY);
+  const parts: string[] = [head, title];
+  parts.push(axesSvg(main, axH, ayMain, `element size h near the spot${L ? ` (${L})` : ''}, finer →`, `${measure} (${units})`, false));
+
+  const drawBand = (ax: Axis, ay: Axis, panel: Panel) => {
+    if (!band) return '';
+    const yTop = ay.at(est.value + Math.abs(est.uncertainty)), yBot = ay.at(est.value - Math.abs(est.uncertainty));
+    const yMid = ay.at(est.value);
+    return (
+      `<rect class="uncertainty-band" x="${panel.x}" y="${c1(Math.min(yTop, yBot))}" width="${panel.w}" height="${c1(Math.max(0.8, Math.abs(yBot - yTop)))}" fill="${BAND}" fill-opacity="0.16"/>` +
+      `<line class="extrapolated" x1="${panel.x}" x2="${panel.x + panel.w}" y1="${c1(yMid)}" y2="${c1(yMid)}" stroke="${BAND}" stroke-width="1.4"/>`
+    );
+  };
+  parts.push(drawBand(axH, ayMain, main));
+  if (theoryLine.length === 2) {
+    parts.push(
+      `<path class="theory-line" d="${polyline(theoryLine.map(([h, p]) => [axH.at(h), ayMain.at(p)]))}" fill="none" stroke="${THEORY}" stroke-width="1.3" stroke-dasharray="5 4"/>`,
+    );
+  }
+  if (fitCurve.length >= 2) {
+    parts.push(
+      `<path class="fit-line" d="${polyline(fitCurve.map(([h, p]) => [axH.at(h), ayMain.at(p)]))}" fill="none" stroke="${FIT}" stroke-width="2"/>`,
+    );
+  }
+  levels.forEach((l, i) => {
+    const inFit = i >= levels.length - used;
+    parts.push(
+      `<circle class="level-point" cx="${c1(axH.at(l.h))}" cy="${c1(ayMain.at(l.peak))}" r="3.6" fill="${inFit ? POINT : '#fff'}" stroke="${POINT}" stroke-width="1.4"/>`,
+    );
+  });
+
+  // legend and labels under the main panel
+  const ly = main.y + main.h + 50;
+  const slope = slopeLabel(spot);
+  const slopeValue = converging ? formatFixed(est.observedOrder, 2) : formatFixed(spot.growth.exponent, 2);
+  parts.push(
+    `<g class="legend" font-size="10.5" fill="${INK}">` +
+      `<circle cx="${main.x + 4}" cy="${ly - 4}" r="3.6" fill="${POINT}" stroke="${POINT}"/><circle cx="${main.x + 14}" cy="${ly - 4}" r="3.6" fill="#fff" stroke="${POINT}" stroke-width="1.4"/>` +
+      `<text x="${main.x + 24}" y="${ly}">levels (filled: used in the fit)</text>` +
+      `<line x1="${main.x}" x2="${main.x + 18}" y1="${ly + 12}" y2="${ly + 12}" stroke="${FIT}" stroke-width="2"/>` +
+      `<text class="slope-label" data-value="${slopeValue}" x="${main.x + 24}" y="${ly + 16}">${escapeXml(slope)}</text>` +
+      `<line x1="${main.x + 170}" x2="${main.x + 188}" y1="${ly + 12}" y2="${ly + 12}" stroke="${THEORY}" stroke-width="1.3" stroke-dasharray="5 4"/>` +
+      `<text class="theory-label" x="${main.x + 194}" y="${ly + 16}">${escapeXml(theory > 0 ? `theory q = ${formatFixed(theory, 2)}` : 'theory: bounded (q = 0)')}</text>` +
+      (band
+        ? `<rect x="${main.x}" y="${ly + 22}" width="18" height="9" fill="${BAND}" fill-opacity="0.2" stroke="${BAND}" stroke-width="0.8"/>` +
+          `<text class="estimate-label" x="${main.x + 24}" y="${ly + 31}">${escapeXml(`extrapolated ${formatNumber(est.value)} ± ${formatNumber(est.uncertainty, 2)} ${units}`)}</text>`
+        : '') +
+      `</g>`,
+  );
+
+  // small panel: peak against degrees of freedom
+  const side: Panel = { x: 490, y: 34, w: 150, h: 150 };
+  const dofs = levels.map((l) => l.dofs).filter((d) => d > 0);
+  if (dofs.length === levels.length) {
+    const axD = makeAxis(dofs, side.x, side.x + side.w, true);
+    const ySide = [...peaks];
+    if (band) ySide.push(est.value - Math.abs(est.uncertainty), est.value + Math.abs(est.uncertainty));
+    const ayD = makeAxis(ySide, side.y + side.h, side.y, ySide.every((v) => v > 0));
+    parts.push(`<g class="dofs-panel">`);
+    parts.push(axesSvg(side, axD, ayD, 'degrees of freedom', `${measure} (${units})`, true));
+    parts.push(drawBand(axD, ayD, side));
+    parts.push(
+      `<path d="${polyline(levels.map((l) => [axD.at(l.dofs), ayD.at(l.peak)]))}" fill="none" stroke="${POINT}" stroke-width="1.1"/>`,
+    );
+    for (const l of levels) {
+      parts.push(`<circle cx="${c1(axD.at(l.dofs))}" cy="${c1(ayD.at(l.peak))}" r="2.8" fill="${POINT}"/>`);
+    }
+    parts.push(`</g>`);
+  }
+  parts.push('</svg>');
+  return parts.join('');
+}

@@ -1,0 +1,164 @@
+/**
+ * Terminal output: the study's verdict table and the one-solve summary. Colour comes from
+ * `picocolors` only when the caller asks for it (the CLI decides from --no-color, NO_COLOR
+ * and whether stdout is a terminal).
+ */
+import pc from 'picocolors';
+import type { Point } from '../model/types.js';
+import type { StudyResult, Verdict } from '../study/types.js';
+import { formatNumber, formatPoint, stripControl } from './text.js';
+import { CAUTION, featureLabel, spotReadout, spotValue, spotWhere } from './words.js';
+
+export interface TerminalOptions {
+  color: boolean;
+}
+
+type Colors = ReturnType<typeof pc.createColors>;
+
+// eslint-disable-next-line no-control-regex
+const ANSI = /\u001b\[[0-9;]*m/g;
+
+function visibleWidth(text: string): number {
+  return [...text.replace(ANSI, '')].length;
+}
+
+function pad(text: string, width: number): string {
+  return text + ' '.repeat(Math.max(0, width - visibleWidth(text)));
+}
+
+function verdictColour(c: Colors, verdict: Verdict): (s: string) => string {
+  if (verdict === 'converging') return c.green;
+  if (verdict === 'singular') return c.magenta;
+  return c.yellow;
+}
+
+/** Lays out rows as aligned columns separated by two spaces; the first row is the header. */
+function columns(rows: string[][], c: Colors): string[] {
+  const widths = rows[0].map((_, j) => Math.max(...rows.map((r) => visibleWidth(r[j] ?? ''))));
+  return rows.map((r, i) => {
+    const line = r.map((cell, j) => (j === r.length - 1 ? cell : pad(cell, widths[j]))).join('  ');
+    return i === 0 ? c.bold(line) : line;
+  });
+}
+
+/**
+ * The verdict table of a study: one row per spot (spot, where, feature, verdict, value,
+ * readout), a short header naming the model and measure, and the caution line at the end.
+ */
+export function studyTable(study: StudyResult, options: TerminalOptions): string {
+  const c = pc.createColors(options.color);
+  const units = study.units;
+  const header = ['spot', 'where', 'feature', 'verdict', 'value', 'readout'];
+  const rows: string[][] = [header];
+  for (const spot of study.spots) {
+    const verdict = stripControl(spot.verdict);
+    rows.push([
+      stripControl(spot.id),
+      spotWhere(spot, units.length),
+      featureLabel(spot),
+      verdictColour(c, spot.verdict)(verdict),
+      spotValue(spot, units.stress),
+      spotReadout(spot, units),
+    ]);
+  }
+  const lines: string[] = [];
+  const title = stripControl(study.model.title) || '(untitled model)';
+  lines.push(c.bold(title));
+  lines.push(
+    c.dim(
+      `${stripControl(study.measure)} in ${stripControl(units.stress)} · ${study.mesh.order === 2 ? 'LST' : 'CST'} · ` +
+        `${study.spots.length} spot${study.spots.length === 1 ? '' : 's'}`,
+    ),
+  );
+  lines.push('');
+  if (study.spots.length === 0) lines.push('No hot spots were found.');
+  else lines.push(...columns(rows, c));
+  const undecided = study.spots.filter((s) => s.verdict === 'undecided');
+  for (const s of undecided) {
+    if (s.advice) lines.push(c.yellow(`${stripControl(s.id)}: ${stripControl(s.advice)}`));
+  }
+  lines.push('');
+  lines.push(c.dim(CAUTION));
+  return lines.join('\n') + '\n';
+}
+
+/**
+ * What `peakwise solve` prints. All numbers are in the model's own consistent units; the
+ * strings only label them. Timings are seconds per phase, in the order given.
+ */
+export interface SolveSummaryInput {
+  title: string;
+  units: { length: string; force: string; stress: string };
+  nodes: number;
+  elements: number;
+  order: 1 | 2;
+  dofs: number;
+  /** largest displacement magnitude and the node position where it occurs */
+  maxDisplacement: { value: number; at: Point };
+  /** sum of support reactions, x and y (force units) */
+  reactionSum: [number, number];
+  /** sum of applied loads, x and y (force units) */
+  appliedSum: [number, number];
+  /** largest value of the stress measure and where */
+  maxStress: { measure: string; value: number; at: Point };
+  /** seconds per phase, e.g. { mesh: 0.12, assemble: 0.05, factor: 0.3, solve: 0.01, recover: 0.04 } */
+  timings: Record<string, number>;
+  /** Zienkiewicz–Zhu error estimate η in percent, when computed */
+  errorPercent?: number;
+  /** scaled residual ‖Ku − f‖ / ‖f‖, when computed */
+  residual?: number;
+}
+
+/**
+ * Equilibrium mismatch between support reactions and applied loads, relative to the larger of
+ * the two. Either sign convention is accepted (reactions reported as the force the supports
+ * exert, R = −F, or as the force they carry, R = F): the smaller of |R + F| and |R − F| counts.
+ */
+export function equilibriumMismatch(reaction: [number, number], applied: [number, number]): number {
+  const ref = Math.max(Math.hypot(applied[0], applied[1]), Math.hypot(reaction[0], reaction[1]));
+  if (ref === 0) return 0;
+  const opposite = Math.hypot(reaction[0] + applied[0], reaction[1] + applied[1]);
+  const same = Math.hypot(reaction[0] - applied[0], reaction[1] - applied[1]);
+  return Math.min(opposite, same) / ref;
+}
+
+export function solveSummary(info: SolveSummaryInput, options: TerminalOptions): string {
+  const c = pc.createColors(options.color);
+  const L = stripControl(info.units.length);
+  const F = stripControl(info.units.force);
+  const S = stripControl(info.units.stress);
+  const vec = (v: [number, number]) => `(${formatNumber(v[0], 6)}, ${formatNumber(v[1], 6)}) ${F}`.trimEnd();
+  const mismatch = equilibriumMismatch(info.reactionSum, info.appliedSum);
+  const balanced = mismatch < 1e-6;
+  const rows: string[][] = [
+    ['mesh', `${info.nodes} nodes, ${info.elements} ${info.order === 2 ? 'LST' : 'CST'} elements, ${info.dofs} dofs`],
+    ['max displacement', `${formatNumber(info.maxDisplacement.value)} ${L} at ${formatPoint(info.maxDisplacement.at, L)}`],
+    ['applied sum', vec(info.appliedSum)],
+    [
+      'reaction sum',
+      `${vec(info.reactionSum)}  ${(balanced ? c.green : c.red)(
+        `balance ${formatNumber(mismatch, 2)}${balanced ? '' : ' — check supports and loads'}`,
+      )}`,
+    ],
+    [
+      `max ${stripControl(info.maxStress.measure)}`,
+      `${formatNumber(info.maxStress.value)} ${S} at ${formatPoint(info.maxStress.at, L)}`,
+    ],
+  ];
+  if (info.errorPercent !== undefined) rows.push(['error estimate', `${formatNumber(info.errorPercent, 3)} % (energy norm)`]);
+  if (info.residual !== undefined) rows.push(['scaled residual', formatNumber(info.residual, 2)]);
+  const phases = Object.entries(info.timings);
+  if (phases.length > 0) {
+    const total = phases.reduce((a, [, t]) => a + t, 0);
+    rows.push([
+      'time',
+      phases.map(([k, t]) => `${stripControl(k)} ${formatNumber(t, 2)} s`).join(', ') + ` (total ${formatNumber(total, 3)} s)`,
+    ]);
+  }
+  const width = Math.max(...rows.map((r) => visibleWidth(r[0])));
+  const lines = [c.bold(stripControl(info.title) || '(untitled model)'), ''];
+  for (const [k, v] of rows) lines.push(`${c.dim(pad(k, width))}  ${v}`);
+  lines.push('');
+  lines.push(c.dim(CAUTION));
+  return lines.join('\n') + '\n';
+}

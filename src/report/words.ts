@@ -1,0 +1,119 @@
+/**
+ * Plain-language descriptions shared by the terminal and the HTML page: the caution, verdict
+ * wording, and loads / supports in words.
+ */
+import type { Load, Model, Selector, Support } from '../model/types.js';
+import type { SpotResult, StudyResult } from '../study/types.js';
+import { formatFixed, formatNumber, stripControl } from './text.js';
+
+export const CAUTION =
+  'peakwise supports, and does not replace, the judgment of a qualified engineer; ' +
+  'follow the design codes and licensed practice that apply where you work.';
+
+/** Words for a selector: "the boundary on the line x = 0". */
+export function describeSelector(where: Selector, lengthUnit: string): string {
+  const u = stripControl(lengthUnit);
+  const n = (v: number) => formatNumber(v);
+  switch (where.kind) {
+    case 'x':
+      return `the boundary on the line x = ${n(where.value)} ${u}`.trimEnd();
+    case 'y':
+      return `the boundary on the line y = ${n(where.value)} ${u}`.trimEnd();
+    case 'segment':
+      return `the boundary between (${n(where.from[0])}, ${n(where.from[1])}) and (${n(where.to[0])}, ${n(where.to[1])})`;
+    case 'opening':
+      return `the edge of opening “${stripControl(where.id)}”`;
+    case 'outline':
+      return 'the whole outer edge';
+    case 'point':
+      return `the point (${n(where.at[0])}, ${n(where.at[1])})`;
+  }
+}
+
+export function describeSupport(support: Support, lengthUnit: string): string {
+  const dirs = [support.fix.x ? 'x' : '', support.fix.y ? 'y' : ''].filter(Boolean);
+  const held = dirs.length === 2 ? 'held in x and y' : dirs.length === 1 ? `held in ${dirs[0]} only` : 'free';
+  return `${capitalise(describeSelector(support.where, lengthUnit))} is ${held}.`;
+}
+
+export function describeLoad(load: Load, units: { length: string; force: string; stress: string }): string {
+  const where = describeSelector(load.where, units.length);
+  const s = stripControl(units.stress);
+  const f = stripControl(units.force);
+  switch (load.kind) {
+    case 'traction':
+      return `Traction (${formatNumber(load.traction[0])}, ${formatNumber(load.traction[1])}) ${s} on ${where}.`;
+    case 'pressure':
+      return `Pressure ${formatNumber(load.pressure)} ${s} pushing on ${where}.`;
+    case 'force':
+      return `Concentrated force (${formatNumber(load.force[0])}, ${formatNumber(load.force[1])}) ${f} at ${where}.`;
+  }
+}
+
+export function capitalise(text: string): string {
+  return text.length > 0 ? text[0].toUpperCase() + text.slice(1) : text;
+}
+
+/** "S1 at (12, 30) mm" style location. */
+export function spotWhere(spot: SpotResult, lengthUnit: string): string {
+  return `(${formatNumber(spot.at[0])}, ${formatNumber(spot.at[1])}) ${stripControl(lengthUnit)}`.trimEnd();
+}
+
+/** The short feature label used in tables: "corner 270°", "fillet r 5", "point load". */
+export function featureLabel(spot: SpotResult): string {
+  const f = spot.feature;
+  switch (f.kind) {
+    case 'corner':
+      return `corner ${formatNumber(f.interiorAngleDeg, 4)}°`;
+    case 'fillet':
+      return `fillet r ${formatNumber(f.radius)}`;
+    case 'opening':
+      return f.radius > 0 ? `opening r ${formatNumber(f.radius)}` : 'opening';
+    default:
+      return stripControl(f.kind).replace('-', ' ');
+  }
+}
+
+/**
+ * The headline value of a spot: the extrapolated value for a converging spot, the growth rate
+ * for a singular one (the peak itself means nothing there), the last peak for an undecided one.
+ */
+export function spotValue(spot: SpotResult, stressUnit: string): string {
+  const s = stripControl(stressUnit);
+  if (spot.verdict === 'converging') {
+    return `${formatNumber(spot.estimate.value)} ± ${formatNumber(spot.estimate.uncertainty, 2)} ${s}`.trimEnd();
+  }
+  if (spot.verdict === 'singular') {
+    return `q = ${formatFixed(spot.growth.exponent, 2)} (theory ${formatFixed(spot.growth.theory, 2)})`;
+  }
+  const last = spot.levels[spot.levels.length - 1];
+  return last ? `last peak ${formatNumber(last.peak)} ${s} (unsettled)`.trimEnd() : 'no levels';
+}
+
+/** The usable engineering measure(s) of a spot, in one line. */
+export function spotReadout(spot: SpotResult, units: StudyResult['units']): string {
+  const r = spot.readouts;
+  const s = stripControl(units.stress);
+  const L = stripControl(units.length);
+  const parts: string[] = [];
+  if (r.atDistance !== undefined && Number.isFinite(r.atDistance)) {
+    const d = r.distance !== undefined ? ` at ${formatNumber(r.distance)} ${L}` : ' at distance';
+    parts.push(`${formatNumber(r.atDistance)} ${s}${d}`);
+  }
+  if (r.average !== undefined && Number.isFinite(r.average)) parts.push(`disk mean ${formatNumber(r.average)} ${s}`);
+  // line-method mean: newer study results carry it; read it structurally so older ones still type-check
+  const line = r as { lineAverage?: number; lineLength?: number };
+  if (line.lineAverage !== undefined && Number.isFinite(line.lineAverage)) {
+    const over = line.lineLength !== undefined ? ` over ${formatNumber(line.lineLength)} ${L}` : '';
+    parts.push(`line mean ${formatNumber(line.lineAverage)} ${s}${over}`);
+  }
+  if (r.nsif !== undefined && Number.isFinite(r.nsif)) {
+    parts.push(`K = ${formatNumber(r.nsif)}${r.nsifUnits ? ' ' + stripControl(r.nsifUnits) : ''}`);
+  }
+  return parts.length > 0 ? parts.join('; ') : '—';
+}
+
+/** Model-level summary lines (used in HTML). */
+export function materialLine(model: Model, stressUnit: string): string {
+  return `E = ${formatNumber(model.material.E)} ${stripControl(stressUnit)}, ν = ${formatNumber(model.material.nu)}`;
+}
