@@ -91,6 +91,12 @@ export interface SourcePosition {
   col: number;
 }
 
+/** Something in the file that is valid but probably not what the user meant. */
+export interface ModelWarning {
+  keyPath: string;
+  message: string;
+}
+
 export interface Model {
   title: string;
   /** file the model was read from ('' when built in code) */
@@ -107,4 +113,6 @@ export interface Model {
   study: StudySettings;
   /** key path (`loads[1].where`) → 1-based position of that key's value in the file */
   sourceMap: Record<string, SourcePosition>;
+  /** hints the CLI prints on stderr (e.g. E that looks like it is in other units) */
+  warnings?: ModelWarning[];
 }

@@ -1,0 +1,324 @@
+/**
+ * Validated model file → Model: evaluate every expression, apply the value rules,
+ * fill defaults, check cross references (opening ids). Geometry checks (crossings,
+ * fillets that do not fit) are the geometry stage's.
+ */
+import { ModelError } from '../errors.js';
+import { ExpressionError, evaluateExpression } from './expr.js';
+import { joinPath, parsePath } from './keypath.js';
+import { nearest } from './issues.js';
+import type { ModelFile, RawPoint, RawVertex } from './schema.js';
+import { didYouMean, formatNumber, quote } from './text.js';
+import type {
+  Load, LocalSize, Model, ModelWarning, Opening, Point, PolygonVertex, Selector, Shape, SourcePosition, StudySettings, Support,
+} from './types.js';
+import { DEFAULT_UNITS, PLAUSIBLE_E_MPA, stressToMPa, stressUnit } from './units.js';
+
+/** Largest number accepted anywhere: beyond it the value is a slip, not a plate. */
+export const MAX_MAGNITUDE = 1e15;
+
+/**
+ * Estimated triangle count above which a mesh request is refused before any work: far
+ * beyond what the solver's default DOF limit admits, so only absurd sizes trip it.
+ */
+export const MAX_ESTIMATED_TRIANGLES = 2e7;
+
+/** Area of an equilateral triangle of edge h is √3/4·h² (used for element estimates). */
+const EQUILATERAL = Math.sqrt(3) / 4;
+
+export const DEFAULT_STUDY: Readonly<Omit<StudySettings, 'readouts'>> = {
+  measure: 'von-mises', levels: 6, ratio: 2, spots: 'auto',
+};
+
+interface Rule {
+  test: (v: number) => boolean;
+  text: string;
+}
+const POSITIVE: Rule = { test: (v) => v > 0, text: 'must be > 0' };
+const NON_NEGATIVE: Rule = { test: (v) => v >= 0, text: 'must be >= 0 (0 = sharp)' };
+const ANY: Rule = { test: () => true, text: '' };
+
+export class Builder {
+  readonly warnings: ModelWarning[] = [];
+  constructor(
+    private readonly params: Readonly<Record<string, number>>,
+    private readonly valueAt: Record<string, SourcePosition>,
+    private readonly lengthUnit: string,
+  ) {}
+
+  fail(message: string, keyPath: string): never {
+    const pos = nearest(this.valueAt, parsePath(keyPath));
+    throw new ModelError(message, keyPath, pos.line, pos.col);
+  }
+
+  /** A number or an expression, evaluated, finite, within MAX_MAGNITUDE, obeying `rule`. */
+  num(raw: number | string, keyPath: string, quantity = '', rule: Rule = ANY, unit = ''): number {
+    let value: number;
+    if (typeof raw === 'number') {
+      if (!Number.isFinite(raw)) this.fail(`expected a finite number, got ${raw}`, keyPath);
+      value = raw;
+    } else {
+      try {
+        value = evaluateExpression(raw, this.params);
+      } catch (e) {
+        if (e instanceof ExpressionError) this.fail(`${e.message} in expression ${quote(raw)}`, keyPath);
+        throw e;
+      }
+    }
+    const from = typeof raw === 'string' ? ` (from ${quote(raw)})` : '';
+    const got = `${formatNumber(value)}${unit ? ` ${unit}` : ''}${from}`;
+    if (Math.abs(value) > MAX_MAGNITUDE) {
+      this.fail(`${quantity || 'value'} ${got} is absurdly large (limit ±${formatNumber(MAX_MAGNITUDE)})`, keyPath);
+    }
+    if (!rule.test(value)) this.fail(`${quantity} ${rule.text}, got ${got}`, keyPath);
+    return value;
+  }
+
+  length(raw: number | string, keyPath: string, quantity: string, rule: Rule = POSITIVE): number {
+    return this.num(raw, keyPath, quantity, rule, this.lengthUnit);
+  }
+
+  point(raw: RawPoint, keyPath: string): Point {
+    return [this.num(raw[0], joinPath(keyPath, 0), 'x'), this.num(raw[1], joinPath(keyPath, 1), 'y')];
+  }
+
+  vertex(raw: RawVertex, keyPath: string): PolygonVertex {
+    if (Array.isArray(raw)) return { at: this.point(raw, keyPath), round: 0 };
+    const round = raw.round === undefined ? 0 : this.length(raw.round, joinPath(keyPath, 'round'), 'corner radius round', NON_NEGATIVE);
+    return { at: this.point(raw.at, joinPath(keyPath, 'at')), round };
+  }
+
+  shape(raw: NonNullable<ModelFile['plate']['openings']>[number] | Exclude<ModelFile['plate']['outline'], unknown[]>, keyPath: string): Shape {
+    if (raw.circle) {
+      const p = joinPath(keyPath, 'circle');
+      return {
+        kind: 'circle',
+        center: this.point(raw.circle.center, joinPath(p, 'center')),
+        radius: this.length(raw.circle.radius, joinPath(p, 'radius'), 'circle radius'),
+      };
+    }
+    if (raw.ellipse) {
+      const p = joinPath(keyPath, 'ellipse');
+      const e = raw.ellipse;
+      return {
+        kind: 'ellipse',
+        center: this.point(e.center, joinPath(p, 'center')),
+        a: this.length(e.a, joinPath(p, 'a'), 'ellipse semi-axis a'),
+        b: this.length(e.b, joinPath(p, 'b'), 'ellipse semi-axis b'),
+        angleDeg: e.angle === undefined ? 0 : this.num(e.angle, joinPath(p, 'angle'), 'ellipse angle'),
+      };
+    }
+    if (raw.rect) {
+      const p = joinPath(keyPath, 'rect');
+      const r = raw.rect;
+      return {
+        kind: 'rect',
+        center: this.point(r.center, joinPath(p, 'center')),
+        width: this.length(r.width, joinPath(p, 'width'), 'rectangle width'),
+        height: this.length(r.height, joinPath(p, 'height'), 'rectangle height'),
+        round: r.round === undefined ? 0 : this.length(r.round, joinPath(p, 'round'), 'corner radius round', NON_NEGATIVE),
+      };
+    }
+    const p = joinPath(keyPath, 'polygon');
+    return { kind: 'polygon', vertices: (raw.polygon ?? []).map((v, i) => this.vertex(v, joinPath(p, i))) };
+  }
+
+  selector(raw: ModelFile['loads'][number]['where'], keyPath: string, openingIds: readonly string[]): Selector {
+    if (raw.x !== undefined) return { kind: 'x', value: this.num(raw.x, joinPath(keyPath, 'x'), 'x') };
+    if (raw.y !== undefined) return { kind: 'y', value: this.num(raw.y, joinPath(keyPath, 'y'), 'y') };
+    if (raw.segment !== undefined) {
+      const p = joinPath(keyPath, 'segment');
+      const from = this.point(raw.segment[0], joinPath(p, 0));
+      const to = this.point(raw.segment[1], joinPath(p, 1));
+      if (from[0] === to[0] && from[1] === to[1]) this.fail(`segment has zero length: both ends at [${from.join(', ')}]`, p);
+      return { kind: 'segment', from, to };
+    }
+    if (raw.opening !== undefined) {
+      const id = raw.opening;
+      if (!openingIds.includes(id)) {
+        const known = openingIds.length ? `the openings are ${openingIds.join(', ')}` : 'the plate has no openings';
+        this.fail(`no opening has id ${quote(id)}${didYouMean(id, openingIds)}; ${known}`, joinPath(keyPath, 'opening'));
+      }
+      return { kind: 'opening', id };
+    }
+    if (raw.outline !== undefined) return { kind: 'outline' };
+    return { kind: 'point', at: this.point(raw.point!, joinPath(keyPath, 'point')) };
+  }
+}
+
+export function buildModel(
+  raw: ModelFile,
+  file: string,
+  params: Readonly<Record<string, number>>,
+  valueAt: Record<string, SourcePosition>,
+): Model {
+  const units = { length: raw.units?.length ?? DEFAULT_UNITS.length, force: raw.units?.force ?? DEFAULT_UNITS.force };
+  const stress = stressUnit(units);
+  const b = new Builder(params, valueAt, units.length);
+
+  const E = b.num(raw.material.E, 'material.E', "Young's modulus E", POSITIVE, stress);
+  const nu = b.num(raw.material.nu, 'material.nu', "Poisson's ratio nu", {
+    test: (v) => v > -1 && v < 0.5, text: 'must lie strictly between -1 and 0.5',
+  });
+  const toMPa = stressToMPa(units);
+  if (toMPa !== undefined) {
+    const eMPa = E * toMPa;
+    if (eMPa < PLAUSIBLE_E_MPA[0] || eMPa > PLAUSIBLE_E_MPA[1]) {
+      b.warnings.push({
+        keyPath: 'material.E',
+        message: `E = ${formatNumber(E)} ${stress} is ${formatNumber(eMPa)} MPa, outside the usual range of solids; `
+          + `check that E is in ${stress} (lengths in ${units.length}, forces in ${units.force}); steel is about ${formatNumber(2.1e5 / toMPa)} ${stress}`,
+      });
+    }
+  }
+  const thickness = b.length(raw.thickness, 'thickness', 'plate thickness');
+
+  const outline: Shape = Array.isArray(raw.plate.outline)
+    ? { kind: 'polygon', vertices: raw.plate.outline.map((v, i) => b.vertex(v, joinPath('plate.outline', i))) }
+    : b.shape(raw.plate.outline, 'plate.outline');
+
+  const openings: Opening[] = [];
+  const firstUse = new Map<string, string>();
+  (raw.plate.openings ?? []).forEach((o, i) => {
+    const keyPath = joinPath('plate.openings', i);
+    const earlier = firstUse.get(o.id);
+    if (earlier !== undefined) b.fail(`opening id ${quote(o.id)} is already used by ${earlier}; ids must be unique`, joinPath(keyPath, 'id'));
+    firstUse.set(o.id, keyPath);
+    openings.push({ id: o.id, shape: b.shape(o, keyPath), keyPath });
+  });
+  const ids = openings.map((o) => o.id);
+
+  const supports: Support[] = raw.supports.map((s, i) => {
+    const keyPath = joinPath('supports', i);
+    return {
+      where: b.selector(s.where, joinPath(keyPath, 'where'), ids),
+      fix: { x: s.fix.includes('x'), y: s.fix.includes('y') },
+      keyPath,
+    };
+  });
+
+  const loads: Load[] = raw.loads.map((l, i): Load => {
+    const keyPath = joinPath('loads', i);
+    const where = b.selector(l.where, joinPath(keyPath, 'where'), ids);
+    if (l.traction !== undefined) return { kind: 'traction', where, traction: b.point(l.traction, joinPath(keyPath, 'traction')), keyPath };
+    if (l.pressure !== undefined) return { kind: 'pressure', where, pressure: b.num(l.pressure, joinPath(keyPath, 'pressure'), 'pressure'), keyPath };
+    return { kind: 'force', where, force: b.point(l.force!, joinPath(keyPath, 'force')), keyPath };
+  });
+
+  const box = boundingBox(outline);
+  const plateArea = Math.max(shapeArea(outline), 0);
+  // default: a tenth of the plate's smaller extent (degenerate outlines are left for the
+  // geometry stage to report, so never fail here)
+  const extent = Math.min(box.width, box.height) > 0 ? Math.min(box.width, box.height) : Math.max(box.width, box.height);
+  const defaultSize = Number.isFinite(extent) && extent > 0 ? extent / 10 : 1;
+  const size = raw.mesh?.size === undefined ? defaultSize : b.length(raw.mesh.size, 'mesh.size', 'mesh size');
+  checkTriangleCount(b, plateArea / (EQUILATERAL * size * size), size, 'mesh.size', units.length);
+  const order = raw.mesh?.order === undefined ? 2 : b.num(raw.mesh.order, 'mesh.order', 'element order', {
+    test: (v) => v === 1 || v === 2, text: 'must be 1 (3-node CST) or 2 (6-node LST)',
+  }) as 1 | 2;
+  const local: LocalSize[] = (raw.mesh?.local ?? []).map((l, i) => {
+    const keyPath = joinPath('mesh.local', i);
+    const entry = {
+      near: b.point(l.near, joinPath(keyPath, 'near')),
+      size: b.length(l.size, joinPath(keyPath, 'size'), 'local mesh size'),
+      radius: b.length(l.radius, joinPath(keyPath, 'radius'), 'local radius'),
+    };
+    const disk = Math.min(Math.PI * entry.radius ** 2, plateArea);
+    checkTriangleCount(b, disk / (EQUILATERAL * entry.size ** 2), entry.size, joinPath(keyPath, 'size'), units.length);
+    return entry;
+  });
+
+  const s = raw.study;
+  const study: StudySettings = {
+    measure: s?.measure ?? DEFAULT_STUDY.measure,
+    levels: s?.levels === undefined ? DEFAULT_STUDY.levels : b.num(s.levels, 'study.levels', 'refinement levels', {
+      test: (v) => Number.isInteger(v) && v >= 2 && v <= 12, text: 'must be a whole number from 2 to 12',
+    }),
+    ratio: s?.ratio === undefined ? DEFAULT_STUDY.ratio : b.num(s.ratio, 'study.ratio', 'refinement ratio', {
+      test: (v) => v > 1 && v <= 10, text: 'must be > 1 (size shrinks by this factor per level) and at most 10',
+    }),
+    spots: s?.spots === undefined || s.spots === 'auto'
+      ? 'auto'
+      : s.spots.map((p, i) => b.point(p, joinPath('study.spots', i))),
+    readouts: {
+      distance: s?.readouts?.distance === undefined
+        ? undefined
+        : b.length(s.readouts.distance, 'study.readouts.distance', 'readout distance'),
+    },
+  };
+
+  const model: Model = {
+    title: raw.title?.trim() || defaultTitle(file),
+    file,
+    units,
+    params: { ...params },
+    material: { E, nu },
+    thickness,
+    state: raw.state ?? 'plane-stress',
+    plate: { outline, openings },
+    supports,
+    loads,
+    mesh: { size, order, local },
+    study,
+    sourceMap: valueAt,
+  };
+  if (b.warnings.length > 0) model.warnings = b.warnings;
+  return model;
+}
+
+function checkTriangleCount(b: Builder, estimate: number, size: number, keyPath: string, unit: string): void {
+  if (estimate > MAX_ESTIMATED_TRIANGLES) {
+    b.fail(
+      `mesh size ${formatNumber(size)} ${unit} would need about ${formatNumber(estimate)} triangles `
+        + `(limit ${formatNumber(MAX_ESTIMATED_TRIANGLES)}); use a larger size and refine locally with mesh.local`,
+      keyPath,
+    );
+  }
+}
+
+function defaultTitle(file: string): string {
+  const base = file.split(/[\\/]/).pop() ?? '';
+  return base.replace(/\.(ya?ml|json)$/i, '') || 'untitled model';
+}
+
+/** Axis-aligned bounds of a shape (fillets ignored: they only cut corners off). */
+export function boundingBox(shape: Shape): { minX: number; minY: number; width: number; height: number } {
+  switch (shape.kind) {
+    case 'circle':
+      return { minX: shape.center[0] - shape.radius, minY: shape.center[1] - shape.radius, width: 2 * shape.radius, height: 2 * shape.radius };
+    case 'ellipse': {
+      const t = (shape.angleDeg * Math.PI) / 180;
+      const hx = Math.hypot(shape.a * Math.cos(t), shape.b * Math.sin(t));
+      const hy = Math.hypot(shape.a * Math.sin(t), shape.b * Math.cos(t));
+      return { minX: shape.center[0] - hx, minY: shape.center[1] - hy, width: 2 * hx, height: 2 * hy };
+    }
+    case 'rect':
+      return { minX: shape.center[0] - shape.width / 2, minY: shape.center[1] - shape.height / 2, width: shape.width, height: shape.height };
+    case 'polygon': {
+      const xs = shape.vertices.map((v) => v.at[0]);
+      const ys = shape.vertices.map((v) => v.at[1]);
+      const minX = Math.min(...xs);
+      const minY = Math.min(...ys);
+      return { minX, minY, width: Math.max(...xs) - minX, height: Math.max(...ys) - minY };
+    }
+  }
+}
+
+/** Area enclosed by a shape, sharp corners (fillets ignored), polygon by the shoelace formula. */
+export function shapeArea(shape: Shape): number {
+  switch (shape.kind) {
+    case 'circle': return Math.PI * shape.radius ** 2;
+    case 'ellipse': return Math.PI * shape.a * shape.b;
+    case 'rect': return shape.width * shape.height;
+    case 'polygon': {
+      let twice = 0;
+      const v = shape.vertices;
+      for (let i = 0; i < v.length; i++) {
+        const [x0, y0] = v[i].at;
+        const [x1, y1] = v[(i + 1) % v.length].at;
+        twice += x0 * y1 - x1 * y0;
+      }
+      return Math.abs(twice) / 2;
+    }
+  }
+}

@@ -1,0 +1,227 @@
+/**
+ * The shape of a model file before evaluation (design.md §3, version 1), as zod schemas.
+ * Numbers may still be expressions here; value rules (thickness > 0, …) come after the
+ * expressions are evaluated, in build.ts. Every schema carries its own message so that the
+ * translation in issues.ts can print them as they are.
+ */
+import { z } from 'zod';
+import { describe, didYouMean, listOr, quote } from './text.js';
+
+/** `expected <what>, got <what the file holds>` for any issue raised by one schema. */
+const expected = (what: string) => (issue: { input?: unknown }) => `expected ${what}, got ${describe(issue.input)}`;
+
+/** A strict mapping whose unknown keys are reported with a hint from its own keys. */
+function mapping<T extends z.ZodRawShape>(shape: T, what: string) {
+  const keys = Object.keys(shape);
+  return z.strictObject(shape, {
+    error: (issue) => {
+      if (issue.code === 'unrecognized_keys') {
+        const key = (issue as { keys: string[] }).keys[0];
+        const hint = didYouMean(key, keys);
+        return hint ? `unknown key ${quote(key)}${hint}` : `unknown key ${quote(key)}; allowed here: ${keys.join(', ')}`;
+      }
+      return `expected ${what}, got ${describe(issue.input)}`;
+    },
+  });
+}
+
+/** One of a fixed set of words, with a hint for a near miss. */
+function word<const T extends readonly [string, ...string[]]>(values: T) {
+  return z.enum(values, {
+    error: (issue) => {
+      const got = issue.input;
+      const hint = typeof got === 'string' ? didYouMean(got, values) : '';
+      return `expected one of ${values.join(', ')}, got ${describe(got)}${hint}`;
+    },
+  });
+}
+
+/** Exactly one of `keys` present. Issues go on the second key when there are two. */
+function exactlyOne(keys: readonly string[]) {
+  return (value: Record<string, unknown>, ctx: z.RefinementCtx): void => {
+    const present = keys.filter((k) => value[k] !== undefined);
+    if (present.length === 1) return;
+    ctx.addIssue({
+      code: 'custom',
+      message: present.length === 0
+        ? `expected one of ${keys.join(', ')}`
+        : `expected exactly one of ${keys.join(', ')}, got ${listOr(present).replace(/, | or /g, ' and ')}`,
+      path: present.length > 1 ? [present[1]] : [],
+    });
+  };
+}
+
+/** A number, or text holding an expression over params (a bare name is text in YAML). */
+export const NumberLike = z.custom<number | string>(
+  (v) => typeof v === 'number' || typeof v === 'string',
+  { error: expected('a number or an expression') },
+);
+
+export const PointLike = z.tuple([NumberLike, NumberLike], { error: expected('a point [x, y]') });
+
+const Name = z.string({ error: expected('a name') }).regex(/^[A-Za-z_][A-Za-z0-9_-]*$/, {
+  error: (issue) => `expected a name (letters, digits, _ and -, starting with a letter), got ${describe(issue.input)}`,
+});
+
+const Label = z.string({ error: expected('a unit label such as mm or N') }).regex(/^[^\s\u0000-\u001f]{1,12}$/, {
+  error: (issue) => `expected a short unit label without spaces, got ${describe(issue.input)}`,
+});
+
+const VertexObject = mapping({ at: PointLike, round: NumberLike.optional() }, 'a vertex { at: [x, y], round: r }');
+export const VertexLike = z.union([PointLike, VertexObject], {
+  error: expected('a vertex [x, y] or { at: [x, y], round: r }'),
+});
+
+const PolygonLike = z
+  .array(VertexLike, { error: expected('a list of vertices [x, y]') })
+  .min(3, { error: (issue) => `a polygon needs at least 3 vertices, got ${describe(issue.input)}` });
+
+const CircleLike = mapping({ center: PointLike, radius: NumberLike }, 'a circle { center: [x, y], radius: r }');
+const EllipseLike = mapping(
+  { center: PointLike, a: NumberLike, b: NumberLike, angle: NumberLike.optional() },
+  'an ellipse { center: [x, y], a, b, angle }',
+);
+const RectLike = mapping(
+  { center: PointLike, width: NumberLike, height: NumberLike, round: NumberLike.optional() },
+  'a rectangle { center: [x, y], width, height, round }',
+);
+
+export const SHAPE_KINDS = ['circle', 'ellipse', 'rect', 'polygon'] as const;
+
+const ShapeLike = mapping(
+  { circle: CircleLike.optional(), ellipse: EllipseLike.optional(), rect: RectLike.optional(), polygon: PolygonLike.optional() },
+  'a shape { circle | ellipse | rect | polygon: … }',
+).superRefine(exactlyOne(SHAPE_KINDS));
+
+const OutlineLike = z.union([PolygonLike, ShapeLike], {
+  error: expected('a list of vertices or one shape { circle | ellipse | rect: … }'),
+});
+
+const OpeningLike = mapping(
+  {
+    id: Name,
+    circle: CircleLike.optional(),
+    ellipse: EllipseLike.optional(),
+    rect: RectLike.optional(),
+    polygon: PolygonLike.optional(),
+  },
+  'an opening { id, circle | ellipse | rect | polygon }',
+).superRefine(exactlyOne(SHAPE_KINDS));
+
+export const SELECTOR_KINDS = ['x', 'y', 'segment', 'opening', 'outline', 'point'] as const;
+
+const SelectorLike = mapping(
+  {
+    x: NumberLike.optional(),
+    y: NumberLike.optional(),
+    segment: z.tuple([PointLike, PointLike], { error: expected('a segment [[x1, y1], [x2, y2]]') }).optional(),
+    opening: Name.optional(),
+    outline: z.literal(true, { error: expected('true (the whole outer boundary)') }).optional(),
+    point: PointLike.optional(),
+  },
+  `a selector { ${SELECTOR_KINDS.join(' | ')}: … }`,
+).superRefine(exactlyOne(SELECTOR_KINDS));
+
+const SupportLike = mapping(
+  {
+    where: SelectorLike,
+    fix: z
+      .array(word(['x', 'y']), { error: expected('a list of directions such as [x, y] or [y]') })
+      .min(1, { error: () => 'expected at least one direction, [x], [y] or [x, y]' }),
+  },
+  'a support { where: …, fix: [x, y] }',
+).superRefine((value, ctx) => {
+  if (value.fix.length === 2 && value.fix[0] === value.fix[1]) {
+    ctx.addIssue({ code: 'custom', message: `direction ${value.fix[0]} is listed twice`, path: ['fix', 1] });
+  }
+});
+
+export const LOAD_KINDS = ['traction', 'pressure', 'force'] as const;
+
+const LoadLike = mapping(
+  { where: SelectorLike, traction: PointLike.optional(), pressure: NumberLike.optional(), force: PointLike.optional() },
+  'a load { where: …, traction | pressure | force: … }',
+)
+  .superRefine(exactlyOne(LOAD_KINDS))
+  .superRefine((value, ctx) => {
+    const atPoint = value.where.point !== undefined;
+    if (value.force !== undefined && !atPoint) {
+      ctx.addIssue({
+        code: 'custom',
+        message: 'a concentrated force needs a point selector { point: [x, y] }; for a load spread along an edge use traction or pressure',
+        path: ['where'],
+      });
+    } else if (atPoint && (value.traction !== undefined || value.pressure !== undefined)) {
+      ctx.addIssue({
+        code: 'custom',
+        message: `a point selector can carry only a force [fx, fy]; ${value.traction !== undefined ? 'traction' : 'pressure'} acts along an edge`,
+        path: ['where'],
+      });
+    }
+  });
+
+const LocalSizeLike = mapping(
+  { near: PointLike, size: NumberLike, radius: NumberLike },
+  'a local size { near: [x, y], size, radius }',
+);
+
+const MeshLike = mapping(
+  {
+    size: NumberLike.optional(),
+    order: NumberLike.optional(),
+    local: z.array(LocalSizeLike, { error: expected('a list of { near, size, radius }') }).optional(),
+  },
+  'mesh settings { size, order, local }',
+);
+
+export const MEASURES = ['von-mises', 'max-principal', 'tresca', 'sxx', 'syy', 'sxy'] as const;
+
+const StudyLike = mapping(
+  {
+    measure: word(MEASURES).optional(),
+    levels: NumberLike.optional(),
+    ratio: NumberLike.optional(),
+    spots: z
+      .union([
+        z.literal('auto'),
+        z.array(PointLike, { error: expected('a list of points [x, y]') }).min(1, { error: () => 'expected at least one point, or auto' }),
+      ], { error: expected('auto or a list of points [x, y]') })
+      .optional(),
+    readouts: mapping({ distance: NumberLike.optional() }, 'readouts { distance }').optional(),
+  },
+  'study settings { measure, levels, ratio, spots, readouts }',
+);
+
+export const STATES = ['plane-stress', 'plane-strain'] as const;
+
+export const ModelFileSchema = mapping(
+  {
+    version: z.literal(1, { error: expected('1 (the only model file version so far)') }).optional(),
+    title: z.string({ error: expected('a title (text)') }).optional(),
+    units: mapping({ length: Label.optional(), force: Label.optional() }, 'units { length, force }').optional(),
+    params: z.record(z.string(), NumberLike, { error: expected('a mapping of names to numbers') }).optional(),
+    material: mapping({ E: NumberLike, nu: NumberLike }, 'a material { E, nu }'),
+    thickness: NumberLike,
+    state: word(STATES).optional(),
+    plate: mapping(
+      {
+        outline: OutlineLike,
+        openings: z.array(OpeningLike, { error: expected('a list of openings') }).optional(),
+      },
+      'a plate { outline, openings }',
+    ),
+    supports: z.array(SupportLike, { error: expected('a list of supports') }).min(1, {
+      error: () => 'expected at least one support; the plate must be held against rigid motion',
+    }),
+    loads: z.array(LoadLike, { error: expected('a list of loads') }).min(1, {
+      error: () => 'expected at least one load',
+    }),
+    mesh: MeshLike.optional(),
+    study: StudyLike.optional(),
+  },
+  'a model mapping',
+);
+
+export type ModelFile = z.infer<typeof ModelFileSchema>;
+export type RawVertex = z.infer<typeof VertexLike>;
+export type RawPoint = z.infer<typeof PointLike>;
