@@ -7,7 +7,7 @@ import { GeometryError } from '../errors.js';
 import type { Point, PolygonVertex, Shape } from '../model/types.js';
 import type { Curve, PieceRole } from './types.js';
 import { fmt, fmtPoint } from './format.js';
-import { forEachOverlappingPair, segmentMeetPoint, segmentsIntersect } from './predicates.js';
+import { forEachOverlappingPair, leftOf, segmentMeetPoint, segmentsIntersect } from './predicates.js';
 
 /** A piece before it gets its id. */
 export interface PieceDraft {
@@ -212,7 +212,7 @@ function polygonLoop(
   const n = vertices.length;
   if (n < 3) {
     throw new GeometryError(
-      `${ctx.keyPath}: ${ctx.label} has ${n} vertex${n === 1 ? '' : 'es'}; a polygon needs at least 3`,
+      `${ctx.keyPath}: ${ctx.label} has ${n} ${n === 1 ? 'vertex' : 'vertices'}; a polygon needs at least 3`,
       ctx.keyPath,
     );
   }
@@ -243,11 +243,15 @@ function polygonLoop(
     minY = Math.min(minY, p[1]); maxY = Math.max(maxY, p[1]);
   }
   const diag = Math.hypot(maxX - minX, maxY - minY);
-  const area2 = doubleShoelace(pts);
-  if (!(Math.abs(area2) > 1e-12 * diag * diag)) {
+  // all vertices on one line (exact test), before the crossing test would call it a fold-back
+  if (pts.every((p) => leftOf(pts[0], pts[1], p) === 0)) {
     throw new GeometryError(`${ctx.keyPath}: ${ctx.label} encloses no area: its vertices lie on one line`, ctx.keyPath);
   }
   checkPolygonSimple(pts, ctx, vertexPath);
+  const area2 = doubleShoelace(pts);
+  if (!(Math.abs(area2) > 1e-14 * diag * diag)) {
+    throw new GeometryError(`${ctx.keyPath}: ${ctx.label} encloses (almost) no area`, ctx.keyPath);
+  }
 
   // travel order: counter-clockwise for the outline, clockwise for an opening
   const wantPositive = !ctx.hole;

@@ -2,7 +2,7 @@
 import { GeometryError } from '../errors.js';
 import type { Point } from '../model/types.js';
 import type { BoundaryPiece, PlateGeometry } from './types.js';
-import { closestOnCurve, curveLength, curvePoint, curveStart } from './curves.js';
+import { closestOnCurve, curvePoint, curveSpeedBound, curveStart } from './curves.js';
 import { windingNumber } from './checks.js';
 
 export interface PieceHit {
@@ -44,7 +44,8 @@ export function loopPolyline(geom: PlateGeometry, loopId: string, maxChord: numb
   for (const id of loop.pieces) {
     const c = geom.pieces[id].curve;
     out.push(curveStart(c));
-    let m = Math.ceil(curveLength(c) / maxChord);
+    // speed bound × Δt bounds each chord's arc, so no chord exceeds maxChord even on a slender ellipse
+    let m = Math.ceil(curveSpeedBound(c) / maxChord);
     if (c.kind !== 'line') m = Math.max(m, Math.ceil(Math.abs(c.sweep) / (Math.PI / 16)));
     m = Math.max(1, Math.min(m, 100000));
     for (let k = 1; k < m; k++) out.push(curvePoint(c, k / m));
