@@ -24,7 +24,7 @@ export function supportedDofs(
 }
 
 function fmt(v: number): string {
-  return String(Number(v.toPrecision(4)));
+  return String(Number(v.toPrecision(6)) + 0);
 }
 
 /**
@@ -99,8 +99,10 @@ export function checkRigidRestraint(xy: Float64Array, fixed: Uint8Array, scale: 
   const b = V.get(1, kMin);
   const omega = V.get(2, kMin) / L;
   // u = a − ω (y − yc), v = b + ω (x − xc) vanishes at the centre of rotation
-  const px = xc - b / omega;
-  const py = yc + a / omega;
+  // round away the noise of the eigenvector so a pin at the origin prints as (0, 0)
+  const snap = (v: number): number => Math.round(v / (1e-9 * L)) * (1e-9 * L);
+  const px = snap(xc - b / omega);
+  const py = snap(yc + a / omega);
   throw new SolveError(
     `the plate is free to rotate about (${fmt(px)}, ${fmt(py)}): the supports fix x and y but cannot stop a rotation (all fixes act through that point); add a support away from it`,
     'supports',

@@ -237,8 +237,9 @@ export function quarterHoleGeometry(a: number, R: number): PlateGeometry {
 
 /**
  * Mapped mesh of quarterHoleGeometry: s runs from the hole to the square's edge along the ray
- * at angle θ = t·π/2 (graded toward the hole by s^grading), nt must be even so the square's
- * corner (R, R) is a node.
+ * at angle θ = t·π/2, graded toward the hole by the smooth map w = (e^{βs} − 1)/(e^β − 1)
+ * (a power s^γ would make dw/ds vanish at the hole and shift the LST mid-side nodes off the
+ * middle there, like a quarter-point element); nt must be even so the corner (R, R) is a node.
  */
 export function quarterHoleMesh(a: number, R: number, ns: number, nt: number, order: 1 | 2, grading = 1.5): Mesh {
   if (nt % 2 !== 0) throw new Error('nt must be even');
@@ -248,7 +249,7 @@ export function quarterHoleMesh(a: number, R: number, ns: number, nt: number, or
       const th = (t * Math.PI) / 2;
       const c = Math.cos(th), sn = Math.sin(th);
       const outer: Point = th <= Math.PI / 4 ? [R, R * Math.tan(th)] : [R / Math.tan(th), R];
-      const w = Math.pow(s, grading);
+      const w = grading > 0 ? Math.expm1(grading * s) / Math.expm1(grading) : s;
       return [a * c + w * (outer[0] - a * c), a * sn + w * (outer[1] - a * sn)];
     },
     pieceOf: (side, _s, tm) => (side === 0 ? 0 : side === 1 ? (tm < 0.5 ? 1 : 2) : side === 2 ? 3 : 4),

@@ -1,0 +1,84 @@
+import { describe, expect, it } from 'vitest';
+import { SolveError } from '../../src/errors.js';
+import { solvePlate, type ElasticSection } from '../../src/fem/index.js';
+import type { Mesh } from '../../src/mesh/types.js';
+import type { Load, Support } from '../../src/model/types.js';
+import { meshFromTriangles, rectangleGeometry, rectangleMesh } from './helpers/meshes.js';
+
+const section: ElasticSection = { E: 200000, nu: 0.3, state: 'plane-stress', thickness: 5 };
+const geometry = rectangleGeometry(0, 0, 100, 40);
+const pull: Load[] = [{ kind: 'traction', where: { kind: 'x', value: 100 }, traction: [10, 0], keyPath: 'loads[0]' }];
+const sup = (where: Support['where'], x: boolean, y: boolean, i: number): Support => ({ where, fix: { x, y }, keyPath: `supports[${i}]` });
+
+function solveError(mesh: Mesh, supports: Support[]): SolveError {
+  try {
+    solvePlate({ mesh, geometry, section, supports, loads: pull });
+  } catch (err) {
+    if (err instanceof SolveError) return err;
+    throw err;
+  }
+  throw new Error('expected a SolveError');
+}
+
+describe('rigid-body restraint is checked before factorising', () => {
+  const mesh = rectangleMesh(0, 0, 100, 40, 5, 2, 2);
+  it('no supports at all', () => {
+    expect(solveError(mesh, []).message).toMatch(/not supported: it is free to move in x and in y and to rotate/);
+  });
+  it('only y fixed: free to move in x', () => {
+    expect(solveError(mesh, [sup({ kind: 'y', value: 0 }, false, true, 0)]).message).toMatch(/free to move in x \(no support fixes x\)/);
+  });
+  it('only x fixed on one vertical line: free to move in y and to rotate', () => {
+    const e = solveError(mesh, [sup({ kind: 'x', value: 0 }, true, false, 0)]);
+    expect(e.message).toMatch(/free to move in y \(no support fixes y\)/);
+  });
+  it('one pinned point: free to rotate about it', () => {
+    const e = solveError(mesh, [sup({ kind: 'point', at: [0, 0] }, true, true, 0)]);
+    expect(e.message).toMatch(/free to rotate about \(0, 0\)/);
+  });
+  it('a pin and a roller pushing through the pin: free to rotate about the pin', () => {
+    // roller at (100, 0) fixing x acts along the line y = 0 through the pin at (0, 0)
+    const e = solveError(mesh, [sup({ kind: 'point', at: [0, 0] }, true, true, 0), sup({ kind: 'point', at: [100, 0] }, true, false, 1)]);
+    expect(e.message).toMatch(/free to rotate about \(0, 0\)/);
+  });
+  it('x fixed on a horizontal line and y at one point: rotates about that point', () => {
+    const e = solveError(mesh, [sup({ kind: 'y', value: 0 }, true, false, 0), sup({ kind: 'point', at: [40, 0] }, false, true, 1)]);
+    expect(e.message).toMatch(/free to rotate about \(40, 0\)/);
+  });
+  it('a properly supported plate solves and balances', () => {
+    const sol = solvePlate({
+      mesh, geometry, section, loads: pull,
+      supports: [sup({ kind: 'x', value: 0 }, true, false, 0), sup({ kind: 'point', at: [0, 0] }, false, true, 1)],
+    });
+    // uniform bar in tension: u(100) = σ L / E = 10·100/200000 (exact for any element, constant stress)
+    expect(sol.maxDisplacement).toBeGreaterThan(0);
+    let uMax = 0;
+    for (let n = 0; n < sol.u.length / 2; n++) uMax = Math.max(uMax, sol.u[2 * n]);
+    expect(uMax).toBeCloseTo(1000 / 200000, 14);
+    expect(sol.appliedSum[0]).toBeCloseTo(10 * 40 * 5, 10);
+    expect(Math.abs(sol.reactionSum[0] + sol.appliedSum[0]) / sol.appliedSum[0]).toBeLessThan(1e-9);
+    expect(sol.residual).toBeLessThan(1e-12);
+    expect(sol.nnzL).toBeGreaterThan(0);
+  });
+});
+
+describe('a part that is not held', () => {
+  it('a second piece not connected to the supported one is reported with a node and its coordinates', () => {
+    // two unit squares side by side sharing no node: the right one has no support
+    const xy = [0, 0, 1, 0, 1, 1, 0, 1, 2, 0, 3, 0, 3, 1, 2, 1];
+    const tris = [0, 1, 2, 0, 2, 3, 4, 5, 6, 4, 6, 7];
+    const mesh = meshFromTriangles({ xy, tris, order: 1, pieceOf: () => 0 });
+    const geom = rectangleGeometry(0, 0, 3, 1);
+    let caught: unknown;
+    try {
+      solvePlate({
+        mesh, geometry: geom, section, loads: [],
+        supports: [sup({ kind: 'x', value: 0 }, true, true, 0)],
+      });
+    } catch (err) {
+      caught = err;
+    }
+    expect(caught).toBeInstanceOf(SolveError);
+    expect((caught as SolveError).message).toMatch(/not positive definite at node [4-7] \([23], [01]\), u_[xy]: part of the plate is not held/);
+  });
+});
