@@ -12,7 +12,7 @@ import type { TriMesh } from './trimesh.js';
 export const DEFAULT_MIN_ANGLE_DEG = 28;
 export const DEFAULT_MAX_VERTICES = 3_000_000;
 /** a triangle is split when its longest edge exceeds this multiple of the local size */
-export const SIZE_FACTOR = 1.25;
+export const SIZE_FACTOR = 1.45;
 
 /**
  * Mesh a plate: boundary discretisation, constrained Delaunay triangulation, Delaunay
