@@ -181,7 +181,7 @@ export function reportHtml(input: ReportInput): string {
     row('Degrees of freedom', int(2 * stats.nodes)),
     row('Element edges', `${escapeXml(formatNumber(stats.minEdge))} to ${escapeXml(formatNumber(stats.maxEdge))} ${escapeXml(L)}`),
     row('Smallest angle', `${escapeXml(formatNumber(study.mesh.minAngleDeg, 3))}°`),
-    row('Boundary', `${int(stats.boundaryEdges)} edges on ${geometry.pieces.length} pieces, ${geometry.loops.length} loops`),
+    row('Boundary', `${int(stats.boundaryEdges)} edges on ${geometry.pieces.length} pieces, ${geometry.loops.length} loop${geometry.loops.length === 1 ? '' : 's'}`),
     row('Plate area', `${escapeXml(formatNumber(geometry.area, 6))} ${escapeXml(L)}²`),
     row(
       'Base solve',
@@ -255,7 +255,7 @@ export function reportHtml(input: ReportInput): string {
       `<table class="facts">${readouts.join('')}</table>` +
       `<div class="spot-figures"><figure class="plot">${convergencePlotSvg(s, { units: S, lengthUnit: L, measure })}</figure>` +
       `<figure class="inset">${inset}</figure></div>` +
-      `<details open><summary>Refinement levels</summary><table class="levels"><thead><tr><th>level</th><th>h (${escapeXml(L)})</th><th>dofs</th><th>peak (${escapeXml(S)})</th><th>at distance (${escapeXml(S)})</th></tr></thead><tbody>${levelsRows}</tbody></table></details>` +
+      `<details open="open"><summary>Refinement levels</summary><table class="levels"><thead><tr><th>level</th><th>h (${escapeXml(L)})</th><th>dofs</th><th>peak (${escapeXml(S)})</th><th>at distance (${escapeXml(S)})</th></tr></thead><tbody>${levelsRows}</tbody></table></details>` +
       `</section>`
     );
   });
@@ -278,15 +278,15 @@ export function reportHtml(input: ReportInput): string {
     .map((v) => `${study.spots.filter((s) => s.verdict === v).length} ${v}`)
     .join(', ');
   return `<!DOCTYPE html>
-<html lang="en">
+<html lang="en" xmlns="http://www.w3.org/1999/xhtml">
 <head>
-<meta charset="utf-8">
-<meta name="viewport" content="width=device-width, initial-scale=1">
+<meta charset="utf-8"/>
+<meta name="viewport" content="width=device-width, initial-scale=1"/>
 <title>${title}</title>
 <style>${plotCss}</style>
 </head>
 <body>
-<input type="checkbox" id="show-mesh" class="toggle-input">
+<input type="checkbox" id="show-mesh" class="toggle-input" aria-label="show element edges"/>
 <header>
 <p class="tool">peakwise ${escapeXml(study.version)} · hot-spot study</p>
 <h1>${title}</h1>

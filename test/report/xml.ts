@@ -29,6 +29,10 @@ export function checkXml(text: string): { errors: string[]; elements: number; ro
       i = end + 3;
       continue;
     }
+    if (text.startsWith('<!DOCTYPE', lt) || text.startsWith('<!doctype', lt)) {
+      i = text.indexOf('>', lt) + 1;
+      continue;
+    }
     if (text.startsWith('<?', lt)) {
       const end = text.indexOf('?>', lt);
       if (end < 0) { errors.push('unclosed declaration'); break; }

@@ -1,0 +1,106 @@
+import { describe, it, expect } from 'vitest';
+import { CAUTION, reportHtml, stripControl } from '../../src/report/index.js';
+import type { ReportInput } from '../../src/report/index.js';
+import { checkXml, svgFragments } from './xml.js';
+import { HOSTILE, cornerField, demoModel, demoStudy, gridMesh, plateGeometry, smoothDisplacement } from './fixtures.js';
+
+const plate = { nx: 40, ny: 30, width: 400, height: 300, order: 2 as const, lShape: true };
+
+export function demoReportInput(hostile = ''): ReportInput {
+  const mesh = gridMesh(plate);
+  return {
+    model: demoModel(hostile),
+    study: demoStudy(hostile),
+    mesh,
+    geometry: plateGeometry(plate),
+    field: cornerField(mesh, [200, 150], 0.4555, 400),
+    u: smoothDisplacement(mesh, 400),
+    checks: [
+      { name: `Kirsch hole, Kt = 3 ${hostile}`, pass: true, detail: `3.004 (Kirsch 1898) ${hostile}` },
+      { name: 'Lamé thick ring', pass: true },
+      { name: 'Inglis ellipse a/b = 3', pass: false, detail: 'off by 2 %' },
+    ],
+  };
+}
+
+const unescape = (s: string) =>
+  s.replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&quot;/g, '"').replace(/&#39;/g, "'").replace(/&amp;/g, '&');
+
+describe('reportHtml', () => {
+  const input = demoReportInput();
+  const html = reportHtml(input);
+
+  it('is one well-formed page whose pictures are all well-formed SVG', () => {
+    expect(checkXml(html).errors).toEqual([]);
+    const svgs = svgFragments(html);
+    expect(svgs.length).toBe(1 + 2 * input.study.spots.length); // main contour, per spot a plot and an inset
+    for (const s of svgs) expect(checkXml(s).errors).toEqual([]);
+  });
+
+  it('has the sections an engineer reads: model, mesh, picture, verdicts, spots, verification, caution', () => {
+    for (const id of ['model', 'mesh', 'picture', 'verdicts', 'spots', 'verification']) expect(html).toContain(`<section id="${id}">`);
+    for (const s of input.study.spots) expect(html).toContain(`<section class="spot" id="spot-${s.id}">`);
+    expect(html.match(/<svg [^>]*class="convergence-plot"/g)?.length).toBe(3);
+    expect(html.match(/class="contour contour-inset"/g)?.length).toBe(3);
+    expect(html.match(/class="contour contour-main"/g)?.length).toBe(1);
+    expect(html.split(CAUTION).length - 1).toBe(2); // top and bottom of the page
+    expect(html).toContain('2 of 3 closed-form checks pass');
+  });
+
+  it('describes the model in words', () => {
+    expect(html).toContain('The boundary on the line x = 0 mm is held in x and y.');
+    expect(html).toContain('Traction (0, −20) MPa on the boundary on the line x = 400 mm.');
+    expect(html).toContain('Concentrated force (0, −1500) N at the point (400, 75).');
+    expect(html).toContain('E = 206000 MPa, ν = 0.3');
+    expect(html).toContain('plane stress');
+  });
+
+  it('makes no external references (no scripts, links, images or url() fetches)', () => {
+    expect(html).not.toMatch(/<script|<link|<img|<iframe|@import|https?:\/\/(?!www\.w3\.org\/)/i);
+    for (const m of html.matchAll(/url\(([^)]*)\)/g)) expect(m[1].startsWith('#')).toBe(true);
+  });
+
+  it('escapes hostile text in every model string field', () => {
+    const bad = reportHtml(demoReportInput(HOSTILE));
+    expect(checkXml(bad).errors).toEqual([]);
+    expect(bad).not.toMatch(/<script/i);
+    expect(bad).not.toContain('\u001b');
+    expect(bad).not.toContain('\u202e');
+    const shown = stripControl(HOSTILE);
+    const h1 = /<h1>([^<]*)<\/h1>/.exec(bad)?.[1] ?? '';
+    expect(unescape(h1)).toBe(`Skid bracket web with a re-entrant notch ${shown}`);
+    // title, file, units, opening id, spot ids, reasons, advice and check names all reach the page as text
+    const text = unescape(bad);
+    for (const piece of [
+      `models/skid-bracket.yaml ${shown}`, `opening “vent ${shown}”`, `S1 ${shown}`, `MPa ${shown}`,
+      `add two refinement levels or spread the force over a short edge ${shown}`, `Kirsch hole, Kt = 3 ${shown}`,
+    ]) {
+      expect(text).toContain(piece);
+    }
+    // ids stay attribute-safe
+    for (const m of bad.matchAll(/ id="([^"]*)"/g)) expect(m[1]).toMatch(/^[A-Za-z0-9_-]+$/);
+  });
+});
+
+describe('report size for a 1 000 000-DOF model', () => {
+  it('stays under 15 MB because the drawing is decimated', () => {
+    // 354 × 354 cells of two LST triangles: (2·354 + 1)² = 502 681 nodes, 1 005 362 DOFs
+    const big = { nx: 354, ny: 354, width: 400, height: 300, order: 2 as const, lShape: false };
+    const mesh = gridMesh(big);
+    expect(2 * (mesh.xy.length / 2)).toBeGreaterThan(1_000_000);
+    const study = demoStudy();
+    const html = reportHtml({
+      model: demoModel(),
+      study,
+      mesh,
+      geometry: plateGeometry(big),
+      field: cornerField(mesh, [200, 150], 0.4555, 400),
+      u: smoothDisplacement(mesh, 400),
+    });
+    const bytes = Buffer.byteLength(html, 'utf8');
+    console.log(`report of ${2 * (mesh.xy.length / 2)} DOFs: ${(bytes / 1e6).toFixed(2)} MB`);
+    expect(bytes).toBeLessThan(15e6);
+    expect(html).toContain('regular resampling');
+    for (const s of study.spots) expect(html).toContain(`id="spot-${s.id}"`);
+  });
+});

@@ -1,0 +1,81 @@
+import { describe, it, expect } from 'vitest';
+import { CAUTION, equilibriumMismatch, solveSummary, studyTable } from '../../src/report/index.js';
+import { HOSTILE, demoStudy } from './fixtures.js';
+
+// eslint-disable-next-line no-control-regex
+const CONTROL = /[\u0000-\u0008\u000b-\u001f\u007f-\u009f\u202a-\u202e\u2066-\u2069]/;
+
+describe('studyTable', () => {
+  const study = demoStudy();
+  const plain = studyTable(study, { color: false });
+
+  it('lists each spot with its verdict in plain words, its value and readout', () => {
+    const lines = plain.split('\n');
+    const s1 = lines.find((l) => l.startsWith('S1 '));
+    const s2 = lines.find((l) => l.startsWith('S2 '));
+    const s3 = lines.find((l) => l.startsWith('S3 '));
+    expect(s1).toContain('singular');
+    expect(s1).toContain('q = 0.46 (theory 0.46)');
+    expect(s1).toContain('118 MPa at 0.5 mm');
+    expect(s2).toContain('converging');
+    expect(s2).toContain('182.4 ± 0.9 MPa');
+    expect(s3).toContain('undecided');
+    expect(plain).toContain('S3: add two refinement levels');
+  });
+
+  it('ends with the caution and has no escape codes without colour', () => {
+    expect(plain.trimEnd().endsWith(CAUTION)).toBe(true);
+    expect(plain).not.toContain('\u001b');
+  });
+
+  it('aligns columns: the verdict column starts at the same place on every row', () => {
+    const rows = plain.split('\n').filter((l) => /^(spot|S\d) /.test(l));
+    const at = rows.map((r) => r.indexOf(r.startsWith('spot') ? 'verdict' : r.match(/converging|singular|undecided/)![0]));
+    expect(new Set(at).size).toBe(1);
+  });
+
+  it('colours verdicts when asked', () => {
+    const coloured = studyTable(study, { color: true });
+    expect(coloured).toContain('\u001b[');
+    expect(coloured.replace(/\u001b\[[0-9;]*m/g, '')).toBe(plain);
+  });
+
+  it('strips control characters from every model-provided string', () => {
+    const hostile = studyTable(demoStudy(HOSTILE), { color: false });
+    expect(hostile).not.toMatch(CONTROL);
+    expect(hostile).toContain('<script>'); // plain text in a terminal: shown, not interpreted
+  });
+});
+
+describe('solveSummary', () => {
+  const info = {
+    title: `Hanger lug ${HOSTILE}`,
+    units: { length: 'mm', force: 'N', stress: 'MPa' },
+    nodes: 1234, elements: 560, order: 2 as const, dofs: 2468,
+    maxDisplacement: { value: 0.0123, at: [50, 10] as [number, number] },
+    reactionSum: [-1000, 0] as [number, number],
+    appliedSum: [1000, 0] as [number, number],
+    maxStress: { measure: 'von Mises', value: 312.5, at: [20, 5] as [number, number] },
+    timings: { mesh: 0.05, assemble: 0.02, factor: 0.11, solve: 0.01, recover: 0.02 },
+    errorPercent: 4.2,
+  };
+  const text = solveSummary(info, { color: false });
+
+  it('reports dofs, displacement, reaction balance, stress, timings and error', () => {
+    expect(text).toContain('2468 dofs');
+    expect(text).toContain('0.0123 mm at (50, 10) mm');
+    expect(text).toContain('balance 0');
+    expect(text).toMatch(/max von Mises +312.5 MPa at \(20, 5\) mm/);
+    expect(text).toContain('factor 0.11 s');
+    expect(text).toContain('total 0.21 s');
+    expect(text).toContain('4.2 % (energy norm)');
+    expect(text).not.toMatch(CONTROL);
+  });
+
+  it('flags reactions that do not balance the loads', () => {
+    // 5 % off: |(−950) + 1000| / 1000 = 0.05
+    expect(equilibriumMismatch([-950, 0], [1000, 0])).toBeCloseTo(0.05, 12);
+    const bad = solveSummary({ ...info, reactionSum: [-950, 0] }, { color: false });
+    expect(bad).toContain('check supports and loads');
+  });
+});
