@@ -61,7 +61,7 @@ export class Builder {
       try {
         value = evaluateExpression(raw, this.params);
       } catch (e) {
-        if (e instanceof ExpressionError) this.fail(`${e.message} in expression ${quote(raw)}`, keyPath);
+        if (e instanceof ExpressionError) this.fail(`expression ${quote(raw)}: ${e.message}`, keyPath);
         throw e;
       }
     }

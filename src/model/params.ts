@@ -56,14 +56,14 @@ export function evaluateParams(
     try {
       tree = parseExpression(value);
     } catch (e) {
-      if (e instanceof ExpressionError) fail(`${e.message} in expression ${quote(value)}`, path);
+      if (e instanceof ExpressionError) fail(`expression ${quote(value)}: ${e.message}`, path);
       throw e;
     }
     trees.set(name, tree);
     const read = namesIn(tree);
     for (const n of read) {
       if (!Object.hasOwn(raw, n) && !Object.hasOwn(CONSTANTS, n)) {
-        fail(`unknown name ${quote(n)}${didYouMean(n, [...names, ...Object.keys(CONSTANTS)])} in expression ${quote(value)}`, path);
+        fail(`expression ${quote(value)}: unknown name ${quote(n)}${didYouMean(n, [...names, ...Object.keys(CONSTANTS)])}`, path);
       }
     }
     const used = read.filter((n) => Object.hasOwn(raw, n));
@@ -90,7 +90,7 @@ export function evaluateParams(
       try {
         values[name] = evaluateTree(trees.get(name)!, values);
       } catch (e) {
-        if (e instanceof ExpressionError) fail(`${e.message} in expression ${quote(value)}`, joinPath('params', name));
+        if (e instanceof ExpressionError) fail(`expression ${quote(value)}: ${e.message}`, joinPath('params', name));
         throw e;
       }
     }

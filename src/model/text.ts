@@ -24,6 +24,7 @@ export function describe(value: unknown): string {
   if (typeof value === 'number') return `${value}`;
   if (typeof value === 'string') return value.trim() === '' ? 'empty text' : quote(value);
   if (Array.isArray(value)) {
+    if (value.length === 0) return 'an empty list';
     return value.length === 1 ? 'a list of 1 item' : `a list of ${value.length} items`;
   }
   if (typeof value === 'object') {
@@ -80,7 +81,9 @@ export function closest(name: string, candidates: readonly string[]): string | u
     }
   }
   if (best !== undefined && bestDistance <= allowed && bestDistance < Math.max(name.length, best.length)) return best;
-  return undefined;
+  // an abbreviation such as `r` for `radius`, when only one candidate starts that way
+  const starts = candidates.filter((c) => c !== name && c.toLowerCase().startsWith(lower));
+  return lower.length > 0 && starts.length === 1 ? starts[0] : undefined;
 }
 
 /** ` (did you mean 'radius'?)` or '' — ready to append to a message. */
@@ -100,6 +103,6 @@ export function formatNumber(value: number): string {
   if (!Number.isFinite(value)) return String(value);
   if (value === 0) return '0';
   const abs = Math.abs(value);
-  if (abs >= 1e6 || abs < 1e-4) return value.toExponential(3).replace(/\.?0+e/, 'e');
+  if (abs >= 1e6 || abs < 1e-4) return value.toExponential(3).replace(/\.?0+e/, 'e').replace('e+', 'e');
   return String(Number(value.toPrecision(6)));
 }
