@@ -10,3 +10,7 @@ export {
   tanhSinh, criticalDistance, pointMethod, lineMethod, lineAverage, sampledAverage, notchStressIntensity, nsifUnits,
   extrapolateToZero, hotSpotLinear, hotSpotQuadratic, hotSpotTypeB, hotSpotPoints,
 } from './readouts.js';
+export { wedgeTheory, theoryExponent, type WedgeTheory } from './wedge-theory.js';
+export { findSpots, SPOT_RULES, type SpotCandidate } from './spots.js';
+export { levelSizeField, probeLevel, LADDER_GRADING, NEIGHBOURHOOD_SIZES, type SpotProbe } from './ladder.js';
+export { runStudy, DEFAULT_READOUT_FRACTION, type StudyOptions } from './run.js';

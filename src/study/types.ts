@@ -1,5 +1,7 @@
 import type { Point } from '../model/types.js';
 
+export type FaceCondition = 'free' | 'clamped' | 'sliding';
+
 export type FeatureKind =
   | 'corner'
   | 'fillet'
@@ -18,6 +20,13 @@ export interface SpotFeature {
   radius: number;
   /** boundary conditions on the two faces of a corner */
   faces?: 'free-free' | 'free-clamped' | 'clamped-clamped';
+  /**
+   * condition of each face (incoming, outgoing along the boundary): 'sliding' is a roller whose fixed
+   * direction is the face normal (a symmetry line); `faces` is set only when both are free or clamped
+   */
+  faceConditions?: [FaceCondition, FaceCondition];
+  /** governing Williams eigenvalue λ (Re part) behind `growth.theory`; absent when not a wedge */
+  lambda?: number;
   /** words for the report, e.g. "re-entrant corner of the outline, 270°" */
   description: string;
 }
@@ -34,6 +43,12 @@ export interface LevelResult {
   atDistance?: number;
   /** average of the measure over a disk of the readout radius, if defined */
   average?: number;
+  /** mean of the measure along the bisector over 0 ≤ r ≤ 4·distance (line method), if defined */
+  lineAverage?: number;
+  /** generalised notch stress intensity fitted on this level, if defined */
+  nsif?: number;
+  /** radius of the neighbourhood the peak was searched in (fixed across levels) */
+  radius?: number;
 }
 
 export type Verdict = 'converging' | 'singular' | 'undecided';
@@ -50,7 +65,15 @@ export interface SpotResult {
   advice?: string;
   estimate: { value: number; uncertainty: number; observedOrder: number };
   growth: { exponent: number; exponentUncertainty: number; theory: number };
-  readouts: { atDistance?: number; distance?: number; average?: number; nsif?: number; nsifUnits?: string };
+  readouts: {
+    atDistance?: number; distance?: number; average?: number; nsif?: number; nsifUnits?: string;
+    /** line-method mean along the bisector over 0 ≤ r ≤ lineLength */
+    lineAverage?: number; lineLength?: number;
+  };
+  /** Richardson/GCI of every consecutive triple of levels, coarse → fine (the band should shrink) */
+  history?: { finest: number; value: number; uncertainty: number; observedOrder: number }[];
+  /** direction from the spot into the material used for the readouts (unit vector), if defined */
+  direction?: Point;
 }
 
 export interface StudyResult {

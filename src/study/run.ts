@@ -1,0 +1,168 @@
+import { PeakwiseError, isPeakwiseError } from '../errors.js';
+import { buildGeometry } from '../geometry/index.js';
+import { meshPlate, meshQuality, sizeFieldFromSettings } from '../mesh/index.js';
+import type { Mesh, SizeField } from '../mesh/types.js';
+import type { Model, Point, StressMeasure } from '../model/types.js';
+import { stressUnit } from '../model/index.js';
+import { gaussStresses, solvePlate } from '../fem/index.js';
+import type { ElasticSection, Solution } from '../fem/types.js';
+import { buildPointLocator, nodalMeasure, recoverSpr } from '../recovery/index.js';
+import type { LevelResult, SpotResult, StudyResult } from './types.js';
+import { findSpots, type SpotCandidate } from './spots.js';
+import { levelSizeField, probeLevel, rosettePoints, NEIGHBOURHOOD_SIZES, type SpotProbe } from './ladder.js';
+import { judgeSpot } from './verdict.js';
+import { boundaryEdgesAt } from './mesh-tools.js';
+import { nsifUnits } from './readouts.js';
+
+export interface StudyOptions {
+  levels?: number;
+  ratio?: number;
+  order?: 1 | 2;
+  size?: number;
+  /** progress: solves done of total, with a label */
+  onProgress?(done: number, total: number, label: string): void;
+}
+
+/** Default readout distance: 1 % of the plate's bounding-box diagonal (docs/study.md). */
+export const DEFAULT_READOUT_FRACTION = 0.01;
+
+const VERSION = '0.1.0';
+
+interface Solved {
+  mesh: Mesh;
+  solution: Solution;
+  field: ReturnType<typeof recoverSpr>;
+  nodal: Float64Array;
+  gauss: ReturnType<typeof gaussStresses>;
+}
+
+function solveOn(model: Model, geom: ReturnType<typeof buildGeometry>, section: ElasticSection, sizeAt: SizeField, order: 1 | 2, required: Point[], measure: StressMeasure): Solved {
+  const mesh = meshPlate(geom, { sizeAt, order, requiredPoints: required });
+  const solution = solvePlate({ mesh, geometry: geom, section, supports: model.supports, loads: model.loads });
+  const gauss = gaussStresses(mesh, solution.u, section);
+  const field = recoverSpr(mesh, gauss, section);
+  return { mesh, solution, field, nodal: nodalMeasure(field, measure), gauss };
+}
+
+/** Are the boundary pieces arriving at and leaving a node straight? (incoming, outgoing) */
+function straightFacesAt(mesh: Mesh, geom: ReturnType<typeof buildGeometry>, node: number): [boolean, boolean] {
+  const { incoming, outgoing } = boundaryEdgesAt(mesh, node);
+  const isLine = (e: number[]) => e.length === 1 && geom.pieces[mesh.boundaryPiece[e[0]]].curve.kind === 'line';
+  return [isLine(incoming), isLine(outgoing)];
+}
+
+function check(cond: boolean, message: string, keyPath: string): void {
+  if (!cond) throw new PeakwiseError('study', message, keyPath);
+}
+
+/**
+ * The hot-spot study (issue 5): first solve at the model size, hot spots, one refinement ladder shared by
+ * all spots (level k: each spot's local size h₀/ratio^k), SPR recovery, per-spot convergence fits and verdicts.
+ */
+export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
+  const t0 = performance.now();
+  const levels = opts.levels ?? model.study.levels;
+  const ratio = opts.ratio ?? model.study.ratio;
+  const order = opts.order ?? model.mesh.order;
+  const size = opts.size ?? model.mesh.size;
+  check(Number.isInteger(levels) && levels >= 1 && levels <= 12, `study levels must be an integer in 1…12, got ${levels}`, 'study.levels');
+  check(ratio > 1 && ratio <= 4, `study ratio must be in (1, 4], got ${ratio}`, 'study.ratio');
+  check(order === 1 || order === 2, `mesh order must be 1 or 2, got ${order}`, 'mesh.order');
+  check(size > 0, `mesh size must be > 0, got ${size}`, 'mesh.size');
+  const measure = model.study.measure;
+  const geom = buildGeometry(model.plate);
+  const section: ElasticSection = { E: model.material.E, nu: model.material.nu, state: model.state, thickness: model.thickness };
+  const base = sizeFieldFromSettings(geom, { size, local: model.mesh.local });
+  // point selectors need a node exactly on their point
+  const required: Point[] = [];
+  for (const s of model.supports) if (s.where.kind === 'point') required.push(s.where.at);
+  for (const l of model.loads) if (l.where.kind === 'point') required.push(l.where.at);
+  const total = 1 + levels;
+  const progress = (done: number, label: string) => opts.onProgress?.(done, total, label);
+
+  progress(0, 'first solve');
+  const first = solveOn(model, geom, section, base, order, required, measure);
+  progress(1, 'hot spots');
+  const cands = findSpots({ model, geom, mesh: first.mesh, solution: first.solution, measure: first.nodal, baseSize: base });
+  const d = model.study.readouts.distance ?? DEFAULT_READOUT_FRACTION * geom.scale;
+  const h0 = cands.map((c) => base(c.at[0], c.at[1]));
+  const probes: SpotProbe[] = cands.map((spot, i) => {
+    let radius = NEIGHBOURHOOD_SIZES * h0[i];
+    // keep neighbourhoods apart so one spot's peak is never another's
+    for (let j = 0; j < cands.length; j++) {
+      if (j !== i) radius = Math.min(radius, 0.5 * Math.hypot(cands[j].at[0] - spot.at[0], cands[j].at[1] - spot.at[1]));
+    }
+    return { spot, radius, distance: d };
+  });
+  const spotPoints = cands.map((c) => c.at);
+  const straight = cands.map((c) => straightFacesAt(first.mesh, geom, c.node));
+  const perSpot: LevelResult[][] = cands.map(() => []);
+  let stopped = '';
+  for (let k = 0; k < levels && cands.length > 0; k++) {
+    let s: Solved;
+    try {
+      const seeds = cands.flatMap((c, i) => rosettePoints(c, h0[i] / Math.pow(ratio, k), straight[i]));
+      s = solveOn(model, geom, section, levelSizeField(base, cands, h0, ratio, k), order, [...required, ...spotPoints, ...seeds], measure);
+    } catch (e) {
+      if (k >= 1 && isPeakwiseError(e)) { stopped = `level ${k + 1} failed (${e.message}); fitted on ${k} levels`; break; }
+      throw e;
+    }
+    const locator = buildPointLocator(s.mesh);
+    probes.forEach((p, i) => {
+      perSpot[i].push(probeLevel(s.mesh, s.field, s.nodal, s.gauss, section, measure, p, h0[i] / Math.pow(ratio, k), s.solution.dofs, locator));
+    });
+    progress(2 + k, `level ${k + 1} of ${levels}`);
+  }
+
+  const stress = stressUnit(model.units);
+  const spots: SpotResult[] = cands.map((c, i) => toSpotResult(`S${i + 1}`, c, perSpot[i], ratio, order, d, stress, model.units.length, stopped));
+  const q = meshQuality(first.mesh);
+  return {
+    tool: 'peakwise',
+    version: VERSION,
+    model: { title: model.title, file: model.file },
+    units: { length: model.units.length, force: model.units.force, stress },
+    mesh: { nodes: first.mesh.xy.length / 2, elements: first.mesh.elemNodes.length / first.mesh.nodesPerElem, order, minAngleDeg: q.minAngleDeg },
+    solution: {
+      dofs: first.solution.dofs,
+      maxDisplacement: first.solution.maxDisplacement,
+      reactionSum: first.solution.reactionSum,
+      appliedSum: first.solution.appliedSum,
+    },
+    measure,
+    spots,
+    timings: { totalS: (performance.now() - t0) / 1000 },
+  };
+}
+
+function toSpotResult(
+  id: string, c: SpotCandidate, levels: LevelResult[], ratio: number, order: 1 | 2, d: number, stress: string, length: string, stopped: string,
+): SpotResult {
+  const v = judgeSpot(levels.map((l) => l.h), levels.map((l) => l.peak), ratio, order, c.theory, c.theoryWhy);
+  const last = levels[levels.length - 1];
+  const readouts: SpotResult['readouts'] = {};
+  if (last) {
+    if (last.atDistance !== undefined) { readouts.atDistance = last.atDistance; readouts.distance = d; }
+    if (last.average !== undefined) { readouts.average = last.average; readouts.distance = d; }
+    if (last.lineAverage !== undefined) { readouts.lineAverage = last.lineAverage; readouts.lineLength = 4 * d; }
+    if (last.nsif !== undefined && c.lambdaOpening !== undefined) {
+      readouts.nsif = last.nsif;
+      readouts.nsifUnits = nsifUnits(stress, length, c.lambdaOpening);
+    }
+  }
+  const why = c.feature.kind === 'point-load' || c.feature.kind === 'point-support' ? `${c.theoryWhy}: ` : '';
+  return {
+    id,
+    at: c.at,
+    feature: c.feature,
+    levels,
+    verdict: v.verdict,
+    reason: why + v.reason + (stopped ? `; ${stopped}` : ''),
+    ...(v.advice ? { advice: v.advice } : {}),
+    estimate: v.estimate,
+    growth: v.growth,
+    readouts,
+    history: v.history.map(({ finest, value, uncertainty, observedOrder }) => ({ finest, value, uncertainty, observedOrder })),
+    ...(c.direction ? { direction: c.direction } : {}),
+  };
+}
