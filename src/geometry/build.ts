@@ -6,8 +6,8 @@
 import { GeometryError } from '../errors.js';
 import type { Plate, Point } from '../model/types.js';
 import type { BoundaryPiece, Corner, Loop, PlateGeometry } from './types.js';
-import { curveBBox, curveDoubleArea, curveEnd, curveStart, curveTangent, type BBox } from './curves.js';
-import { buildShapeLoop, STRAIGHT_TURN, type LoopDraft } from './loops.js';
+import { curveBBox, curveDoubleArea, curveEnd, curveLength, curveStart, curveTangent, type BBox } from './curves.js';
+import { buildShapeLoop, shapeExtent, STRAIGHT_TURN, type LoopDraft } from './loops.js';
 import { boxesOverlap, pieceContact, unionBox, windingNumber } from './checks.js';
 import { forEachOverlappingPair } from './predicates.js';
 import { fmtPoint } from './format.js';
@@ -21,7 +21,9 @@ export const CLEARANCE_RELATIVE = 1e-8;
 
 export function buildGeometry(plate: Plate): PlateGeometry {
   const drafts: LoopDraft[] = [];
-  drafts.push(buildShapeLoop(plate.outline, { id: 'outline', hole: false, keyPath: 'plate.outline', label: 'the outline' }));
+  // the outline's own extent sets the clearance while the loops are built (openings lie inside it)
+  const minLength = CLEARANCE_RELATIVE * shapeExtent(plate.outline);
+  drafts.push(buildShapeLoop(plate.outline, { id: 'outline', hole: false, keyPath: 'plate.outline', label: 'the outline', minLength }));
   const seen = new Map<string, string>();
   for (let k = 0; k < plate.openings.length; k++) {
     const op = plate.openings[k];
@@ -34,7 +36,7 @@ export function buildGeometry(plate: Plate): PlateGeometry {
       throw new GeometryError(`${keyPath}: opening id '${op.id}' is already used by ${before}`, `${keyPath}.id`);
     }
     seen.set(op.id, keyPath);
-    drafts.push(buildShapeLoop(op.shape, { id: op.id, hole: true, keyPath, label: `opening ${op.id}` }));
+    drafts.push(buildShapeLoop(op.shape, { id: op.id, hole: true, keyPath, label: `opening ${op.id}`, minLength }));
   }
 
   // ids, boxes, scale
@@ -139,8 +141,17 @@ function checkLoopClear(d: LoopDraft, ids: number[], pieces: BoundaryPiece[], bo
   const n = ids.length;
   if (n < 4) return; // every pair of pieces are neighbours
   const local = ids.map((id) => boxes[id]);
+  // prefix sums of piece lengths: pieces joined by a stretch of boundary shorter than a few
+  // clearances are as good as neighbours — they come that close by construction, not by mistake
+  const lengths = ids.map((id) => curveLength(pieces[id].curve));
+  const prefix = new Float64Array(n + 1);
+  for (let k = 0; k < n; k++) prefix[k + 1] = prefix[k] + lengths[k];
+  const total = prefix[n];
   forEachOverlappingPair(local, tol, (i, j) => {
     if (j === i + 1 || (i === 0 && j === n - 1)) return; // neighbours meet at their junction by construction
+    const between = prefix[j] - prefix[i + 1]; // pieces strictly between i and j going forward
+    const around = total - (prefix[j + 1] - prefix[i]); // and going the other way
+    if (Math.min(between, around) <= 4 * tol) return;
     const hit = pieceContact(pieces[ids[i]].curve, pieces[ids[j]].curve, tol);
     if (hit) {
       throw new GeometryError(

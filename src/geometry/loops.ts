@@ -35,6 +35,12 @@ export interface LoopContext {
   hole: boolean;
   keyPath: string;
   label: string;
+  /**
+   * Shortest feature worth keeping (the clearance of the plate): edges shorter than this are
+   * errors, fillets whose tangent length is shorter count as sharp corners, and a line left
+   * shorter than this between two fillets is dropped.
+   */
+  minLength: number;
 }
 
 /** Turns below this (radians) count as straight: tangent junctions, collinear vertices. */
@@ -109,6 +115,32 @@ export function buildShapeLoop(shape: Shape, ctx: LoopContext): LoopDraft {
   }
 }
 
+/** Diagonal of the shape's bounding box, before any checks (NaN-safe: 0 for broken input). */
+export function shapeExtent(shape: Shape): number {
+  let d = 0;
+  switch (shape.kind) {
+    case 'circle':
+      d = 2 * Math.SQRT2 * shape.radius;
+      break;
+    case 'ellipse':
+      d = 2 * Math.SQRT2 * Math.max(shape.a, shape.b);
+      break;
+    case 'rect':
+      d = Math.hypot(shape.width, shape.height);
+      break;
+    case 'polygon': {
+      let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+      for (const v of shape.vertices) {
+        minX = Math.min(minX, v.at[0]); maxX = Math.max(maxX, v.at[0]);
+        minY = Math.min(minY, v.at[1]); maxY = Math.max(maxY, v.at[1]);
+      }
+      d = Math.hypot(maxX - minX, maxY - minY);
+      break;
+    }
+  }
+  return Number.isFinite(d) && d > 0 ? d : 0;
+}
+
 function circleLoop(center: Point, radius: number, ctx: LoopContext): LoopDraft {
   const s = ctx.hole ? -1 : 1;
   // two half circles meeting at the ends of the horizontal diameter: every piece then has two
@@ -123,7 +155,7 @@ function circleLoop(center: Point, radius: number, ctx: LoopContext): LoopDraft 
     endVertexPath: ctx.keyPath,
   });
   return {
-    ...ctx,
+    id: ctx.id, hole: ctx.hole, keyPath: ctx.keyPath, label: ctx.label,
     polygon: false,
     pieces: [half(0, p0, p1), half(Math.PI, p1, p0)],
   };
@@ -145,7 +177,7 @@ function ellipseLoop(center: Point, a: number, b: number, rotation: number, ctx:
     endVertexPath: ctx.keyPath,
   });
   return {
-    ...ctx,
+    id: ctx.id, hole: ctx.hole, keyPath: ctx.keyPath, label: ctx.label,
     polygon: false,
     pieces: [half(0, p0, p1), half(Math.PI, p1, p0)],
   };
@@ -229,10 +261,18 @@ function polygonLoop(
   for (let i = 0; i < n; i++) {
     const a = pts[i];
     const b = pts[(i + 1) % n];
+    const j = (i + 1) % n;
     if (a[0] === b[0] && a[1] === b[1]) {
-      const j = (i + 1) % n;
       throw new GeometryError(
         `${vertexPath(j)}: zero-length edge: the vertex repeats ${nameVertices ? vertexPath(i) : 'its neighbour'} at ${fmtPoint(a)}`,
+        vertexPath(j),
+      );
+    }
+    const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
+    if (len < ctx.minLength) {
+      throw new GeometryError(
+        `${vertexPath(j)}: the edge from ${nameVertices ? vertexPath(i) : 'its neighbour'} is only ${fmt(len)} long, ` +
+          `too short to resolve on a plate of this size (at least ${fmt(ctx.minLength)})`,
         vertexPath(j),
       );
     }
@@ -281,7 +321,9 @@ function polygonLoop(
     dirOut.push(dout);
     turn[j] = Math.atan2(din[0] * dout[1] - din[1] * dout[0], din[0] * dout[0] + din[1] * dout[1]);
     const r = vertices[order[j]].round;
-    tangentLength[j] = r > 0 && Math.abs(turn[j]) > STRAIGHT_TURN ? r * Math.tan(Math.abs(turn[j]) / 2) : 0;
+    const L = r > 0 && Math.abs(turn[j]) > STRAIGHT_TURN ? r * Math.tan(Math.abs(turn[j]) / 2) : 0;
+    // a fillet that changes the boundary by less than the clearance is a sharp corner
+    tangentLength[j] = L > ctx.minLength ? L : 0;
   }
   // fit check, in input order so the message does not depend on the orientation
   const posOf = new Int32Array(n);
@@ -296,8 +338,8 @@ function polygonLoop(
     const lenOut = edgeLen[j];
     const availIn = lenIn - tangentLength[jPrev];
     const availOut = lenOut - tangentLength[jNext];
-    const fitsIn = L <= availIn + FIT_SLACK * lenIn;
-    const fitsOut = L <= availOut + FIT_SLACK * lenOut;
+    const fitsIn = L <= availIn + Math.max(FIT_SLACK * lenIn, ctx.minLength);
+    const fitsOut = L <= availOut + Math.max(FIT_SLACK * lenOut, ctx.minLength);
     if (!(fitsIn && fitsOut)) {
       const shared = tangentLength[jPrev] > 0 || tangentLength[jNext] > 0;
       const path = vertexPath(i);
@@ -329,7 +371,7 @@ function polygonLoop(
   for (let j = 0; j < n; j++) {
     const jn = (j + 1) % n;
     if (tangentLength[j] > 0 || tangentLength[jn] > 0) {
-      if (edgeLen[j] - tangentLength[j] - tangentLength[jn] <= FIT_SLACK * edgeLen[j]) {
+      if (edgeLen[j] - tangentLength[j] - tangentLength[jn] <= Math.max(FIT_SLACK * edgeLen[j], ctx.minLength)) {
         dropLine[j] = 1;
         t1[jn] = t2[j];
       }
@@ -371,5 +413,5 @@ function polygonLoop(
       });
     }
   }
-  return { ...ctx, polygon: true, pieces };
+  return { id: ctx.id, hole: ctx.hole, keyPath: ctx.keyPath, label: ctx.label, polygon: true, pieces };
 }
