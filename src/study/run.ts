@@ -1,5 +1,5 @@
 import { PeakwiseError, isPeakwiseError } from '../errors.js';
-import { buildGeometry } from '../geometry/index.js';
+import { buildGeometry, closestOnCurve, pointInMaterial } from '../geometry/index.js';
 import { meshPlate, meshQuality, sizeFieldFromSettings } from '../mesh/index.js';
 import type { Mesh, SizeField } from '../mesh/types.js';
 import type { Model, Point, StressMeasure } from '../model/types.js';
@@ -51,6 +51,37 @@ function straightFacesAt(mesh: Mesh, geom: ReturnType<typeof buildGeometry>, nod
   return [isLine(incoming), isLine(outgoing)];
 }
 
+/**
+ * A seed point is used when it lies in the material at least h/2 from every boundary piece, or on a straight
+ * piece at least h/2 from that piece's ends (never next to another feature).
+ */
+function seedFits(geom: ReturnType<typeof buildGeometry>, p: Point, h: number, spot: Point): boolean {
+  const tol = 1e-9 * geom.scale;
+  let onLine = false;
+  for (const piece of geom.pieces) {
+    const c = closestOnCurve(piece.curve, p);
+    if (c.distance <= tol) {
+      if (piece.curve.kind !== 'line') return false;
+      const a = piece.curve.from, b = piece.curve.to;
+      const ends = [a, b].filter((e) => Math.hypot(e[0] - spot[0], e[1] - spot[1]) > tol);
+      if (ends.some((e) => Math.hypot(e[0] - p[0], e[1] - p[1]) < 0.5 * h)) return false;
+      onLine = true;
+    } else if (c.distance < 0.5 * h) {
+      // near a piece that does not pass through the spot itself
+      const passes = closestOnCurve(piece.curve, spot).distance <= tol;
+      if (!passes) return false;
+    }
+  }
+  return onLine || pointInMaterial(geom, p);
+}
+
+/** required points without duplicates (the mesher wants each point once) */
+function dedupe(points: Point[], tol: number): Point[] {
+  const out: Point[] = [];
+  for (const p of points) if (!out.some((q) => Math.hypot(q[0] - p[0], q[1] - p[1]) <= tol)) out.push(p);
+  return out;
+}
+
 function check(cond: boolean, message: string, keyPath: string): void {
   if (!cond) throw new PeakwiseError('study', message, keyPath);
 }
@@ -81,7 +112,7 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const progress = (done: number, label: string) => opts.onProgress?.(done, total, label);
 
   progress(0, 'first solve');
-  const first = solveOn(model, geom, section, base, order, required, measure);
+  const first = solveOn(model, geom, section, base, order, dedupe(required, 1e-9 * geom.scale), measure);
   progress(1, 'hot spots');
   const cands = findSpots({ model, geom, mesh: first.mesh, solution: first.solution, measure: first.nodal, baseSize: base });
   const d = model.study.readouts.distance ?? DEFAULT_READOUT_FRACTION * geom.scale;
@@ -101,8 +132,8 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   for (let k = 0; k < levels && cands.length > 0; k++) {
     let s: Solved;
     try {
-      const seeds = cands.flatMap((c, i) => rosettePoints(c, h0[i] / Math.pow(ratio, k), straight[i]));
-      s = solveOn(model, geom, section, levelSizeField(base, cands, h0, ratio, k), order, [...required, ...spotPoints, ...seeds], measure);
+      const seeds = cands.flatMap((c, i) => rosettePoints(c, h0[i] / Math.pow(ratio, k), straight[i]).filter((p) => seedFits(geom, p, h0[i] / Math.pow(ratio, k), c.at)));
+      s = solveOn(model, geom, section, levelSizeField(base, cands, h0, ratio, k), order, dedupe([...required, ...spotPoints, ...seeds], 1e-9 * geom.scale), measure);
     } catch (e) {
       if (k >= 1 && isPeakwiseError(e)) { stopped = `level ${k + 1} failed (${e.message}); fitted on ${k} levels`; break; }
       throw e;
