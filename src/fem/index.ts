@@ -5,7 +5,15 @@ export { elementStiffnessCst, elementStiffnessLst } from './elements.js';
 export { gaussStresses } from './stresses.js';
 export { assembleStiffness, csrMultiply, stiffnessPattern, type StiffnessPattern } from './assembly.js';
 export { SELECTOR_TOLERANCE, describeSelector, selectBoundary, type Selection } from './selectors.js';
-export { appliedResultant, edgeTractionLoad, loadVector, pressureLoad, type TractionField } from './loads.js';
+export {
+  appliedResultant,
+  bodyForceLoad,
+  edgeTractionLoad,
+  loadVector,
+  pressureLoad,
+  type BodyForceField,
+  type TractionField,
+} from './loads.js';
 export { checkRigidRestraint, supportedDofs } from './supports.js';
 export { validateMesh, validateSection } from './validate.js';
 export { solvePlate, type PlateProblem, type PrescribedDisplacement } from './solve.js';

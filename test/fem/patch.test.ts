@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import {
   assembleStiffness,
+  bodyForceLoad,
   csrMultiply,
   gaussStresses,
   solvePlate,
@@ -102,5 +103,57 @@ describe.each([
     const loadScale = sExact * 0.24 * 0.001;
     expect(Math.abs(sol.appliedSum[0]) / loadScale).toBeLessThan(1e-12);
     expect(Math.abs(sol.reactionSum[1]) / loadScale).toBeLessThan(1e-9);
+  });
+});
+
+/*
+ * Higher-order patch test (reference-values §13; Taylor, Simo, Zienkiewicz & Chan 1986):
+ * the LST contains every quadratic displacement field, so with the matching body force
+ * b = −div σ and the field prescribed on the boundary, the solution is the field itself
+ * (nodal values and linear stresses exact to round-off). The CST cannot, which the test
+ * also shows (it must miss, or the check would be vacuous).
+ */
+describe('quadratic-field patch test with body force (LST exact, CST not)', () => {
+  // u = 1e−3 (x² + 2xy − y²), v = 1e−3 (3x² − xy + 2y²) on the MacNeal–Harder patch
+  const c = 1e-3;
+  const disp = (x: number, y: number): [number, number] => [c * (x * x + 2 * x * y - y * y), c * (3 * x * x - x * y + 2 * y * y)];
+  // strains: εx = c(2x + 2y), εy = c(−x + 4y), γ = c(2x − 2y) + c(6x − y) = c(8x − 3y)
+  const D = { E: 1e6, nu: 0.25 };
+  const k = D.E / (1 - D.nu * D.nu);
+  const G = D.E / (2 * (1 + D.nu));
+  // div σ: ∂σx/∂x + ∂τ/∂y and ∂τ/∂x + ∂σy/∂y with σx = k(εx + ν εy), σy = k(εy + ν εx), τ = Gγ
+  const bx = -(k * (2 * c + D.nu * -c) + G * (-3 * c));
+  const by = -(G * (8 * c) + k * (4 * c + D.nu * 2 * c));
+  it.each([1, 2] as const)('order %i', (order) => {
+    const mesh = macNealHarderPatch(order, 'a');
+    const nNodes = mesh.xy.length / 2;
+    const prescribed: PrescribedDisplacement[] = [];
+    for (let n = 0; n < nNodes; n++) {
+      const x = mesh.xy[2 * n], y = mesh.xy[2 * n + 1];
+      if (onBoundary(x, y)) {
+        const [u, v] = disp(x, y);
+        prescribed.push({ dof: 2 * n, value: u }, { dof: 2 * n + 1, value: v });
+      }
+    }
+    const extraLoad = bodyForceLoad(mesh, section.thickness, () => [bx, by]);
+    const sol = solvePlate({ mesh, geometry, section, supports: [], loads: [], prescribed, extraLoad });
+    let err = 0;
+    for (let n = 0; n < nNodes; n++) {
+      const [u, v] = disp(mesh.xy[2 * n], mesh.xy[2 * n + 1]);
+      err = Math.max(err, Math.abs(sol.u[2 * n] - u), Math.abs(sol.u[2 * n + 1] - v));
+    }
+    const uScale = c * 0.24 * 0.24 * 3;
+    if (order === 2) {
+      expect(err / uScale).toBeLessThan(1e-10);
+      const gs = gaussStresses(mesh, sol.u, section);
+      for (let g = 0; g < gs.weight.length; g++) {
+        const x = gs.xy[2 * g], y = gs.xy[2 * g + 1];
+        const ex = c * (2 * x + 2 * y), ey = c * (-x + 4 * y), gam = c * (8 * x - 3 * y);
+        expect(Math.abs(gs.stress[3 * g] - k * (ex + D.nu * ey)) / 1000).toBeLessThan(1e-10);
+        expect(Math.abs(gs.stress[3 * g + 2] - G * gam) / 1000).toBeLessThan(1e-10);
+      }
+    } else {
+      expect(err / uScale).toBeGreaterThan(1e-6);
+    }
   });
 });
