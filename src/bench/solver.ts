@@ -215,6 +215,13 @@ export async function benchSolver(opts: BenchSolverOptions = {}): Promise<object
   const sizes = order === 1 ? [112, 224, 448] : [56, 112, 224];
   const results: Record<string, unknown>[] = [];
   say(`solver benchmark: clamped rectangle, ${order === 1 ? 'CST' : 'LST'}, plane stress E = 210000, ν = 0.3`);
+  {
+    // warm-up (not timed): the JIT compiles the kernels on a small plate first, as it would
+    // have during the earlier solves of a study
+    const { K, rowXY } = plateMatrix(60, 30, order);
+    const F = factorize(K, symbolicFactor(K, chooseOrderingDetailed(K, rowXY).ordering));
+    solveFactor(F, new Float64Array(K.n).fill(1));
+  }
   for (const ny of sizes) {
     const nx = 2 * ny;
     let t0 = performance.now();

@@ -37,7 +37,7 @@ export function numericFactor(A: Csr, sym: Symbolic, options: FactorOptions = {}
     maxRows = Math.max(maxRows, superRowPtr[s + 1] - superRowPtr[s]);
     maxCols = Math.max(maxCols, superStart[s + 1] - superStart[s]);
   }
-  const work = new Float64Array(maxRows * maxCols);
+  const work = new Float64Array(maxRows * Math.max(maxCols, PANEL_BLOCK));
   const relRow = new Int32Array(maxRows);
 
   for (let s = 0; s < nSuper; s++) {
@@ -93,7 +93,7 @@ export function numericFactor(A: Csr, sym: Symbolic, options: FactorOptions = {}
       d = dNext;
     }
 
-    denseCholeskyPanel(L, base, nr, nc, f, diag, perm, pivotTol);
+    denseCholeskyPanel(L, base, nr, nc, f, diag, perm, pivotTol, work);
 
     nextRow[s] = nc;
     if (nc < nr) {
@@ -105,11 +105,14 @@ export function numericFactor(A: Csr, sym: Symbolic, options: FactorOptions = {}
   return { n, nnzL: sym.nnzL, symbolic: sym, values: L };
 }
 
+/** Depth of one pass over the shared dimension: keeps the strided rows read in L1 cache. */
+const K_CHUNK = 64;
+
 /**
- * C (m × k, column-major, lower trapezoid i ≥ j) = X · Yᵀ where X = panel rows 0…m-1 and
- * Y = panel rows 0…k-1, both `kk` columns wide with leading dimension ld starting at `off`.
- * Four columns of C per sweep so each X element loaded feeds four multiply-adds; the inner
- * loop runs down contiguous column memory.
+ * C (m × k, column-major, leading dimension m; entries i ≥ j) = X · Yᵀ, where X is rows
+ * 0…m-1 and Y rows 0…k-1 of a panel `kk` columns wide (leading dimension ld) starting at `off`.
+ * Register-blocked: a 2 × 4 tile of C is accumulated in locals over the shared dimension, so
+ * each multiply-add costs under one memory load (the JIT keeps the eight sums in registers).
  */
 function updateProduct(
   P: Float64Array,
@@ -120,38 +123,63 @@ function updateProduct(
   kk: number,
   C: Float64Array,
 ): void {
-  let j = 0;
-  for (; j + 3 < k; j += 4) {
-    const c0 = j * m, c1 = c0 + m, c2 = c1 + m, c3 = c2 + m;
-    for (let i = j; i < m; i++) { C[c0 + i] = 0; C[c1 + i] = 0; C[c2 + i] = 0; C[c3 + i] = 0; }
-    for (let q = 0; q < kk; q++) {
-      const col = off + q * ld;
-      const y0 = P[col + j], y1 = P[col + j + 1], y2 = P[col + j + 2], y3 = P[col + j + 3];
-      // rows j…j+3 form the small triangle: C[i, j+t] is only needed for i ≥ j+t but
-      // computing the few extra entries keeps the loop simple
-      for (let i = j; i < m; i++) {
-        const x = P[col + i];
-        C[c0 + i] += x * y0;
-        C[c1 + i] += x * y1;
-        C[c2 + i] += x * y2;
-        C[c3 + i] += x * y3;
+  for (let q0 = 0; q0 < kk; q0 += K_CHUNK) {
+    const q1 = Math.min(kk, q0 + K_CHUNK);
+    const first = q0 === 0;
+    const offQ = off + q0 * ld;
+    const depth = q1 - q0;
+    let j = 0;
+    for (; j + 3 < k; j += 4) {
+      const c0 = j * m, c1 = c0 + m, c2 = c1 + m, c3 = c2 + m;
+      let i = j;
+      for (; i + 1 < m; i += 2) {
+        let a00 = 0, a01 = 0, a02 = 0, a03 = 0, a10 = 0, a11 = 0, a12 = 0, a13 = 0;
+        let px = offQ + i, py = offQ + j;
+        for (let q = 0; q < depth; q++, px += ld, py += ld) {
+          const x0 = P[px], x1 = P[px + 1];
+          const y0 = P[py], y1 = P[py + 1], y2 = P[py + 2], y3 = P[py + 3];
+          a00 += x0 * y0; a01 += x0 * y1; a02 += x0 * y2; a03 += x0 * y3;
+          a10 += x1 * y0; a11 += x1 * y1; a12 += x1 * y2; a13 += x1 * y3;
+        }
+        if (first) {
+          C[c0 + i] = a00; C[c1 + i] = a01; C[c2 + i] = a02; C[c3 + i] = a03;
+          C[c0 + i + 1] = a10; C[c1 + i + 1] = a11; C[c2 + i + 1] = a12; C[c3 + i + 1] = a13;
+        } else {
+          C[c0 + i] += a00; C[c1 + i] += a01; C[c2 + i] += a02; C[c3 + i] += a03;
+          C[c0 + i + 1] += a10; C[c1 + i + 1] += a11; C[c2 + i + 1] += a12; C[c3 + i + 1] += a13;
+        }
+      }
+      for (; i < m; i++) {
+        let a0 = 0, a1 = 0, a2 = 0, a3 = 0;
+        let px = offQ + i, py = offQ + j;
+        for (let q = 0; q < depth; q++, px += ld, py += ld) {
+          const x = P[px];
+          a0 += x * P[py]; a1 += x * P[py + 1]; a2 += x * P[py + 2]; a3 += x * P[py + 3];
+        }
+        if (first) { C[c0 + i] = a0; C[c1 + i] = a1; C[c2 + i] = a2; C[c3 + i] = a3; }
+        else { C[c0 + i] += a0; C[c1 + i] += a1; C[c2 + i] += a2; C[c3 + i] += a3; }
       }
     }
-  }
-  for (; j < k; j++) {
-    const c0 = j * m;
-    for (let i = j; i < m; i++) C[c0 + i] = 0;
-    for (let q = 0; q < kk; q++) {
-      const col = off + q * ld;
-      const y0 = P[col + j];
-      for (let i = j; i < m; i++) C[c0 + i] += P[col + i] * y0;
+    for (; j < k; j++) {
+      const c0 = j * m;
+      for (let i = j; i < m; i++) {
+        let a = 0;
+        let px = offQ + i, py = offQ + j;
+        for (let q = 0; q < depth; q++, px += ld, py += ld) a += P[px] * P[py];
+        if (first) C[c0 + i] = a; else C[c0 + i] += a;
+      }
     }
   }
 }
 
+/** Columns factored together in the dense panel (matches the 4-wide update tile). */
+const PANEL_BLOCK = 4;
+
 /**
  * Dense Cholesky of an nr × nc panel (column-major, leading dimension nr): the top nc × nc
- * block becomes L11 and the rows below become L21 = A21 L11⁻ᵀ. Left-looking by columns.
+ * block becomes L11 and the rows below become L21 = A21 L11⁻ᵀ. Blocked left-looking: each
+ * block of 4 columns first takes the update from all earlier columns through the
+ * register-blocked product, then is factored column by column.
  */
 function denseCholeskyPanel(
   L: Float64Array,
@@ -162,29 +190,36 @@ function denseCholeskyPanel(
   diag: Float64Array,
   perm: Int32Array,
   pivotTol: number,
+  work: Float64Array,
 ): void {
-  for (let j = 0; j < nc; j++) {
-    const cj = base + j * nr;
-    let q = 0;
-    for (; q + 1 < j; q += 2) {
-      const cq0 = base + q * nr, cq1 = cq0 + nr;
-      const a0 = L[cq0 + j], a1 = L[cq1 + j];
-      for (let i = j; i < nr; i++) L[cj + i] -= L[cq0 + i] * a0 + L[cq1 + i] * a1;
+  for (let j0 = 0; j0 < nc; j0 += PANEL_BLOCK) {
+    const jb = Math.min(PANEL_BLOCK, nc - j0);
+    const m = nr - j0;
+    if (j0 > 0) {
+      updateProduct(L, base + j0, nr, m, jb, j0, work);
+      for (let t = 0; t < jb; t++) {
+        const cj = base + (j0 + t) * nr + j0;
+        const w = t * m;
+        for (let i = t; i < m; i++) L[cj + i] -= work[w + i];
+      }
     }
-    for (; q < j; q++) {
-      const cq = base + q * nr;
-      const a = L[cq + j];
-      for (let i = j; i < nr; i++) L[cj + i] -= L[cq + i] * a;
+    for (let j = j0; j < j0 + jb; j++) {
+      const cj = base + j * nr;
+      for (let q = j0; q < j; q++) {
+        const cq = base + q * nr;
+        const a = L[cq + j];
+        for (let i = j; i < nr; i++) L[cj + i] -= L[cq + i] * a;
+      }
+      const dj = L[cj + j];
+      const a0 = diag[f + j];
+      if (!(dj > pivotTol * Math.abs(a0)) || !(dj > 0)) {
+        throw new NotPositiveDefiniteError(perm[f + j], dj, a0);
+      }
+      const r = Math.sqrt(dj);
+      L[cj + j] = r;
+      const inv = 1 / r;
+      for (let i = j + 1; i < nr; i++) L[cj + i] *= inv;
     }
-    const dj = L[cj + j];
-    const a0 = diag[f + j];
-    if (!(dj > pivotTol * Math.abs(a0)) || !(dj > 0)) {
-      throw new NotPositiveDefiniteError(perm[f + j], dj, a0);
-    }
-    const r = Math.sqrt(dj);
-    L[cj + j] = r;
-    const inv = 1 / r;
-    for (let i = j + 1; i < nr; i++) L[cj + i] *= inv;
   }
 }
 

@@ -120,7 +120,7 @@ function panelEntries(nc: number, nr: number): number {
  */
 function allowedZeroFraction(nc: number): number {
   if (nc <= 4) return 1;
-  if (nc <= 16) return 0.5;
+  if (nc <= 16) return 0.8;
   if (nc <= 48) return 0.1;
   return 0.05;
 }
@@ -143,7 +143,7 @@ export function symbolicFactor(A: Csr, ordering: Ordering, options: SupernodeOpt
   const relax = options.relax ?? true;
   const maxCols = options.maxCols ?? 96;
   let perm = ordering.perm;
-  let iperm = ordering.iperm;
+  let iperm = ordering.iperm.slice();
   const parent0 = eliminationTree(A, perm, iperm);
   const post = postorderTree(parent0);
   // relabel so that the tree is postordered
@@ -175,39 +175,117 @@ export function symbolicFactor(A: Csr, ordering: Ordering, options: SupernodeOpt
   }
   fundStart.push(n);
 
-  // --- amalgamation: greedily merge the preceding group into the current supernode when it is
-  // a child ending right before it (postorder guarantees contiguity)
-  const groupStart: number[] = [];
-  const groupRows: number[] = []; // rows of the group's panel (its first column's structure)
-  const groupEntries: number[] = []; // true nonzeros inside the group
-  for (let f = 0; f + 1 < fundStart.length; f++) {
-    const c0 = fundStart[f];
-    const c1 = fundStart[f + 1];
-    const nc = c1 - c0;
-    const nr = colCounts[c0];
-    let entries = 0;
-    for (let c = c0; c < c1; c++) entries += colCounts[c];
-    const g = groupStart.length - 1;
-    if (relax && g >= 0) {
-      const gs = groupStart[g];
-      const gnc = c0 - gs;
-      const lastCol = c0 - 1;
-      const pc = parent[lastCol];
-      if (pc >= c0 && pc < c1 && gnc + nc <= maxCols) {
-        const mergedNc = gnc + nc;
-        const mergedNr = gnc + nr;
+  // --- amalgamation on the supernodal tree: merge a child into its parent when the explicit
+  // zeros stay small. Siblings may be merged into the same parent; the merged columns are then
+  // renumbered (children's subtrees first, then the members) — any topological order of the
+  // elimination tree gives the same fill (Liu 1990, "The role of elimination trees").
+  const nFund = fundStart.length - 1;
+  const fNc = new Int32Array(nFund);
+  const fParent = new Int32Array(nFund).fill(-1);
+  const colToFund = new Int32Array(n);
+  for (let f = 0; f < nFund; f++) {
+    fNc[f] = fundStart[f + 1] - fundStart[f];
+    for (let c = fundStart[f]; c < fundStart[f + 1]; c++) colToFund[c] = f;
+  }
+  for (let f = 0; f < nFund; f++) {
+    const pc = parent[fundStart[f + 1] - 1];
+    if (pc !== -1) fParent[f] = colToFund[pc];
+  }
+  const gNc = Float64Array.from(fNc);
+  const gNr = new Float64Array(nFund);
+  const gEntries = new Float64Array(nFund);
+  for (let f = 0; f < nFund; f++) {
+    gNr[f] = colCounts[fundStart[f]];
+    let e = 0;
+    for (let c = fundStart[f]; c < fundStart[f + 1]; c++) e += colCounts[c];
+    gEntries[f] = e;
+  }
+  // member lists (in column order) of each group, as linked lists over fundamental supernodes
+  const memberHead = new Int32Array(nFund);
+  const memberTail = new Int32Array(nFund);
+  const memberNext = new Int32Array(nFund).fill(-1);
+  for (let f = 0; f < nFund; f++) { memberHead[f] = f; memberTail[f] = f; }
+  const mergedInto = new Int32Array(nFund).fill(-1);
+  // children lists of the fundamental tree
+  const kidHead = new Int32Array(nFund).fill(-1);
+  const kidNext = new Int32Array(nFund).fill(-1);
+  for (let f = nFund - 1; f >= 0; f--) {
+    const p = fParent[f];
+    if (p !== -1) { kidNext[f] = kidHead[p]; kidHead[p] = f; }
+  }
+  if (relax) {
+    for (let p = 0; p < nFund; p++) {
+      for (let c = kidHead[p]; c !== -1; c = kidNext[c]) {
+        const mergedNc = gNc[c] + gNc[p];
+        if (mergedNc > maxCols) continue;
+        const mergedNr = gNc[c] + gNr[p];
         const stored = panelEntries(mergedNc, mergedNr);
-        const trueEntries = groupEntries[g] + entries;
-        if (stored - trueEntries <= allowedZeroFraction(mergedNc) * stored) {
-          groupRows[g] = mergedNr;
-          groupEntries[g] = trueEntries;
-          continue;
-        }
+        const trueEntries = gEntries[c] + gEntries[p];
+        if (stored - trueEntries > allowedZeroFraction(mergedNc) * stored) continue;
+        // c's members go before p's members
+        memberNext[memberTail[c]] = memberHead[p];
+        memberHead[p] = memberHead[c];
+        gNc[p] = mergedNc;
+        gNr[p] = mergedNr;
+        gEntries[p] = trueEntries;
+        mergedInto[c] = p;
       }
     }
-    groupStart.push(c0);
-    groupRows.push(nr);
-    groupEntries.push(entries);
+  }
+  // group of each fundamental supernode (follow mergedInto to the root; parents come later)
+  const groupOf = new Int32Array(nFund);
+  for (let f = nFund - 1; f >= 0; f--) groupOf[f] = mergedInto[f] === -1 ? f : groupOf[mergedInto[f]];
+  // group tree: a surviving group's parent is the group of its top member's parent
+  const gKidHead = new Int32Array(nFund).fill(-1);
+  const gKidNext = new Int32Array(nFund).fill(-1);
+  for (let f = nFund - 1; f >= 0; f--) {
+    if (mergedInto[f] !== -1 || fParent[f] === -1) continue;
+    const pg = groupOf[fParent[f]];
+    gKidNext[f] = gKidHead[pg];
+    gKidHead[pg] = f;
+  }
+  // postorder of the group tree, emitting member columns
+  const newToOld = new Int32Array(n);
+  const groupStart: number[] = [];
+  const groupRows: number[] = [];
+  const stack = new Int32Array(nFund);
+  let col = 0;
+  for (let root = 0; root < nFund; root++) {
+    if (mergedInto[root] !== -1 || fParent[root] !== -1) continue;
+    let top = 0;
+    stack[0] = root;
+    while (top >= 0) {
+      const g = stack[top];
+      const kid = gKidHead[g];
+      if (kid !== -1) {
+        gKidHead[g] = gKidNext[kid];
+        stack[++top] = kid;
+        continue;
+      }
+      top--;
+      groupStart.push(col);
+      groupRows.push(gNr[g]);
+      for (let m = memberHead[g]; m !== -1; m = memberNext[m]) {
+        for (let c = fundStart[m]; c < fundStart[m + 1]; c++) newToOld[col++] = c;
+      }
+    }
+  }
+  {
+    const oldToNew = new Int32Array(n);
+    for (let k = 0; k < n; k++) oldToNew[newToOld[k]] = k;
+    const perm2 = new Int32Array(n);
+    const parent2 = new Int32Array(n);
+    const counts2 = new Int32Array(n);
+    for (let k = 0; k < n; k++) {
+      const o = newToOld[k];
+      perm2[k] = perm[o];
+      parent2[k] = parent[o] === -1 ? -1 : oldToNew[parent[o]];
+      counts2[k] = colCounts[o];
+    }
+    perm = perm2;
+    for (let k = 0; k < n; k++) iperm[perm[k]] = k;
+    parent.set(parent2);
+    colCounts.set(counts2);
   }
   const nSuper = groupStart.length;
   const superStart = new Int32Array(nSuper + 1);
