@@ -40,31 +40,31 @@ export function pieceContact(a: Curve, b: Curve, tol: number): Point | null {
   if (a.kind === 'line' || (a.kind === 'arc' && b.kind === 'ellipse-arc')) [a, b] = [b, a];
   const speed = curveSpeedBound(a);
   const f = (t: number): number => closestOnCurve(b, curvePoint(a, t)).distance;
-  const stack: number[] = []; // triples t0, t1, and the values are recomputed lazily below
-  const values = new Map<number, number>();
-  const value = (t: number): number => {
-    let v = values.get(t);
-    if (v === undefined) {
-      v = f(t);
-      values.set(t, v);
-    }
-    return v;
-  };
+  // stack of intervals as (t0, t1, f(t0), f(t1)) quadruples
   const n0 = 16;
-  for (let k = 0; k < n0; k++) stack.push(k / n0, (k + 1) / n0);
+  const stack: number[] = [];
+  let fPrev = f(0);
+  if (fPrev < tol) return curvePoint(a, 0);
+  for (let k = 1; k <= n0; k++) {
+    const t = k / n0;
+    const ft = f(t);
+    if (ft < tol) return curvePoint(a, t);
+    stack.push((k - 1) / n0, t, fPrev, ft);
+    fPrev = ft;
+  }
   let budget = 20000;
   while (stack.length > 0 && budget-- > 0) {
+    const f1 = stack.pop()!;
+    const f0 = stack.pop()!;
     const t1 = stack.pop()!;
     const t0 = stack.pop()!;
-    const f0 = value(t0);
-    const f1 = value(t1);
-    if (f0 < tol) return curvePoint(a, t0);
-    if (f1 < tol) return curvePoint(a, t1);
     const S = speed * (t1 - t0);
     if ((f0 + f1 - S) / 2 >= tol) continue;
-    if (S < 0.25 * tol) return curvePoint(a, 0.5 * (t0 + t1));
     const tm = 0.5 * (t0 + t1);
-    stack.push(t0, tm, tm, t1);
+    if (S < 0.25 * tol) return curvePoint(a, tm);
+    const fm = f(tm);
+    if (fm < tol) return curvePoint(a, tm);
+    stack.push(t0, tm, f0, fm, tm, t1, fm, f1);
   }
   return null;
 }

@@ -103,7 +103,9 @@ export function buildShapeLoop(shape: Shape, ctx: LoopContext): LoopDraft {
         { at: [cx - hw, cy + hh], round: r },
       ];
       // one shape: every piece and corner is named by the shape's own key path
-      return polygonLoop(vertices, ctx, () => ctx.keyPath, () => ctx.keyPath, () => ctx.keyPath, false);
+      const loop = polygonLoop(vertices, ctx, () => ctx.keyPath, () => ctx.keyPath, () => ctx.keyPath, false);
+      // a rectangle with round ≤ half its shorter side cannot touch itself: skip that check
+      return { ...loop, polygon: false };
     }
     case 'polygon': {
       const isOutline = !ctx.hole;
