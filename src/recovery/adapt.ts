@@ -47,6 +47,11 @@ export interface AdaptiveOptions {
   sizeChange?: readonly [number, number];
   /** called after every solve with the cycle's summary and its full result */
   onCycle?: (cycle: AdaptiveCycle, result: AdaptiveCycleResult) => void;
+  /**
+   * let elements grow beyond the first mesh's size field where the error is small (default
+   * false: the first field stays an upper bound, which keeps its curve resolution and local sizes)
+   */
+  allowCoarsening?: boolean;
 }
 
 export interface AdaptiveCycle {
@@ -209,7 +214,11 @@ export function adaptiveSolve(input: AdaptiveInput, opts: AdaptiveOptions): Adap
       const vertexSize = vertexSizesFromElements(mesh, elemSize);
       cycle.nextDofs = Math.round(calibration * predictDofs(mesh, vertexSize, solution.dofs / nElem));
       if (cycle.nextDofs > maxDofs) stoppedBy = 'dofs';
-      else sizeAt = meshSizeField(mesh, vertexSize);
+      else {
+        const carried = meshSizeField(mesh, vertexSize);
+        const first = input.sizeAt0;
+        sizeAt = opts.allowCoarsening ? carried : (x, y) => Math.min(carried(x, y), first(x, y));
+      }
     }
     opts.onCycle?.(cycle, last);
     if (stoppedBy) return { ...last, cycles, stoppedBy };

@@ -83,6 +83,22 @@ describe('adaptive loop on the L-shaped plate', () => {
   });
 });
 
+describe('adaptive loop on the L-shaped plate, CST', () => {
+  // same criterion as for the LST: at least 80 % of the optimal rate p/2 = 0.5
+  it('CST: error falls at r ≥ 0.4 over the cycles', () => {
+    const N: number[] = [];
+    const err: number[] = [];
+    adaptiveSolve(
+      { geometry: lGeometry(), section: L_SECTION, supports: [], loads: [], order: 1, sizeAt0: () => 0.25, extraLoad: lTractions, prescribed: lConstraints },
+      { targetPercent: 3, maxDofs: 30_000, onCycle: (c, r) => (N.push(c.dofs), err.push(lTrueError(r.gauss))) },
+    );
+    const r = -logSlope(N.slice(1), err.slice(1));
+    console.log(`L adaptive CST: N ${N.join(' ')}; error ${err.map((e) => e.toExponential(3)).join(' ')}; r = ${r.toFixed(3)}`);
+    expect(N.length).toBeGreaterThanOrEqual(3);
+    expect(r).toBeGreaterThanOrEqual(0.4);
+  });
+});
+
 describe('adaptive loop always terminates', () => {
   const input = { geometry: lGeometry(), section: L_SECTION, supports: [], loads: [], order: 1 as const, sizeAt0: () => 0.3, extraLoad: lTractions, prescribed: lConstraints };
   it('a DOF cap stops it before a mesh would exceed the cap', () => {
