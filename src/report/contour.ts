@@ -35,8 +35,14 @@ export interface ContourOptions {
   width?: number;
   /** picture height limit of the plate area in px (default 520) */
   maxHeight?: number;
-  /** colour range (default: min … max of the field inside the window) */
+  /** colour range (default: min … max of the field inside the window, top capped as below) */
   range?: [number, number];
+  /**
+   * When the largest values cover only a sliver of the plate (a singular point), cap the top of
+   * the colour scale at this area quantile so the rest of the field stays readable; values above
+   * show in the top colour and the bar says so. `false` never caps. Default 0.995.
+   */
+  capQuantile?: number | false;
   /** number of colour bands (default 56) */
   levels?: number;
   /** above this many drawn triangles the field is resampled on a grid (default 60 000) */
@@ -103,6 +109,48 @@ function rangeInWindow(xy: Float64Array, values: Float64Array, box: Box): [numbe
     }
   }
   return lo > hi ? [0, 1] : [lo, hi];
+}
+
+/**
+ * Colour range over the window. The top is capped at the area quantile `q` (nodal areas from
+ * the linear triangles, values binned in 4096 classes) when the values above it stretch the
+ * scale by more than a quarter: a singular peak then no longer turns the whole plate one colour.
+ */
+export function colourRange(
+  mesh: Mesh, values: Float64Array, box: Box, q: number | false,
+): { lo: number; hi: number; max: number; capped: boolean } {
+  const [lo, max] = rangeInWindow(mesh.xy, values, box);
+  if (q === false || !(q > 0 && q < 1) || !(max > lo)) return { lo, hi: max, max, capped: false };
+  const bins = 4096;
+  const areaIn = new Float64Array(bins);
+  const xy = mesh.xy;
+  let total = 0;
+  const inside = (n: number) => {
+    const x = xy[2 * n], y = xy[2 * n + 1];
+    return x >= box.minX && x <= box.maxX && y >= box.minY && y <= box.maxY && Number.isFinite(values[n]);
+  };
+  const add = (n: number, w: number) => {
+    if (!inside(n)) return;
+    const k = Math.min(bins - 1, Math.floor(((values[n] - lo) / (max - lo)) * bins));
+    areaIn[k] += w;
+    total += w;
+  };
+  forEachLinearTriangle(mesh, (a, b, c) => {
+    const w = Math.abs((xy[2 * b] - xy[2 * a]) * (xy[2 * c + 1] - xy[2 * a + 1]) - (xy[2 * c] - xy[2 * a]) * (xy[2 * b + 1] - xy[2 * a + 1])) / 6;
+    add(a, w);
+    add(b, w);
+    add(c, w);
+  });
+  if (!(total > 0)) return { lo, hi: max, max, capped: false };
+  let acc = 0;
+  let k = 0;
+  for (; k < bins; k++) {
+    acc += areaIn[k];
+    if (acc >= q * total) break;
+  }
+  const top = lo + ((k + 1) / bins) * (max - lo);
+  if (max - top > 0.25 * (top - lo)) return { lo, hi: top, max, capped: true };
+  return { lo, hi: max, max, capped: false };
 }
 
 /** Fine drawing: every triangle in the window, split into bands. */
@@ -240,7 +288,7 @@ function meshOverlayPath(mesh: Mesh, f: Frame, maxEdges: number): string | undef
 
 /** The continuous colour bar: a slim rounded bar, ticks on its right, end values in bold. */
 export function colourBarSvg(
-  x: number, y: number, height: number, scale: BandScale, units: string, gradientId: string,
+  x: number, y: number, height: number, scale: BandScale, units: string, gradientId: string, capped = false,
 ): string {
   const w = 14;
   const stops: string[] = [];
@@ -252,12 +300,16 @@ export function colourBarSvg(
   const parts: string[] = [
     `<g class="colour-bar">`,
     `<defs><linearGradient id="${gradientId}" x1="0" y1="1" x2="0" y2="0">${stops.join('')}</linearGradient></defs>`,
-    `<text x="${x}" y="${y - 10}" font-size="11" font-weight="600" fill="#222">${escapeXml(units)}</text>`,
+    `<text class="bar-heading" x="${x}" y="${y - 14}" font-size="11" font-weight="600" fill="#222">${escapeXml(units)}</text>`,
     `<rect x="${x}" y="${y}" width="${w}" height="${height}" rx="4" fill="url(#${gradientId})" stroke="#333" stroke-width="0.6"/>`,
   ];
-  const endLabel = (v: number, yy: number, cls: string) =>
-    `<text class="${cls}" x="${x + w + 6}" y="${c1(yy + 4)}" font-size="11" font-weight="700" fill="#111">${escapeXml(formatNumber(v))}</text>`;
-  parts.push(endLabel(scale.hi, y, 'bar-max'), endLabel(scale.lo, y + height, 'bar-min'));
+  const endLabel = (v: number, yy: number, cls: string, prefix = '') =>
+    `<text class="${cls}" x="${x + w + 6}" y="${c1(yy + 4)}" font-size="11" font-weight="700" fill="#111">${escapeXml(prefix + formatNumber(v))}</text>`;
+  parts.push(endLabel(scale.hi, y, 'bar-max', capped ? '≥ ' : ''), endLabel(scale.lo, y + height, 'bar-min'));
+  if (capped) {
+    // an open top: a small arrowhead above the bar says the scale continues beyond its end
+    parts.push(`<path d="M${x} ${y - 2}L${x + w / 2} ${y - 8} ${x + w} ${y - 2}Z" fill="${colourAt(1)}" stroke="#333" stroke-width="0.6"/>`);
+  }
   const minGap = 14;
   for (const t of niceTicks(scale.lo, scale.hi, 5)) {
     const ty = valueY(t);
@@ -305,8 +357,10 @@ export function contourSvg(mesh: Mesh, values: Float64Array, opts: ContourOption
   const box = opts.viewBox ?? padBox(meshBox(mesh.xy, opts.deformed), 0.03);
   const top = 44;
   const frame = makeFrame(box, opts.width ?? 640, opts.maxHeight ?? 520, 12, top);
-  const [lo, hi] = opts.range ?? rangeInWindow(mesh.xy, values, box);
-  const scale = bandScale(lo, hi, opts.levels ?? DEFAULT_LEVELS);
+  const range = opts.range
+    ? { lo: opts.range[0], hi: opts.range[1], max: opts.range[1], capped: false }
+    : colourRange(mesh, values, box, opts.capQuantile ?? 0.995);
+  const scale = bandScale(range.lo, range.hi, opts.levels ?? DEFAULT_LEVELS);
   const paths = new BandPaths(scale, frame);
   const budget = opts.maxTriangles ?? DEFAULT_MAX_TRIANGLES;
   const inWindow = countInWindow(mesh, box);
@@ -372,7 +426,12 @@ export function contourSvg(mesh: Mesh, values: Float64Array, opts: ContourOption
   body.push(
     `<rect x="${c1(frame.ox)}" y="${c1(frame.oy)}" width="${c1(frame.width)}" height="${c1(frame.height)}" fill="none" stroke="#bbb" stroke-width="0.6"/>`,
   );
-  body.push(colourBarSvg(barX, top + 20, barHeight, scale, opts.units, `${prefix}-ramp`));
+  body.push(colourBarSvg(barX, top + 20, barHeight, scale, opts.units, `${prefix}-ramp`, range.capped));
+  if (range.capped) {
+    notes.push(
+      `Colour scale capped at ${formatNumber(range.hi)}: the values above it, up to ${formatNumber(range.max)}, cover under ${formatNumber(100 * (1 - (opts.capQuantile || 0.995)), 2)} % of the area in view and show in the top colour.`,
+    );
+  }
 
   const lines: string[] = [];
   let ly = plotBottom + 20;
@@ -384,7 +443,8 @@ export function contourSvg(mesh: Mesh, values: Float64Array, opts: ContourOption
     lines.push(`<text class="note" x="${c1(frame.ox)}" y="${c1(ly)}" font-size="10.5" fill="#555">${escapeXml(note)}</text>`);
     ly += 16;
   }
-  const width = Math.ceil(barX + 110);
+  // room for the bar heading (about 6.2 px per character at 11 px) and the tick labels
+  const width = Math.ceil(barX + Math.max(110, 6.2 * [...opts.units].length + 8));
   const height = Math.ceil(ly);
   const title = escapeXml(opts.title);
   return (

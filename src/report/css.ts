@@ -13,12 +13,13 @@ h3 { font-size: 16px; margin: 0 0 6px; overflow-wrap: anywhere; }
 .caution { border-left: 4px solid #b7791f; background: #fffaf0; padding: 6px 10px; margin: 8px 0 12px; }
 table { border-collapse: collapse; }
 table.facts th { text-align: left; font-weight: 600; padding: 3px 14px 3px 0; vertical-align: top; white-space: nowrap; color: var(--muted); }
-table.facts td { padding: 3px 0; overflow-wrap: anywhere; }
+table.facts td { padding: 3px 0; overflow-wrap: break-word; }
 table.facts ul { margin: 0; padding-left: 18px; }
 table.verdicts, table.levels { width: 100%; font-variant-numeric: tabular-nums; }
-table.verdicts th, table.verdicts td, table.levels th, table.levels td { text-align: left; padding: 4px 8px; border-bottom: 1px solid var(--rule); overflow-wrap: anywhere; }
+table.verdicts th, table.verdicts td, table.levels th, table.levels td { text-align: left; padding: 4px 8px; border-bottom: 1px solid var(--rule); overflow-wrap: break-word; }
+table.verdicts td:nth-child(4) { white-space: nowrap; }
 table.verdicts thead th, table.levels thead th { border-bottom: 2px solid var(--accent); }
-.verdict { display: inline-block; padding: 0 8px; border-radius: 10px; font-size: 12px; font-weight: 700; border: 1.5px solid; }
+.verdict { display: inline-block; white-space: nowrap; padding: 0 8px; border-radius: 10px; font-size: 12px; font-weight: 700; border: 1.5px solid; }
 .verdict-converging { color: #2b6a3a; border-color: #2b8a3e; background: #ebfbee; }
 .verdict-singular { color: #8a1c5c; border-color: #a61e4d; background: #fff0f6; }
 .verdict-undecided { color: #7c5a00; border-color: #d39e00; background: #fff9db; }

@@ -76,15 +76,17 @@ function makeAxis(values: number[], p0: number, p1: number, allowLog: boolean): 
     p1,
     at: (v: number) => p0 + ((t(v) - a) / (b - a)) * (p1 - p0),
     ticks: () => {
-      if (log && b - a >= 1.5) {
+      if (log && b - a >= 0.5) {
+        // decades only when the range is wide; otherwise 1-2-5 steps, or every digit
+        const mantissas = b - a >= 3 ? [1] : b - a >= 1 ? [1, 2, 5] : [1, 2, 3, 4, 5, 6, 7, 8, 9];
         const out: number[] = [];
-        for (let k = Math.ceil(a); k <= Math.floor(b); k++) {
-          for (const m of b - a <= 3 ? [1, 2, 5] : [1]) {
+        for (let k = Math.floor(a); k <= Math.ceil(b); k++) {
+          for (const m of mantissas) {
             const v = m * 10 ** k;
-            if (Math.log10(v) >= a && Math.log10(v) <= b) out.push(v);
+            if (Math.log10(v) >= a && Math.log10(v) <= b) out.push(Number(v.toPrecision(12)));
           }
         }
-        return out;
+        if (out.length >= 2) return out;
       }
       return niceTicks(log ? 10 ** a : a, log ? 10 ** b : b, 4).filter((v) => !log || v > 0);
     },
@@ -98,27 +100,47 @@ interface Panel {
   h: number;
 }
 
+/** Tick text: 12000 → "12k", 1500000 → "1.5M"; others with 3–4 significant digits. */
+function tickText(v: number, sig: number): string {
+  const a = Math.abs(v);
+  if (a >= 1e6) return `${formatNumber(v / 1e6, 3)}M`;
+  if (a >= 1e4) return `${formatNumber(v / 1e3, 3)}k`;
+  return formatNumber(v, sig);
+}
+
 function axesSvg(panel: Panel, ax: Axis, ay: Axis, xLabel: string, yLabel: string, small: boolean): string {
   const fs = small ? 9.5 : 10.5;
   const parts: string[] = [
     `<rect x="${panel.x}" y="${panel.y}" width="${panel.w}" height="${panel.h}" fill="#fbfcfd" stroke="#9aa5b1" stroke-width="0.8"/>`,
   ];
+  // labels keep a minimum gap (their text width); tick marks and grid lines are always drawn
+  let lastLabelX = -Infinity;
   for (const t of ax.ticks()) {
     const X = ax.at(t);
     if (X < panel.x - 0.5 || X > panel.x + panel.w + 0.5) continue;
     parts.push(
       `<line x1="${c1(X)}" x2="${c1(X)}" y1="${panel.y}" y2="${panel.y + panel.h}" stroke="#e4e7eb" stroke-width="0.7"/>`,
       `<line x1="${c1(X)}" x2="${c1(X)}" y1="${panel.y + panel.h}" y2="${panel.y + panel.h + 4}" stroke="${INK}" stroke-width="0.8"/>`,
-      `<text x="${c1(X)}" y="${panel.y + panel.h + 15}" font-size="${fs}" text-anchor="middle" fill="${INK}">${escapeXml(formatNumber(t, 3))}</text>`,
+    );
+    const text = tickText(t, 3);
+    if (Math.abs(X - lastLabelX) < 0.62 * fs * (text.length + 1.5)) continue;
+    lastLabelX = X;
+    parts.push(
+      `<text x="${c1(X)}" y="${panel.y + panel.h + 15}" font-size="${fs}" text-anchor="middle" fill="${INK}">${escapeXml(text)}</text>`,
     );
   }
+  let lastLabelY = -Infinity;
   for (const t of ay.ticks()) {
     const Y = ay.at(t);
     if (Y < panel.y - 0.5 || Y > panel.y + panel.h + 0.5) continue;
     parts.push(
       `<line x1="${panel.x}" x2="${panel.x + panel.w}" y1="${c1(Y)}" y2="${c1(Y)}" stroke="#e4e7eb" stroke-width="0.7"/>`,
       `<line x1="${panel.x - 4}" x2="${panel.x}" y1="${c1(Y)}" y2="${c1(Y)}" stroke="${INK}" stroke-width="0.8"/>`,
-      `<text x="${panel.x - 6}" y="${c1(Y + 3.5)}" font-size="${fs}" text-anchor="end" fill="${INK}">${escapeXml(formatNumber(t, 4))}</text>`,
+    );
+    if (Math.abs(Y - lastLabelY) < 1.3 * fs) continue;
+    lastLabelY = Y;
+    parts.push(
+      `<text x="${panel.x - 6}" y="${c1(Y + 3.5)}" font-size="${fs}" text-anchor="end" fill="${INK}">${escapeXml(tickText(t, 4))}</text>`,
     );
   }
   parts.push(

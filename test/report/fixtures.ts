@@ -8,6 +8,7 @@ import type { PlateGeometry, BoundaryPiece } from '../../src/geometry/types.js';
 import type { Mesh } from '../../src/mesh/types.js';
 import type { Model, Point } from '../../src/model/types.js';
 import type { SpotResult, StudyResult } from '../../src/study/types.js';
+import type { ReportInput } from '../../src/report/index.js';
 
 export interface GridOptions {
   nx: number;
@@ -274,3 +275,24 @@ export function demoStudy(strings: string = ''): StudyResult {
     spots,
   };
 }
+
+/** The demo report input: L-shaped LST plate, corner field, three spots, three checks. */
+const plate = { nx: 40, ny: 30, width: 400, height: 300, order: 2 as const, lShape: true };
+
+export function demoReportInput(hostile = ''): ReportInput {
+  const mesh = gridMesh(plate);
+  return {
+    model: demoModel(hostile),
+    study: demoStudy(hostile),
+    mesh,
+    geometry: plateGeometry(plate),
+    field: cornerField(mesh, [200, 150], 0.4555, 400),
+    u: smoothDisplacement(mesh, 400),
+    checks: [
+      { name: `Kirsch hole, Kt = 3 ${hostile}`, pass: true, detail: `3.004 (Kirsch 1898) ${hostile}` },
+      { name: 'Lamé thick ring', pass: true },
+      { name: 'Inglis ellipse a/b = 3', pass: false, detail: 'off by 2 %' },
+    ],
+  };
+}
+

@@ -1,27 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { CAUTION, reportHtml, stripControl } from '../../src/report/index.js';
-import type { ReportInput } from '../../src/report/index.js';
 import { checkXml, svgFragments } from './xml.js';
-import { HOSTILE, cornerField, demoModel, demoStudy, gridMesh, plateGeometry, smoothDisplacement } from './fixtures.js';
-
-const plate = { nx: 40, ny: 30, width: 400, height: 300, order: 2 as const, lShape: true };
-
-export function demoReportInput(hostile = ''): ReportInput {
-  const mesh = gridMesh(plate);
-  return {
-    model: demoModel(hostile),
-    study: demoStudy(hostile),
-    mesh,
-    geometry: plateGeometry(plate),
-    field: cornerField(mesh, [200, 150], 0.4555, 400),
-    u: smoothDisplacement(mesh, 400),
-    checks: [
-      { name: `Kirsch hole, Kt = 3 ${hostile}`, pass: true, detail: `3.004 (Kirsch 1898) ${hostile}` },
-      { name: 'Lamé thick ring', pass: true },
-      { name: 'Inglis ellipse a/b = 3', pass: false, detail: 'off by 2 %' },
-    ],
-  };
-}
+import { HOSTILE, cornerField, demoModel, demoReportInput, demoStudy, gridMesh, plateGeometry, smoothDisplacement } from './fixtures.js';
 
 const unescape = (s: string) =>
   s.replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&quot;/g, '"').replace(/&#39;/g, "'").replace(/&amp;/g, '&');
