@@ -15,5 +15,5 @@ export {
   type TractionField,
 } from './loads.js';
 export { checkRigidRestraint, supportedDofs } from './supports.js';
-export { validateMesh, validateSection } from './validate.js';
+export { validateSolverMesh, validateSection } from './validate.js';
 export { solvePlate, type PlateProblem, type PrescribedDisplacement } from './solve.js';

@@ -15,7 +15,7 @@ import { assembleStiffness, csrMultiply, stiffnessPattern, type StiffnessPattern
 import { appliedResultant, loadVector } from './loads.js';
 import { checkRigidRestraint, supportedDofs } from './supports.js';
 import type { ElasticSection, Solution } from './types.js';
-import { validateMesh, validateSection } from './validate.js';
+import { validateSolverMesh, validateSection } from './validate.js';
 
 /** A prescribed displacement: dof 2n is u_x of node n, 2n + 1 is u_y. */
 export interface PrescribedDisplacement {
@@ -50,7 +50,7 @@ const now = (): number => performance.now() / 1000;
 export function solvePlate(input: PlateProblem): Solution {
   const { mesh, geometry, section } = input;
   validateSection(section);
-  validateMesh(mesh);
+  validateSolverMesh(mesh);
   const nNodes = mesh.xy.length / 2;
   const nDof = 2 * nNodes;
 

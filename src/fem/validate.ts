@@ -21,7 +21,7 @@ export function validateSection(section: ElasticSection): void {
  * Checks the mesh arrays once: lengths, node ids in range, every node used by an element,
  * every element with a positive Jacobian at its integration points (counter-clockwise, untangled).
  */
-export function validateMesh(mesh: Mesh): void {
+export function validateSolverMesh(mesh: Mesh): void {
   const npe = mesh.nodesPerElem;
   if (!((npe === 3 && mesh.order === 1) || (npe === 6 && mesh.order === 2))) {
     throw new FemError(`mesh has ${npe} nodes per element with order ${mesh.order}; expected 3 with order 1 or 6 with order 2`);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { SolveError } from '../../src/errors.js';
+import { FemError, SolveError } from '../../src/errors.js';
 import { solvePlate, type ElasticSection } from '../../src/fem/index.js';
 import type { Mesh } from '../../src/mesh/types.js';
 import type { Load, Support } from '../../src/model/types.js';
@@ -28,9 +28,14 @@ describe('rigid-body restraint is checked before factorising', () => {
   it('only y fixed: free to move in x', () => {
     expect(solveError(mesh, [sup({ kind: 'y', value: 0 }, false, true, 0)]).message).toMatch(/free to move in x \(no support fixes x\)/);
   });
-  it('only x fixed on one vertical line: free to move in y and to rotate', () => {
+  it('only x fixed on one vertical line: free to move in y', () => {
     const e = solveError(mesh, [sup({ kind: 'x', value: 0 }, true, false, 0)]);
     expect(e.message).toMatch(/free to move in y \(no support fixes y\)/);
+  });
+  it('y fixed at one point only: free to move in x and to rotate about a point of x = 100', () => {
+    const e = solveError(mesh, [sup({ kind: 'point', at: [100, 40] }, false, true, 0)]);
+    expect(e.message).toMatch(/free to move in x \(no support fixes x\), and free to rotate about a point of the line x = 100/);
+    expect(e.keyPath).toBe('supports');
   });
   it('one pinned point: free to rotate about it', () => {
     const e = solveError(mesh, [sup({ kind: 'point', at: [0, 0] }, true, true, 0)]);
@@ -59,6 +64,28 @@ describe('rigid-body restraint is checked before factorising', () => {
     expect(Math.abs(sol.reactionSum[0] + sol.appliedSum[0]) / sol.appliedSum[0]).toBeLessThan(1e-9);
     expect(sol.residual).toBeLessThan(1e-12);
     expect(sol.nnzL).toBeGreaterThan(0);
+  });
+});
+
+describe('input errors name the key path', () => {
+  const mesh = rectangleMesh(0, 0, 100, 40, 5, 2, 1);
+  it('a point support off the nodes is a FemError at supports[1].where', () => {
+    let caught: unknown;
+    try {
+      solvePlate({ mesh, geometry, section, loads: pull, supports: [sup({ kind: 'x', value: 0 }, true, true, 0), sup({ kind: 'point', at: [50, 20] }, true, true, 1)] });
+    } catch (err) {
+      caught = err;
+    }
+    expect(caught).toBeInstanceOf(FemError);
+    expect((caught as FemError).keyPath).toBe('supports[1].where');
+    expect((caught as FemError).message).toMatch(/no node at point \(50, 20\); nearest is node \d+ at \(\d+, 20\) at distance 10/);
+  });
+  it('an inverted (clockwise) element is a FemError', () => {
+    const bad = meshFromTriangles({ xy: [0, 0, 1, 0, 0, 1], tris: [0, 2, 1], order: 1, pieceOf: () => 0 });
+    expect(() => solvePlate({ mesh: bad, geometry, section, loads: [], supports: [] })).toThrow(/inverted or degenerate/);
+  });
+  it('a Poisson ratio of 0.5 is a FemError at material.nu', () => {
+    expect(() => solvePlate({ mesh, geometry, section: { ...section, nu: 0.5 }, loads: pull, supports: [] })).toThrow(FemError);
   });
 });
 
