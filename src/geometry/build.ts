@@ -68,7 +68,11 @@ export function buildGeometry(plate: Plate): PlateGeometry {
     const d = drafts[li];
     const hit = loopsContact(loopPieceIds[0], loopPieceIds[li], pieces, pieceBoxes, tol);
     if (hit) {
-      throw new GeometryError(`${d.keyPath}: ${d.label} crosses or touches the outline near ${fmtPoint(hit)}`, d.keyPath);
+      throw new GeometryError(
+        `${d.keyPath}: ${d.label} crosses or touches the outline near ${fmtPoint(hit)}; ` +
+          'an opening must lie wholly inside the plate (cut a notch into an edge as part of plate.outline)',
+        d.keyPath,
+      );
     }
     const probe = curveStart(pieces[loopPieceIds[li][0]].curve);
     if (windingNumber(outlineCurves, probe) === 0) {
