@@ -24,6 +24,12 @@ export function parseModel(text: string, file: string, options: ParseOptions = {
   const checked = ModelFileSchema.safeParse(source.data, { reportInput: true });
   if (!checked.success) throw firstIssueError(checked.error, source.data, source);
   const locateValue = (keyPath: string): SourcePosition => nearest(source.valueAt, parsePath(keyPath));
+  // zod's record drops a `__proto__` key silently; refuse it rather than lose a param
+  const rawParams = (source.data as { params?: unknown }).params;
+  if (rawParams && typeof rawParams === 'object' && Object.hasOwn(rawParams, '__proto__')) {
+    const pos = locateValue('params.__proto__');
+    throw new ModelError("'__proto__' cannot be a parameter name", 'params.__proto__', pos.line, pos.col);
+  }
   const params = evaluateParams(checked.data.params ?? {}, options.params, locateValue);
   return buildModel(checked.data, file, params, source.valueAt);
 }

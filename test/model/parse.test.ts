@@ -264,6 +264,11 @@ describe('params and overrides', () => {
     expect((caught as Error).message).toContain("did you mean 'radius'?");
     expect((caught as ModelError).keyPath).toBe('params');
   });
+  it('__proto__ is refused as a key and as a parameter name', () => {
+    expect(fails(`__proto__: 1\n${minimal}`).keyPath).toBe('__proto__');
+    const e = fails(`params: { __proto__: 1 }\n${minimal}`);
+    expect([e.keyPath, e.line]).toEqual(['params.__proto__', 1]);
+  });
   it('a self-reference is a cycle', () => {
     const e = fails(`params: { a: a + 1 }\n${minimal}`);
     expect(e.message).toContain('a → a');
