@@ -11,3 +11,4 @@ export type { BoundaryStress } from './boundary.js';
 export { adaptiveSolve, zzElementSizes } from './adapt.js';
 export type { AdaptiveInput, AdaptiveOptions, AdaptiveCycle, AdaptiveCycleResult, AdaptiveResult } from './adapt.js';
 export { meshSizeField, vertexSizesFromElements } from './sizefield.js';
+export { dorflerMark } from './marking.js';

@@ -89,3 +89,19 @@ describe('Lamé thick ring, LST + SPR', () => {
     for (const st of bore.st) expect(Math.abs(st / (5 / 3) - 1)).toBeLessThan(0.005);
   });
 });
+
+// Lamé in plane strain (reference-values §4 and test case 14): σz = ν(σr + σθ) = 2νpa²/(b² − a²) = 0.2
+describe('Lamé thick ring, plane strain: σzz bookkeeping', () => {
+  it('recovered σzz within 0.5 % of 0.2 at every node', () => {
+    const ring = quarterRingMesh(1, 2, 12, 18, 2);
+    const sec: ElasticSection = { E: 1000, nu: 0.3, state: 'plane-strain', thickness: 1 };
+    const run = solveExact(ring.mesh, ring.geometry, sec, lameStress(1, 1, 2), [0], {
+      xZeroOn: (x) => Math.abs(x) < tiny,
+      yZeroOn: (_x, y) => Math.abs(y) < tiny,
+    });
+    const field = recoverSpr(ring.mesh, run.gauss, sec);
+    for (const szz of field.szz) expect(Math.abs(szz / 0.2 - 1)).toBeLessThan(0.005);
+    const bore = boundaryTangentialStress(ring.mesh, ring.geometry, field, [0]);
+    for (const st of bore.st) expect(Math.abs(st / (5 / 3) - 1)).toBeLessThan(0.005);
+  });
+});
