@@ -49,7 +49,7 @@ export interface ContourOptions {
   maxTriangles?: number;
   /** above this many element edges the mesh overlay is left out (default 150 000) */
   maxMeshEdges?: number;
-  /** prefix for ids inside the SVG; make it unique per picture on one page (default "pw") */
+  /** prefix for ids inside the SVG; make it unique per picture on one page (default: a hash of title and window) */
   idPrefix?: string;
   /** extra class on the root element */
   className?: string;
@@ -60,6 +60,21 @@ export interface ContourOptions {
 const FONT = "system-ui, -apple-system, 'Segoe UI', Roboto, sans-serif";
 export const DEFAULT_LEVELS = 56;
 export const DEFAULT_MAX_TRIANGLES = 60_000;
+
+/**
+ * Without an explicit prefix, ids come from a hash of the title and window, so two different
+ * pictures pasted into one page do not share clip paths or gradients (and output stays
+ * deterministic).
+ */
+function defaultPrefix(opts: ContourOptions): string {
+  const key = `${opts.title}|${opts.units}|${JSON.stringify(opts.viewBox ?? null)}`;
+  let h = 2166136261; // FNV-1a, 32 bit
+  for (let i = 0; i < key.length; i++) {
+    h ^= key.charCodeAt(i);
+    h = Math.imul(h, 16777619);
+  }
+  return `pw${(h >>> 0).toString(36)}`;
+}
 
 /** Accumulates band polygons as compact path data, one string per band. */
 class BandPaths {
@@ -353,7 +368,7 @@ export function contourSvg(mesh: Mesh, values: Float64Array, opts: ContourOption
   if (opts.deformed && opts.deformed.u.length !== 2 * nNodes) {
     throw new TypeError(`contourSvg: displacements must hold 2 values per node (${2 * nNodes}), got ${opts.deformed.u.length}`);
   }
-  const prefix = safeId(opts.idPrefix ?? 'pw');
+  const prefix = safeId(opts.idPrefix ?? defaultPrefix(opts));
   const box = opts.viewBox ?? padBox(meshBox(mesh.xy, opts.deformed), 0.03);
   const top = 44;
   const frame = makeFrame(box, opts.width ?? 640, opts.maxHeight ?? 520, 12, top);

@@ -138,7 +138,7 @@ describe('decimated drawing of big meshes', () => {
   });
 
   it('draws at most the budget, clips to the plate, and says so', () => {
-    const s = contourSvg(big, v, { units: 'MPa', title: 'big', maxTriangles: 4000 });
+    const s = contourSvg(big, v, { units: 'MPa', title: 'big', maxTriangles: 4000, idPrefix: 'pw' });
     expect(checkXml(s).errors).toEqual([]);
     expect(s).toContain('regular resampling');
     expect(s).toMatch(/clip-path="url\(#pw-plate\)"/);
