@@ -18,4 +18,4 @@ export {
   type ClosestPoint,
   type BBox,
 } from './curves.js';
-export { pieceAtPoint, pointInMaterial, loopPolyline, type PieceHit } from './query.js';
+export { pieceAtPoint, pointInMaterial, loopWinding, loopPolyline, type PieceHit } from './query.js';

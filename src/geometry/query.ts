@@ -24,6 +24,16 @@ export function pieceAtPoint(geom: PlateGeometry, p: Point, tol: number): PieceH
   return hits;
 }
 
+/**
+ * Winding number of one loop about p: +1 inside the outline, −1 inside an opening (openings run
+ * clockwise), 0 outside; exact for arcs and ellipse arcs. Undecided on the loop itself.
+ */
+export function loopWinding(geom: PlateGeometry, loopId: string, p: Point): number {
+  const loop = geom.loops.find((l) => l.id === loopId);
+  if (!loop) throw new GeometryError(`no boundary loop called '${loopId}'`);
+  return windingNumber(loop.pieces.map((id) => geom.pieces[id].curve), p);
+}
+
 /** Is p inside the material (inside the outline and outside every opening)? Points on the boundary are undecided. */
 export function pointInMaterial(geom: PlateGeometry, p: Point): boolean {
   let w = 0;

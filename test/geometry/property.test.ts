@@ -1,9 +1,9 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { GeometryError } from '../../src/errors.js';
-import { buildGeometry, curveEnd, curveStart } from '../../src/geometry/index.js';
+import { CLEARANCE_RELATIVE, buildGeometry, closestOnCurve, curveEnd, curveStart, loopPolyline, loopWinding } from '../../src/geometry/index.js';
 import type { Plate } from '../../src/model/types.js';
-import { circle, plate, poly, rectPoints } from './fixtures.js';
+import { circle, ellipse, plate, poly, rect, rectPoints } from './fixtures.js';
 
 interface Hole { cx: number; cy: number; r: number }
 
@@ -142,5 +142,70 @@ describe('property: random plates', () => {
       { numRuns: 1000, seed: 99 },
     );
     expect(built).toBeGreaterThan(200); // the check above must have run on plenty of plates
+  });
+});
+
+describe('property: mixed openings, decisions checked independently', () => {
+  it('built plates have openings inside the outline and outside each other; "overlaps or touches" is true', () => {
+    const W = 100;
+    const H = 60;
+    const shape = fc.oneof(
+      fc.record({ kind: fc.constant('circle' as const), x: fc.double({ min: 10, max: W - 10, noNaN: true }), y: fc.double({ min: 10, max: H - 10, noNaN: true }), r: fc.double({ min: 0.5, max: 10, noNaN: true }) }),
+      fc.record({ kind: fc.constant('ellipse' as const), x: fc.double({ min: 10, max: W - 10, noNaN: true }), y: fc.double({ min: 10, max: H - 10, noNaN: true }), a: fc.double({ min: 1, max: 12, noNaN: true }), b: fc.double({ min: 0.3, max: 8, noNaN: true }), ang: fc.double({ min: -180, max: 180, noNaN: true }) }),
+      fc.record({ kind: fc.constant('rect' as const), x: fc.double({ min: 10, max: W - 10, noNaN: true }), y: fc.double({ min: 10, max: H - 10, noNaN: true }), w: fc.double({ min: 1, max: 18, noNaN: true }), h: fc.double({ min: 1, max: 18, noNaN: true }), u: fc.double({ min: 0, max: 1, noNaN: true }) }),
+    );
+    let built = 0;
+    let overlapsChecked = 0;
+    fc.assert(
+      fc.property(fc.array(shape, { minLength: 1, maxLength: 4 }), (specs) => {
+        const shapes = specs.map((s) =>
+          s.kind === 'circle' ? circle(s.x, s.y, s.r)
+          : s.kind === 'ellipse' ? ellipse(s.x, s.y, s.a, s.b, s.ang)
+          : rect(s.x, s.y, s.w, s.h, s.u * 0.5 * Math.min(s.w, s.h)),
+        );
+        const p = plate(poly(rectPoints(0, 0, W, H)), ...shapes);
+        const maxChord = 0.05;
+        let g;
+        try {
+          g = buildGeometry(p);
+        } catch (e) {
+          expect(e).toBeInstanceOf(GeometryError);
+          const m = /opening (h\d+) overlaps or touches opening (h\d+)/.exec((e as Error).message);
+          if (m) {
+            // the named pair must truly come within the clearance: the sampled distance of A's
+            // boundary to B's pieces exceeds the true one by at most half the sample spacing
+            const ia = Number(m[1].slice(1));
+            const ib = Number(m[2].slice(1));
+            const ga = buildGeometry(plate(poly(rectPoints(-1e3, -1e3, 3e3, 3e3)), shapes[ia]));
+            const gb = buildGeometry(plate(poly(rectPoints(-1e3, -1e3, 3e3, 3e3)), shapes[ib]));
+            const bPieces = gb.pieces.filter((q) => q.loop === 'h0');
+            let dMin = Infinity;
+            for (const q of loopPolyline(ga, 'h0', maxChord)) {
+              for (const piece of bPieces) dMin = Math.min(dMin, closestOnCurve(piece.curve, q).distance);
+            }
+            const tol = CLEARANCE_RELATIVE * Math.hypot(W, H);
+            expect(dMin).toBeLessThanOrEqual(tol + maxChord / 2 + 1e-12);
+            overlapsChecked++;
+          }
+          return;
+        }
+        built++;
+        // every boundary point of each opening is inside the outline and outside every other opening
+        // (exact winding numbers, so this can only fail if the checks let a bad plate through)
+        for (const loop of g.loops.filter((l) => l.hole)) {
+          for (const q of loopPolyline(g, loop.id, 1)) {
+            expect(loopWinding(g, 'outline', q)).toBe(1);
+            for (const other of g.loops) {
+              if (other.hole && other.id !== loop.id) expect(loopWinding(g, other.id, q)).toBe(0);
+            }
+          }
+        }
+        const exact = W * H - specs.reduce((acc, s) => acc + (s.kind === 'circle' ? Math.PI * s.r ** 2 : s.kind === 'ellipse' ? Math.PI * s.a * s.b : s.w * s.h - (4 - Math.PI) * (s.u * 0.5 * Math.min(s.w, s.h)) ** 2), 0);
+        expect(Math.abs(g.area - exact)).toBeLessThan(1e-12 * W * H);
+      }),
+      { numRuns: 400, seed: 4242 },
+    );
+    expect(built).toBeGreaterThan(150);
+    expect(overlapsChecked).toBeGreaterThan(20);
   });
 });

@@ -177,3 +177,26 @@ describe('corners and their material angles', () => {
     expect(g.pieces.length).toBe(5);
   });
 });
+
+describe('inside and outside near curved boundaries', () => {
+  it('points a hair either side of a fillet arc, a circle and an ellipse are classified exactly', () => {
+    // the winding number adds each arc chord's segment back, so there is no chord error even
+    // 1e-9 from the curve, where a 64-chord polyline would be wrong by ~1e-3 of the radius
+    const g = buildGeometry(plate(poly(rectPoints(0, 0, 100, 100), { 2: 40 }), circle(30, 30, 10), ellipse(30, 70, 15, 5, 30)));
+    for (const p of g.pieces.filter((q) => q.curve.kind !== 'line')) {
+      for (const t of [0.13, 0.5, 0.77]) {
+        const m = curvePoint(p.curve, t);
+        const tan = curveTangent(p.curve, t);
+        const h = 1e-9 * 100;
+        expect(pointInMaterial(g, [m[0] - h * tan[1], m[1] + h * tan[0]])).toBe(true);
+        expect(pointInMaterial(g, [m[0] + h * tan[1], m[1] - h * tan[0]])).toBe(false);
+      }
+    }
+  });
+
+  it('a hole in the corner cut away by a fillet lies outside the outline', () => {
+    // fillet r = 40 at (100, 100): centre (60, 60), the arc passes (88.28, 88.28); (95, 95) is beyond it
+    expect(() => buildGeometry(plate(poly(rectPoints(0, 0, 100, 100), { 2: 40 }), circle(95, 95, 1)))).toThrow(/lies outside the outline/);
+    expect(() => buildGeometry(plate(poly(rectPoints(0, 0, 100, 100), { 2: 40 }), circle(86, 86, 1)))).not.toThrow();
+  });
+});
