@@ -114,8 +114,9 @@ class PatchFitter {
     let grown = true;
     for (let growth = 0; growth <= MAX_GROWTH + minGrowth; growth++) {
       if (growth >= minGrowth || !grown) {
-        const scale = this.solve(node, coef, offset);
-        if (scale > 0 || !grown) return scale;
+        const scale = this.solve(node, coef, offset, this.nTerms);
+        if (scale > 0) return scale;
+        if (!grown) break;
       }
       // grow by one ring: every element sharing a node with the current patch
       const before = list.length;
@@ -134,11 +135,15 @@ class PatchFitter {
       }
       grown = list.length > before;
     }
-    return 0;
+    // the whole reachable patch cannot determine a quadratic (e.g. a two-element LST mesh):
+    // fall back to the linear polynomial, which still reproduces the LST's own stress field
+    return this.nTerms > 3 ? this.solve(node, coef, offset, 3) : 0;
   }
 
-  private solve(node: number, coef: Float64Array, offset: number): number {
-    const { gauss, A, B, P, nTerms, list } = this;
+  private solve(node: number, coef: Float64Array, offset: number, nTerms: number): number {
+    const { gauss, A, B, P, list } = this;
+    const stride = this.nTerms;
+    for (let i = 0; i < 3 * stride; i++) coef[offset + i] = 0;
     const ng = gauss.nGauss;
     const x0 = this.mesh.xy[2 * node];
     const y0 = this.mesh.xy[2 * node + 1];
@@ -188,13 +193,13 @@ class PatchFitter {
       // forward then back substitution, result into coef
       for (let i = 0; i < nTerms; i++) {
         let v = B[3 * i + c];
-        for (let k = 0; k < i; k++) v -= A[nTerms * i + k] * coef[offset + c * nTerms + k];
-        coef[offset + c * nTerms + i] = v / A[nTerms * i + i];
+        for (let k = 0; k < i; k++) v -= A[nTerms * i + k] * coef[offset + c * stride + k];
+        coef[offset + c * stride + i] = v / A[nTerms * i + i];
       }
       for (let i = nTerms - 1; i >= 0; i--) {
-        let v = coef[offset + c * nTerms + i];
-        for (let k = i + 1; k < nTerms; k++) v -= A[nTerms * k + i] * coef[offset + c * nTerms + k];
-        coef[offset + c * nTerms + i] = v / A[nTerms * i + i];
+        let v = coef[offset + c * stride + i];
+        for (let k = i + 1; k < nTerms; k++) v -= A[nTerms * k + i] * coef[offset + c * stride + k];
+        coef[offset + c * stride + i] = v / A[nTerms * i + i];
       }
     }
     return scale;
@@ -217,7 +222,9 @@ class PatchFitter {
  * - a node with none of these (e.g. a corner whose only element has all vertices on the
  *   boundary): a patch of its own, grown by one ring of neighbouring elements.
  * A patch too small for its polynomial (fewer independent samples than terms) grows by rings
- * of neighbouring elements until the fit is determined.
+ * of neighbouring elements until the fit is determined; when the whole reachable mesh cannot
+ * determine the quadratic (a two-element LST mesh), the patch fits a linear polynomial, and a
+ * node no fit reaches at all (a lone element) takes the averaged raw stress.
  */
 export function recoverSpr(mesh: Mesh, gauss: GaussStresses, section: ElasticSection): NodalStress {
   const nElem = checkGauss(mesh, gauss);
@@ -299,6 +306,16 @@ export function recoverSpr(mesh: Mesh, gauss: GaussStresses, section: ElasticSec
     if (count[n] > 0 || n2e.start[n + 1] === n2e.start[n]) continue;
     const scale = fitter.fit(n, 1, own, 0);
     if (scale > 0) addFrom(own, 0, mesh.xy[2 * n], mesh.xy[2 * n + 1], scale, n);
+  }
+
+  // last resort (no patch anywhere can be fitted, e.g. a single element): the averaged raw field
+  let fallback: NodalStress | undefined;
+  for (let n = 0; n < nNodes; n++) {
+    if (count[n] > 0 || n2e.start[n + 1] === n2e.start[n]) continue;
+    fallback ??= recoverAverage(mesh, gauss, section);
+    sum[3 * n] = fallback.stress[3 * n];
+    sum[3 * n + 1] = fallback.stress[3 * n + 1];
+    sum[3 * n + 2] = fallback.stress[3 * n + 2];
   }
 
   for (let n = 0; n < nNodes; n++) {

@@ -55,6 +55,22 @@ describe('SPR polynomial reproduction', () => {
     expect(maxNodalError(field.stress, mesh.xy, fn)).toBeLessThan(1e-8);
   });
 
+  it('a lone element still gets a field: linear for the LST, its constant for the CST', () => {
+    for (const order of [1, 2] as const) {
+      const base = rectMesh(1, 1, 1, 1, order);
+      const npe = base.nodesPerElem;
+      // keep only the first triangle (nodes keep their ids; unused nodes simply get no value)
+      const mesh = { ...base, elemNodes: base.elemNodes.slice(0, npe) };
+      const fn = (x: number, y: number) => (order === 2 ? [2 + x - y, 3 * y, -x] : [5, -1, 2]) as [number, number, number];
+      const field = recoverSpr(mesh, sampledGauss(mesh, fn), steel);
+      for (let i = 0; i < npe; i++) {
+        const n = mesh.elemNodes[i];
+        const e = fn(mesh.xy[2 * n], mesh.xy[2 * n + 1]);
+        for (let k = 0; k < 3; k++) expect(Math.abs(field.stress[3 * n + k] - e[k])).toBeLessThan(1e-10);
+      }
+    }
+  });
+
   it('plane strain: σzz = ν(σxx + σyy) at each node (reference-values §14)', () => {
     const mesh = rectMesh(4, 4, 1, 1, 1, 0.3, 5);
     const fn = () => [-1, 5 / 3, 0] as [number, number, number];
