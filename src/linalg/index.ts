@@ -11,6 +11,7 @@ export {
   chooseOrderingDetailed,
   predictNnzL,
   type OrderingChoice,
+  type ChooseOrderingOptions,
   type NestedDissectionOptions,
 } from './ordering.js';
 export { eliminationTree, postorderTree, columnCounts, symbolicFactor, type SupernodeOptions } from './symbolic.js';

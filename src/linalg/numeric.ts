@@ -111,8 +111,8 @@ const K_CHUNK = 64;
 /**
  * C (m × k, column-major, leading dimension m; entries i ≥ j) = X · Yᵀ, where X is rows
  * 0…m-1 and Y rows 0…k-1 of a panel `kk` columns wide (leading dimension ld) starting at `off`.
- * Register-blocked: a 2 × 4 tile of C is accumulated in locals over the shared dimension, so
- * each multiply-add costs under one memory load (the JIT keeps the eight sums in registers).
+ * Register-blocked: a 4 × 4 tile of C is accumulated in locals over the shared dimension, so
+ * each multiply-add costs under one memory load (the JIT keeps the sixteen sums in registers).
  */
 function updateProduct(
   P: Float64Array,
@@ -132,21 +132,31 @@ function updateProduct(
     for (; j + 3 < k; j += 4) {
       const c0 = j * m, c1 = c0 + m, c2 = c1 + m, c3 = c2 + m;
       let i = j;
-      for (; i + 1 < m; i += 2) {
+      for (; i + 3 < m; i += 4) {
         let a00 = 0, a01 = 0, a02 = 0, a03 = 0, a10 = 0, a11 = 0, a12 = 0, a13 = 0;
+        let a20 = 0, a21 = 0, a22 = 0, a23 = 0, a30 = 0, a31 = 0, a32 = 0, a33 = 0;
         let px = offQ + i, py = offQ + j;
         for (let q = 0; q < depth; q++, px += ld, py += ld) {
-          const x0 = P[px], x1 = P[px + 1];
           const y0 = P[py], y1 = P[py + 1], y2 = P[py + 2], y3 = P[py + 3];
-          a00 += x0 * y0; a01 += x0 * y1; a02 += x0 * y2; a03 += x0 * y3;
-          a10 += x1 * y0; a11 += x1 * y1; a12 += x1 * y2; a13 += x1 * y3;
+          let x = P[px];
+          a00 += x * y0; a01 += x * y1; a02 += x * y2; a03 += x * y3;
+          x = P[px + 1];
+          a10 += x * y0; a11 += x * y1; a12 += x * y2; a13 += x * y3;
+          x = P[px + 2];
+          a20 += x * y0; a21 += x * y1; a22 += x * y2; a23 += x * y3;
+          x = P[px + 3];
+          a30 += x * y0; a31 += x * y1; a32 += x * y2; a33 += x * y3;
         }
         if (first) {
           C[c0 + i] = a00; C[c1 + i] = a01; C[c2 + i] = a02; C[c3 + i] = a03;
           C[c0 + i + 1] = a10; C[c1 + i + 1] = a11; C[c2 + i + 1] = a12; C[c3 + i + 1] = a13;
+          C[c0 + i + 2] = a20; C[c1 + i + 2] = a21; C[c2 + i + 2] = a22; C[c3 + i + 2] = a23;
+          C[c0 + i + 3] = a30; C[c1 + i + 3] = a31; C[c2 + i + 3] = a32; C[c3 + i + 3] = a33;
         } else {
           C[c0 + i] += a00; C[c1 + i] += a01; C[c2 + i] += a02; C[c3 + i] += a03;
           C[c0 + i + 1] += a10; C[c1 + i + 1] += a11; C[c2 + i + 1] += a12; C[c3 + i + 1] += a13;
+          C[c0 + i + 2] += a20; C[c1 + i + 2] += a21; C[c2 + i + 2] += a22; C[c3 + i + 2] += a23;
+          C[c0 + i + 3] += a30; C[c1 + i + 3] += a31; C[c2 + i + 3] += a32; C[c3 + i + 3] += a33;
         }
       }
       for (; i < m; i++) {

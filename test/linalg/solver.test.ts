@@ -146,7 +146,8 @@ describe('orderings', () => {
     const nd = analyze(A, orderNestedDissection(A, rowXY)).nnzL;
     expect(natural / amd).toBeGreaterThan(3);
     expect(natural / nd).toBeGreaterThan(2);
-    const choice = chooseOrderingDetailed(A, rowXY);
+    const choice = chooseOrderingDetailed(A, rowXY, { ndMinRows: 0 });
+    expect(choice.candidates.length).toBe(2);
     expect(choice.nnzL).toBe(Math.min(...choice.candidates.map((c) => c.nnzL)));
   });
 
