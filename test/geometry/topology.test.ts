@@ -200,3 +200,44 @@ describe('inside and outside near curved boundaries', () => {
     expect(() => buildGeometry(plate(poly(rectPoints(0, 0, 100, 100), { 2: 40 }), circle(86, 86, 1)))).not.toThrow();
   });
 });
+
+describe('invariance', () => {
+  // a filleted L-bracket with a circle, an ellipse and a triangular hole
+  const build = (s: number, deg: number, dx: number, dy: number) => {
+    const th = (deg * Math.PI) / 180;
+    const tr = (p: readonly [number, number]): [number, number] => [
+      s * (Math.cos(th) * p[0] - Math.sin(th) * p[1]) + dx,
+      s * (Math.sin(th) * p[0] + Math.cos(th) * p[1]) + dy,
+    ];
+    const c1 = tr([20, 20]);
+    const c2 = tr([20, 75]);
+    return buildGeometry(
+      plate(
+        poly(L_POINTS.map(tr), { 1: 8 * s, 3: 10 * s }),
+        circle(c1[0], c1[1], 8 * s),
+        ellipse(c2[0], c2[1], 12 * s, 4 * s, 60 + deg),
+        poly([tr([70, 10]), tr([90, 10]), tr([80, 30])]),
+      ),
+    );
+  };
+  const ref = build(1, 0, 0, 0);
+
+  it('scaling by 1e-6 … 1e6 scales the area by s² and keeps corners and piece counts', () => {
+    for (const s of [1e-6, 1e-3, 1e3, 1e6]) {
+      const g = build(s, 0, 0, 0);
+      expect(Math.abs(g.area / (s * s) / ref.area - 1)).toBeLessThan(1e-13);
+      expect(g.pieces.length).toBe(ref.pieces.length);
+      expect(g.corners.map((c) => c.interiorAngleDeg)).toEqual(ref.corners.map((c) => expect.closeTo(c.interiorAngleDeg, 9)));
+    }
+  });
+
+  it('rotating and moving the plate keeps area, corners and tags', () => {
+    for (const [deg, dx, dy] of [[90, 0, 0], [180, 1e4, -3e3], [270, 5, 5], [33.3, -700, 12]] as const) {
+      const g = build(1, deg, dx, dy);
+      expect(Math.abs(g.area / ref.area - 1)).toBeLessThan(1e-12);
+      expect(g.pieces.map((p) => `${p.loop}:${p.role}:${p.keyPath}`)).toEqual(ref.pieces.map((p) => `${p.loop}:${p.role}:${p.keyPath}`));
+      expect(g.corners.map((c) => c.keyPath)).toEqual(ref.corners.map((c) => c.keyPath));
+      g.corners.forEach((c, i) => expect(c.interiorAngleDeg).toBeCloseTo(ref.corners[i].interiorAngleDeg, 9));
+    }
+  });
+});
