@@ -13,4 +13,4 @@ export {
 export { wedgeTheory, theoryExponent, type WedgeTheory } from './wedge-theory.js';
 export { findSpots, SPOT_RULES, type SpotCandidate } from './spots.js';
 export { levelSizeField, probeLevel, LADDER_GRADING, NEIGHBOURHOOD_SIZES, type SpotProbe } from './ladder.js';
-export { runStudy, DEFAULT_READOUT_FRACTION, type StudyOptions } from './run.js';
+export { runStudy, DEFAULT_READOUT_FRACTION, type StudyOptions, type BaseSolve } from './run.js';

@@ -6,6 +6,8 @@ import type { Model, Point, StressMeasure } from '../model/types.js';
 import { stressUnit } from '../model/index.js';
 import { gaussStresses, solvePlate } from '../fem/index.js';
 import type { ElasticSection, Solution } from '../fem/types.js';
+import type { PlateGeometry } from '../geometry/types.js';
+import type { NodalStress } from '../recovery/types.js';
 import { buildPointLocator, nodalMeasure, recoverSpr } from '../recovery/index.js';
 import type { LevelResult, SpotResult, StudyResult } from './types.js';
 import { findSpots, type SpotCandidate } from './spots.js';
@@ -21,6 +23,18 @@ export interface StudyOptions {
   size?: number;
   /** progress: solves done of total, with a label */
   onProgress?(done: number, total: number, label: string): void;
+  /** receives the first (model-size) solve, for field files and pictures */
+  onBase?(base: BaseSolve): void;
+}
+
+/** The first solve of a study at the model's own mesh size. */
+export interface BaseSolve {
+  mesh: Mesh;
+  geometry: PlateGeometry;
+  solution: Solution;
+  field: NodalStress;
+  /** the study measure per node */
+  nodal: Float64Array;
 }
 
 /** Default readout distance: 1 % of the plate's bounding-box diagonal (docs/study.md). */
@@ -113,6 +127,7 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
 
   progress(0, 'first solve');
   const first = solveOn(model, geom, section, base, order, dedupe(required, 1e-9 * geom.scale), measure);
+  opts.onBase?.({ mesh: first.mesh, geometry: geom, solution: first.solution, field: first.field, nodal: first.nodal });
   progress(1, 'hot spots');
   const cands = findSpots({ model, geom, mesh: first.mesh, solution: first.solution, measure: first.nodal, baseSize: base });
   const d = model.study.readouts.distance ?? DEFAULT_READOUT_FRACTION * geom.scale;

@@ -1,0 +1,99 @@
+/**
+ * The command line as a user meets it: the built binary (dist/, made by `npm install` /
+ * `prepare`), exit codes, one-line messages with file:line:col and key path, no stack traces.
+ */
+import { execFile } from 'node:child_process';
+import { existsSync, mkdtempSync, readFileSync, readdirSync, statSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+
+const root = join(import.meta.dirname, '..', '..');
+const bin = join(root, 'dist', 'cli', 'main.js');
+
+function run(args: string[], env: Record<string, string> = {}): Promise<{ code: number; stdout: string; stderr: string }> {
+  return new Promise((resolve) => {
+    execFile(process.execPath, [bin, ...args], { cwd: root, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1', ...env }, timeout: 60_000, maxBuffer: 64 << 20 }, (err, stdout, stderr) => {
+      const code = err ? (typeof err.code === 'number' ? err.code : -1) : 0;
+      resolve({ code, stdout, stderr });
+    });
+  });
+}
+
+const STACK = /\n\s+at .+\(.+:\d+:\d+\)|\n\s+at file:/;
+
+describe('peakwise binary basics', () => {
+  it('is built', () => {
+    expect(existsSync(bin)).toBe(true);
+  });
+  it('--version prints the package version and exits 0', async () => {
+    const pkg = JSON.parse(readFileSync(join(root, 'package.json'), 'utf8')) as { version: string };
+    const r = await run(['--version']);
+    expect(r.code).toBe(0);
+    expect(r.stdout.trim()).toBe(pkg.version);
+  });
+  it('--help lists the commands', async () => {
+    const r = await run(['--help']);
+    expect(r.code).toBe(0);
+    for (const c of ['mesh', 'solve', 'study']) expect(r.stdout).toContain(c);
+  });
+  it('an unknown option exits 1 without a stack trace', async () => {
+    const r = await run(['mesh', 'models/l-bracket-sharp.yaml', '--frobnicate']);
+    expect(r.code).toBe(1);
+    expect(r.stderr).toContain('--frobnicate');
+    expect(r.stderr).not.toMatch(STACK);
+  });
+  it('a missing model file is named', async () => {
+    const r = await run(['mesh', 'models/does-not-exist.yaml']);
+    expect(r.code).toBe(1);
+    expect(r.stderr).toContain('models/does-not-exist.yaml: no such file');
+  });
+  it('refuses to write results into the models folder', async () => {
+    const r = await run(['solve', 'models/l-bracket-sharp.yaml', '--out', 'models']);
+    expect(r.code).toBe(1);
+    expect(r.stderr).toContain('refusing to write results into the models folder');
+  });
+});
+
+describe('mesh --json on every demo model', () => {
+  const models = readdirSync(join(root, 'models')).filter((f) => f.endsWith('.yaml'));
+  it.concurrent.each(models)('%s', async (f) => {
+    const r = await run(['mesh', `models/${f}`, '--json']);
+    expect(r.code).toBe(0);
+    const out = JSON.parse(r.stdout) as { mesh: { nodes: number; elements: number; order: number; minAngleDeg: number; area: number; exactArea: number } };
+    // area of the mesh against the exact plate area: the order-2 mesh follows curves with
+    // mid-side nodes on the true curve, so the chord error is far below 1e-4 relative
+    expect(Math.abs(out.mesh.area / out.mesh.exactArea - 1)).toBeLessThan(1e-4);
+    expect(out.mesh.minAngleDeg).toBeGreaterThan(20);
+  });
+});
+
+/** Bad models from test/fixtures/bad (model-stage) and test/fixtures/bad-run (later stages). */
+describe('bad models end with exit 1, file:line and key path, no stack trace', () => {
+  const badDir = join(root, 'test', 'fixtures', 'bad');
+  const expected = JSON.parse(readFileSync(join(badDir, 'expected.json'), 'utf8')) as Record<string, { fragment: string; line?: number; keyPath?: string }>;
+  it.concurrent.each(Object.entries(expected))('%s', async (file, exp) => {
+    const rel = `test/fixtures/bad/${file}`;
+    const r = await run(['mesh', rel]);
+    expect(r.code).toBe(1);
+    expect(r.stderr).not.toMatch(STACK);
+    expect(r.stderr).toContain(exp.fragment);
+    expect(r.stderr).toContain(exp.line !== undefined ? `${rel}:${exp.line}:` : rel);
+    if (exp.keyPath) expect(r.stderr).toContain(exp.keyPath);
+  });
+
+  const runDir = join(root, 'test', 'fixtures', 'bad-run');
+  const later = JSON.parse(readFileSync(join(runDir, 'expected.json'), 'utf8')) as Record<string, { command: string; fragment: string; keyPath?: string }>;
+  it.concurrent.each(Object.entries(later))('%s', async (file, exp) => {
+    const rel = `test/fixtures/bad-run/${file}`;
+    const out = mkdtempSync(join(tmpdir(), 'pw-bad-'));
+    const r = await run([exp.command, rel, '--out', out]);
+    expect(r.code).toBe(1);
+    expect(r.stderr).not.toMatch(STACK);
+    expect(r.stderr).toContain(exp.fragment);
+    expect(r.stderr).toMatch(new RegExp(`${rel.replace(/[.]/g, '\\.')}:\\d+:\\d+`));
+    if (exp.keyPath) expect(r.stderr).toContain(exp.keyPath);
+    // nothing half-written is left behind
+    for (const f of readdirSync(out)) expect(statSync(join(out, f)).size).toBeGreaterThan(0);
+  });
+});
