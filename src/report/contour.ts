@@ -301,6 +301,21 @@ function meshOverlayPath(mesh: Mesh, f: Frame, maxEdges: number): string | undef
   return d;
 }
 
+/** Greedy word wrap to lines of at most `width` characters (a longer word gets a line of its own). */
+export function wrapWords(text: string, width: number): string[] {
+  const lines: string[] = [];
+  let line = '';
+  for (const word of text.split(/\s+/)) {
+    if (word === '') continue;
+    if (line && line.length + 1 + word.length > width) {
+      lines.push(line);
+      line = word;
+    } else line = line ? `${line} ${word}` : word;
+  }
+  if (line) lines.push(line);
+  return lines;
+}
+
 /** The continuous colour bar: a slim rounded bar, ticks on its right, end values in bold. */
 export function colourBarSvg(
   x: number, y: number, height: number, scale: BandScale, units: string, gradientId: string, capped = false,
@@ -339,17 +354,18 @@ export function colourBarSvg(
 }
 
 /** A hot-spot marker: white-and-dark double ring, a short leader and the id in a pill. */
-export function spotMarkerSvg(x: number, y: number, id: string, flipLeft: boolean): string {
+export function spotMarkerSvg(x: number, y: number, id: string, flipLeft: boolean, below = false): string {
   const label = escapeXml(id);
   const textWidth = Math.max(14, 7 * [...id].length + 10);
   const lx = flipLeft ? x - 12 - textWidth : x + 12;
-  const ly = y - 24;
+  const ly = below ? y + 7 : y - 24;
   const leaderX = flipLeft ? x - 6 : x + 6;
+  const leaderY = below ? y + 6 : y - 6;
   return (
     `<g class="spot-marker">` +
     `<circle cx="${c1(x)}" cy="${c1(y)}" r="7" fill="none" stroke="#fff" stroke-width="3.5"/>` +
     `<circle cx="${c1(x)}" cy="${c1(y)}" r="7" fill="none" stroke="#1b1b2f" stroke-width="1.4"/>` +
-    `<line x1="${c1(leaderX)}" y1="${c1(y - 6)}" x2="${c1(flipLeft ? lx + textWidth : lx)}" y2="${c1(ly + 9)}" stroke="#1b1b2f" stroke-width="1"/>` +
+    `<line x1="${c1(leaderX)}" y1="${c1(leaderY)}" x2="${c1(flipLeft ? lx + textWidth : lx)}" y2="${c1(ly + 9)}" stroke="#1b1b2f" stroke-width="1"/>` +
     `<rect x="${c1(lx)}" y="${c1(ly)}" width="${textWidth}" height="17" rx="8.5" fill="#fff" fill-opacity="0.92" stroke="#1b1b2f" stroke-width="1"/>` +
     `<text x="${c1(lx + textWidth / 2)}" y="${c1(ly + 12.5)}" text-anchor="middle" font-size="11" font-weight="700" fill="#1b1b2f">${label}</text>` +
     `</g>`
@@ -431,13 +447,14 @@ export function contourSvg(mesh: Mesh, values: Float64Array, opts: ContourOption
         `<text x="28" y="0" font-size="11" fill="#333">deformed shape, displacements × ${escapeXml(formatNumber(opts.deformed.scale, 3))}</text>`,
     );
   }
+  body.push('</g>');
+  // markers sit above the window clip so that a label next to the frame edge stays whole
   for (const spot of opts.spots ?? []) {
     const [x, y] = spot.at;
     if (x < box.minX || x > box.maxX || y < box.minY || y > box.maxY) continue;
     const sx = px(frame, x), sy = py(frame, y);
-    body.push(spotMarkerSvg(sx, sy, spot.id, sx > frame.ox + frame.width - 60));
+    body.push(spotMarkerSvg(sx, sy, spot.id, sx > frame.ox + frame.width - 60, sy < frame.oy + 26));
   }
-  body.push('</g>');
   body.push(
     `<rect x="${c1(frame.ox)}" y="${c1(frame.oy)}" width="${c1(frame.width)}" height="${c1(frame.height)}" fill="none" stroke="#bbb" stroke-width="0.6"/>`,
   );
@@ -454,9 +471,14 @@ export function contourSvg(mesh: Mesh, values: Float64Array, opts: ContourOption
     lines.push(`<g transform="translate(${c1(frame.ox)} ${c1(ly)})">${item}</g>`);
     ly += 18;
   }
+  // notes wrap to the picture width (about 5.6 px per character at 10.5 px)
+  const perLine = Math.max(30, Math.floor((barX + 90 - frame.ox) / 5.6));
   for (const note of notes) {
-    lines.push(`<text class="note" x="${c1(frame.ox)}" y="${c1(ly)}" font-size="10.5" fill="#555">${escapeXml(note)}</text>`);
-    ly += 16;
+    for (const line of wrapWords(note, perLine)) {
+      lines.push(`<text class="note" x="${c1(frame.ox)}" y="${c1(ly)}" font-size="10.5" fill="#555">${escapeXml(line)}</text>`);
+      ly += 14;
+    }
+    ly += 2;
   }
   // room for the bar heading (about 6.2 px per character at 11 px) and the tick labels
   const width = Math.ceil(barX + Math.max(110, 6.2 * [...opts.units].length + 8));

@@ -215,7 +215,7 @@ export function reportHtml(input: ReportInput): string {
       readouts.push(
         row(
           'Growth under refinement',
-          escapeXml(`peak ∝ h^−q, q = ${formatFixed(s.growth.exponent, 2)} ± ${formatFixed(s.growth.exponentUncertainty, 2)}; theory ${formatFixed(s.growth.theory, 2)}`),
+          escapeXml(`peak ∝ h^−q, q = ${formatFixed(s.growth.exponent, 2)} ± ${formatNumber(s.growth.exponentUncertainty, 2)}; theory ${formatFixed(s.growth.theory, 2)}`),
         ),
       );
     }

@@ -108,6 +108,15 @@ function tickText(v: number, sig: number): string {
   return formatNumber(v, sig);
 }
 
+/** Tick labels with just enough significant digits that neighbouring ticks read differently. */
+function tickLabels(ticks: number[], minSig: number): string[] {
+  for (let sig = minSig; sig <= 12; sig++) {
+    const labels = ticks.map((t) => tickText(t, sig));
+    if (new Set(labels).size === labels.length) return labels;
+  }
+  return ticks.map((t) => String(t));
+}
+
 function axesSvg(panel: Panel, ax: Axis, ay: Axis, xLabel: string, yLabel: string, small: boolean): string {
   const fs = small ? 9.5 : 10.5;
   const parts: string[] = [
@@ -115,14 +124,16 @@ function axesSvg(panel: Panel, ax: Axis, ay: Axis, xLabel: string, yLabel: strin
   ];
   // labels keep a minimum gap (their text width); tick marks and grid lines are always drawn
   let lastLabelX = -Infinity;
-  for (const t of ax.ticks()) {
+  const xTicks = ax.ticks();
+  const xLabels = tickLabels(xTicks, 3);
+  for (const [i, t] of xTicks.entries()) {
     const X = ax.at(t);
     if (X < panel.x - 0.5 || X > panel.x + panel.w + 0.5) continue;
     parts.push(
       `<line x1="${c1(X)}" x2="${c1(X)}" y1="${panel.y}" y2="${panel.y + panel.h}" stroke="#e4e7eb" stroke-width="0.7"/>`,
       `<line x1="${c1(X)}" x2="${c1(X)}" y1="${panel.y + panel.h}" y2="${panel.y + panel.h + 4}" stroke="${INK}" stroke-width="0.8"/>`,
     );
-    const text = tickText(t, 3);
+    const text = xLabels[i];
     if (Math.abs(X - lastLabelX) < 0.62 * fs * (text.length + 1.5)) continue;
     lastLabelX = X;
     parts.push(
@@ -130,7 +141,9 @@ function axesSvg(panel: Panel, ax: Axis, ay: Axis, xLabel: string, yLabel: strin
     );
   }
   let lastLabelY = -Infinity;
-  for (const t of ay.ticks()) {
+  const yTicks = ay.ticks();
+  const yLabels = tickLabels(yTicks, 4);
+  for (const [i, t] of yTicks.entries()) {
     const Y = ay.at(t);
     if (Y < panel.y - 0.5 || Y > panel.y + panel.h + 0.5) continue;
     parts.push(
@@ -140,7 +153,7 @@ function axesSvg(panel: Panel, ax: Axis, ay: Axis, xLabel: string, yLabel: strin
     if (Math.abs(Y - lastLabelY) < 1.3 * fs) continue;
     lastLabelY = Y;
     parts.push(
-      `<text x="${panel.x - 6}" y="${c1(Y + 3.5)}" font-size="${fs}" text-anchor="end" fill="${INK}">${escapeXml(tickText(t, 4))}</text>`,
+      `<text x="${panel.x - 6}" y="${c1(Y + 3.5)}" font-size="${fs}" text-anchor="end" fill="${INK}">${escapeXml(yLabels[i])}</text>`,
     );
   }
   parts.push(
@@ -259,7 +272,7 @@ export function convergencePlotSvg(spot: SpotResult, opts: ConvergencePlotOption
     `<g class="legend" font-size="10.5" fill="${INK}">` +
       `<circle cx="${main.x + 4}" cy="${ly - 4}" r="3.6" fill="${POINT}" stroke="${POINT}"/><circle cx="${main.x + 14}" cy="${ly - 4}" r="3.6" fill="#fff" stroke="${POINT}" stroke-width="1.4"/>` +
       `<text x="${main.x + 24}" y="${ly}">levels (filled: used in the fit)</text>` +
-      `<line x1="${main.x}" x2="${main.x + 18}" y1="${ly + 12}" y2="${ly + 12}" stroke="${FIT}" stroke-width="2"/>` +
+      (fitCurve.length >= 2 ? `<line x1="${main.x}" x2="${main.x + 18}" y1="${ly + 12}" y2="${ly + 12}" stroke="${FIT}" stroke-width="2"/>` : '') +
       `<text class="slope-label" data-value="${slopeValue}" x="${main.x + 24}" y="${ly + 16}">${escapeXml(slope)}</text>` +
       `<line x1="${main.x + 170}" x2="${main.x + 188}" y1="${ly + 12}" y2="${ly + 12}" stroke="${THEORY}" stroke-width="1.3" stroke-dasharray="5 4"/>` +
       `<text class="theory-label" x="${main.x + 194}" y="${ly + 16}">${escapeXml(theory > 0 ? `theory q = ${formatFixed(theory, 2)}` : 'theory: bounded (q = 0)')}</text>` +

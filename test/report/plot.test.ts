@@ -75,3 +75,15 @@ describe('convergencePlotSvg', () => {
     expect(svg).toContain('No refinement levels');
   });
 });
+
+describe('axis ticks', () => {
+  it('label a narrow converging range with distinct values', () => {
+    // peaks 143.057 … 143.131: 4 significant digits would print every tick as "143.1"
+    const narrow = { ...converging, levels: converging.levels.map((l, i) => ({ ...l, peak: 143.131 - 0.074 / 2 ** (2 * i) })) };
+    const svg = convergencePlotSvg({ ...narrow, estimate: { value: 143.131, uncertainty: 0.004, observedOrder: 2 } }, { units: 'MPa' });
+    const main = svg.slice(0, svg.indexOf('class="dofs-panel"'));
+    const yLabels = [...main.matchAll(/text-anchor="end" fill="[^"]+">([^<]+)</g)].map((m) => m[1]);
+    expect(yLabels.length).toBeGreaterThanOrEqual(2);
+    expect(new Set(yLabels).size).toBe(yLabels.length);
+  });
+});
