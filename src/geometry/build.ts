@@ -20,6 +20,9 @@ import { fmtPoint } from './format.js';
 export const CLEARANCE_RELATIVE = 1e-8;
 
 export function buildGeometry(plate: Plate): PlateGeometry {
+  if (!plate || typeof plate.outline !== 'object' || plate.outline === null || !Array.isArray(plate.openings)) {
+    throw new GeometryError('plate: expected an outline shape and a list of openings', 'plate');
+  }
   const drafts: LoopDraft[] = [];
   // the outline's own extent sets the clearance while the loops are built (openings lie inside it)
   const minLength = CLEARANCE_RELATIVE * shapeExtent(plate.outline);
