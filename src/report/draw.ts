@@ -156,12 +156,12 @@ export function loopsPath(
   return d;
 }
 
-/** About `count` round values spanning [lo, hi] (steps of 1, 2 or 5 × 10^k). */
+/** About `count` round values spanning [lo, hi] (steps of 1, 2, 2.5 or 5 × 10^k). */
 export function niceTicks(lo: number, hi: number, count: number): number[] {
   if (!(hi > lo)) return [lo];
   const raw = (hi - lo) / Math.max(1, count);
   const mag = 10 ** Math.floor(Math.log10(raw));
-  const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw) ?? 10 * mag;
+  const step = [1, 2, 2.5, 5, 10].map((m) => m * mag).find((s) => s >= raw) ?? 10 * mag;
   const ticks: number[] = [];
   for (let t = Math.ceil(lo / step) * step; t <= hi + step * 1e-9; t += step) {
     ticks.push(Math.abs(t) < step * 1e-9 ? 0 : Number(t.toPrecision(12)));
