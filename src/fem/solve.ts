@@ -134,6 +134,7 @@ export function solvePlate(input: PlateProblem): Solution {
     u,
     reaction,
     load: f,
+    fixed,
     dofs: nDof,
     freeDofs: nFree,
     appliedSum: appliedResultant(f),

@@ -25,6 +25,8 @@ export interface Solution {
   reaction: Float64Array;
   /** external nodal forces (whole thickness) */
   load: Float64Array;
+  /** 1 at every dof fixed by a support or a prescribed displacement, 0 where free (added by fem) */
+  fixed: Uint8Array;
   dofs: number;
   freeDofs: number;
   appliedSum: [number, number];
