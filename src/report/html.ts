@@ -32,6 +32,12 @@ export interface ReportInput {
   /** displacements, 2 per node of `mesh` */
   u: Float64Array;
   checks?: ReportCheck[];
+  /**
+   * 'study' (default): the full page with verdicts and spot sections. 'solve': one solve, no
+   * refinement study — the verdict and spot sections are replaced by a pointer to `peakwise
+   * study`; pass a StudyResult with `spots: []` and the solve's figures.
+   */
+  mode?: 'study' | 'solve';
   /** magnification of the deformed outline (default: a round number that makes the largest displacement about 6 % of the plate size) */
   deformationScale?: number;
 }
@@ -273,6 +279,14 @@ export function reportHtml(input: ReportInput): string {
           )
           .join('')}</ul>`;
 
+  const solveOnly = input.mode === 'solve';
+  const studySections = solveOnly
+    ? `<section id="verdicts"><h2>Hot spots</h2><p>This page shows one solve. It does not say which peaks are real stress concentrations and which are singularities of the idealised model: <code>peakwise study</code> refines every hot spot and gives that verdict.</p></section>`
+    : `<section id="verdicts"><h2>Verdicts</h2>
+<table class="verdicts"><thead><tr><th>spot</th><th>where</th><th>feature</th><th>verdict</th><th>value</th><th>readout</th></tr></thead><tbody>${verdictRows || '<tr><td colspan="6">No hot spots were found.</td></tr>'}</tbody></table>
+<p class="legend-text">Converging: the peak settles to a finite value (shown with its extrapolation uncertainty); design for it. Singular: the peak keeps growing like h<sup>−q</sup> as elements shrink; it is a property of the idealised model, not a stress, so use the readouts. Undecided: the levels do not yet tell.</p>
+</section>
+<section id="spots"><h2>Hot spots</h2>${spotSections.join('\n')}</section>`;
   const title = escapeXml(model.title || study.model.title || 'peakwise study');
   const counts = (['converging', 'singular', 'undecided'] as const)
     .map((v) => `${study.spots.filter((s) => s.verdict === v).length} ${v}`)
@@ -288,9 +302,9 @@ export function reportHtml(input: ReportInput): string {
 <body>
 <input type="checkbox" id="show-mesh" class="toggle-input" aria-label="show element edges"/>
 <header>
-<p class="tool">peakwise ${escapeXml(study.version)} · hot-spot study</p>
+<p class="tool">peakwise ${escapeXml(study.version)} · ${solveOnly ? 'single solve' : 'hot-spot study'}</p>
 <h1>${title}</h1>
-<p class="lede">${escapeXml(`${study.spots.length} hot spot${study.spots.length === 1 ? '' : 's'} (${counts}); measure: ${measure} in ${S}.`)}</p>
+<p class="lede">${escapeXml(solveOnly ? `One solve; measure: ${measure} in ${S}.` : `${study.spots.length} hot spot${study.spots.length === 1 ? '' : 's'} (${counts}); measure: ${measure} in ${S}.`)}</p>
 <p class="caution" role="note">${escapeXml(CAUTION)}</p>
 </header>
 <main>
@@ -299,11 +313,7 @@ export function reportHtml(input: ReportInput): string {
 <section id="picture"><h2>Stress picture</h2>
 <p class="toggle-row"><label for="show-mesh" class="toggle">show element edges</label></p>
 <figure class="figure">${main}</figure></section>
-<section id="verdicts"><h2>Verdicts</h2>
-<table class="verdicts"><thead><tr><th>spot</th><th>where</th><th>feature</th><th>verdict</th><th>value</th><th>readout</th></tr></thead><tbody>${verdictRows || '<tr><td colspan="6">No hot spots were found.</td></tr>'}</tbody></table>
-<p class="legend-text">Converging: the peak settles to a finite value (shown with its extrapolation uncertainty); design for it. Singular: the peak keeps growing like h<sup>−q</sup> as elements shrink; it is a property of the idealised model, not a stress, so use the readouts. Undecided: the levels do not yet tell.</p>
-</section>
-<section id="spots"><h2>Hot spots</h2>${spotSections.join('\n')}</section>
+${studySections}
 <section id="verification"><h2>Verification</h2>${checksHtml}</section>
 </main>
 <footer><p class="caution">${escapeXml(CAUTION)}</p><p class="small">Made by peakwise ${escapeXml(study.version)} from ${escapeXml(study.model.file || 'a model built in code')}.</p></footer>

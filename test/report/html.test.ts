@@ -84,3 +84,16 @@ describe('report size for a 1 000 000-DOF model', () => {
     for (const s of study.spots) expect(html).toContain(`id="spot-${s.id}"`);
   });
 });
+
+describe('reportHtml for a single solve', () => {
+  it('leaves out verdicts and points to the study instead', () => {
+    const input = demoReportInput();
+    input.study.spots = [];
+    const html = reportHtml({ ...input, mode: 'solve' });
+    expect(checkXml(html).errors).toEqual([]);
+    expect(html).toContain('single solve');
+    expect(html).toContain('<code>peakwise study</code>');
+    expect(html).not.toContain('class="spot"');
+    expect(html).toContain('class="contour contour-main"');
+  });
+});
