@@ -9,6 +9,7 @@ import {
   residualNorm,
   solveFactor,
 } from '../linalg/index.js';
+import type { Csr } from '../linalg/types.js';
 import type { Mesh } from '../mesh/types.js';
 import type { Load, Support } from '../model/types.js';
 import { assembleStiffness, csrMultiply, stiffnessPattern, type StiffnessPattern } from './assembly.js';
@@ -54,16 +55,8 @@ export function solvePlate(input: PlateProblem): Solution {
   const nNodes = mesh.xy.length / 2;
   const nDof = 2 * nNodes;
 
+  // supports first: a model that cannot be held fails before the costly assembly
   const t0 = now();
-  const pattern = input.pattern ?? stiffnessPattern(mesh);
-  if (pattern.n !== nDof) throw new FemError(`stiffness pattern has ${pattern.n} dofs; the mesh has ${nDof}`);
-  const K = assembleStiffness(mesh, section, pattern);
-  const f = loadVector(mesh, geometry, section, input.loads);
-  if (input.extraLoad) {
-    if (input.extraLoad.length !== nDof) throw new FemError(`extra load has ${input.extraLoad.length} entries; the mesh has ${nDof} dofs`);
-    for (let i = 0; i < nDof; i++) f[i] += input.extraLoad[i];
-  }
-
   const fixed = supportedDofs(mesh, geometry, input.supports);
   const uFixed = new Float64Array(nDof);
   for (const [k, p] of (input.prescribed ?? []).entries()) {
@@ -75,17 +68,20 @@ export function solvePlate(input: PlateProblem): Solution {
     uFixed[p.dof] = p.value;
   }
   checkRigidRestraint(mesh.xy, fixed, geometry.scale);
+  const f = loadVector(mesh, geometry, section, input.loads);
+  if (input.extraLoad) {
+    if (input.extraLoad.length !== nDof) throw new FemError(`extra load has ${input.extraLoad.length} entries; the mesh has ${nDof} dofs`);
+    for (let i = 0; i < nDof; i++) f[i] += input.extraLoad[i];
+  }
 
   let nFree = 0;
   for (let i = 0; i < nDof; i++) if (!fixed[i]) nFree++;
   const free = new Int32Array(nFree);
   for (let i = 0, k = 0; i < nDof; i++) if (!fixed[i]) free[k++] = i;
 
-  // right-hand side of the free dofs: f_f − K_fc u_c
-  const KuFixed = csrMultiply(K, uFixed);
-  const b = new Float64Array(nFree);
-  for (let k = 0; k < nFree; k++) b[k] = f[free[k]] - KuFixed[free[k]];
-  const Kff = csrSubmatrix(K, free);
+  const pattern = input.pattern ?? stiffnessPattern(mesh);
+  if (pattern.n !== nDof) throw new FemError(`stiffness pattern has ${pattern.n} dofs; the mesh has ${nDof}`);
+  const { b, Kff, fixedRows } = reducedSystem(mesh, section, pattern, f, fixed, uFixed, free);
   const t1 = now();
 
   const rowXY = new Float64Array(2 * nFree);
@@ -116,9 +112,13 @@ export function solvePlate(input: PlateProblem): Solution {
     for (let k = 0; k < nFree; k++) u[free[k]] = uFree[k];
     residual = residualNorm(Kff, uFree, b);
   }
-  const Ku = csrMultiply(K, u);
   const reaction = new Float64Array(nDof);
-  for (let i = 0; i < nDof; i++) if (fixed[i]) reaction[i] = Ku[i] - f[i];
+  for (let k = 0; k < fixedRows.rows.length; k++) {
+    const i = fixedRows.rows[k];
+    let s = 0;
+    for (let p = fixedRows.rowPtr[k]; p < fixedRows.rowPtr[k + 1]; p++) s += fixedRows.values[p] * u[fixedRows.colIdx[p]];
+    reaction[i] = s - f[i];
+  }
   const t4 = now();
 
   let maxDisplacement = 0;
@@ -145,6 +145,53 @@ export function solvePlate(input: PlateProblem): Solution {
     residual,
     timings: { assembleS: t1 - t0, orderS: t2 - t1, factorS: t3 - t2, solveS: t4 - t3 },
   };
+}
+
+/**
+ * Assembles K and reduces it to the free dofs: K_ff, b = f_f − K_fc u_c, and the fixed rows of K
+ * (all the reactions need). The full K lives only inside this call, so it can be collected before
+ * the factorisation claims its memory.
+ */
+function reducedSystem(
+  mesh: Mesh,
+  section: ElasticSection,
+  pattern: StiffnessPattern,
+  f: Float64Array,
+  fixed: Uint8Array,
+  uFixed: Float64Array,
+  free: Int32Array,
+): { b: Float64Array; Kff: Csr; fixedRows: ReturnType<typeof csrRows> } {
+  const K = assembleStiffness(mesh, section, pattern);
+  const KuFixed = csrMultiply(K, uFixed);
+  const b = new Float64Array(free.length);
+  for (let k = 0; k < free.length; k++) b[k] = f[free[k]] - KuFixed[free[k]];
+  return { b, Kff: csrSubmatrix(K, free), fixedRows: csrRows(K, fixed) };
+}
+
+/** the rows of K marked in `mask`, with their original column indices */
+function csrRows(K: Csr, mask: Uint8Array): { rows: Int32Array; rowPtr: Int32Array; colIdx: Int32Array; values: Float64Array } {
+  let nRows = 0;
+  let nnz = 0;
+  for (let i = 0; i < K.n; i++) {
+    if (mask[i]) {
+      nRows++;
+      nnz += K.rowPtr[i + 1] - K.rowPtr[i];
+    }
+  }
+  const rows = new Int32Array(nRows);
+  const rowPtr = new Int32Array(nRows + 1);
+  const colIdx = new Int32Array(nnz);
+  const values = new Float64Array(nnz);
+  for (let i = 0, k = 0, w = 0; i < K.n; i++) {
+    if (!mask[i]) continue;
+    rows[k] = i;
+    for (let p = K.rowPtr[i]; p < K.rowPtr[i + 1]; p++, w++) {
+      colIdx[w] = K.colIdx[p];
+      values[w] = K.values[p];
+    }
+    rowPtr[++k] = w;
+  }
+  return { rows, rowPtr, colIdx, values };
 }
 
 function notHeldError(mesh: Mesh, free: Int32Array, freeIndex: number): SolveError {
