@@ -167,7 +167,7 @@ export function plateMatrix(nx: number, ny: number, order: 1 | 2): PlateMatrix {
   return { K: csrSubmatrix(full, keep), rowXY, nx, ny };
 }
 
-interface AnchorResult {
+export interface AnchorResult {
   t_analyze: number;
   t_factorize: number;
   t_factorize2: number;
@@ -180,7 +180,7 @@ interface AnchorResult {
   flops: number;
 }
 
-async function writeMatrixMarket(K: Csr, file: string): Promise<void> {
+export async function writeMatrixMarket(K: Csr, file: string): Promise<void> {
   const out = createWriteStream(file);
   for (const chunk of matrixMarketChunks(K)) {
     if (!out.write(chunk)) await once(out, 'drain');
@@ -189,7 +189,7 @@ async function writeMatrixMarket(K: Csr, file: string): Promise<void> {
   await once(out, 'finish');
 }
 
-function runAnchor(file: string): AnchorResult | undefined {
+export function runAnchor(file: string): AnchorResult | undefined {
   try {
     const text = execFileSync('/tmp/cholmod_mtx', [file, 'default', '3'], {
       env: { ...process.env, OMP_NUM_THREADS: '1', OPENBLAS_NUM_THREADS: '1' },

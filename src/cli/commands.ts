@@ -257,6 +257,7 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
           timings: { mesh: meshS, assemble: timings.assembleS, order: timings.orderS, factor: timings.factorS, solve: timings.solveS, recover: recoverS },
           errorPercent: estimate.errorPercent,
           residual: solution.residual,
+          loadScale: solution.load.reduce((a, f) => a + Math.abs(f), 0),
         },
         { color },
       ) + `\n  largest Gauss-point von Mises ${fmt(gp.value)} ${stressUnitLabel} at (${fmt(gp.at[0])}, ${fmt(gp.at[1])})\n  field written to ${join(outDir, 'field.csv')}\n`,

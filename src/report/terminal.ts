@@ -105,21 +105,22 @@ export interface SolveSummaryInput {
   timings: Record<string, number>;
   /** Zienkiewicz–Zhu error estimate η in percent, when computed */
   errorPercent?: number;
+  /** Σ |nodal load| (force units): the scale of the equilibrium check for self-balanced loads */
+  loadScale?: number;
   /** scaled residual ‖Ku − f‖ / ‖f‖, when computed */
   residual?: number;
 }
 
 /**
- * Equilibrium mismatch between support reactions and applied loads, relative to the larger of
- * the two. Either sign convention is accepted (reactions reported as the force the supports
- * exert, R = −F, or as the force they carry, R = F): the smaller of |R + F| and |R − F| counts.
+ * Equilibrium mismatch |R + F| of the support reactions R (the forces the supports exert on the
+ * plate) and the applied loads F, relative to the size of the loading: `loadScale` (the sum of
+ * the magnitudes of all nodal loads — it stays meaningful for a self-equilibrated loading whose
+ * resultant is zero), or else the larger of |F| and |R|.
  */
-export function equilibriumMismatch(reaction: [number, number], applied: [number, number]): number {
-  const ref = Math.max(Math.hypot(applied[0], applied[1]), Math.hypot(reaction[0], reaction[1]));
+export function equilibriumMismatch(reaction: [number, number], applied: [number, number], loadScale = 0): number {
+  const ref = Math.max(loadScale, Math.hypot(applied[0], applied[1]), Math.hypot(reaction[0], reaction[1]));
   if (ref === 0) return 0;
-  const opposite = Math.hypot(reaction[0] + applied[0], reaction[1] + applied[1]);
-  const same = Math.hypot(reaction[0] - applied[0], reaction[1] - applied[1]);
-  return Math.min(opposite, same) / ref;
+  return Math.hypot(reaction[0] + applied[0], reaction[1] + applied[1]) / ref;
 }
 
 export function solveSummary(info: SolveSummaryInput, options: TerminalOptions): string {
@@ -128,7 +129,7 @@ export function solveSummary(info: SolveSummaryInput, options: TerminalOptions):
   const F = stripControl(info.units.force);
   const S = stripControl(info.units.stress);
   const vec = (v: [number, number]) => `(${formatNumber(v[0], 6)}, ${formatNumber(v[1], 6)}) ${F}`.trimEnd();
-  const mismatch = equilibriumMismatch(info.reactionSum, info.appliedSum);
+  const mismatch = equilibriumMismatch(info.reactionSum, info.appliedSum, info.loadScale);
   const balanced = mismatch < 1e-6;
   const rows: string[][] = [
     ['mesh', `${info.nodes} nodes, ${info.elements} ${info.order === 2 ? 'LST' : 'CST'} elements, ${info.dofs} dofs`],

@@ -1,78 +1,23 @@
 /**
- * The L-shaped plate of reference-values §6 / test case 6b loaded by the exact Williams mode-I
- * field: exact tractions on the four outer edges (the re-entrant faces are traction-free), the
- * corner pinned and u_x fixed at (−1, 1) to its exact value. E = 1, ν = 0.3, plane stress:
- * exact strain energy U = 4.884754673, so the true energy-norm error of a solution is
- * ‖e‖² = 2U − ‖u_h‖² (Galerkin orthogonality for a traction problem whose constraints only
- * remove rigid-body motion).
+ * The L-plate problem of src/bench/lshape.ts with this folder's own, independent implementation
+ * of the exact Williams mode-I field (williams-field.ts), so the test does not check the
+ * product's reference code against itself.
  */
-import { edgeTractionLoad, gaussStresses, solvePlate } from '../../src/fem/index.js';
-import type { ElasticSection, GaussStresses } from '../../src/fem/types.js';
-import { buildGeometry } from '../../src/geometry/index.js';
+import type { GaussStresses } from '../../src/fem/types.js';
 import type { PlateGeometry } from '../../src/geometry/types.js';
 import type { Mesh } from '../../src/mesh/types.js';
-import { energyNormSq } from '../../src/recovery/index.js';
+import * as L from '../../src/bench/lshape.js';
 import { williamsDisplacement, williamsStress } from './williams-field.js';
 
-export const L_SECTION: ElasticSection = { E: 1, nu: 0.3, state: 'plane-stress', thickness: 1 };
-/** reference-values §6 [derived]: exact strain energy of the domain for E = 1, ν = 0.3 */
-export const L_ENERGY = 4.884754673;
+export { L_SECTION, L_ENERGY, lGeometry, lTrueError, logSlope } from '../../src/bench/lshape.js';
 const MU = 1 / (2 * 1.3);
 const KAPPA = (3 - 0.3) / (1 + 0.3);
 
-export function lGeometry(): PlateGeometry {
-  const pts: [number, number][] = [[0, 0], [1, 0], [1, 1], [-1, 1], [-1, -1], [0, -1]];
-  return buildGeometry({ outline: { kind: 'polygon', vertices: pts.map((at) => ({ at, round: 0 })) }, openings: [] });
-}
+export const TEST_FIELD: L.LField = {
+  stress: williamsStress,
+  displacement: (x, y) => williamsDisplacement(x, y, MU, KAPPA),
+};
 
-export function lTractions(mesh: Mesh): Float64Array {
-  const edges: number[] = [];
-  const st = mesh.edgeStride;
-  for (let k = 0; k < mesh.boundaryPiece.length; k++) {
-    const a = mesh.boundaryEdges[st * k];
-    const b = mesh.boundaryEdges[st * k + 1];
-    const mx = 0.5 * (mesh.xy[2 * a] + mesh.xy[2 * b]);
-    const my = 0.5 * (mesh.xy[2 * a + 1] + mesh.xy[2 * b + 1]);
-    if (Math.abs(Math.abs(mx) - 1) < 1e-9 || Math.abs(Math.abs(my) - 1) < 1e-9) edges.push(k);
-  }
-  return edgeTractionLoad(mesh, edges, 1, (x, y, nx, ny) => {
-    const [sxx, syy, sxy] = williamsStress(x, y);
-    return [sxx * nx + sxy * ny, sxy * nx + syy * ny];
-  });
-}
-
-export function lConstraints(mesh: Mesh): { dof: number; value: number }[] {
-  const out: { dof: number; value: number }[] = [];
-  for (let i = 0; i < mesh.xy.length / 2; i++) {
-    const x = mesh.xy[2 * i];
-    const y = mesh.xy[2 * i + 1];
-    if (Math.hypot(x, y) < 1e-12) out.push({ dof: 2 * i, value: 0 }, { dof: 2 * i + 1, value: 0 });
-    if (Math.hypot(x + 1, y - 1) < 1e-12) out.push({ dof: 2 * i, value: williamsDisplacement(x, y, MU, KAPPA)[0] });
-  }
-  if (out.length !== 3) throw new Error(`L-plate constraints: expected nodes at (0,0) and (−1,1), found ${out.length} dofs`);
-  return out;
-}
-
-export function lSolve(mesh: Mesh, geometry: PlateGeometry): { gauss: GaussStresses; dofs: number } {
-  const solution = solvePlate({ mesh, geometry, section: L_SECTION, supports: [], loads: [], prescribed: lConstraints(mesh), extraLoad: lTractions(mesh) });
-  return { gauss: gaussStresses(mesh, solution.u, L_SECTION), dofs: solution.dofs };
-}
-
-export function lTrueError(gauss: GaussStresses): number {
-  return Math.sqrt(Math.max(0, 2 * L_ENERGY - energyNormSq(gauss, L_SECTION)));
-}
-
-/** least-squares slope of log y against log x */
-export function logSlope(x: number[], y: number[]): number {
-  const lx = x.map(Math.log);
-  const ly = y.map(Math.log);
-  const mx = lx.reduce((a, b) => a + b, 0) / lx.length;
-  const my = ly.reduce((a, b) => a + b, 0) / ly.length;
-  let num = 0;
-  let den = 0;
-  for (let i = 0; i < lx.length; i++) {
-    num += (lx[i] - mx) * (ly[i] - my);
-    den += (lx[i] - mx) ** 2;
-  }
-  return num / den;
-}
+export const lTractions = (mesh: Mesh): Float64Array => L.lTractions(mesh, TEST_FIELD);
+export const lConstraints = (mesh: Mesh): { dof: number; value: number }[] => L.lConstraints(mesh, TEST_FIELD);
+export const lSolve = (mesh: Mesh, geometry: PlateGeometry): { gauss: GaussStresses; dofs: number } => L.lSolve(mesh, geometry, TEST_FIELD);

@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import { adaptiveSolve, estimateError, recoverSpr } from '../../src/recovery/index.js';
-import { lShapeMesh } from './lshape-mesh.js';
+import { lShapeMesh } from '../../src/bench/lshape-mesh.js';
 import { LAMBDA_270, williamsB, williamsStress } from './williams-field.js';
 import { L_SECTION, lConstraints, lGeometry, lSolve, lTractions, lTrueError, logSlope } from './lshape-setup.js';
 

@@ -77,5 +77,14 @@ describe('solveSummary', () => {
     expect(equilibriumMismatch([-950, 0], [1000, 0])).toBeCloseTo(0.05, 12);
     const bad = solveSummary({ ...info, reactionSum: [-950, 0] }, { color: false });
     expect(bad).toContain('check supports and loads');
+    // a reaction of the right size but the wrong sign is not a balance
+    expect(equilibriumMismatch([1000, 0], [1000, 0])).toBeCloseTo(2, 12);
+  });
+
+  it('judges a self-balanced loading against the size of its loads, not its zero resultant', () => {
+    // pure shear on a panel: resultant ~1e-11 N of round-off, nodal loads summing to 8000 N
+    const m = equilibriumMismatch([-3.5e-8, -4.5e-9], [-8e-11, 5.5e-11], 8000);
+    expect(m).toBeLessThan(1e-11);
+    expect(solveSummary({ ...info, reactionSum: [-3.5e-8, -4.5e-9], appliedSum: [-8e-11, 5.5e-11], loadScale: 8000 }, { color: false })).not.toContain('check supports');
   });
 });

@@ -3,8 +3,8 @@
  * n cells per unit length, each square cell split in two (alternating diagonals), CST or LST.
  * Pieces: 0 face y = 0 (x > 0), 1 edge x = 1, 2 edge y = 1, 3 edge x = −1, 4 edge y = −1, 5 face x = 0 (y < 0).
  */
-import type { BoundaryPiece, PlateGeometry } from '../../src/geometry/types.js';
-import type { Mesh } from '../../src/mesh/types.js';
+import type { BoundaryPiece, PlateGeometry } from '../geometry/types.js';
+import type { Mesh } from '../mesh/types.js';
 
 export function lShapeMesh(n: number, order: 1 | 2): { mesh: Mesh; geometry: PlateGeometry } {
   const m = order;

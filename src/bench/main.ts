@@ -1,0 +1,174 @@
+/**
+ * `npm run bench`: speed and memory figures for this machine (never in tests).
+ *
+ *   node dist/bench/main.js [--quick] [--skip mesh,solver,pipeline,study,rates]
+ *
+ * 1. mesh      quality mesh of a multi-opening plate (~200 000 triangles) against plain delaunator
+ * 2. solver    sparse Cholesky on clamped-rectangle stiffness matrices (anchor table sizes),
+ *              with the anchor library's figures on the same matrices when /tmp/cholmod_mtx exists
+ * 3. pipeline  square plate with a central hole, LST, ~50k / 200k / 1M dofs: assemble, order,
+ *              factor, solve, nnz(L), peak memory, factor-time growth exponent
+ * 4. study     whole `study` time of each demo model
+ * 5. rates     energy-norm error rates at the 270° corner of the L plate: uniform meshes and
+ *              the adaptive loop (issue 4)
+ */
+import { readFileSync, readdirSync, existsSync } from 'node:fs';
+import { join } from 'node:path';
+import { benchMesh } from './mesh.js';
+import { benchSolver, runAnchor, writeMatrixMarket } from './solver.js';
+import { L_SECTION, lConstraints, lGeometry, lSolve, lTractions, lTrueError, logSlope, type LField } from './lshape.js';
+import { lShapeMesh } from './lshape-mesh.js';
+import { buildGeometry } from '../geometry/index.js';
+import { meshPlate, sizeFieldFromSettings } from '../mesh/index.js';
+import { solvePlate, supportedDofs, assembleStiffness } from '../fem/index.js';
+import { csrSubmatrix } from '../linalg/index.js';
+import { adaptiveSolve } from '../recovery/index.js';
+import { parseModel } from '../model/index.js';
+import { runStudy } from '../study/index.js';
+import { lShapeModeIField } from '../reference/index.js';
+import type { Model } from '../model/types.js';
+
+const args = process.argv.slice(2);
+const quick = args.includes('--quick');
+const skipArg = args.indexOf('--skip');
+const skip = new Set(skipArg >= 0 ? (args[skipArg + 1] ?? '').split(',') : []);
+const root = join(import.meta.dirname, '..', '..');
+
+function heading(t: string): void {
+  process.stdout.write(`\n== ${t}\n`);
+}
+
+function rssMiB(): number {
+  return process.resourceUsage().maxRSS / 1024;
+}
+
+/** Square plate (side 20a) with a central hole of radius a, uniaxial tension, LST. */
+function holePlateModel(size: number): Model {
+  const text = `
+title: bench square plate with a central hole
+material: { E: 210000, nu: 0.3 }
+thickness: 1
+plate:
+  outline: [[0, 0], [200, 0], [200, 200], [0, 200]]
+  openings: [ { id: hole, circle: { center: [100, 100], radius: 10 } } ]
+supports:
+  - { where: { x: 0 }, fix: [x] }
+  - { where: { point: [0, 0] }, fix: [y] }
+loads:
+  - { where: { x: 200 }, traction: [100, 0] }
+mesh: { size: ${size}, order: 2 }
+`;
+  return parseModel(text, 'bench-hole.yaml');
+}
+
+async function benchPipeline(): Promise<void> {
+  heading('solve pipeline: square plate with a central hole, LST');
+  const targets = quick ? [50_000] : [50_000, 200_000, 1_000_000];
+  const rows: { dofs: number; factorS: number }[] = [];
+  for (const target of targets) {
+    // LST on a plate of area A ≈ 4e4: dofs ≈ 2·(2·A/(√3/4·h²)) → h from the target
+    const A = 200 * 200 - Math.PI * 100;
+    const h = Math.sqrt((4 * A) / ((Math.sqrt(3) / 4) * target));
+    const model = holePlateModel(h);
+    const geometry = buildGeometry(model.plate);
+    const t0 = performance.now();
+    const mesh = meshPlate(geometry, { sizeAt: sizeFieldFromSettings(geometry, model.mesh), order: 2, requiredPoints: [[0, 0]] });
+    const meshS = (performance.now() - t0) / 1000;
+    const section = { E: 210000, nu: 0.3, state: 'plane-stress' as const, thickness: 1 };
+    const s = solvePlate({ mesh, geometry, section, supports: model.supports, loads: model.loads });
+    rows.push({ dofs: s.dofs, factorS: s.timings.factorS });
+    const line = `  ${s.dofs} dofs: mesh ${meshS.toFixed(2)} s, assemble ${s.timings.assembleS.toFixed(2)} s, order ${s.timings.orderS.toFixed(2)} s, factor ${s.timings.factorS.toFixed(2)} s, solve ${s.timings.solveS.toFixed(3)} s, nnz(L) ${(s.nnzL / 1e6).toFixed(2)} M, residual ${s.residual.toExponential(1)}, peak RSS ${rssMiB().toFixed(0)} MiB`;
+    process.stdout.write(line + '\n');
+    if (existsSync('/tmp/cholmod_mtx')) {
+      const fixed = supportedDofs(mesh, geometry, model.supports);
+      const keep: number[] = [];
+      for (let i = 0; i < fixed.length; i++) if (!fixed[i]) keep.push(i);
+      const K = csrSubmatrix(assembleStiffness(mesh, section), Int32Array.from(keep));
+      const file = `/tmp/peakwise-bench-hole-${target}.mtx`;
+      await writeMatrixMarket(K, file);
+      const a = runAnchor(file);
+      if (a) {
+        const ours = s.timings.orderS + s.timings.factorS;
+        const theirs = a.t_analyze + a.t_factorize;
+        process.stdout.write(
+          `    anchor (same matrix): ordering ${a.ordering}, analyze ${a.t_analyze.toFixed(3)} s, factor ${a.t_factorize.toFixed(3)} s, nnz(L) ${(a.lnz / 1e6).toFixed(2)} M → ratios: order+factor ${(ours / theirs).toFixed(2)}×, nnz(L) ${(s.nnzL / a.lnz).toFixed(2)}×\n`,
+        );
+      }
+    }
+  }
+  for (let i = 1; i < rows.length; i++) {
+    const g = Math.log(rows[i].factorS / rows[i - 1].factorS) / Math.log(rows[i].dofs / rows[i - 1].dofs);
+    process.stdout.write(`  factor-time growth exponent ${rows[i - 1].dofs} → ${rows[i].dofs}: ${g.toFixed(2)} (goal ≤ 1.5)\n`);
+  }
+}
+
+function benchStudies(): void {
+  heading('study of each demo model (whole command, default levels)');
+  const dir = join(root, 'models');
+  const files = readdirSync(dir).filter((f) => f.endsWith('.yaml')).sort();
+  for (const f of quick ? files.slice(0, 2) : files) {
+    const model = parseModel(readFileSync(join(dir, f), 'utf8'), `models/${f}`);
+    const t0 = performance.now();
+    const r = runStudy(model);
+    const s = (performance.now() - t0) / 1000;
+    const verdicts = r.spots.map((p) => `${p.id} ${p.verdict}`).join(', ');
+    process.stdout.write(`  ${f}: ${s.toFixed(2)} s, ${r.spots.length} spots × ${model.study.levels} levels (${verdicts})\n`);
+  }
+}
+
+function benchRates(): void {
+  heading('energy-norm error rates at the 270° corner (L plate, exact Williams field)');
+  const field: LField = {
+    stress: (x, y) => {
+      const f = lShapeModeIField(x, y, L_SECTION.E, L_SECTION.nu);
+      return [f.sxx, f.syy, f.sxy];
+    },
+    displacement: (x, y) => {
+      const f = lShapeModeIField(x, y, L_SECTION.E, L_SECTION.nu);
+      return [f.ux, f.uy];
+    },
+  };
+  for (const order of [1, 2] as const) {
+    const N: number[] = [];
+    const err: number[] = [];
+    for (const n of quick ? [2, 4, 8] : [2, 4, 8, 16, 32]) {
+      const { mesh, geometry } = lShapeMesh(n, order);
+      const { gauss, dofs } = lSolve(mesh, geometry, field);
+      N.push(dofs);
+      err.push(lTrueError(gauss));
+    }
+    const r = -logSlope(N.slice(-3), err.slice(-3));
+    process.stdout.write(`  uniform ${order === 1 ? 'CST' : 'LST'}: dofs ${N.join(' ')} → ‖e‖ ~ N^-${r.toFixed(3)} (theory λ/2 = 0.272)\n`);
+  }
+  for (const order of [1, 2] as const) {
+    const N: number[] = [];
+    const err: number[] = [];
+    adaptiveSolve(
+      { geometry: lGeometry(), section: L_SECTION, supports: [], loads: [], order, sizeAt0: () => 0.25, extraLoad: (m) => lTractions(m, field), prescribed: (m) => lConstraints(m, field) },
+      { targetPercent: order === 2 ? 0.5 : 3, maxDofs: quick ? 20_000 : 60_000, onCycle: (c, res) => { N.push(c.dofs); err.push(lTrueError(res.gauss)); } },
+    );
+    const r = -logSlope(N.slice(1), err.slice(1));
+    process.stdout.write(`  adaptive ${order === 1 ? 'CST' : 'LST'}: dofs ${N.join(' ')} → ‖e‖ ~ N^-${r.toFixed(3)} (optimal p/2 = ${order / 2})\n`);
+  }
+}
+
+async function main(): Promise<void> {
+  process.stdout.write(`peakwise benchmark — node ${process.version}, ${quick ? 'quick' : 'full'} run\n`);
+  if (!skip.has('mesh')) {
+    heading('mesher');
+    await benchMesh(quick ? 6 : undefined);
+  }
+  if (!skip.has('solver')) {
+    heading('sparse Cholesky (clamped rectangle, CST, anchor sizes)');
+    await benchSolver({ max: quick ? 60_000 : 1_000_000 });
+  }
+  if (!skip.has('pipeline')) await benchPipeline();
+  if (!skip.has('study')) benchStudies();
+  if (!skip.has('rates')) benchRates();
+  process.stdout.write(`\npeak RSS ${rssMiB().toFixed(0)} MiB\n`);
+}
+
+main().catch((e: unknown) => {
+  process.stderr.write(`bench failed: ${e instanceof Error ? e.stack : String(e)}\n`);
+  process.exitCode = 1;
+});
