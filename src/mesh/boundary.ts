@@ -267,7 +267,7 @@ export function crossingSegments(b: BoundaryPoints): number[] {
 }
 
 /** split the given segments at their curve mid-parameter (in place); false if any is straight */
-export function splitSegmentsOnCurve(geom: PlateGeometry, b: BoundaryPoints, segs: number[]): boolean {
+export function splitSegmentsOnCurve(geom: PlateGeometry, b: BoundaryPoints, segs: number[], lines = false): boolean {
   const p = [0, 0];
   let allCurved = true;
   // process from the highest index so earlier indices stay valid
@@ -277,7 +277,7 @@ export function splitSegmentsOnCurve(geom: PlateGeometry, b: BoundaryPoints, seg
     const c = geom.pieces[pid].curve;
     if (!isCurved(c)) {
       allCurved = false;
-      continue;
+      if (!lines) continue;
     }
     const tm = 0.5 * (b.segT0[s] + b.segT1[s]);
     curveXY(c, tm, p);

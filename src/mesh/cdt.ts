@@ -8,6 +8,7 @@ import ConstrainautorModule from '@kninnug/constrainautor';
 import type { PlateGeometry } from '../geometry/types.js';
 import { MeshError } from '../errors.js';
 import type { BoundaryPoints } from './boundary.js';
+import { splitSegmentsOnCurve } from './boundary.js';
 import { TriMesh, V_JUNCTION } from './trimesh.js';
 
 // The package ships TypeScript source typed as a CommonJS module while Node loads its ESM build;
@@ -15,11 +16,32 @@ import { TriMesh, V_JUNCTION } from './trimesh.js';
 type ConstrainautorCtor = new (
   del: { coords: ArrayLike<number>; triangles: Uint32Array; halfedges: Int32Array },
   edges?: readonly [number, number][],
-) => unknown;
+) => { constrainOne(a: number, b: number): number };
 const Constrainautor = ((ConstrainautorModule as unknown as { default?: unknown }).default ??
   ConstrainautorModule) as unknown as ConstrainautorCtor;
 
+/**
+ * Triangulate and recover the segments. The segment-recovery library can give up on nearly
+ * degenerate configurations (points almost on a segment); the segment it failed on is then
+ * split at its curve mid-parameter and the whole boundary is triangulated again.
+ */
 export function initialTriangulation(geom: PlateGeometry, b: BoundaryPoints, vCapHint: number): TriMesh {
+  for (let attempt = 0; ; attempt++) {
+    const r = tryTriangulate(geom, b, vCapHint);
+    if (r instanceof TriMesh) return r;
+    if (attempt >= 24) {
+      const piece = geom.pieces[b.segPiece[r.segment]];
+      throw new MeshError(
+        `could not recover the plate boundary near ${piece.keyPath} (${r.message}); ` +
+          `two boundary pieces probably come closer than the boundary segment sag — refine mesh.size near them`,
+        piece.keyPath,
+      );
+    }
+    splitSegmentsOnCurve(geom, b, [r.segment], true);
+  }
+}
+
+function tryTriangulate(geom: PlateGeometry, b: BoundaryPoints, vCapHint: number): TriMesh | { segment: number; message: string } {
   const n = b.piece.length;
   const coords = Float64Array.from(b.xy);
   let del: Delaunator<ArrayLike<number>>;
@@ -29,15 +51,13 @@ export function initialTriangulation(geom: PlateGeometry, b: BoundaryPoints, vCa
     throw new MeshError(`Delaunay triangulation of ${n} boundary points failed: ${(e as Error).message}`);
   }
   const ns = b.segA.length;
-  const edges: [number, number][] = new Array(ns);
-  for (let s = 0; s < ns; s++) edges[s] = [b.segA[s], b.segB[s]];
-  try {
-    new Constrainautor(del, edges);
-  } catch (e) {
-    throw new MeshError(
-      `could not recover the plate boundary in the triangulation (${(e as Error).message}); ` +
-        `two boundary pieces probably come closer than the boundary segment sag — refine mesh.size near them`,
-    );
+  const con = new Constrainautor(del);
+  for (let s = 0; s < ns; s++) {
+    try {
+      con.constrainOne(b.segA[s], b.segB[s]);
+    } catch (e) {
+      return { segment: s, message: (e as Error).message };
+    }
   }
   // segment lookup by directed end points
   const segOf = new Map<number, number>();

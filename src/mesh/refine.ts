@@ -35,11 +35,12 @@ export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions)
   const B2 = B * B;
   const tinyLen = 1e-9 * geom.scale;
   const np = geom.pieces.length;
-  const acutePair = new Set<number>();
+  // pieces meeting at a sharp corner → that corner's position
+  const acutePair = new Map<number, readonly [number, number]>();
   for (const c of geom.corners) {
     if (c.interiorAngleDeg < 60) {
-      acutePair.add(c.pieceIn * np + c.pieceOut);
-      acutePair.add(c.pieceOut * np + c.pieceIn);
+      acutePair.set(c.pieceIn * np + c.pieceOut, c.at);
+      acutePair.set(c.pieceOut * np + c.pieceIn, c.at);
     }
   }
   const segQ: number[] = [];
@@ -152,8 +153,17 @@ export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions)
       u = a;
       w = b;
     }
+    // shortest edge across a sharp corner between points on one shell (equidistant from the
+    // corner): splitting it would only cascade toward the corner (Shewchuk 2002, §4)
     const pu = m.vPiece[u], pw = m.vPiece[w];
-    if (pu >= 0 && pw >= 0 && pu !== pw && acutePair.has(pu * np + pw)) return false;
+    if (pu >= 0 && pw >= 0 && pu !== pw) {
+      const at = acutePair.get(pu * np + pw);
+      if (at) {
+        const du = Math.hypot(xy[2 * u] - at[0], xy[2 * u + 1] - at[1]);
+        const dw = Math.hypot(xy[2 * w] - at[0], xy[2 * w + 1] - at[1]);
+        if (Math.abs(du - dw) <= 0.05 * Math.max(du, dw)) return false;
+      }
+    }
     return true;
   };
 

@@ -9,7 +9,7 @@ import {
 } from '../../src/mesh/index.js';
 import type { Plate, Shape } from '../../src/model/types.js';
 import { MeshError } from '../../src/errors.js';
-import { chordAreaBound, minAngleAwayFromSharpCorners } from './helpers.js';
+import { angleRuleMargin, chordAreaBound, minAngleAwayFromSharpCorners } from './helpers.js';
 
 const rect = (cx: number, cy: number, w: number, h: number, round = 0): Shape => ({ kind: 'rect', center: [cx, cy], width: w, height: h, round });
 const circle = (cx: number, cy: number, r: number): Shape => ({ kind: 'circle', center: [cx, cy], radius: r });
@@ -187,7 +187,10 @@ describe('demo models', () => {
       const sizeAt = sizeFieldFromSettings(g, { size: model.mesh.size, local: model.mesh.local });
       const m = meshPlate(g, { sizeAt, order: model.mesh.order });
       expect(validateMesh(m, g), f).toEqual([]);
-      expect(minAngleAwayFromSharpCorners(m, g), f).toBeGreaterThanOrEqual(25);
+      const away = minAngleAwayFromSharpCorners(m, g);
+      if (process.env.MESH_REPORT) console.log(`${f}: ${m.elemNodes.length / m.nodesPerElem} elements, min angle ${meshQuality(m).minAngleDeg.toFixed(2)}°, away from sharp corners ${away.toFixed(2)}°`);
+      expect(away, f).toBeGreaterThanOrEqual(25);
+      expect(angleRuleMargin(m, g), f).toBeGreaterThanOrEqual(0);
     }
   });
 });
