@@ -8,6 +8,7 @@ import { isPeakwiseError } from '../errors.js';
 import { describeError } from './report-error.js';
 import { runMesh, runSolve, runStudy, type CliContext } from './commands.js';
 import { VERSION } from '../version.js';
+import { registerSweep } from './sweep.js';
 
 const ctx: CliContext = { file: undefined, model: undefined };
 
@@ -55,6 +56,8 @@ export function buildProgram(): Command {
       .option('--levels <n>', 'refinement levels per spot (overrides study.levels)')
       .option('--ratio <r>', 'element size ratio between levels (overrides study.ratio)'),
   ).action(async (model: string, opts) => runStudy(ctx, model, opts));
+
+  registerSweep(program, ctx);
 
   return program;
 }

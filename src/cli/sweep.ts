@@ -1,0 +1,210 @@
+/**
+ * `peakwise sweep <model> --vary name=values …`: the study repeated over parameter values on
+ * worker threads, with finished points kept in `<out>/points/<key>.json` so that a rerun (after an
+ * interruption, or with more values) reuses them. Writes sweep.csv, sweep.html and sweep.json.
+ */
+import { existsSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { Option, type Command } from 'commander';
+import cliProgress from 'cli-progress';
+import pc from 'picocolors';
+import { PeakwiseError } from '../errors.js';
+import { parseModel, stressUnit } from '../model/index.js';
+import { formatNumber } from '../report/index.js';
+import {
+  fromJson, memberAt, parseVary, runSweep, sweepCsv, sweepHtml, toJson,
+  type PointCache, type PointOutcome, type SweepResult, type SweepStudyOptions,
+} from '../sweep/index.js';
+import type { SpotResult } from '../study/types.js';
+import { outDirFor, useColor, type CliContext, type CommonOptions } from './commands.js';
+import { readModelText, writeFileAtomic } from './io.js';
+import { plain } from './report-error.js';
+
+export interface SweepCliOptions extends CommonOptions {
+  vary: string[];
+  jobs?: string;
+  levels?: string;
+  ratio?: string;
+}
+
+/** What a point file holds. */
+interface PointFile {
+  key: string;
+  params: Record<string, number>;
+  scale: number;
+  study: PointOutcome['study'];
+}
+
+/** Finished points as files `<dir>/<key>.json`, written atomically; unreadable files count as absent. */
+export function pointFolderCache(dir: string, protect: string[]): PointCache {
+  return {
+    get(key) {
+      const path = join(dir, `${key}.json`);
+      if (!existsSync(path)) return undefined;
+      try {
+        const data = fromJson<PointFile>(readFileSync(path, 'utf8'));
+        if (data.key !== key || !data.study || !Array.isArray(data.study.spots)) return undefined;
+        return { study: data.study, scale: data.scale, seconds: 0 };
+      } catch {
+        return undefined; // a damaged file is recomputed and replaced
+      }
+    },
+    put(key, params, outcome) {
+      const data: PointFile = { key, params, scale: outcome.scale, study: outcome.study };
+      writeFileAtomic(join(dir, `${key}.json`), toJson(data) + '\n', protect);
+    },
+  };
+}
+
+function collect(value: string, previous: string[]): string[] {
+  return [...previous, value];
+}
+
+function intOption(text: string | undefined, option: string, lo: number, hi: number): number | undefined {
+  if (text === undefined) return undefined;
+  const v = Number(text);
+  if (!(Number.isInteger(v) && v >= lo && v <= hi)) throw new PeakwiseError('usage', `${option} must be an integer from ${lo} to ${hi}, got "${text}"`);
+  return v;
+}
+
+function duration(s: number): string {
+  if (!Number.isFinite(s)) return '…';
+  if (s < 60) return `${Math.ceil(s)} s`;
+  return `${Math.floor(s / 60)} min ${Math.round(s % 60)} s`;
+}
+
+/** Progress on stderr: points done / total and time left; silent unless stderr is a terminal. */
+function sweepBar(opts: CommonOptions): { update(done: number, total: number, left: number): void; stop(): void } {
+  if (opts.quiet || opts.json || process.stderr.isTTY !== true) return { update() {}, stop() {} };
+  const bar = new cliProgress.SingleBar(
+    { stream: process.stderr, format: '  {bar} {value}/{total} points  {left} left', hideCursor: true, clearOnComplete: true, barsize: 30 },
+    cliProgress.Presets.shades_classic,
+  );
+  let started = false;
+  return {
+    update(done, total, left) {
+      if (!started) { bar.start(total, done, { left: duration(left) }); started = true; } else bar.update(done, { left: duration(left) });
+    },
+    stop() { if (started) bar.stop(); },
+  };
+}
+
+function spotLine(s: SpotResult, unit: string, lengthUnit: string): string {
+  const r = s.readouts.atDistance !== undefined && Number.isFinite(s.readouts.atDistance)
+    ? `; ${formatNumber(s.readouts.atDistance)} ${unit} at ${formatNumber(s.readouts.distance)} ${lengthUnit}`
+    : '';
+  if (s.verdict === 'converging') return `${formatNumber(s.estimate.value)} ± ${formatNumber(s.estimate.uncertainty, 2)} ${unit}`;
+  if (s.verdict === 'singular') return `q = ${formatNumber(s.growth.exponent, 3)} (theory ${formatNumber(s.growth.theory, 3)})${r}`;
+  return `last ${formatNumber(s.estimate.value)} ${unit} (unsettled)`;
+}
+
+/** The terminal summary: one block per spot family, one line per sweep point. */
+export function sweepSummary(sweep: SweepResult, units: { stress: string; length: string }, color: boolean): string {
+  const c = color ? pc : pc.createColors(false);
+  const paint = (v: string) => (v === 'converging' ? c.green(v) : v === 'singular' ? c.magenta(v) : c.yellow(v));
+  const lines = [c.bold(plain(sweep.model.title)), `  sweep of ${sweep.axes.map((a) => a.name).join(' × ')}: ${sweep.points.length} points, reused ${sweep.reused} of ${sweep.points.length} points, ${sweep.totalS.toFixed(1)} s`];
+  const widths = sweep.axes.map((a) => Math.max(a.name.length, ...a.values.map((v) => formatNumber(v).length)));
+  for (const f of sweep.families) {
+    lines.push('', c.bold(`  ${f.id} ${f.featureClass} near (${formatNumber(f.at[0])}, ${formatNumber(f.at[1])})`));
+    lines.push('    ' + sweep.axes.map((a, i) => a.name.padEnd(widths[i])).join('  ') + '  spot  verdict     value');
+    for (const p of sweep.points) {
+      const m = memberAt(f, p.index);
+      const params = sweep.axes.map((a, i) => formatNumber(p.params[a.name]).padEnd(widths[i])).join('  ');
+      if (!m) { lines.push(`    ${params}  —`); continue; }
+      const s = p.study.spots[m.spot];
+      lines.push(`    ${params}  ${plain(s.id).padEnd(4)}  ${paint(s.verdict.padEnd(10))}  ${plain(spotLine(s, units.stress, units.length))}`);
+    }
+  }
+  return lines.join('\n');
+}
+
+export async function runSweepCommand(ctx: CliContext, file: string, opts: SweepCliOptions): Promise<void> {
+  ctx.file = file;
+  const text = readModelText(file);
+  const axes = opts.vary.map(parseVary);
+  if (axes.length === 0) throw new PeakwiseError('usage', 'sweep needs at least one --vary name=values, e.g. --vary r=0,2,4');
+  const jobs = intOption(opts.jobs, '--jobs', 1, 256);
+  const options: SweepStudyOptions = {};
+  const levels = intOption(opts.levels, '--levels', 2, 12);
+  if (levels !== undefined) options.levels = levels;
+  if (opts.ratio !== undefined) {
+    const ratio = Number(opts.ratio);
+    if (!(ratio > 1 && ratio <= 4)) throw new PeakwiseError('usage', `--ratio must be a number above 1 and at most 4, got "${opts.ratio}"`);
+    options.ratio = ratio;
+  }
+  if (opts.order !== undefined) options.order = opts.order === '1' ? 1 : 2;
+  if (opts.size !== undefined) {
+    const size = Number(opts.size);
+    if (!(Number.isFinite(size) && size > 0)) throw new PeakwiseError('usage', `--size must be a positive number, got "${opts.size}"`);
+    options.size = size;
+  }
+  // the model as written, for error positions and units (each point re-parses with its params)
+  const model = parseModel(text, file);
+  ctx.model = model;
+  const outDir = outDirFor(file, opts);
+  const protect = [file];
+  const bar = sweepBar(opts);
+  let sweep: SweepResult;
+  try {
+    sweep = await runSweep(text, file, axes, {
+      ...options,
+      ...(jobs !== undefined ? { jobs } : {}),
+      cache: pointFolderCache(join(outDir, 'points'), protect),
+      onProgress: (done, total, left) => bar.update(done, total, left),
+    });
+  } finally {
+    bar.stop();
+  }
+  const unit = stressUnit(model.units);
+  writeFileAtomic(join(outDir, 'sweep.csv'), sweepCsv(sweep), protect);
+  writeFileAtomic(join(outDir, 'sweep.html'), sweepHtml(sweep, unit), protect);
+  const json = toJson(sweepJson(sweep), 2) + '\n';
+  writeFileAtomic(join(outDir, 'sweep.json'), json, protect);
+  if (opts.json) {
+    process.stdout.write(json);
+    return;
+  }
+  process.stdout.write(sweepSummary(sweep, { stress: unit, length: model.units.length }, useColor(opts)) + '\n');
+  process.stdout.write(`  results in ${outDir}: sweep.csv, sweep.html, sweep.json, points/\n`);
+}
+
+/** sweep.json: the sweep without each point's level-by-level detail (that stays in points/). */
+export function sweepJson(sweep: SweepResult): unknown {
+  return {
+    tool: sweep.tool,
+    version: sweep.version,
+    model: sweep.model,
+    axes: sweep.axes,
+    reused: sweep.reused,
+    totalS: sweep.totalS,
+    families: sweep.families,
+    points: sweep.points.map((p) => ({
+      index: p.index,
+      params: p.params,
+      key: p.key,
+      reused: p.reused,
+      seconds: p.seconds,
+      spots: p.study.spots.map((s) => ({
+        id: s.id, at: s.at, feature: s.feature.kind, verdict: s.verdict, estimate: s.estimate, growth: s.growth, readouts: s.readouts,
+      })),
+    })),
+  };
+}
+
+/** Adds the sweep command to the program (called once from buildProgram). */
+export function registerSweep(program: Command, ctx: CliContext): void {
+  program
+    .command('sweep <model>')
+    .description('repeat the study over parameter values (worker threads), resuming from earlier point files')
+    .option('--vary <name=values>', 'a parameter and its values: r=0,2,4 or r=0:2:20 (start:step:end); repeat for a grid', collect, [] as string[])
+    .option('--jobs <n>', 'worker threads (default: one per core)')
+    .option('--levels <n>', 'refinement levels per spot (overrides study.levels)')
+    .option('--ratio <r>', 'element size ratio between levels (overrides study.ratio)')
+    .option('--out <dir>', 'output folder (default out/<model-name>)')
+    .option('--json', 'print the machine-readable result on stdout')
+    .addOption(new Option('--order <n>', 'element order: 1 = 3-node, 2 = 6-node triangles').choices(['1', '2']))
+    .option('--size <h>', 'target element size far from features (overrides mesh.size)')
+    .option('--quiet', 'no progress bar, only the result')
+    .option('--no-color', 'plain text without colours (also honours NO_COLOR)')
+    .action(async (model: string, opts: SweepCliOptions) => runSweepCommand(ctx, model, opts));
+}

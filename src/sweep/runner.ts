@@ -1,0 +1,199 @@
+/**
+ * Runs a sweep: the points of the cartesian product, each a full study, on a pool of worker
+ * threads (one per core by default), reusing the results an optional cache already holds. The
+ * cache is how the CLI resumes from `<out>/points/*.json`; this module itself touches no files
+ * except loading the compiled worker script.
+ */
+import { existsSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
+import { fileURLToPath } from 'node:url';
+import { Worker } from 'node:worker_threads';
+import { ModelError, PeakwiseError, type ErrorStage } from '../errors.js';
+import { parseModel } from '../model/index.js';
+import { VERSION } from '../version.js';
+import { matchSpots } from './match.js';
+import { fromJson, pointKey, runPoint, type PointOutcome, type PointTask } from './point.js';
+import type { SweepPoint, SweepResult, SweepStudyOptions, VaryAxis } from './types.js';
+import { cartesian } from './values.js';
+import type { WorkerReply } from './worker.js';
+
+/** Where finished points are kept between runs (the CLI's is a folder of JSON files). */
+export interface PointCache {
+  get(key: string): PointOutcome | undefined;
+  put(key: string, params: Record<string, number>, outcome: PointOutcome): void;
+}
+
+export interface SweepOptions extends SweepStudyOptions {
+  /** worker threads; default one per core. 0 runs every point in this thread. */
+  jobs?: number;
+  cache?: PointCache;
+  /** after each point: points done (reused included), total, estimated seconds left (NaN at first) */
+  onProgress?(done: number, total: number, secondsLeft: number): void;
+}
+
+/** The compiled worker next to this file; absent when running from the TypeScript sources. */
+export const WORKER_URL = new URL('./worker.js', import.meta.url);
+
+function paramsText(params: Record<string, number>): string {
+  return Object.entries(params).map(([k, v]) => `${k} = ${v}`).join(', ');
+}
+
+function pointError(params: Record<string, number>, e: WorkerReply & { type: 'error' }): Error {
+  const { stage, message, keyPath, line, col, ours } = e.error;
+  const text = `sweep point ${paramsText(params)}: ${message}`;
+  if (!ours) return new Error(text);
+  if (stage === 'model') return new ModelError(text, keyPath, line, col);
+  return new PeakwiseError(stage as ErrorStage, text, keyPath);
+}
+
+function withPointContext(params: Record<string, number>, e: unknown): unknown {
+  if (e instanceof ModelError) return new ModelError(`sweep point ${paramsText(params)}: ${e.message}`, e.keyPath, e.line, e.col);
+  if (e instanceof PeakwiseError) return new PeakwiseError(e.stage, `sweep point ${paramsText(params)}: ${e.message}`, e.keyPath);
+  return e;
+}
+
+/**
+ * Run the study of `text` at every combination of `axes`. The first combination is parsed here
+ * first, so an unknown parameter name or a bad value fails before any thread starts. A point that
+ * fails stops the sweep with that point's error (finished points stay in the cache).
+ */
+export async function runSweep(text: string, file: string, axes: VaryAxis[], opts: SweepOptions = {}): Promise<SweepResult> {
+  const t0 = performance.now();
+  const combos = cartesian(axes);
+  const options: SweepStudyOptions = {};
+  if (opts.levels !== undefined) options.levels = opts.levels;
+  if (opts.ratio !== undefined) options.ratio = opts.ratio;
+  if (opts.order !== undefined) options.order = opts.order;
+  if (opts.size !== undefined) options.size = opts.size;
+  let title: string;
+  try {
+    title = parseModel(text, file, { params: combos[0] }).title;
+  } catch (e) {
+    throw withPointContext(combos[0], e);
+  }
+  const total = combos.length;
+  const points: (SweepPoint | undefined)[] = new Array(total);
+  const pending: PointTask[] = [];
+  let done = 0;
+  combos.forEach((params, index) => {
+    const key = pointKey(text, params, options);
+    const hit = opts.cache?.get(key);
+    if (hit) {
+      points[index] = { index, params, key, scale: hit.scale, study: hit.study, reused: true, seconds: 0 };
+      done++;
+    } else {
+      pending.push({ index, text, file, params, options });
+    }
+  });
+  const reused = done;
+  const jobs = Math.max(0, Math.min(opts.jobs ?? availableParallelism(), pending.length));
+  let computeS = 0;
+  let computed = 0;
+  const tStart = performance.now();
+  const finish = (task: PointTask, outcome: PointOutcome): void => {
+    const key = pointKey(text, task.params, options);
+    opts.cache?.put(key, task.params, outcome);
+    points[task.index] = { index: task.index, params: task.params, key, scale: outcome.scale, study: outcome.study, reused: false, seconds: outcome.seconds };
+    done++;
+    computed++;
+    computeS += outcome.seconds;
+    // time left: the wall time per computed point so far, times the points still to do
+    const perPoint = (performance.now() - tStart) / 1000 / computed;
+    opts.onProgress?.(done, total, perPoint * (total - done));
+  };
+  opts.onProgress?.(done, total, NaN);
+  if (pending.length > 0 && jobs === 0) {
+    for (const task of pending) {
+      let outcome: PointOutcome;
+      try {
+        outcome = runPoint(task);
+      } catch (e) {
+        throw withPointContext(task.params, e);
+      }
+      finish(task, outcome);
+    }
+  } else if (pending.length > 0) {
+    if (!existsSync(fileURLToPath(WORKER_URL))) {
+      throw new PeakwiseError('usage', `the sweep worker ${fileURLToPath(WORKER_URL)} is missing: build with \`npm run build\`, or pass jobs: 0 to run in this thread`);
+    }
+    await runPool(pending, jobs, finish);
+  }
+  void computeS;
+  const finished = points as SweepPoint[];
+  return {
+    tool: 'peakwise',
+    version: VERSION,
+    model: { title, file },
+    axes,
+    points: finished,
+    families: matchSpots(finished),
+    reused,
+    totalS: (performance.now() - t0) / 1000,
+  };
+}
+
+/** Hand tasks to `jobs` workers, one at a time each; reject on the first failed point. */
+function runPool(tasks: PointTask[], jobs: number, finish: (task: PointTask, outcome: PointOutcome) => void): Promise<void> {
+  return new Promise((resolve, reject) => {
+    const queue = tasks.slice();
+    const byIndex = new Map(tasks.map((t) => [t.index, t]));
+    const workers: Worker[] = [];
+    let running = 0;
+    let failed = false;
+    const stopping = new Set<Worker>();
+    const stop = (w: Worker): void => {
+      stopping.add(w);
+      void w.terminate();
+    };
+    const stopAll = (): void => {
+      for (const w of workers) stop(w);
+    };
+    const feed = (w: Worker): void => {
+      const next = queue.shift();
+      if (!next) {
+        stop(w);
+        if (running === 0 && !failed) resolve();
+        return;
+      }
+      running++;
+      w.postMessage(next);
+    };
+    for (let j = 0; j < jobs; j++) {
+      const w = new Worker(WORKER_URL);
+      workers.push(w);
+      w.on('message', (reply: WorkerReply) => {
+        running--;
+        if (failed) return;
+        const task = byIndex.get(reply.index)!;
+        if (reply.type === 'error') {
+          failed = true;
+          stopAll();
+          reject(pointError(task.params, reply));
+          return;
+        }
+        try {
+          finish(task, fromJson<PointOutcome>(reply.json));
+        } catch (e) {
+          failed = true;
+          stopAll();
+          reject(e);
+          return;
+        }
+        feed(w);
+      });
+      w.on('exit', (code) => {
+        if (failed || stopping.has(w)) return;
+        failed = true;
+        stopAll();
+        reject(new Error(`a sweep worker stopped unexpectedly (exit code ${code})`));
+      });
+      w.on('error', (e) => {
+        if (failed) return;
+        failed = true;
+        stopAll();
+        reject(e);
+      });
+      feed(w);
+    }
+  });
+}
