@@ -1,0 +1,498 @@
+/**
+ * The built-in verification cases of `peakwise check`. Each case builds its own model in code,
+ * runs the product pipeline (mesh → solve → SPR, or the whole hot-spot study where a verdict or
+ * an exponent is the quantity) and compares one number with a closed form. Tolerances follow
+ * the project's reference notes ("Suggested test cases"); the reason is given beside each.
+ * Meshes are LST (order 2) and modest so the whole suite runs in well under a minute.
+ */
+import type { Support } from '../model/types.js';
+import { parseModel } from '../model/index.js';
+import {
+  cantileverDisplacement, cantileverStress, kirschCartesian, kirschHoopAtEdge, lameRing, type CantileverData,
+} from '../reference/index.js';
+import { boundaryTangentialStress, stressAt } from '../recovery/index.js';
+import { runStudy, type SpotResult, type StudyResult } from '../study/index.js';
+import type { PrescribedDisplacement } from '../fem/index.js';
+import { caseModel, nearestNode, nodesWhere, relError, solveModel, type Solved } from './pipeline.js';
+import { extrapolateK, feddersenCentreCrackK, tadaCentreCrackK } from './crack.js';
+import type { CheckCase, CheckResult } from './types.js';
+
+type Draft = Omit<CheckResult, 'pass' | 'seconds'>;
+
+function result(d: Draft): CheckResult {
+  return { ...d, pass: Number.isFinite(d.error) && d.error <= d.tolerance };
+}
+
+const support = (where: Support['where'], x: boolean, y: boolean, keyPath: string): Support => ({ where, fix: { x, y }, keyPath });
+
+function hoopSamples(s: Solved, loopId: string): { x: Float64Array; y: Float64Array; st: Float64Array } {
+  return boundaryTangentialStress(s.mesh, s.geometry, s.field, loopId);
+}
+
+function maxOf(a: ArrayLike<number>): number {
+  let m = -Infinity;
+  for (let i = 0; i < a.length; i++) if (a[i] > m) m = a[i];
+  return m;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Patch test
+
+/*
+ * MacNeal & Harder, "A proposed standard set of problems to test finite element accuracy",
+ * Finite Elements in Analysis and Design 1 (1985) 3–20: membrane patch 0.24 × 0.12 with four
+ * interior nodes, E = 1e6, ν = 0.25, t = 0.001, boundary displacements u = 1e−3 (x + y/2),
+ * v = 1e−3 (y + x/2) (test B of Irons' patch test). Exact: σx = σy = 1333.333…, τxy = 400.
+ * Pass means round-off: 1e−10 relative (reference notes, suggested case 13).
+ */
+function patchCase(order: 1 | 2): CheckResult[] {
+  const E = 1e6, nu = 0.25;
+  const model = caseModel({
+    title: `membrane patch (${order === 1 ? 'CST' : 'LST'})`,
+    plate: { outline: { kind: 'rect', center: [0.12, 0.06], width: 0.24, height: 0.12, round: 0 }, openings: [] },
+    material: { E, nu },
+    thickness: 0.001,
+    size: 1,
+    order,
+  });
+  const interior: [number, number][] = [[0.04, 0.02], [0.18, 0.03], [0.16, 0.08], [0.08, 0.08]];
+  const exactU = (x: number, y: number): [number, number] => [1e-3 * (x + y / 2), 1e-3 * (y + x / 2)];
+  const onBoundary = (x: number, y: number) =>
+    Math.abs(x) < 1e-12 || Math.abs(x - 0.24) < 1e-12 || Math.abs(y) < 1e-12 || Math.abs(y - 0.12) < 1e-12;
+  const s = solveModel(model, {
+    requiredPoints: interior,
+    prescribe: (mesh) => {
+      const out: PrescribedDisplacement[] = [];
+      for (const n of nodesWhere(mesh, onBoundary)) {
+        const [u, v] = exactU(mesh.xy[2 * n], mesh.xy[2 * n + 1]);
+        out.push({ dof: 2 * n, value: u }, { dof: 2 * n + 1, value: v });
+      }
+      return out;
+    },
+  });
+  const sx = (E * (1 + nu) * 1e-3) / (1 - nu * nu);
+  const txy = (E / (2 * (1 + nu))) * 1e-3;
+  const exact = [sx, sx, txy];
+  let worst = 0;
+  let worstValue = sx;
+  const g = s.gauss;
+  for (let k = 0; k < g.stress.length / 3; k++) {
+    for (let c = 0; c < 3; c++) {
+      const e = Math.abs(g.stress[3 * k + c] - exact[c]) / sx;
+      if (e >= worst) {
+        worst = e;
+        if (c === 0) worstValue = g.stress[3 * k];
+      }
+    }
+  }
+  // interior displacements must be the linear field too
+  let worstU = 0;
+  for (const [x, y] of interior) {
+    const n = nearestNode(s.mesh, x, y);
+    const [u, v] = exactU(s.mesh.xy[2 * n], s.mesh.xy[2 * n + 1]);
+    worstU = Math.max(worstU, Math.abs(s.solution.u[2 * n] - u) / 1.5e-4, Math.abs(s.solution.u[2 * n + 1] - v) / 1.5e-4);
+  }
+  return [
+    result({
+      name: `patch test, ${order === 1 ? 'CST' : 'LST'}`,
+      source: 'MacNeal & Harder 1985 (FEAD 1), membrane patch; Irons patch test B',
+      quantity: 'σx at the Gauss points; error = largest |σ − σexact|/σx over σx, σy, τxy and interior u, v',
+      reference: sx,
+      value: worstValue,
+      error: Math.max(worst, worstU),
+      tolerance: 1e-10,
+    }),
+  ];
+}
+
+// ---------------------------------------------------------------------------------------------
+// Kirsch
+
+/*
+ * G. Kirsch, Z. VDI 42 (1898); Timoshenko & Goodier (1970): hole of radius a in an infinite plate
+ * under remote σxx = S, here a square of half-side 5a carrying the exact Cartesian Kirsch
+ * tractions on all four edges (so the truncation changes nothing), rigid motion removed by three
+ * dofs at two corners (the tractions are self-equilibrated, the reactions vanish).
+ * Tolerances (reference notes, suggested case 1): peak 1.5 % for LST with ≥ 16 edges per
+ * quarter arc; displacements 0.5 % for LST.
+ */
+function kirschCase(): CheckResult[] {
+  const a = 1, half = 5, S = 1, E = 1000, nu = 0.3;
+  const model = caseModel({
+    title: 'Kirsch hole, exact tractions',
+    plate: {
+      outline: { kind: 'rect', center: [0, 0], width: 2 * half, height: 2 * half, round: 0 },
+      openings: [{ id: 'bore', shape: { kind: 'circle', center: [0, 0], radius: a }, keyPath: 'plate.openings[0]' }],
+    },
+    material: { E, nu },
+    size: 1,
+    // about 16 LST edges per quarter of the hole edge
+    local: [{ near: [0, 0], size: 0.1, radius: 1.3 * a }],
+  });
+  const s = solveModel(model, {
+    requiredPoints: [[a, 0], [-a, 0]],
+    exactTraction: { stress: (x, y) => kirschCartesian(S, a, x, y), onEdge: (x, y) => Math.hypot(x, y) > 2 * a },
+    prescribe: (mesh) => {
+      const c0 = nearestNode(mesh, -half, -half);
+      const c1 = nearestNode(mesh, half, -half);
+      return [{ dof: 2 * c0, value: 0 }, { dof: 2 * c0 + 1, value: 0 }, { dof: 2 * c1 + 1, value: 0 }];
+    },
+  });
+  const hoop = hoopSamples(s, 'bore');
+  const peak = maxOf(hoop.st);
+  // hoop stress at 0°, 15°, …, 90° (reference notes §1 table): the node nearest each angle,
+  // compared with S(1 − 2 cos 2θ) at that node's own angle; deviation over the peak 3S
+  let worst = -1, worstRef = 0, worstVal = 0;
+  for (let deg = 0; deg <= 90; deg += 15) {
+    const th = (deg * Math.PI) / 180;
+    let best = 0, bestD = Infinity;
+    for (let i = 0; i < hoop.st.length; i++) {
+      const d = Math.hypot(hoop.x[i] - a * Math.cos(th), hoop.y[i] - a * Math.sin(th));
+      if (d < bestD) { bestD = d; best = i; }
+    }
+    const ref = kirschHoopAtEdge(S, 0, Math.atan2(hoop.y[best], hoop.x[best]));
+    const dev = Math.abs(hoop.st[best] - ref) / (3 * S);
+    if (dev > worst) { worst = dev; worstRef = ref; worstVal = hoop.st[best]; }
+  }
+  // hole widening along the load: u_x(a, 0) − u_x(−a, 0) = 2 · 3Sa/E (free of any rigid motion)
+  const right = nearestNode(s.mesh, a, 0), left = nearestNode(s.mesh, -a, 0);
+  const widening = s.solution.u[2 * right] - s.solution.u[2 * left];
+  const wideningRef = (6 * S * a) / E;
+  const src = 'Kirsch 1898 (Z. VDI 42); Timoshenko & Goodier 1970';
+  return [
+    result({ name: 'Kirsch hole: peak hoop stress', source: `${src}: σθ(a, 90°) = 3S`, quantity: 'max σθ on the hole edge / S', reference: 3 * S, value: peak, error: relError(peak, 3 * S), tolerance: 0.015 }),
+    result({
+      name: 'Kirsch hole: hoop stress along the edge',
+      source: `${src}: σθ(a, θ) = S(1 − 2 cos 2θ)`,
+      quantity: 'σθ at θ = 0°, 15° … 90°, worst angle; error = |σθ − exact| / 3S',
+      reference: worstRef, value: worstVal, error: worst, tolerance: 0.015,
+    }),
+    result({
+      name: 'Kirsch hole: widening along the load',
+      source: `${src}; u_x(a, 0) = 3Sa/E (plane stress, reference notes §1)`,
+      quantity: 'u_x(a, 0) − u_x(−a, 0)',
+      reference: wideningRef, value: widening, error: relError(widening, wideningRef), tolerance: 0.005,
+    }),
+  ];
+}
+
+// ---------------------------------------------------------------------------------------------
+// Finite-width strip
+
+/*
+ * R. C. J. Howland, Phil. Trans. R. Soc. A 229 (1930) 49–86: central hole of diameter d in a strip
+ * of width W under tension. Reference: the high-order FE values of the reference notes §2
+ * (computed, GCI ≤ 4e−4), which sit 0.2–0.6 % above the values usually quoted from Howland
+ * (3.14, 3.36, 4.32 from memory) — the 1 % band (suggested case 2) holds both.
+ * W = 1, half-length 3 from the hole centre, uniform end tractions, two point supports that
+ * carry no force.
+ */
+const STRIP_COMPUTED_KTG: Record<string, number> = { '0.2': 3.153, '0.3': 3.374, '0.5': 4.348 };
+
+function stripCase(dOverW: number): CheckResult[] {
+  const W = 1, Lh = 3, a = (dOverW * W) / 2;
+  const model = caseModel({
+    title: `strip with a central hole, d/W = ${dOverW}`,
+    plate: {
+      outline: { kind: 'rect', center: [0, 0], width: W, height: 2 * Lh, round: 0 },
+      openings: [{ id: 'hole', shape: { kind: 'circle', center: [0, 0], radius: a }, keyPath: 'plate.openings[0]' }],
+    },
+    material: { E: 1000, nu: 0.3 },
+    supports: [
+      support({ kind: 'point', at: [-W / 2, -Lh] }, true, true, 'supports[0]'),
+      support({ kind: 'point', at: [W / 2, -Lh] }, false, true, 'supports[1]'),
+    ],
+    loads: [
+      { kind: 'traction', where: { kind: 'y', value: Lh }, traction: [0, 1], keyPath: 'loads[0]' },
+      { kind: 'traction', where: { kind: 'y', value: -Lh }, traction: [0, -1], keyPath: 'loads[1]' },
+    ],
+    size: 0.15,
+    // ≈ 24 LST edges per quarter of the hole edge near the peak
+    local: [{ near: [0, 0], size: (Math.PI * a) / 48, radius: 1.2 * a }],
+  });
+  const s = solveModel(model);
+  const ktg = maxOf(hoopSamples(s, 'hole').st) / 1;
+  const ref = STRIP_COMPUTED_KTG[String(dOverW)];
+  return [
+    result({
+      name: `strip hole d/W = ${dOverW}: Ktg`,
+      source: 'Howland 1930 (Phil. Trans. A 229); value: reference notes §2 computed column',
+      quantity: 'max σθ on the hole edge / gross stress',
+      reference: ref, value: ktg, error: relError(ktg, ref), tolerance: 0.01,
+    }),
+  ];
+}
+
+// ---------------------------------------------------------------------------------------------
+// Inglis
+
+/*
+ * C. E. Inglis, Trans. Inst. Naval Architects 55 (1913) 219–241: elliptical hole, semi-axis a
+ * across the remote tension S, b along it: Kt = 1 + 2a/b at the ends of a. Plate 40a wide
+ * (2a/W = 0.05; the finite width adds about 0.2 %, reference notes §3 computed 7.013) and 120a
+ * long. Elements of ρ/8 at the tips (ρ = b²/a), finer than the ρ/4 the 2 % band of suggested
+ * case 3 asks for (reference notes §3: tip elements of about ρ/2 were 1–2 % off).
+ */
+function inglisCase(aOverB: number): CheckResult[] {
+  const a = 1, b = a / aOverB, W = 40, H = 120, rho = (b * b) / a;
+  const model = caseModel({
+    title: `elliptical hole a/b = ${aOverB}`,
+    plate: {
+      outline: { kind: 'rect', center: [0, 0], width: W, height: H, round: 0 },
+      openings: [{ id: 'slot', shape: { kind: 'ellipse', center: [0, 0], a, b, angleDeg: 0 }, keyPath: 'plate.openings[0]' }],
+    },
+    material: { E: 1000, nu: 0.3 },
+    supports: [
+      support({ kind: 'point', at: [-W / 2, -H / 2] }, true, true, 'supports[0]'),
+      support({ kind: 'point', at: [W / 2, -H / 2] }, false, true, 'supports[1]'),
+    ],
+    loads: [
+      { kind: 'traction', where: { kind: 'y', value: H / 2 }, traction: [0, 1], keyPath: 'loads[0]' },
+      { kind: 'traction', where: { kind: 'y', value: -H / 2 }, traction: [0, -1], keyPath: 'loads[1]' },
+    ],
+    size: 4,
+    // tip elements ρ/8 over a disk of radius ρ at both tips (ρ = b²/a), b/2 around the hole
+    local: [
+      { near: [0, 0], size: b / 2, radius: a },
+      { near: [a, 0], size: rho / 8, radius: rho },
+      { near: [-a, 0], size: rho / 8, radius: rho },
+    ],
+  });
+  const s = solveModel(model);
+  const kt = maxOf(hoopSamples(s, 'slot').st);
+  const ref = 1 + 2 * aOverB;
+  return [
+    result({
+      name: `Inglis ellipse a/b = ${aOverB}: Kt`,
+      source: 'Inglis 1913 (Trans. INA 55): Kt = 1 + 2a/b',
+      quantity: 'max σθ at the ellipse tip / S (2a/W = 0.05)',
+      reference: ref, value: kt, error: relError(kt, ref), tolerance: 0.02,
+    }),
+  ];
+}
+
+// ---------------------------------------------------------------------------------------------
+// Lamé
+
+/*
+ * G. Lamé (1852); Timoshenko & Goodier (1970): ring a = 1, b = 2 under internal pressure p = 1,
+ * E = 1000, ν = 0.3, plane stress. Whole ring, pressure through the model's own load; rigid motion
+ * removed by three displacement components the exact field also satisfies (u_y = 0 at (±b, 0),
+ * u_x = 0 at (0, b)), a statically determinate set, so the reactions are zero.
+ * Tolerances (suggested case 4): u_r 0.2 % and σθ(a) 1 % for LST.
+ */
+function lameCase(): CheckResult[] {
+  const a = 1, b = 2, p = 1, E = 1000, nu = 0.3;
+  const model = caseModel({
+    title: 'Lamé ring under internal pressure',
+    plate: {
+      outline: { kind: 'circle', center: [0, 0], radius: b },
+      openings: [{ id: 'bore', shape: { kind: 'circle', center: [0, 0], radius: a }, keyPath: 'plate.openings[0]' }],
+    },
+    material: { E, nu },
+    loads: [{ kind: 'pressure', where: { kind: 'opening', id: 'bore' }, pressure: p, keyPath: 'loads[0]' }],
+    // 10 LST elements through the wall (suggested case 4 asks for ≥ 8)
+    size: 0.1,
+  });
+  const s = solveModel(model, {
+    requiredPoints: [[b, 0], [-b, 0], [0, b]],
+    prescribe: (mesh) => [
+      { dof: 2 * nearestNode(mesh, b, 0) + 1, value: 0 },
+      { dof: 2 * nearestNode(mesh, -b, 0) + 1, value: 0 },
+      { dof: 2 * nearestNode(mesh, 0, b), value: 0 },
+    ],
+  });
+  const exactA = lameRing({ a, b, p }, a, E, nu, 'plane-stress');
+  let worstU = -1, valU = 0;
+  for (const n of nodesWhere(s.mesh, (x, y) => Math.abs(Math.hypot(x, y) - a) < 1e-9)) {
+    const x = s.mesh.xy[2 * n], y = s.mesh.xy[2 * n + 1];
+    const ur = (s.solution.u[2 * n] * x + s.solution.u[2 * n + 1] * y) / a;
+    const e = relError(ur, exactA.ur);
+    if (e > worstU) { worstU = e; valU = ur; }
+  }
+  const hoop = hoopSamples(s, 'bore');
+  let worstS = -1, valS = 0;
+  for (const v of hoop.st) {
+    const e = relError(v, exactA.st);
+    if (e > worstS) { worstS = e; valS = v; }
+  }
+  const src = 'Lamé 1852; Timoshenko & Goodier 1970';
+  return [
+    result({ name: 'Lamé ring: u_r(a)', source: `${src}: u_r = [(1 − ν)Ar + (1 + ν)B/r]/E`, quantity: 'radial displacement of the bore, worst node', reference: exactA.ur, value: valU, error: worstU, tolerance: 0.002 }),
+    result({ name: 'Lamé ring: σθ(a)', source: `${src}: σθ = A + B/r²`, quantity: 'hoop stress on the bore, worst node', reference: exactA.st, value: valS, error: worstS, tolerance: 0.01 }),
+  ];
+}
+
+// ---------------------------------------------------------------------------------------------
+// Cantilever
+
+/*
+ * Timoshenko & Goodier, Theory of Elasticity (1970), cantilever with a parabolic end shear; root
+ * condition (c) of the reference notes §5 (as in Augarde & Deeks, FEAD 44 (2008)): the exact
+ * root displacements prescribed at every root node and the exact parabolic shear on the tip.
+ * L = 10, D = 1, P = 1, E = 1000, ν = 0.3: δ = 4.0275, σxx(L/2, D/2) = 30.
+ * Tolerances (suggested case 5, LST): 0.5 % on δ, 2 % on σxx.
+ */
+function cantileverCase(): CheckResult[] {
+  const c: CantileverData = { L: 10, D: 1, t: 1, P: 1, E: 1000, nu: 0.3 };
+  const model = caseModel({
+    title: 'cantilever with parabolic end shear',
+    plate: { outline: { kind: 'rect', center: [c.L / 2, 0], width: c.L, height: c.D, round: 0 }, openings: [] },
+    material: { E: c.E, nu: c.nu },
+    size: 0.25,
+  });
+  const s = solveModel(model, {
+    requiredPoints: [[c.L, 0], [c.L / 2, c.D / 2]],
+    exactTraction: { stress: (x, y) => cantileverStress(c, x, y), onEdge: (x) => Math.abs(x - c.L) < 1e-9 },
+    prescribe: (mesh) => {
+      const out: PrescribedDisplacement[] = [];
+      for (const n of nodesWhere(mesh, (x) => Math.abs(x) < 1e-9)) {
+        const d = cantileverDisplacement(c, 0, mesh.xy[2 * n + 1]);
+        out.push({ dof: 2 * n, value: d.ux }, { dof: 2 * n + 1, value: d.uy });
+      }
+      return out;
+    },
+  });
+  const tip = -s.solution.u[2 * nearestNode(s.mesh, c.L, 0) + 1];
+  const tipRef = -cantileverDisplacement(c, c.L, 0).uy;
+  const top = stressAt(s.mesh, s.field, c.L / 2, c.D / 2 - 1e-9);
+  const sxx = top ? top.sxx : NaN;
+  const sxxRef = cantileverStress(c, c.L / 2, c.D / 2).sxx;
+  const src = 'Timoshenko & Goodier 1970, cantilever with end shear; root case (c), Augarde & Deeks 2008';
+  return [
+    result({ name: 'cantilever: tip deflection', source: `${src}: δ = PL³/3EI + (4 + 5ν)PD²L/24EI`, quantity: '−u_y(L, 0)', reference: tipRef, value: tip, error: relError(tip, tipRef), tolerance: 0.005 }),
+    result({ name: 'cantilever: bending stress', source: `${src}: σxx = P(L − x)y/I`, quantity: 'σxx(L/2, D/2) (SPR)', reference: sxxRef, value: sxx, error: relError(sxx, sxxRef), tolerance: 0.02 }),
+  ];
+}
+
+// ---------------------------------------------------------------------------------------------
+// Williams exponents through the hot-spot study
+
+const STUDY_HEAD = `
+units: { length: mm, force: N }
+material: { E: 200000, nu: 0.3 }
+thickness: 1
+state: plane-stress
+`;
+
+function spotAt(r: StudyResult, x: number, y: number): SpotResult | undefined {
+  return r.spots.find((p) => Math.hypot(p.at[0] - x, p.at[1] - y) < 1e-6);
+}
+
+function exponentResult(name: string, source: string, spot: SpotResult | undefined, qRef: number, tolerance: number): CheckResult {
+  const q = spot ? spot.growth.exponent : NaN;
+  const verdict = spot ? spot.verdict : 'missing';
+  return {
+    ...result({
+      name, source,
+      quantity: `study exponent q in peak ∝ h^−q (verdict ${verdict}); error = |q − q_ref|, absolute`,
+      reference: qRef, value: q, error: Math.abs(q - qRef), tolerance,
+    }),
+    // an exponent within the band but without the singular verdict is not a pass
+    ...(verdict !== 'singular' ? { pass: false } : {}),
+  };
+}
+
+/*
+ * M. L. Williams, J. Appl. Mech. 19 (1952) 526–528: a free–free 270° corner has λ = 0.544484
+ * (mode I), so the peak grows like h^−0.455516. L-shaped plate pulled along one leg, four
+ * refinement levels of the study. Band ±0.05 on q: the study stage's acceptance (the reference
+ * notes' suggested case 6c allows ±0.1 on λ; our measured deviation is well inside 0.05).
+ */
+function williamsCornerCase(): CheckResult[] {
+  const model = parseModel(STUDY_HEAD + `
+title: L plate with a re-entrant corner
+plate:
+  outline: [[0, 0], [2, 0], [2, 1], [1, 1], [1, 2], [0, 2]]
+supports:
+  - { where: { y: 0 }, fix: [y] }
+  - { where: { point: [0, 0] }, fix: [x] }
+loads:
+  - { where: { y: 2 }, traction: [0, 1] }
+mesh: { size: 0.25, order: 2 }
+`, 'check-l-plate.yaml');
+  const r = runStudy(model, { levels: 5 });
+  return [exponentResult('Williams 270° corner: exponent', 'Williams 1952 (J. Appl. Mech. 19), free–free 270°: λ = 0.544484', spotAt(r, 1, 1), 0.455516, 0.05)];
+}
+
+/*
+ * Williams (1952) at 360° (a crack): λ = 1/2, q = 0.5. Edge slit as a half model on its symmetry
+ * line: the roller ends at the tip (0.5, 0). Band ±0.06, the study stage's acceptance for the
+ * support-edge end, which the study classifies from the roller/free faces.
+ */
+function williamsCrackCase(): CheckResult[] {
+  const model = parseModel(STUDY_HEAD + `
+title: plate with an edge slit, half model
+plate:
+  outline: [[0, 0], [2, 0], [2, 2], [0, 2]]
+supports:
+  - { where: { segment: [[0.5, 0], [2, 0]] }, fix: [y] }
+  - { where: { point: [2, 0] }, fix: [x] }
+loads:
+  - { where: { y: 2 }, traction: [0, 1] }
+mesh: { size: 0.25, order: 2 }
+`, 'check-edge-slit.yaml');
+  const r = runStudy(model, { levels: 5 });
+  return [exponentResult('Williams crack tip: exponent', 'Williams 1952 (J. Appl. Mech. 19), 360° crack: λ = 1/2', spotAt(r, 0.5, 0), 0.5, 0.06)];
+}
+
+// ---------------------------------------------------------------------------------------------
+// Centre crack stress intensity
+
+/*
+ * Centre crack 2a = 0.2 in a strip W = 1 (half-length 1.5), S = 1, plane stress: quarter model with
+ * symmetry rollers on x = 0 and on the ligament y = 0, a ≤ x ≤ W/2; the crack face 0 ≤ x < a is free.
+ * K_I from the opening of the crack-face nodes by displacement extrapolation (crack.ts) against
+ * Tada, Paris & Irwin (2000) p. 2.2 (Feddersen 1966 secant form, with Tada's polynomial).
+ * Band 2 % for LST with ordinary elements at the tip (suggested case 7).
+ */
+function centreCrackCase(): CheckResult[] {
+  const W = 1, a = 0.1, Lh = 1.5, S = 1, E = 1000, nu = 0.3;
+  const hTip = 0.0005;
+  const model = caseModel({
+    title: 'centre crack, quarter model',
+    plate: { outline: { kind: 'rect', center: [W / 4, Lh / 2], width: W / 2, height: Lh, round: 0 }, openings: [] },
+    material: { E, nu },
+    supports: [
+      support({ kind: 'x', value: 0 }, true, false, 'supports[0]'),
+      support({ kind: 'segment', from: [a, 0], to: [W / 2, 0] }, false, true, 'supports[1]'),
+    ],
+    loads: [{ kind: 'traction', where: { kind: 'y', value: Lh }, traction: [0, S], keyPath: 'loads[0]' }],
+    size: 0.1,
+    // a/200 at the tip, a/20 along the whole crack
+    local: [{ near: [a, 0], size: hTip, radius: 2 * hTip }, { near: [a / 2, 0], size: a / 20, radius: a }],
+  });
+  const s = solveModel(model, { requiredPoints: [[a, 0]] });
+  const face = nodesWhere(s.mesh, (x, y) => Math.abs(y) < 1e-12 && x < a - 1e-12);
+  const r = face.map((n) => a - s.mesh.xy[2 * n]);
+  const uy = face.map((n) => s.solution.u[2 * n + 1]);
+  // fit over 0.1a ≤ r ≤ 0.5a: ≥ 20 tip elements away, where the ordinary elements' error in the √r
+  // opening has died out; K(r) = K + O(r) there (the Griffith profile gives K√(1 − r/2a))
+  const { K } = extrapolateK(r, uy, E, nu, 'plane-stress', 0.1 * a, 0.5 * a);
+  const ref = tadaCentreCrackK(S, a, W);
+  return [
+    result({
+      name: 'centre crack: K_I',
+      source: `Tada, Paris & Irwin 2000, p. 2.2: S√(πa)·F(2a/W) (Feddersen 1966: ${feddersenCentreCrackK(S, a, W).toFixed(4)})`,
+      quantity: 'K_I by displacement extrapolation of the crack-face opening, 2a/W = 0.2',
+      reference: ref, value: K, error: relError(K, ref), tolerance: 0.02,
+    }),
+  ];
+}
+
+/** Every case, in the order the table lists them. */
+export const CHECK_CASES: readonly CheckCase[] = [
+  { id: 'patch-cst', run: () => patchCase(1) },
+  { id: 'patch-lst', run: () => patchCase(2) },
+  { id: 'kirsch', run: kirschCase },
+  { id: 'strip-0.2', run: () => stripCase(0.2) },
+  { id: 'strip-0.3', run: () => stripCase(0.3) },
+  { id: 'strip-0.5', run: () => stripCase(0.5) },
+  { id: 'inglis-2', run: () => inglisCase(2) },
+  { id: 'inglis-3', run: () => inglisCase(3) },
+  { id: 'lame', run: lameCase },
+  { id: 'cantilever', run: cantileverCase },
+  { id: 'williams-corner', run: williamsCornerCase },
+  { id: 'williams-crack', run: williamsCrackCase },
+  { id: 'centre-crack', run: centreCrackCase },
+];

@@ -1,0 +1,130 @@
+import pc from 'picocolors';
+import { isPeakwiseError } from '../errors.js';
+import { CAUTION, stripControl } from '../report/index.js';
+import { CHECK_CASES } from './cases.js';
+import type { CheckCase, CheckResult } from './types.js';
+
+export interface RunChecksOptions {
+  /** case ids to run (see CHECK_CASES); all when absent */
+  only?: string[];
+  /** called before each case (done of total, case id) and once at the end */
+  onProgress?(done: number, total: number, label: string): void;
+}
+
+/**
+ * Runs the verification cases. A case that throws does not stop the suite: it becomes a failed
+ * row carrying the message, so the table always shows every case.
+ */
+export function runChecks(opts: RunChecksOptions = {}): CheckResult[] {
+  let cases: readonly CheckCase[] = CHECK_CASES;
+  if (opts.only && opts.only.length > 0) {
+    const unknown = opts.only.filter((id) => !CHECK_CASES.some((c) => c.id === id));
+    if (unknown.length > 0) {
+      throw new RangeError(`unknown check case ${unknown.join(', ')} (have ${CHECK_CASES.map((c) => c.id).join(', ')})`);
+    }
+    cases = CHECK_CASES.filter((c) => opts.only!.includes(c.id));
+  }
+  const out: CheckResult[] = [];
+  cases.forEach((c, i) => {
+    opts.onProgress?.(i, cases.length, c.id);
+    const t0 = performance.now();
+    try {
+      const rows = c.run();
+      const seconds = (performance.now() - t0) / 1000;
+      for (const r of rows) out.push({ caseId: c.id, ...r, seconds: seconds / rows.length });
+    } catch (e) {
+      const message = isPeakwiseError(e) || e instanceof Error ? e.message : String(e);
+      out.push({
+        caseId: c.id, name: c.id, source: '', quantity: 'case could not run', reference: NaN, value: NaN, error: NaN, tolerance: NaN,
+        pass: false, failure: message, seconds: (performance.now() - t0) / 1000,
+      });
+    }
+  });
+  opts.onProgress?.(cases.length, cases.length, 'done');
+  return out;
+}
+
+/** Figures for the table: 6 significant digits, tiny errors in exponent form. */
+export function formatFigure(v: number, sig = 6): string {
+  if (!Number.isFinite(v)) return '—';
+  if (v === 0) return '0';
+  const abs = Math.abs(v);
+  if (abs < 1e-3 || abs >= 1e6) return v.toExponential(2);
+  return String(Number(v.toPrecision(sig)));
+}
+
+export function formatError(e: number): string {
+  if (!Number.isFinite(e)) return '—';
+  if (e < 1e-4) return e.toExponential(1);
+  return `${(100 * e).toPrecision(2)} %`;
+}
+
+/** Error column: relative errors in percent, absolute ones (exponents) as plain numbers. */
+export function errorText(r: CheckResult, e: number): string {
+  return r.quantity.includes('absolute') ? formatFigure(e, 2) : formatError(e);
+}
+
+export function tableRows(results: readonly CheckResult[]): string[][] {
+  return results.map((r) => [
+    stripControl(r.name),
+    stripControl(r.source),
+    stripControl(r.quantity),
+    formatFigure(r.reference),
+    formatFigure(r.value),
+    errorText(r, r.error),
+    errorText(r, r.tolerance),
+    r.pass ? 'pass' : 'FAIL',
+  ]);
+}
+
+export const TABLE_HEADER = ['case', 'source', 'quantity', 'reference', 'peakwise', 'error', 'tolerance', 'result'];
+
+// eslint-disable-next-line no-control-regex
+const ANSI = /\u001b\[[0-9;]*m/g;
+const width = (t: string) => [...t.replace(ANSI, '')].length;
+
+/**
+ * The verification table for the terminal: one row per case (case, source, quantity,
+ * reference, peakwise, error, tolerance, pass/FAIL), a summary line and the caution.
+ */
+export function checksTable(results: readonly CheckResult[], options: { color: boolean }): string {
+  const c = pc.createColors(options.color);
+  const rows = [TABLE_HEADER, ...tableRows(results)];
+  const widths = TABLE_HEADER.map((_, j) => Math.max(...rows.map((r) => width(r[j]))));
+  const lines = rows.map((r, i) => {
+    const cells = r.map((cell, j) => {
+      const padded = j === r.length - 1 ? cell : cell + ' '.repeat(widths[j] - width(cell));
+      if (i > 0 && j === r.length - 1) return results[i - 1].pass ? c.green(padded) : c.red(c.bold(padded));
+      return padded;
+    });
+    const line = cells.join('  ');
+    return i === 0 ? c.bold(line) : line;
+  });
+  const failed = results.filter((r) => !r.pass);
+  for (const r of failed) if (r.failure) lines.push(c.red(`${stripControl(r.name)}: ${stripControl(r.failure)}`));
+  const seconds = results.reduce((s, r) => s + (r.seconds ?? 0), 0);
+  lines.push('');
+  lines.push(
+    failed.length === 0
+      ? c.green(`all ${results.length} checks pass`) + c.dim(` (${seconds.toFixed(1)} s)`)
+      : c.red(`${failed.length} of ${results.length} checks fail`) + c.dim(` (${seconds.toFixed(1)} s)`),
+  );
+  lines.push(c.dim(CAUTION));
+  return lines.join('\n') + '\n';
+}
+
+export interface ChecksJson {
+  cases: { name: string; source: string; quantity: string; reference: number | null; value: number | null; error: number | null; tolerance: number | null; pass: boolean }[];
+}
+
+const num = (v: number): number | null => (Number.isFinite(v) ? v : null);
+
+/** `--json` output: `{ "cases": [ { name, source, quantity, reference, value, error, tolerance, pass } ] }` (NaN → null). */
+export function checksJson(results: readonly CheckResult[]): ChecksJson {
+  return {
+    cases: results.map((r) => ({
+      name: r.name, source: r.source, quantity: r.quantity,
+      reference: num(r.reference), value: num(r.value), error: num(r.error), tolerance: num(r.tolerance), pass: r.pass,
+    })),
+  };
+}

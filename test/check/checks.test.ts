@@ -1,0 +1,80 @@
+import { describe, it, expect, beforeAll } from 'vitest';
+import { CHECK_CASES, checksJson, checksTable, runChecks, tadaCentreCrackK, feddersenCentreCrackK, extrapolateK, type CheckResult } from '../../src/check/index.js';
+
+/*
+ * The built-in verification suite of `peakwise check`, run once; every case must pass against its
+ * closed form (sources and tolerances are stated in src/check/cases.ts, one per case).
+ */
+let results: CheckResult[] = [];
+beforeAll(() => {
+  results = runChecks();
+}, 300_000);
+
+describe('peakwise check: every case passes', () => {
+  it('runs every case and names a source for each', () => {
+    expect(results.length).toBeGreaterThanOrEqual(CHECK_CASES.length);
+    for (const r of results) {
+      expect(r.failure, r.name).toBeUndefined();
+      expect(r.source.length, r.name).toBeGreaterThan(0);
+    }
+  });
+  it.each(CHECK_CASES.map((c) => c.id))('case %s is within its tolerance', (id) => {
+    const rows = results.filter((r) => r.caseId === id);
+    expect(rows.length).toBeGreaterThan(0);
+    for (const r of rows) {
+      expect(r.error, `${r.name}: ${r.value} vs ${r.reference}`).toBeLessThanOrEqual(r.tolerance);
+      expect(r.pass, r.name).toBe(true);
+    }
+  });
+  it('covers the cases issue 7 asks for', () => {
+    const names = results.map((r) => r.name).join('\n');
+    for (const w of [/Kirsch.*peak/, /Kirsch.*along the edge/, /strip hole/, /Inglis/, /Lamé/, /cantilever/, /patch test/, /Williams 270°/, /Williams crack/, /centre crack: K_I/]) {
+      expect(names).toMatch(w);
+    }
+    expect(results.filter((r) => /strip hole/.test(r.name)).length).toBe(3);
+    expect(results.filter((r) => /Inglis/.test(r.name)).length).toBe(2);
+  });
+});
+
+describe('checksJson / checksTable', () => {
+  it('JSON has exactly { cases: [ { name, source, quantity, reference, value, error, tolerance, pass } ] }', () => {
+    const json = JSON.parse(JSON.stringify(checksJson(results)));
+    expect(Object.keys(json)).toEqual(['cases']);
+    expect(json.cases.length).toBe(results.length);
+    for (const c of json.cases) {
+      expect(Object.keys(c)).toEqual(['name', 'source', 'quantity', 'reference', 'value', 'error', 'tolerance', 'pass']);
+      expect(typeof c.name).toBe('string');
+      expect(typeof c.reference).toBe('number');
+      expect(typeof c.value).toBe('number');
+      expect(typeof c.pass).toBe('boolean');
+    }
+  });
+  it('a failing row shows FAIL and the summary counts it; NaN becomes null in JSON', () => {
+    const bad: CheckResult = { name: 'broken', source: 'nobody 2000', quantity: 'q', reference: 1, value: NaN, error: NaN, tolerance: 0.01, pass: false };
+    const table = checksTable([results[0], bad], { color: false });
+    expect(table).toMatch(/FAIL/);
+    expect(table).toMatch(/1 of 2 checks fail/);
+    expect(table).toMatch(/engineer/); // the caution line
+    expect(checksJson([bad]).cases[0].value).toBeNull();
+    // no colour codes unless asked for
+    expect(table).not.toMatch(/\u001b\[/);
+  });
+  it('unknown case ids are refused by name', () => {
+    expect(() => runChecks({ only: ['no-such-case'] })).toThrow(/no-such-case/);
+  });
+});
+
+describe('centre-crack closed forms and the extrapolation', () => {
+  it('Tada and Feddersen values of the reference notes §7 (W = 1, a = 0.1: 0.574221, 0.574740)', () => {
+    expect(tadaCentreCrackK(1, 0.1, 1)).toBeCloseTo(0.574221, 6);
+    expect(feddersenCentreCrackK(1, 0.1, 1)).toBeCloseTo(0.574740, 6);
+  });
+  it('extrapolation returns K exactly for the Griffith opening linearised in r (K(r) = K(1 − r/4a))', () => {
+    // u_y = (4/E)√(r/2π)·K(r) inverted from the extraction formula with a linear K(r)
+    const E = 1000, K = 0.7, a = 0.1;
+    const r = [0.01, 0.02, 0.03, 0.04, 0.05];
+    const uy = r.map((ri) => (4 / E) * Math.sqrt(ri / (2 * Math.PI)) * K * (1 - ri / (4 * a)));
+    expect(extrapolateK(r, uy, E, 0.3, 'plane-stress', 0.005, 0.06).K).toBeCloseTo(K, 12);
+  });
+});
+
