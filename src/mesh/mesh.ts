@@ -50,7 +50,7 @@ export function meshPlate(geom: PlateGeometry, opts: MeshOptions): Mesh {
       );
     }
   }
-  const m = initialTriangulation(geom, b, 4 * b.piece.length);
+  const m = initialTriangulation(geom, b, Math.min(maxVertices, estimateVertices(geom, opts.sizeAt) + b.piece.length));
   for (const [x, y] of b.interior) insertRequired(m, x, y, tol);
   refineMesh(m, geom, { sizeAt: opts.sizeAt, minAngleDeg, maxVertices, sizeFactor: SIZE_FACTOR });
   return buildMeshOutput(m, geom, opts.order);
@@ -71,4 +71,25 @@ function insertRequired(m: TriMesh, x: number, y: number, tol: number): void {
     m.popVertex();
     throw new MeshError(`required point (${x}, ${y}) could not be inserted (too close to the boundary?)`);
   }
+}
+
+/**
+ * Vertex count the refinement will reach, from the size field sampled on a 48 × 48 grid over
+ * the bounding box (an equilateral triangle of edge f·h has area √3/4·(f·h)²; a triangulation has
+ * about half as many vertices as triangles). Used only to size the arrays once.
+ */
+function estimateVertices(geom: PlateGeometry, sizeAt: (x: number, y: number) => number): number {
+  const { minX, minY, maxX, maxY } = geom.bbox;
+  const n = 48;
+  const dx = (maxX - minX) / n;
+  const dy = (maxY - minY) / n;
+  let tris = 0;
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      const h = SIZE_FACTOR * sizeAt(minX + (i + 0.5) * dx, minY + (j + 0.5) * dy);
+      if (h > 0 && Number.isFinite(h)) tris += (dx * dy) / ((Math.sqrt(3) / 4) * h * h);
+    }
+  }
+  const fill = geom.area / Math.max((maxX - minX) * (maxY - minY), 1e-300);
+  return Math.ceil(0.6 * tris * Math.min(1, fill * 1.1)) + 64;
 }

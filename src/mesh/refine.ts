@@ -43,10 +43,8 @@ export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions)
       acutePair.set(c.pieceOut * np + c.pieceIn, c.at);
     }
   }
-  const segQ: number[] = [];
-  let segHead = 0;
-  const triQ: number[] = [];
-  let triHead = 0;
+  const segQ = new IntQueue(1024);
+  const triQ = new IntQueue(4 * m.nT + 1024);
   const pt = [0, 0];
 
   const isEncroached = (e: number): boolean => {
@@ -216,21 +214,13 @@ export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions)
   const maxSteps = 40 * maxVertices + 1000;
   for (;;) {
     if (guard++ > maxSteps) throw new MeshError('mesh refinement did not finish (step limit); the geometry may have features far below mesh.size', 'mesh.size');
-    if (segHead < segQ.length) {
-      const e = segQ[segHead++];
-      if (segHead > 65536 && segHead * 2 > segQ.length) {
-        segQ.splice(0, segHead);
-        segHead = 0;
-      }
+    if (segQ.size > 0) {
+      const e = segQ.shift();
       if (e < 3 * m.nT && m.twin[e] < 0 && isEncroached(e)) splitSegment(e);
       continue;
     }
-    if (triHead >= triQ.length) break;
-    const t = triQ[triHead++];
-    if (triHead > 65536 && triHead * 2 > triQ.length) {
-      triQ.splice(0, triHead);
-      triHead = 0;
-    }
+    if (triQ.size === 0) break;
+    const t = triQ.shift();
     if (!needsSplit(t)) continue;
     steinerPoint(t, sp);
     const loc = m.locate(t, sp[0], sp[1]);
@@ -255,5 +245,34 @@ export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions)
       continue;
     }
     afterInsert();
+  }
+}
+
+/** FIFO of integer ids on a ring buffer that doubles when full (no per-item allocation) */
+class IntQueue {
+  private buf: Int32Array;
+  private head = 0;
+  size = 0;
+  constructor(cap: number) {
+    this.buf = new Int32Array(Math.max(16, cap));
+  }
+  push(v: number): void {
+    if (this.size === this.buf.length) {
+      const b = new Int32Array(2 * this.buf.length);
+      for (let i = 0; i < this.size; i++) b[i] = this.buf[(this.head + i) % this.buf.length];
+      this.buf = b;
+      this.head = 0;
+    }
+    let k = this.head + this.size;
+    if (k >= this.buf.length) k -= this.buf.length;
+    this.buf[k] = v;
+    this.size++;
+  }
+  shift(): number {
+    const v = this.buf[this.head];
+    this.head++;
+    if (this.head === this.buf.length) this.head = 0;
+    this.size--;
+    return v;
   }
 }
