@@ -1,11 +1,12 @@
-import { join } from 'node:path';
+import { readFileSync } from 'node:fs';
+import { dirname, isAbsolute, join } from 'node:path';
 import pc from 'picocolors';
 import { PeakwiseError } from '../errors.js';
 import type { Model } from '../model/types.js';
 import { parseModel } from '../model/index.js';
 import { buildGeometry } from '../geometry/index.js';
 import { meshPlate, meshQuality, sizeFieldFromSettings } from '../mesh/index.js';
-import { fieldCsv, meshSvg, reportHtml, solveSummary, spotsCsv, studyTable } from '../report/index.js';
+import { fieldCsv, measureName, meshSvg, reportHtml, solveSummary, spotsCsv, studyTable } from '../report/index.js';
 import { runStudy as runStudyStage, type BaseSolve } from '../study/index.js';
 import type { StudyResult } from '../study/types.js';
 import cliProgress from 'cli-progress';
@@ -52,7 +53,9 @@ export function useColor(opts: CommonOptions): boolean {
 export function loadModel(ctx: CliContext, file: string, opts: CommonOptions, params?: Record<string, number>): Model {
   ctx.file = file;
   const text = readModelText(file);
-  const model = parseModel(text, file, params ? { params } : undefined);
+  // files the model refers to (outlines, displacement tables) sit beside it
+  const readFile = (path: string): string => readFileSync(isAbsolute(path) ? path : join(dirname(file), path), 'utf8');
+  const model = parseModel(text, file, params ? { params, readFile } : { readFile });
   ctx.model = model;
   if (opts.order !== undefined) model.mesh.order = opts.order === '1' ? 1 : 2;
   if (opts.size !== undefined) model.mesh.size = positiveNumber(opts.size, '--size');
@@ -168,7 +171,8 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
     const target = positiveNumber(opts.adapt, '--adapt');
     const say = (line: string): void => { if (!opts.json && !opts.quiet) process.stderr.write(line + '\n'); };
     const result = adaptiveSolve(
-      { geometry, section, supports: model.supports, loads: model.loads, order: model.mesh.order, sizeAt0, requiredPoints, measure },
+      // adaptiveSolve hands loads to solvePlate unchanged, so field loads pass through its Load[] type
+      { geometry, section, supports: model.supports, loads: [...model.loads, ...(model.fieldLoads ?? [])] as typeof model.loads, order: model.mesh.order, sizeAt0, requiredPoints, measure },
       {
         targetPercent: target,
         maxDofs,
@@ -188,7 +192,7 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
     if (mesh.xy.length > maxDofs) {
       throw new PeakwiseError('solve', `the mesh has ${mesh.xy.length} dofs, above --max-dofs ${maxDofs}; raise mesh.size or --size to coarsen it`);
     }
-    solution = solvePlate({ mesh, geometry, section, supports: model.supports, loads: model.loads });
+    solution = solvePlate({ mesh, geometry, section, supports: model.supports, loads: [...model.loads, ...(model.fieldLoads ?? [])] });
     gauss = gaussStresses(mesh, solution.u, section);
     field = recoverSpr(mesh, gauss, section);
     estimate = estimateError(mesh, gauss, field, section);
@@ -214,6 +218,20 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
   columns.von_mises = vm;
   writeFileAtomic(join(outDir, 'field.csv'), fieldCsv(mesh, solution.u, columns), [file]);
   if (opts.exportMatrix || opts.exportLoad) exportSystem(model, mesh, geometry, section, solution, opts, file);
+  if (opts.report) {
+    const q0 = meshQuality(mesh);
+    const oneSolve: StudyResult = {
+      tool: 'peakwise',
+      version: VERSION,
+      model: { title: model.title, file },
+      units: { ...model.units, stress: stressUnit(model.units) },
+      mesh: { nodes: q0.nodes, elements: q0.elements, order: q0.order, minAngleDeg: q0.minAngleDeg },
+      solution: { dofs: solution.dofs, maxDisplacement: solution.maxDisplacement, reactionSum: solution.reactionSum, appliedSum: solution.appliedSum },
+      measure,
+      spots: [],
+    };
+    writeFileAtomic(join(outDir, 'report.html'), reportHtml({ model, study: oneSolve, mesh, geometry, field: chosen, u: solution.u, mode: 'solve' }), [file]);
+  }
 
   const stressUnitLabel = stressUnit(model.units);
   const timings = { meshS, assembleS: solution.timings.assembleS, orderS: solution.timings.orderS, factorS: solution.timings.factorS, solveS: solution.timings.solveS, recoverS };
@@ -253,14 +271,15 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
           maxDisplacement: { value: solution.maxDisplacement, at: solution.maxDisplacementAt },
           reactionSum: solution.reactionSum,
           appliedSum: solution.appliedSum,
-          maxStress: { measure, value: peak.value, at: peak.at },
+          maxStress: { measure: `${measureName(measure)} (recovered)`, value: peak.value, at: peak.at },
           timings: { mesh: meshS, assemble: timings.assembleS, order: timings.orderS, factor: timings.factorS, solve: timings.solveS, recover: recoverS },
           errorPercent: estimate.errorPercent,
           residual: solution.residual,
           loadScale: solution.load.reduce((a, f) => a + Math.abs(f), 0),
+          extraRows: [['max Gauss point', `von Mises ${fmt(gp.value)} ${stressUnitLabel} at (${fmt(gp.at[0])}, ${fmt(gp.at[1])}) ${model.units.length}`]],
         },
         { color },
-      ) + `\n  largest Gauss-point von Mises ${fmt(gp.value)} ${stressUnitLabel} at (${fmt(gp.at[0])}, ${fmt(gp.at[1])})\n  field written to ${join(outDir, 'field.csv')}\n`,
+      ) + `  field written to ${join(outDir, 'field.csv')}\n`,
     );
   }
 }

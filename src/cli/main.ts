@@ -9,6 +9,7 @@ import { describeError } from './report-error.js';
 import { runMesh, runSolve, runStudy, type CliContext } from './commands.js';
 import { VERSION } from '../version.js';
 import { registerSweep } from './sweep.js';
+import { registerCheck } from './check.js';
 
 const ctx: CliContext = { file: undefined, model: undefined };
 
@@ -58,6 +59,7 @@ export function buildProgram(): Command {
   ).action(async (model: string, opts) => runStudy(ctx, model, opts));
 
   registerSweep(program, ctx);
+  registerCheck(program, ctx);
 
   return program;
 }

@@ -105,6 +105,8 @@ export interface SolveSummaryInput {
   timings: Record<string, number>;
   /** Zienkiewicz–Zhu error estimate η in percent, when computed */
   errorPercent?: number;
+  /** further labelled lines, shown after the stress lines (label, text) */
+  extraRows?: [string, string][];
   /** Σ |nodal load| (force units): the scale of the equilibrium check for self-balanced loads */
   loadScale?: number;
   /** scaled residual ‖Ku − f‖ / ‖f‖, when computed */
@@ -146,6 +148,7 @@ export function solveSummary(info: SolveSummaryInput, options: TerminalOptions):
       `${formatNumber(info.maxStress.value)} ${S} at ${formatPoint(info.maxStress.at, L)}`,
     ],
   ];
+  for (const [k, v] of info.extraRows ?? []) rows.push([stripControl(k), stripControl(v)]);
   if (info.errorPercent !== undefined) rows.push(['error estimate', `${formatNumber(info.errorPercent, 3)} % (energy norm)`]);
   if (info.residual !== undefined) rows.push(['scaled residual', formatNumber(info.residual, 2)]);
   const phases = Object.entries(info.timings);

@@ -1,0 +1,78 @@
+/**
+ * `peakwise check [--json] [--report file] [--only ids] [--quiet] [--no-color]`: runs the built-in
+ * verification suite, prints the table (or the JSON), optionally writes an HTML page, and sets
+ * exit status 1 when any case fails.
+ */
+import type { Command } from 'commander';
+import cliProgress from 'cli-progress';
+import { CHECK_CASES, checksHtml, checksJson, checksTable, runChecks, type CheckResult } from '../check/index.js';
+import { PeakwiseError } from '../errors.js';
+import { VERSION } from '../version.js';
+import type { CliContext } from './commands.js';
+import { useColor } from './commands.js';
+import { writeFileAtomic } from './io.js';
+
+export interface CheckCliOptions {
+  json?: boolean;
+  report?: string;
+  only?: string;
+  quiet?: boolean;
+  color?: boolean;
+}
+
+function progress(opts: CheckCliOptions): { update(done: number, total: number, label: string): void; stop(): void } {
+  if (opts.quiet || opts.json || process.stderr.isTTY !== true) return { update() {}, stop() {} };
+  const bar = new cliProgress.SingleBar(
+    { stream: process.stderr, format: '  {bar} {value}/{total} cases  {label}', hideCursor: true, clearOnComplete: true, barsize: 30 },
+    cliProgress.Presets.shades_classic,
+  );
+  let started = false;
+  return {
+    update(done, total, label) {
+      if (!started) { bar.start(total, done, { label }); started = true; } else bar.update(done, { label });
+    },
+    stop() { if (started) bar.stop(); },
+  };
+}
+
+export function runCheck(_ctx: CliContext, opts: CheckCliOptions): void {
+  const bar = progress(opts);
+  let results: CheckResult[];
+  try {
+    const only = opts.only ? opts.only.split(',').map((id) => id.trim()).filter(Boolean) : undefined;
+    if (only) {
+      const unknown = only.filter((id) => !CHECK_CASES.some((c) => c.id === id));
+      if (unknown.length > 0) {
+        throw new PeakwiseError('usage', `--only: no check case ${unknown.map((u) => `"${u}"`).join(', ')} (cases: ${CHECK_CASES.map((c) => c.id).join(', ')})`);
+      }
+    }
+    results = runChecks({ only, onProgress: (d, t, l) => bar.update(d, t, l) });
+  } finally {
+    bar.stop();
+  }
+  if (opts.json) process.stdout.write(JSON.stringify(checksJson(results), null, 2) + '\n');
+  else process.stdout.write(checksTable(results, { color: useColor(opts) }));
+  if (opts.report) {
+    writeFileAtomic(opts.report, checksHtml(results, { version: VERSION, date: new Date().toISOString().slice(0, 10) }));
+    if (!opts.json && !opts.quiet) process.stderr.write(`wrote ${opts.report}\n`);
+  }
+  if (results.some((r) => !r.pass)) {
+    process.exitCode = 1;
+    // main() assigns its own status once the action resolves; keep the failure status past it
+    process.once('beforeExit', () => {
+      process.exitCode = 1;
+    });
+  }
+}
+
+export function registerCheck(program: Command, ctx: CliContext): void {
+  program
+    .command('check')
+    .description('run the built-in verification cases against closed-form results')
+    .option('--json', 'print { "cases": [...] } on stdout instead of the table')
+    .option('--report <file>', 'also write the table as a self-contained HTML page')
+    .option('--only <ids>', 'run only these cases (comma-separated ids, e.g. kirsch,lame)')
+    .option('--quiet', 'no progress bar')
+    .option('--no-color', 'plain text without colours (also honours NO_COLOR)')
+    .action(async (opts: CheckCliOptions) => runCheck(ctx, opts));
+}
