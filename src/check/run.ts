@@ -60,7 +60,7 @@ export function formatError(e: number): string {
 }
 
 /** Error column: relative errors in percent, absolute ones (exponents) as plain numbers. */
-export function errorText(r: CheckResult, e: number): string {
+export function errorText(r: Pick<CheckResult, 'quantity'>, e: number): string {
   return r.quantity.includes('absolute') ? formatFigure(e, 2) : formatError(e);
 }
 
