@@ -1,7 +1,9 @@
 import { FemError } from '../errors.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { Mesh } from '../mesh/types.js';
-import type { Load } from '../model/types.js';
+import type { AnyLoad } from '../model/types.js';
+import { farFieldStressLoad } from './farfield.js';
+import { bearingLoad } from './bearing.js';
 import { describeSelector, selectBoundary } from './selectors.js';
 import { cstGradients, gatherElementXY, lstGradients, lstShape } from './shape.js';
 import type { ElasticSection } from './types.js';
@@ -108,7 +110,7 @@ export function loadVector(
   mesh: Pick<Mesh, 'xy' | 'boundaryEdges' | 'edgeStride' | 'boundaryPiece'>,
   geom: Pick<PlateGeometry, 'pieces' | 'loops' | 'scale'>,
   section: Pick<ElasticSection, 'thickness'>,
-  loads: readonly Load[],
+  loads: readonly AnyLoad[],
 ): Float64Array {
   const f = new Float64Array(mesh.xy.length);
   loads.forEach((load, i) => {
@@ -130,7 +132,11 @@ export function loadVector(
       throw new FemError(`a ${load.kind} acts on boundary edges, not at a point; use a force for a concentrated load`, where);
     }
     const { edges } = selectBoundary(mesh, geom, load.where, where);
-    if (load.kind === 'traction') {
+    if (load.kind === 'stress') {
+      farFieldStressLoad(mesh, edges, section.thickness, load, f);
+    } else if (load.kind === 'bearing') {
+      bearingLoad(mesh, edges, section.thickness, load.force, keyPath, f);
+    } else if (load.kind === 'traction') {
       const t: readonly [number, number] = [load.traction[0], load.traction[1]];
       edgeTractionLoad(mesh, edges, section.thickness, () => t, f);
     } else {

@@ -11,12 +11,14 @@ import {
 } from '../linalg/index.js';
 import type { Csr } from '../linalg/types.js';
 import type { Mesh } from '../mesh/types.js';
-import type { Load, Support } from '../model/types.js';
+import type { AnyLoad, Support } from '../model/types.js';
+import { prescribedFromSupports } from './prescribe.js';
 import { assembleStiffness, csrMultiply, stiffnessPattern, type StiffnessPattern } from './assembly.js';
 import { appliedResultant, loadVector } from './loads.js';
 import { checkRigidRestraint, supportedDofs } from './supports.js';
 import type { ElasticSection, Solution } from './types.js';
 import { validateSolverMesh, validateSection } from './validate.js';
+import { RESIDUAL_LIMIT, checkResidual, factorBytes, memoryLimitError } from './health.js';
 
 /** A prescribed displacement: dof 2n is u_x of node n, 2n + 1 is u_y. */
 export interface PrescribedDisplacement {
@@ -29,7 +31,8 @@ export interface PlateProblem {
   geometry: Pick<PlateGeometry, 'pieces' | 'loops' | 'scale'>;
   section: ElasticSection;
   supports: readonly Support[];
-  loads: readonly Load[];
+  /** the model's loads, including its far-field stress and bearing loads (`Model.fieldLoads`) */
+  loads: readonly AnyLoad[];
   /**
    * Non-zero (or zero) displacements imposed at single dofs, eliminated like supports.
    * A dof both supported and prescribed takes the prescribed value.
@@ -39,6 +42,10 @@ export interface PlateProblem {
   extraLoad?: Float64Array;
   /** the mesh's stiffness pattern when the caller already has it */
   pattern?: StiffnessPattern;
+  /** refuse to factorise when the factor would need more bytes than this (checked after the symbolic analysis) */
+  maxFactorBytes?: number;
+  /** largest accepted scaled residual (default RESIDUAL_LIMIT, 1e-8); above it the solve is a SolveError */
+  residualLimit?: number;
 }
 
 const now = (): number => performance.now() / 1000;
@@ -59,6 +66,11 @@ export function solvePlate(input: PlateProblem): Solution {
   const t0 = now();
   const fixed = supportedDofs(mesh, geometry, input.supports);
   const uFixed = new Float64Array(nDof);
+  // supports with `displace` first, so that explicit `prescribed` entries win
+  for (const p of prescribedFromSupports(mesh, geometry, input.supports)) {
+    fixed[p.dof] = 1;
+    uFixed[p.dof] = p.value;
+  }
   for (const [k, p] of (input.prescribed ?? []).entries()) {
     if (!(Number.isInteger(p.dof) && p.dof >= 0 && p.dof < nDof)) {
       throw new FemError(`prescribed[${k}].dof = ${p.dof} is not a dof of the mesh (0 … ${nDof - 1})`, `prescribed[${k}]`);
@@ -99,6 +111,9 @@ export function solvePlate(input: PlateProblem): Solution {
     const ordering = chooseOrdering(Kff, rowXY);
     t2 = now();
     const symbolic = analyze(Kff, ordering);
+    if (input.maxFactorBytes !== undefined && factorBytes(symbolic.nnzStored) > input.maxFactorBytes) {
+      throw memoryLimitError(factorBytes(symbolic.nnzStored), input.maxFactorBytes, nDof);
+    }
     let factor;
     try {
       factor = factorize(Kff, symbolic);
@@ -111,6 +126,7 @@ export function solvePlate(input: PlateProblem): Solution {
     const uFree = solveFactor(factor, b);
     for (let k = 0; k < nFree; k++) u[free[k]] = uFree[k];
     residual = residualNorm(Kff, uFree, b);
+    checkResidual(residual, input.residualLimit ?? RESIDUAL_LIMIT);
   }
   const reaction = new Float64Array(nDof);
   for (let k = 0; k < fixedRows.rows.length; k++) {

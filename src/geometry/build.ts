@@ -26,7 +26,9 @@ export function buildGeometry(plate: Plate): PlateGeometry {
   const drafts: LoopDraft[] = [];
   // the outline's own extent sets the clearance while the loops are built (openings lie inside it)
   const minLength = CLEARANCE_RELATIVE * shapeExtent(plate.outline);
-  drafts.push(buildShapeLoop(plate.outline, { id: 'outline', hole: false, keyPath: 'plate.outline', label: 'the outline', minLength }));
+  // imported shapes name their file in every message (issue 9)
+  const from = (shape: Plate['outline']): string => (shape.kind === 'polygon' && shape.source ? ` (read from ${shape.source})` : '');
+  drafts.push(buildShapeLoop(plate.outline, { id: 'outline', hole: false, keyPath: 'plate.outline', label: `the outline${from(plate.outline)}`, minLength }));
   const seen = new Map<string, string>();
   for (let k = 0; k < plate.openings.length; k++) {
     const op = plate.openings[k];
@@ -39,7 +41,7 @@ export function buildGeometry(plate: Plate): PlateGeometry {
       throw new GeometryError(`${keyPath}: opening id '${op.id}' is already used by ${before}`, `${keyPath}.id`);
     }
     seen.set(op.id, keyPath);
-    drafts.push(buildShapeLoop(op.shape, { id: op.id, hole: true, keyPath, label: `opening ${op.id}`, minLength }));
+    drafts.push(buildShapeLoop(op.shape, { id: op.id, hole: true, keyPath, label: `opening ${op.id}${from(op.shape)}`, minLength }));
   }
 
   // ids, boxes, scale

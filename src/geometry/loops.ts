@@ -4,9 +4,10 @@
  * openings clockwise. Polygon vertices with `round` > 0 become tangent circular arcs.
  */
 import { GeometryError } from '../errors.js';
-import type { Point, PolygonVertex, Shape } from '../model/types.js';
+import type { PathPiece, Point, PolygonVertex, Shape } from '../model/types.js';
 import type { Curve, PieceRole } from './types.js';
 import { fmt, fmtPoint } from './format.js';
+import { curveDoubleArea, curveLength } from './curves.js';
 import { forEachOverlappingPair, leftOf, segmentMeetPoint, segmentsIntersect } from './predicates.js';
 
 /** A piece before it gets its id. */
@@ -108,6 +109,7 @@ export function buildShapeLoop(shape: Shape, ctx: LoopContext): LoopDraft {
       return { ...loop, polygon: false };
     }
     case 'polygon': {
+      if (shape.pieces) return pathLoop(shape.pieces, ctx);
       const isOutline = !ctx.hole;
       const vertexPath = (i: number): string => (isOutline ? `${ctx.keyPath}[${i}]` : `${ctx.keyPath}.polygon[${i}]`);
       // outline edges and fillets are named by their vertex; opening pieces by the opening
@@ -416,4 +418,49 @@ function polygonLoop(
     }
   }
   return { id: ctx.id, hole: ctx.hole, keyPath: ctx.keyPath, label: ctx.label, polygon: true, pieces };
+}
+
+/** A curve run the other way: same points, t → 1 − t. */
+function reversed(c: Curve): Curve {
+  switch (c.kind) {
+    case 'line':
+      return { kind: 'line', from: c.to, to: c.from };
+    case 'arc':
+      return { ...c, startAngle: c.startAngle + c.sweep, sweep: -c.sweep, from: c.to, to: c.from };
+    case 'ellipse-arc':
+      return { ...c, startParam: c.startParam + c.sweep, sweep: -c.sweep, from: c.to, to: c.from };
+  }
+}
+
+/**
+ * An imported boundary (an SVG path): the pieces as they are, end to end, turned to the loop's
+ * travel direction (signed area by Green's theorem, exact for arcs). Self-contact is checked by
+ * buildGeometry like any polygon loop (`polygon: true`).
+ */
+function pathLoop(pieces: readonly PathPiece[], ctx: LoopContext): LoopDraft {
+  const curves: Curve[] = pieces.map((p) => ({ ...p }));
+  curves.forEach((c, k) => {
+    if (!(curveLength(c) >= ctx.minLength)) {
+      throw new GeometryError(
+        `${ctx.keyPath}: piece ${k + 1} of ${ctx.label} is only ${fmt(curveLength(c))} long, too short to resolve on a plate of this size`,
+        ctx.keyPath,
+      );
+    }
+  });
+  const o = curves[0].from ?? [0, 0];
+  let area2 = 0;
+  for (const c of curves) area2 += curveDoubleArea(c, o as Point);
+  if (!(Math.abs(area2) > 0)) throw new GeometryError(`${ctx.keyPath}: ${ctx.label} encloses no area`, ctx.keyPath);
+  const ordered = area2 > 0 === !ctx.hole ? curves : curves.reverse().map(reversed);
+  return {
+    id: ctx.id, hole: ctx.hole, keyPath: ctx.keyPath, label: ctx.label,
+    polygon: true,
+    pieces: ordered.map((curve) => ({
+      curve,
+      role: curve.kind === 'line' ? 'edge' : curve.kind === 'arc' ? (ctx.hole ? 'circle' : 'fillet') : 'ellipse',
+      radius: curve.kind === 'line' ? 0 : curve.kind === 'arc' ? curve.radius : Math.min(curve.b ** 2 / curve.a, curve.a ** 2 / curve.b),
+      keyPath: ctx.keyPath,
+      endVertexPath: ctx.keyPath,
+    })),
+  };
 }

@@ -10,8 +10,11 @@ import { nearest } from './issues.js';
 import type { ModelFile, RawPoint, RawVertex } from './schema.js';
 import { didYouMean, formatNumber, quote } from './text.js';
 import type {
-  Load, LocalSize, Model, ModelWarning, Opening, Point, PolygonVertex, Selector, Shape, SourcePosition, StudySettings, Support,
+  DisplacementValue, FieldLoad, Load, LocalSize, Model, ModelWarning, Opening, Point, PolygonVertex, PrescribedMotion, Selector, Shape,
+  SourcePosition, StudySettings, Support,
 } from './types.js';
+import { ImportError, MM_PER_UNIT, displacementRows, pointsShape, svgShape, type ReadFile } from './imports.js';
+import { parseExpression, namesIn, CONSTANTS } from './expr.js';
 import { DEFAULT_UNITS, PLAUSIBLE_E_MPA, stressToMPa, stressUnit } from './units.js';
 
 /** Largest number accepted anywhere: beyond it the value is a slip, not a plate. */
@@ -40,11 +43,45 @@ const ANY: Rule = { test: () => true, text: '' };
 
 export class Builder {
   readonly warnings: ModelWarning[] = [];
+  /** reads files the model refers to (issue 9); undefined when parsing text alone */
+  readFile: ReadFile | undefined;
+  /** Bézier chord tolerance for SVG outlines (mesh.size / 100), when mesh.size is given */
+  chordTolerance: number | undefined;
   constructor(
     private readonly params: Readonly<Record<string, number>>,
     private readonly valueAt: Record<string, SourcePosition>,
     private readonly lengthUnit: string,
   ) {}
+
+  /** Run a file import; its errors (which name the file) are reported at `keyPath`. */
+  imported<T>(keyPath: string, f: () => T): T {
+    try {
+      return f();
+    } catch (e) {
+      if (e instanceof ImportError) this.fail(e.message, keyPath);
+      throw e;
+    }
+  }
+
+  /** A displacement component: number, expression of x, y and params (checked now, evaluated per node later). */
+  displacementValue(raw: number | string, keyPath: string): DisplacementValue {
+    if (typeof raw === 'number' || !/[A-Za-z_]/.test(raw)) return this.num(raw, keyPath, 'displacement');
+    let names: string[];
+    try {
+      names = namesIn(parseExpression(raw));
+    } catch (e) {
+      if (e instanceof ExpressionError) this.fail(`expression ${quote(raw)}: ${e.message}`, keyPath);
+      throw e;
+    }
+    const usesXY = names.includes('x') || names.includes('y');
+    if (!usesXY) return this.num(raw, keyPath, 'displacement');
+    const known = new Set([...Object.keys(this.params), 'x', 'y', ...Object.keys(CONSTANTS)]);
+    const unknown = names.find((n) => !known.has(n));
+    if (unknown !== undefined) {
+      this.fail(`expression ${quote(raw)}: unknown name ${quote(unknown)}${didYouMean(unknown, [...known])}; a displacement may use x, y and the params`, keyPath);
+    }
+    return { expression: raw, params: { ...this.params } };
+  }
 
   fail(message: string, keyPath: string): never {
     const pos = nearest(this.valueAt, parsePath(keyPath));
@@ -119,6 +156,24 @@ export class Builder {
         round: r.round === undefined ? 0 : this.length(r.round, joinPath(p, 'round'), 'corner radius round', NON_NEGATIVE),
       };
     }
+    if (raw.points !== undefined) {
+      const file = raw.points;
+      return this.imported(joinPath(keyPath, 'points'), () => pointsShape(this.readFile, file));
+    }
+    if (raw.svg !== undefined) {
+      const file = raw.svg;
+      let scale = raw.scale === undefined ? 1 : this.num(raw.scale, joinPath(keyPath, 'scale'), 'drawing scale', POSITIVE);
+      if (raw.units !== undefined) {
+        const model = MM_PER_UNIT[this.lengthUnit];
+        if (model === undefined) {
+          this.fail(`drawing units ${raw.units} cannot be converted to the model's length unit ${quote(this.lengthUnit)}; `
+            + `give units.length as one of ${Object.keys(MM_PER_UNIT).join(', ')}, or drop units and use scale`, joinPath(keyPath, 'units'));
+        }
+        scale *= MM_PER_UNIT[raw.units] / model;
+      }
+      const req = { file, path: raw.path ?? '', scale, chordTolerance: this.chordTolerance };
+      return this.imported(joinPath(keyPath, 'svg'), () => svgShape(this.readFile, req));
+    }
     const p = joinPath(keyPath, 'polygon');
     return { kind: 'polygon', vertices: (raw.polygon ?? []).map((v, i) => this.vertex(v, joinPath(p, i))) };
   }
@@ -151,10 +206,13 @@ export function buildModel(
   file: string,
   params: Readonly<Record<string, number>>,
   valueAt: Record<string, SourcePosition>,
+  readFile?: ReadFile,
 ): Model {
   const units = { length: raw.units?.length ?? DEFAULT_UNITS.length, force: raw.units?.force ?? DEFAULT_UNITS.force };
   const stress = stressUnit(units);
   const b = new Builder(params, valueAt, units.length);
+  b.readFile = readFile;
+  if (raw.mesh?.size !== undefined) b.chordTolerance = b.length(raw.mesh.size, 'mesh.size', 'mesh size') / 100;
 
   const E = b.num(raw.material.E, 'material.E', "Young's modulus E", POSITIVE, stress);
   const nu = b.num(raw.material.nu, 'material.nu', "Poisson's ratio nu", {
@@ -190,19 +248,41 @@ export function buildModel(
 
   const supports: Support[] = raw.supports.map((s, i) => {
     const keyPath = joinPath('supports', i);
-    return {
-      where: b.selector(s.where, joinPath(keyPath, 'where'), ids),
-      fix: { x: s.fix.includes('x'), y: s.fix.includes('y') },
-      keyPath,
-    };
+    const where = b.selector(s.where, joinPath(keyPath, 'where'), ids);
+    if (s.fix) return { where, fix: { x: s.fix.includes('x'), y: s.fix.includes('y') }, keyPath };
+    const motion = prescribedMotion(b, s.displace!, joinPath(keyPath, 'displace'));
+    const fix = motion.kind === 'table' ? { x: true, y: true } : { x: motion.x !== undefined, y: motion.y !== undefined };
+    if (!fix.x && !fix.y) b.fail('both displacement components are free (null); prescribe at least one, or drop the entry', joinPath(keyPath, 'displace'));
+    if (where.kind === 'point' && motion.kind === 'table') b.fail('a displacement table is interpolated along an edge; use a line or loop selector', joinPath(keyPath, 'where'));
+    return { where, fix, keyPath, displace: motion };
   });
 
-  const loads: Load[] = raw.loads.map((l, i): Load => {
+  const loads: Load[] = [];
+  const fieldLoads: FieldLoad[] = [];
+  raw.loads.forEach((l, i) => {
     const keyPath = joinPath('loads', i);
     const where = b.selector(l.where, joinPath(keyPath, 'where'), ids);
-    if (l.traction !== undefined) return { kind: 'traction', where, traction: b.point(l.traction, joinPath(keyPath, 'traction')), keyPath };
-    if (l.pressure !== undefined) return { kind: 'pressure', where, pressure: b.num(l.pressure, joinPath(keyPath, 'pressure'), 'pressure'), keyPath };
-    return { kind: 'force', where, force: b.point(l.force!, joinPath(keyPath, 'force')), keyPath };
+    if (l.traction !== undefined) loads.push({ kind: 'traction', where, traction: b.point(l.traction, joinPath(keyPath, 'traction')), keyPath });
+    else if (l.pressure !== undefined) loads.push({ kind: 'pressure', where, pressure: b.num(l.pressure, joinPath(keyPath, 'pressure'), 'pressure'), keyPath });
+    else if (l.force !== undefined) loads.push({ kind: 'force', where, force: b.point(l.force, joinPath(keyPath, 'force')), keyPath });
+    else if (l.stress !== undefined) {
+      const p = joinPath(keyPath, 'stress');
+      const g = l.gradient;
+      const gp = joinPath(keyPath, 'gradient');
+      const grad = (k: 'sxx' | 'syy' | 'sxy'): Point => (g?.[k] === undefined ? [0, 0] : b.point(g[k]!, joinPath(gp, k)));
+      fieldLoads.push({
+        kind: 'stress',
+        where,
+        stress: [b.num(l.stress[0], joinPath(p, 0), 'sxx'), b.num(l.stress[1], joinPath(p, 1), 'syy'), b.num(l.stress[2], joinPath(p, 2), 'sxy')],
+        gradient: { sxx: grad('sxx'), syy: grad('syy'), sxy: grad('sxy') },
+        about: l.about === undefined ? [0, 0] : b.point(l.about, joinPath(keyPath, 'about')),
+        keyPath,
+      });
+    } else {
+      const force = b.point(l.bearing!, joinPath(keyPath, 'bearing'));
+      if (force[0] === 0 && force[1] === 0) b.fail('a bearing force of [0, 0] has no direction; give the pin force [Fx, Fy]', joinPath(keyPath, 'bearing'));
+      fieldLoads.push({ kind: 'bearing', where: where as Selector & { kind: 'opening' }, force, keyPath });
+    }
   });
 
   const box = boundingBox(outline);
@@ -258,6 +338,7 @@ export function buildModel(
     plate: { outline, openings },
     supports,
     loads,
+    ...(fieldLoads.length > 0 ? { fieldLoads } : {}),
     mesh: { size, order, local },
     study,
     sourceMap: valueAt,
@@ -321,4 +402,27 @@ export function shapeArea(shape: Shape): number {
       return Math.abs(twice) / 2;
     }
   }
+}
+
+function prescribedMotion(b: Builder, raw: NonNullable<ModelFile['supports'][number]['displace']>, keyPath: string): PrescribedMotion {
+  if (Array.isArray(raw)) {
+    const [ux, uy] = raw;
+    return {
+      kind: 'values',
+      ...(ux === null ? {} : { x: b.displacementValue(ux, joinPath(keyPath, 0)) }),
+      ...(uy === null ? {} : { y: b.displacementValue(uy, joinPath(keyPath, 1)) }),
+    };
+  }
+  if ('table' in raw) {
+    const file = raw.table;
+    const rows = b.imported(joinPath(keyPath, 'table'), () => displacementRows(b.readFile, file));
+    if (raw.tolerance === undefined) return { kind: 'table', file, rows };
+    return { kind: 'table', file, rows, tolerance: b.length(raw.tolerance, joinPath(keyPath, 'tolerance'), 'table tolerance') };
+  }
+  const m = raw as { x?: number | string | null; y?: number | string | null };
+  return {
+    kind: 'values',
+    ...(m.x === undefined || m.x === null ? {} : { x: b.displacementValue(m.x, joinPath(keyPath, 'x')) }),
+    ...(m.y === undefined || m.y === null ? {} : { y: b.displacementValue(m.y, joinPath(keyPath, 'y')) }),
+  };
 }

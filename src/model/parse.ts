@@ -13,6 +13,12 @@ import type { Model, SourcePosition } from './types.js';
 export interface ParseOptions {
   /** parameter values that replace those in the file (sweeps); each must exist there */
   params?: Record<string, number>;
+  /**
+   * Reads a file the model refers to (imported outlines, displacement tables), given the path
+   * as written in the model (relative to the model file's folder). Without it, such models
+   * fail with a message naming the file.
+   */
+  readFile?: (path: string) => string;
 }
 
 /**
@@ -31,7 +37,7 @@ export function parseModel(text: string, file: string, options: ParseOptions = {
     throw new ModelError("'__proto__' cannot be a parameter name", 'params.__proto__', pos.line, pos.col);
   }
   const params = evaluateParams(checked.data.params ?? {}, options.params, locateValue);
-  return buildModel(checked.data, file, params, source.valueAt);
+  return buildModel(checked.data, file, params, source.valueAt, options.readFile);
 }
 
 /**

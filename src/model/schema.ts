@@ -86,15 +86,42 @@ const RectLike = mapping(
   'a rectangle { center: [x, y], width, height, round }',
 );
 
-export const SHAPE_KINDS = ['circle', 'ellipse', 'rect', 'polygon'] as const;
+export const SHAPE_KINDS = ['circle', 'ellipse', 'rect', 'polygon', 'points', 'svg'] as const;
+
+const FileName = z.string({ error: expected('a file name (relative to the model file)') }).min(1, {
+  error: () => 'expected a file name, got an empty text',
+});
+
+/** Imported outlines (issue 9): a CSV of points, or one path of an SVG drawing. */
+const IMPORT_KEYS = {
+  points: FileName.optional(),
+  svg: FileName.optional(),
+  path: z.string({ error: expected('the id of a <path> element') }).optional(),
+  scale: NumberLike.optional(),
+  units: word(['mm', 'cm', 'm', 'in', 'pt', 'px']).optional(),
+};
+
+/** `path`, `scale` and `units` belong to `svg`. */
+function svgKeys(value: { svg?: unknown; path?: unknown; scale?: unknown; units?: unknown }, ctx: z.RefinementCtx): void {
+  if (value.svg !== undefined) {
+    if (value.path === undefined) ctx.addIssue({ code: 'custom', message: 'an svg outline needs path: the id of the <path> element to read', path: [] });
+    return;
+  }
+  for (const k of ['path', 'scale', 'units'] as const) {
+    if (value[k] !== undefined) ctx.addIssue({ code: 'custom', message: `${k} goes with svg: file.svg`, path: [k] });
+  }
+}
 
 const ShapeLike = mapping(
-  { circle: CircleLike.optional(), ellipse: EllipseLike.optional(), rect: RectLike.optional(), polygon: PolygonLike.optional() },
-  'a shape { circle | ellipse | rect | polygon: … }',
-).superRefine(exactlyOne(SHAPE_KINDS));
+  {
+    circle: CircleLike.optional(), ellipse: EllipseLike.optional(), rect: RectLike.optional(), polygon: PolygonLike.optional(),
+    ...IMPORT_KEYS,
+  },
+  'a shape { circle | ellipse | rect | polygon | points | svg: … }',
+).superRefine(exactlyOne(SHAPE_KINDS)).superRefine(svgKeys);
 
 const OutlineLike = z.union([PolygonLike, ShapeLike], {
-  error: expected('a list of vertices or one shape { circle | ellipse | rect: … }'),
+  error: expected('a list of vertices or one shape { circle | ellipse | rect | points | svg: … }'),
 });
 
 const OpeningLike = mapping(
@@ -104,9 +131,10 @@ const OpeningLike = mapping(
     ellipse: EllipseLike.optional(),
     rect: RectLike.optional(),
     polygon: PolygonLike.optional(),
+    ...IMPORT_KEYS,
   },
-  'an opening { id, circle | ellipse | rect | polygon }',
-).superRefine(exactlyOne(SHAPE_KINDS));
+  'an opening { id, circle | ellipse | rect | polygon | points | svg }',
+).superRefine(exactlyOne(SHAPE_KINDS)).superRefine(svgKeys);
 
 export const SELECTOR_KINDS = ['x', 'y', 'segment', 'opening', 'outline', 'point'] as const;
 
@@ -122,39 +150,74 @@ const SelectorLike = mapping(
   `a selector { ${SELECTOR_KINDS.join(' | ')}: … }`,
 ).superRefine(exactlyOne(SELECTOR_KINDS));
 
+const Component = z.union([NumberLike, z.null()], { error: expected('a number, an expression of x and y, or null (free)') });
+
+const DisplaceLike = z.union([
+  z.tuple([Component, Component], { error: expected('[ux, uy]') }),
+  mapping({ x: Component.optional(), y: Component.optional() }, 'a displacement { x, y }'),
+  mapping({ table: FileName, tolerance: NumberLike.optional() }, 'a displacement table { table: file.csv, tolerance }'),
+], { error: expected('a displacement [ux, uy], { x, y } or { table: file.csv }') });
+
 const SupportLike = mapping(
   {
     where: SelectorLike,
     fix: z
       .array(word(['x', 'y']), { error: expected('a list of directions such as [x, y] or [y]') })
-      .min(1, { error: () => 'expected at least one direction, [x], [y] or [x, y]' }),
+      .min(1, { error: () => 'expected at least one direction, [x], [y] or [x, y]' })
+      .optional(),
+    displace: DisplaceLike.optional(),
   },
-  'a support { where: …, fix: [x, y] }',
-).superRefine((value, ctx) => {
-  if (value.fix.length === 2 && value.fix[0] === value.fix[1]) {
+  'a support { where: …, fix: [x, y] } or { where: …, displace: [ux, uy] }',
+).superRefine(exactlyOne(['fix', 'displace'])).superRefine((value, ctx) => {
+  if (value.fix && value.fix.length === 2 && value.fix[0] === value.fix[1]) {
     ctx.addIssue({ code: 'custom', message: `direction ${value.fix[0]} is listed twice`, path: ['fix', 1] });
   }
 });
 
-export const LOAD_KINDS = ['traction', 'pressure', 'force'] as const;
+export const LOAD_KINDS = ['traction', 'pressure', 'force', 'stress', 'bearing'] as const;
 
 const LoadLike = mapping(
-  { where: SelectorLike, traction: PointLike.optional(), pressure: NumberLike.optional(), force: PointLike.optional() },
-  'a load { where: …, traction | pressure | force: … }',
+  {
+    where: SelectorLike,
+    traction: PointLike.optional(),
+    pressure: NumberLike.optional(),
+    force: PointLike.optional(),
+    stress: z.tuple([NumberLike, NumberLike, NumberLike], { error: expected('a stress state [sxx, syy, sxy]') }).optional(),
+    gradient: mapping(
+      { sxx: PointLike.optional(), syy: PointLike.optional(), sxy: PointLike.optional() },
+      'a stress gradient { sxx: [d/dx, d/dy], syy: …, sxy: … }',
+    ).optional(),
+    about: PointLike.optional(),
+    bearing: PointLike.optional(),
+  },
+  'a load { where: …, traction | pressure | force | stress | bearing: … }',
 )
   .superRefine(exactlyOne(LOAD_KINDS))
   .superRefine((value, ctx) => {
     const atPoint = value.where.point !== undefined;
-    if (value.force !== undefined && !atPoint) {
+    for (const k of ['gradient', 'about'] as const) {
+      if (value[k] !== undefined && value.stress === undefined) {
+        ctx.addIssue({ code: 'custom', message: `${k} goes with stress: [sxx, syy, sxy]`, path: [k] });
+        return;
+      }
+    }
+    if (value.bearing !== undefined && value.where.opening === undefined) {
+      ctx.addIssue({
+        code: 'custom',
+        message: 'a bearing load acts on the edge of a hole; use where: { opening: id }',
+        path: ['where'],
+      });
+    } else if (value.force !== undefined && !atPoint) {
       ctx.addIssue({
         code: 'custom',
         message: 'a concentrated force needs a point selector { point: [x, y] }; for a load spread along an edge use traction or pressure',
         path: ['where'],
       });
-    } else if (atPoint && (value.traction !== undefined || value.pressure !== undefined)) {
+    } else if (atPoint && value.force === undefined) {
+      const kind = value.traction !== undefined ? 'traction' : value.pressure !== undefined ? 'pressure' : 'stress';
       ctx.addIssue({
         code: 'custom',
-        message: `a point selector can carry only a force [fx, fy]; ${value.traction !== undefined ? 'traction' : 'pressure'} acts along an edge`,
+        message: `a point selector can carry only a force [fx, fy]; ${kind} acts along an edge`,
         path: ['where'],
       });
     }

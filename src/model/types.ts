@@ -18,7 +18,25 @@ export type Shape =
   | { kind: 'ellipse'; center: Point; a: number; b: number; angleDeg: number }
   /** axis-aligned rectangle, each corner rounded by `round` (0 = sharp) */
   | { kind: 'rect'; center: Point; width: number; height: number; round: number }
-  | { kind: 'polygon'; vertices: PolygonVertex[] };
+  /**
+   * A polygon; when `pieces` is present (an imported SVG path) the boundary is exactly those
+   * pieces, end to end, and `vertices` only sketches it (piece start points and arc midpoints,
+   * for bounding boxes and estimates). `source` names the file it came from, for messages.
+   */
+  | { kind: 'polygon'; vertices: PolygonVertex[]; pieces?: PathPiece[]; source?: string };
+
+/**
+ * One piece of an imported boundary, in the geometry stage's curve conventions: lines, circle
+ * arcs (φ = startAngle + t·sweep) and ellipse arcs (eccentric anomaly φ = startParam + t·sweep,
+ * `a` along the axis turned by `rotation` radians). `from`/`to` are the exact end points.
+ */
+export type PathPiece =
+  | { kind: 'line'; from: Point; to: Point }
+  | { kind: 'arc'; center: Point; radius: number; startAngle: number; sweep: number; from: Point; to: Point }
+  | {
+      kind: 'ellipse-arc'; center: Point; a: number; b: number; rotation: number; startParam: number; sweep: number;
+      from: Point; to: Point;
+    };
 
 export interface Opening {
   id: string;
@@ -44,9 +62,25 @@ export type Axis = 'x' | 'y';
 
 export interface Support {
   where: Selector;
+  /** the directions held; for a prescribed displacement, the components that are prescribed */
   fix: { x: boolean; y: boolean };
   keyPath: string;
+  /** prescribed (non-zero) displacement of the held directions; absent = held at zero */
+  displace?: PrescribedMotion;
 }
+
+/** A displacement component: a number, or an expression of the node's x and y (and params). */
+export type DisplacementValue = number | { expression: string; params: Record<string, number> };
+
+export type PrescribedMotion =
+  /** per component; an absent component is free */
+  | { kind: 'values'; x?: DisplacementValue; y?: DisplacementValue }
+  /**
+   * a table of points from a file (x, y, ux, uy per row, flat: 4 numbers a row), interpolated
+   * along the selected boundary by arc length; `tolerance` is the farthest a boundary node may
+   * lie from every table point
+   */
+  | { kind: 'table'; file: string; rows: number[]; tolerance?: number };
 
 export type Load =
   /** force per unit edge area (a stress), global x and y */
@@ -55,6 +89,25 @@ export type Load =
   | { kind: 'pressure'; where: Selector; pressure: number; keyPath: string }
   /** concentrated force over the whole thickness */
   | { kind: 'force'; where: Selector; force: Point; keyPath: string };
+
+/**
+ * Loads that are written in `loads:` like the others but kept apart in `Model.fieldLoads`,
+ * so that code handling the three classic kinds keeps working unchanged.
+ */
+export type FieldLoad =
+  /**
+   * far-field stress state: traction σ·n on each selected edge, σ = stress + gradient·(p − about)
+   * (σxx, σyy, σxy; each gradient row is [∂/∂x, ∂/∂y])
+   */
+  | {
+      kind: 'stress'; where: Selector; stress: [number, number, number];
+      gradient: { sxx: Point; syy: Point; sxy: Point }; about: Point; keyPath: string;
+    }
+  /** pin bearing: cosine pressure on the half of an opening facing the force, resultant = force */
+  | { kind: 'bearing'; where: Selector & { kind: 'opening' }; force: Point; keyPath: string };
+
+/** Any load a model can carry. */
+export type AnyLoad = Load | FieldLoad;
 
 export interface LocalSize {
   near: Point;
@@ -109,6 +162,8 @@ export interface Model {
   plate: Plate;
   supports: Support[];
   loads: Load[];
+  /** far-field stress and bearing loads (issue 9); absent when the file has none */
+  fieldLoads?: FieldLoad[];
   mesh: MeshSettings;
   study: StudySettings;
   /** key path (`loads[1].where`) → 1-based position of that key's value in the file */

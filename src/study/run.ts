@@ -52,7 +52,7 @@ interface Solved {
 
 function solveOn(model: Model, geom: ReturnType<typeof buildGeometry>, section: ElasticSection, sizeAt: SizeField, order: 1 | 2, required: Point[], measure: StressMeasure): Solved {
   const mesh = meshPlate(geom, { sizeAt, order, requiredPoints: required });
-  const solution = solvePlate({ mesh, geometry: geom, section, supports: model.supports, loads: model.loads });
+  const solution = solvePlate({ mesh, geometry: geom, section, supports: model.supports, loads: [...model.loads, ...(model.fieldLoads ?? [])] });
   const gauss = gaussStresses(mesh, solution.u, section);
   const field = recoverSpr(mesh, gauss, section);
   return { mesh, solution, field, nodal: nodalMeasure(field, measure), gauss };

@@ -1,0 +1,73 @@
+/**
+ * Small CSV reader for point and displacement tables: one row per line, fields separated by
+ * commas (or semicolons, or tabs), `#` starts a comment line, blank lines are skipped. The
+ * first row is a header when any of its fields is not a number. Errors name the file and line.
+ */
+
+export class CsvError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'CsvError';
+  }
+}
+
+export interface CsvTable {
+  /** lower-cased header names, or undefined when the file has no header row */
+  header: string[] | undefined;
+  /** numeric rows, each with its 1-based line number */
+  rows: { line: number; values: number[] }[];
+}
+
+function splitFields(line: string): string[] {
+  const sep = line.includes(',') ? ',' : line.includes(';') ? ';' : line.includes('\t') ? '\t' : /\s+/;
+  return line.split(sep).map((f) => f.trim().replace(/^"(.*)"$/, '$1').trim());
+}
+
+const isNumber = (text: string): boolean => text !== '' && Number.isFinite(Number(text));
+
+export function readCsv(text: string, file: string): CsvTable {
+  const lines = text.replace(/^\uFEFF/, '').split(/\r\n|\r|\n/);
+  let header: string[] | undefined;
+  const rows: CsvTable['rows'] = [];
+  for (let i = 0; i < lines.length; i++) {
+    const raw = lines[i].trim();
+    if (raw === '' || raw.startsWith('#')) continue;
+    const fields = splitFields(raw);
+    if (header === undefined && rows.length === 0 && fields.some((f) => !isNumber(f))) {
+      header = fields.map((f) => f.toLowerCase());
+      continue;
+    }
+    const values = fields.map(Number);
+    const bad = fields.findIndex((f) => !isNumber(f));
+    if (bad >= 0) throw new CsvError(`${file}:${i + 1}: field ${bad + 1} is ${JSON.stringify(fields[bad])}, not a number`);
+    rows.push({ line: i + 1, values });
+  }
+  if (rows.length === 0) throw new CsvError(`${file}: no rows of numbers`);
+  return { header, rows };
+}
+
+/**
+ * Pick named columns: by header name when the file has a header (each name required), else
+ * by position. Returns rows of the picked values in the order of `names`.
+ */
+export function pickColumns(table: CsvTable, names: readonly string[], file: string, headerRequired: boolean): number[][] {
+  let index: number[];
+  if (table.header) {
+    index = names.map((n) => {
+      const k = table.header!.indexOf(n);
+      if (k < 0) {
+        throw new CsvError(`${file}: missing column '${n}' (the header has ${table.header!.map((h) => `'${h}'`).join(', ')}; expected ${names.join(', ')})`);
+      }
+      return k;
+    });
+  } else {
+    if (headerRequired) throw new CsvError(`${file}: the first row must be a header naming the columns ${names.join(', ')}`);
+    index = names.map((_, k) => k);
+  }
+  return table.rows.map((r) => {
+    const picked = index.map((k) => r.values[k]);
+    const missing = picked.findIndex((v) => v === undefined);
+    if (missing >= 0) throw new CsvError(`${file}:${r.line}: the row has ${r.values.length} fields; column '${names[missing]}' is missing`);
+    return picked;
+  });
+}
