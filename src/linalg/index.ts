@@ -15,6 +15,7 @@ export {
   type NestedDissectionOptions,
 } from './ordering.js';
 export { eliminationTree, postorderTree, columnCounts, symbolicFactor, type SupernodeOptions } from './symbolic.js';
-export type { FactorOptions } from './numeric.js';
+export { factorKernels, type FactorOptions } from './numeric.js';
+export { wasmKernelsAvailable } from './wasm.js';
 export { analyze, factorize, refactorize, solveFactor, solveSpd, type SpdSolution } from './solve.js';
 export { toMatrixMarket, vectorToMatrixMarket, matrixMarketChunks } from './matrix-market.js';

@@ -1,10 +1,26 @@
 import { NotPositiveDefiniteError } from './errors.js';
 import type { Csr, Factor, Symbolic } from './types.js';
+import { createWasmKernels, type WasmKernels } from './wasm.js';
 
 export interface FactorOptions {
   /** a pivot d ≤ pivotTol · |A_kk| counts as a breakdown (default 1e-12) */
   pivotTol?: number;
+  /**
+   * dense kernels: 'wasm' = WebAssembly SIMD with the factor in WebAssembly memory, 'js' =
+   * plain JavaScript; 'auto' (default) takes wasm when the runtime has it and the factor fits.
+   */
+  kernels?: 'auto' | 'wasm' | 'js';
 }
+
+/** Kernels and memory behind each wasm-held factor, so refactorize can reuse both. */
+const wasmOfValues = new WeakMap<Float64Array, WasmKernels>();
+
+/** Which kernels produced a factor's values. */
+export function factorKernels(F: Factor): 'wasm' | 'js' {
+  return wasmOfValues.has(F.values) ? 'wasm' : 'js';
+}
+
+const roundUp4 = (x: number) => (x + 3) & ~3;
 
 /**
  * Left-looking supernodal Cholesky P A Pᵀ = L Lᵀ.
@@ -16,28 +32,60 @@ export interface FactorOptions {
  */
 export function numericFactor(A: Csr, sym: Symbolic, options: FactorOptions = {}, reuse?: Float64Array): Factor {
   const pivotTol = options.pivotTol ?? 1e-12;
+  const mode = options.kernels ?? 'auto';
   const { n, nSuper, superStart, superRowPtr, superRows, superValPtr, superOfCol } = sym;
   const { perm, iperm } = sym.ordering;
   const total = superValPtr[nSuper];
-  let L: Float64Array;
-  if (reuse && reuse.length === total) {
-    L = reuse;
-    L.fill(0);
-  } else {
-    L = new Float64Array(total);
-  }
-  const map = new Int32Array(n);
-  const link = new Int32Array(nSuper).fill(-1);
-  const nextLink = new Int32Array(nSuper).fill(-1);
-  const nextRow = new Int32Array(nSuper); // position in D's row list of the next row to update
-  const diag = new Float64Array(n);
   let maxRows = 0;
   let maxCols = 0;
   for (let s = 0; s < nSuper; s++) {
     maxRows = Math.max(maxRows, superRowPtr[s + 1] - superRowPtr[s]);
     maxCols = Math.max(maxCols, superStart[s + 1] - superStart[s]);
   }
-  const work = new Float64Array(maxRows * Math.max(maxCols, PANEL_BLOCK));
+  const workLen = roundUp4(maxRows) * roundUp4(Math.max(maxCols, PANEL_BLOCK));
+
+  // wasm layout (doubles): panels [0, total), 8 doubles of padding (kernels read up to 3 rows
+  // past a panel's end), the work block, then the int32 row-offset and column-address maps
+  let wk: WasmKernels | null = null;
+  let L: Float64Array;
+  let work: Float64Array;
+  let rowOff = new Int32Array(0);
+  let colAddr = new Int32Array(0);
+  const workAt = roundUp4(total + 8);
+  const rowOffAt = (workAt + workLen + 8) * 8; // bytes
+  const colAddrAt = rowOffAt + 4 * roundUp4(maxRows);
+  const bytes = colAddrAt + 4 * roundUp4(maxCols) + 64;
+  let reused = false;
+  if (mode !== 'js') {
+    const prior = reuse && reuse.length === total ? wasmOfValues.get(reuse) : undefined;
+    wk = prior && prior.memory.buffer.byteLength >= bytes ? prior : createWasmKernels(bytes);
+    reused = wk !== null && wk === prior;
+    if (!wk && mode === 'wasm') throw new TypeError('WebAssembly SIMD kernels are unavailable for this factor');
+  }
+  if (wk) {
+    const buf = wk.memory.buffer;
+    L = new Float64Array(buf, 0, total);
+    if (reused) new Float64Array(buf, 0, workAt).fill(0);
+    work = new Float64Array(buf, workAt * 8, workLen);
+    rowOff = new Int32Array(buf, rowOffAt, roundUp4(maxRows));
+    colAddr = new Int32Array(buf, colAddrAt, roundUp4(maxCols));
+    wasmOfValues.set(L, wk);
+  } else if (reuse && reuse.length === total && !wasmOfValues.has(reuse)) {
+    L = reuse;
+    L.fill(0);
+    work = new Float64Array(workLen);
+  } else {
+    L = new Float64Array(total);
+    work = new Float64Array(workLen);
+  }
+  const syrk = wk ? wk.syrk : null;
+  const scatter = wk ? wk.scatter : null;
+  const workByte = workAt * 8;
+  const map = new Int32Array(n);
+  const link = new Int32Array(nSuper).fill(-1);
+  const nextLink = new Int32Array(nSuper).fill(-1);
+  const nextRow = new Int32Array(nSuper); // position in D's row list of the next row to update
+  const diag = new Float64Array(n);
   const relRow = new Int32Array(maxRows);
 
   for (let s = 0; s < nSuper; s++) {
@@ -75,14 +123,24 @@ export function numericFactor(A: Csr, sym: Symbolic, options: FactorOptions = {}
       while (p2 < dnr && superRows[drp + p2] < lEnd) p2++;
       const m = dnr - p1; // rows of D at or below J's first column
       const k = p2 - p1; // of which inside J's columns
-      // work (m × k, column-major) = L_D[p1:, :] · L_D[p1:p2, :]ᵀ, lower part only
-      updateProduct(L, dBase + p1, dnr, m, k, dnc, work);
-      // scatter-subtract into J's panel
-      for (let t = 0; t < m; t++) relRow[t] = map[superRows[drp + p1 + t]];
-      for (let jj = 0; jj < k; jj++) {
-        const colBase = base + (superRows[drp + p1 + jj] - f) * nr;
-        const wBase = jj * m;
-        for (let ii = jj; ii < m; ii++) L[colBase + relRow[ii]] -= work[wBase + ii];
+      if (syrk !== null && scatter !== null) {
+        // work (m4 × k4) = L_D[p1:, :] · L_D[p1:p2, :]ᵀ, then scatter-subtract, both in wasm
+        const m4 = roundUp4(m);
+        syrk((dBase + p1) * 8, dnr * 8, m4, roundUp4(k), dnc, workByte);
+        const rows = drp + p1;
+        for (let t = 0; t < m; t++) rowOff[t] = map[superRows[rows + t]] << 3;
+        for (let jj = 0; jj < k; jj++) colAddr[jj] = (base + (superRows[rows + jj] - f) * nr) * 8;
+        scatter(workByte, m4, m, k, rowOffAt, colAddrAt);
+      } else {
+        // work (m × k, column-major) = L_D[p1:, :] · L_D[p1:p2, :]ᵀ, lower part only
+        updateProduct(L, dBase + p1, dnr, m, k, dnc, work);
+        // scatter-subtract into J's panel
+        for (let t = 0; t < m; t++) relRow[t] = map[superRows[drp + p1 + t]];
+        for (let jj = 0; jj < k; jj++) {
+          const colBase = base + (superRows[drp + p1 + jj] - f) * nr;
+          const wBase = jj * m;
+          for (let ii = jj; ii < m; ii++) L[colBase + relRow[ii]] -= work[wBase + ii];
+        }
       }
       nextRow[d] = p2;
       if (p2 < dnr) {
@@ -93,7 +151,7 @@ export function numericFactor(A: Csr, sym: Symbolic, options: FactorOptions = {}
       d = dNext;
     }
 
-    denseCholeskyPanel(L, base, nr, nc, f, diag, perm, pivotTol, work);
+    denseCholeskyPanel(L, base, nr, nc, f, diag, perm, pivotTol, work, syrk, workByte);
 
     nextRow[s] = nc;
     if (nc < nr) {
@@ -201,15 +259,24 @@ function denseCholeskyPanel(
   perm: Int32Array,
   pivotTol: number,
   work: Float64Array,
+  syrk: WasmKernels['syrk'] | null,
+  workByte: number,
 ): void {
   for (let j0 = 0; j0 < nc; j0 += PANEL_BLOCK) {
     const jb = Math.min(PANEL_BLOCK, nc - j0);
     const m = nr - j0;
     if (j0 > 0) {
-      updateProduct(L, base + j0, nr, m, jb, j0, work);
+      // with wasm the work block has leading dimension m rounded up to 4
+      let ldw = m;
+      if (syrk !== null) {
+        ldw = roundUp4(m);
+        syrk((base + j0) * 8, nr * 8, ldw, 4, j0, workByte);
+      } else {
+        updateProduct(L, base + j0, nr, m, jb, j0, work);
+      }
       for (let t = 0; t < jb; t++) {
         const cj = base + (j0 + t) * nr + j0;
-        const w = t * m;
+        const w = t * ldw;
         for (let i = t; i < m; i++) L[cj + i] -= work[w + i];
       }
     }
