@@ -41,33 +41,44 @@ export function sizeFieldFromSettings(geom: PlateGeometry, settings: SizeSetting
     }
     if (l.size < h0) disks.push(l.near[0], l.near[1], l.radius, l.size);
   });
-  // full circles / circular arcs: cx, cy, R, h, startAngle, sweep
+  // circular arcs: cx, cy, R, h, startAngle, sweep, end-point coordinates (x0, y0, x1, y1)
   const arcs: number[] = [];
-  // sampled points of ellipse arcs: x, y, h
+  // ellipse arcs, sampled: per group [cx, cy, bounding radius, min h, first sample, end sample]
+  const groups: number[] = [];
+  // samples: x, y, h
   const samples: number[] = [];
   const p = [0, 0];
   for (const piece of geom.pieces) {
     const c = piece.curve;
     if (c.kind === 'arc') {
       const h = CURVE_SEGMENT_ANGLE * c.radius;
-      if (h < h0) arcs.push(c.center[0], c.center[1], c.radius, h, c.startAngle, c.sweep);
+      if (h >= h0) continue;
+      const a0 = c.startAngle;
+      const a1 = c.startAngle + c.sweep;
+      arcs.push(c.center[0], c.center[1], c.radius, h, a0, c.sweep,
+        c.center[0] + c.radius * Math.cos(a0), c.center[1] + c.radius * Math.sin(a0),
+        c.center[0] + c.radius * Math.cos(a1), c.center[1] + c.radius * Math.sin(a1));
     } else if (c.kind === 'ellipse-arc') {
-      // samples spaced at most about the local size so the envelope error stays ≤ g·h/2
+      // samples spaced about the local size so the envelope error stays ≤ g·h/2
       const len = curveLen(c);
       const rhoMin = Math.min(c.a, c.b) ** 2 / Math.max(c.a, c.b);
       const n = Math.min(400, Math.max(8, Math.ceil(len / (CURVE_SEGMENT_ANGLE * rhoMin * 2))));
+      const first = samples.length;
+      let hMin = Infinity;
       for (let i = 0; i <= n; i++) {
         const t = i / n;
         const h = CURVE_SEGMENT_ANGLE * curvatureRadius(c, t);
         if (h >= h0) continue;
         curveXY(c, t, p);
         samples.push(p[0], p[1], h);
+        hMin = Math.min(hMin, h);
       }
+      if (samples.length > first) groups.push(c.center[0], c.center[1], Math.max(c.a, c.b), hMin, first, samples.length);
     }
   }
   const nd = disks.length;
   const na = arcs.length;
-  const ns = samples.length;
+  const ng = groups.length;
   const TAU = 2 * Math.PI;
   return (x: number, y: number): number => {
     let h = h0;
@@ -76,30 +87,30 @@ export function sizeFieldFromSettings(geom: PlateGeometry, settings: SizeSetting
       const hi = d > 0 ? disks[i + 3] + g * d : disks[i + 3];
       if (hi < h) h = hi;
     }
-    for (let i = 0; i < na; i += 6) {
-      const cx = arcs[i];
-      const cy = arcs[i + 1];
+    for (let i = 0; i < na; i += 10) {
+      const dx = x - arcs[i];
+      const dy = y - arcs[i + 1];
       const R = arcs[i + 2];
+      const hArc = arcs[i + 3];
+      const r = Math.sqrt(dx * dx + dy * dy);
+      // the distance to the arc is at least |r − R| (distance to the full circle): cull first
+      const dCircle = Math.abs(r - R);
+      if (hArc + g * dCircle >= h) continue;
       const sweep = arcs[i + 5];
-      const dx = x - cx;
-      const dy = y - cy;
-      let d: number;
-      const inSweep = Math.abs(sweep) >= TAU - 1e-12 || angleWithin(Math.atan2(dy, dx), arcs[i + 4], sweep);
-      if (inSweep) d = Math.abs(Math.hypot(dx, dy) - R);
-      else {
-        const a0 = arcs[i + 4];
-        const a1 = a0 + sweep;
-        d = Math.min(
-          Math.hypot(dx - R * Math.cos(a0), dy - R * Math.sin(a0)),
-          Math.hypot(dx - R * Math.cos(a1), dy - R * Math.sin(a1)),
-        );
+      let d = dCircle;
+      if (Math.abs(sweep) < TAU - 1e-12 && !angleWithin(Math.atan2(dy, dx), arcs[i + 4], sweep)) {
+        d = Math.min(Math.hypot(x - arcs[i + 6], y - arcs[i + 7]), Math.hypot(x - arcs[i + 8], y - arcs[i + 9]));
       }
-      const hi = arcs[i + 3] + g * d;
+      const hi = hArc + g * d;
       if (hi < h) h = hi;
     }
-    for (let i = 0; i < ns; i += 3) {
-      const hi = samples[i + 2] + g * Math.hypot(x - samples[i], y - samples[i + 1]);
-      if (hi < h) h = hi;
+    for (let k = 0; k < ng; k += 6) {
+      const dl = Math.hypot(x - groups[k], y - groups[k + 1]) - groups[k + 2];
+      if (groups[k + 3] + g * Math.max(0, dl) >= h) continue;
+      for (let i = groups[k + 4]; i < groups[k + 5]; i += 3) {
+        const hi = samples[i + 2] + g * Math.hypot(x - samples[i], y - samples[i + 1]);
+        if (hi < h) h = hi;
+      }
     }
     return h;
   };
