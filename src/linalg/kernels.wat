@@ -12,7 +12,7 @@
   ;; the real panel are finite values it then ignores.
   ;; Each tile keeps its 4 × 4 sums in eight f64x2 registers over the whole depth, so per
   ;; depth step it loads two vectors of X and four scalars of Y for sixteen multiply-adds.
-  (func (export "syrk") (param $px i32) (param $ld i32) (param $m4 i32) (param $k4 i32) (param $kk i32) (param $pc i32)
+  (func $syrk (export "syrk") (param $px i32) (param $ld i32) (param $m4 i32) (param $k4 i32) (param $kk i32) (param $pc i32)
     (local $j i32) (local $i i32) (local $q i32)
     (local $ax i32) (local $ay i32) (local $cc i32) (local $ldc i32)
     (local $c00 v128) (local $c10 v128) (local $c01 v128) (local $c11 v128)
@@ -97,4 +97,119 @@
             (br $iloop)))
         (local.set $jj (i32.add (local.get $jj) (i32.const 1)))
         (br $jloop))))
+
+  ;; dst[i] -= src[i] · a for i < count (byte addresses; pairs as f64x2, then the odd one)
+  (func $axpyNeg (param $dst i32) (param $src i32) (param $a f64) (param $count i32)
+    (local $va v128) (local $end i32)
+    (local.set $va (f64x2.splat (local.get $a)))
+    (local.set $end (i32.add (local.get $dst) (i32.shl (i32.and (local.get $count) (i32.const -2)) (i32.const 3))))
+    (block $done
+      (loop $pairs
+        (br_if $done (i32.ge_u (local.get $dst) (local.get $end)))
+        (v128.store (local.get $dst)
+          (f64x2.sub (v128.load (local.get $dst)) (f64x2.mul (v128.load (local.get $src)) (local.get $va))))
+        (local.set $dst (i32.add (local.get $dst) (i32.const 16)))
+        (local.set $src (i32.add (local.get $src) (i32.const 16)))
+        (br $pairs)))
+    (if (i32.and (local.get $count) (i32.const 1))
+      (then (f64.store (local.get $dst)
+        (f64.sub (f64.load (local.get $dst)) (f64.mul (f64.load (local.get $src)) (local.get $a)))))))
+
+  ;; dst[i] -= src[i] for i < count
+  (func $subtract (param $dst i32) (param $src i32) (param $count i32)
+    (local $end i32)
+    (local.set $end (i32.add (local.get $dst) (i32.shl (i32.and (local.get $count) (i32.const -2)) (i32.const 3))))
+    (block $done
+      (loop $pairs
+        (br_if $done (i32.ge_u (local.get $dst) (local.get $end)))
+        (v128.store (local.get $dst) (f64x2.sub (v128.load (local.get $dst)) (v128.load (local.get $src))))
+        (local.set $dst (i32.add (local.get $dst) (i32.const 16)))
+        (local.set $src (i32.add (local.get $src) (i32.const 16)))
+        (br $pairs)))
+    (if (i32.and (local.get $count) (i32.const 1))
+      (then (f64.store (local.get $dst) (f64.sub (f64.load (local.get $dst)) (f64.load (local.get $src)))))))
+
+  ;; dst[i] *= a for i < count
+  (func $scale (param $dst i32) (param $a f64) (param $count i32)
+    (local $va v128) (local $end i32)
+    (local.set $va (f64x2.splat (local.get $a)))
+    (local.set $end (i32.add (local.get $dst) (i32.shl (i32.and (local.get $count) (i32.const -2)) (i32.const 3))))
+    (block $done
+      (loop $pairs
+        (br_if $done (i32.ge_u (local.get $dst) (local.get $end)))
+        (v128.store (local.get $dst) (f64x2.mul (v128.load (local.get $dst)) (local.get $va)))
+        (local.set $dst (i32.add (local.get $dst) (i32.const 16)))
+        (br $pairs)))
+    (if (i32.and (local.get $count) (i32.const 1))
+      (then (f64.store (local.get $dst) (f64.mul (f64.load (local.get $dst)) (local.get $a))))))
+
+  ;; Dense Cholesky of an nr × nc panel at pa (column-major, leading dimension nr): the top
+  ;; nc × nc block becomes L11, the rows below L21 = A21 L11⁻ᵀ. Blocked left-looking in blocks
+  ;; of 4 columns: each block takes the update of all earlier columns through syrk (into the
+  ;; work block at pw), then is factored column by column. ptol holds, per column, the
+  ;; smallest pivot accepted; returns the first column whose pivot fails, or -1.
+  (func (export "panel") (param $pa i32) (param $nr i32) (param $nc i32) (param $ptol i32) (param $pw i32) (result i32)
+    (local $j0 i32) (local $jb i32) (local $m i32) (local $m4 i32) (local $t i32)
+    (local $j i32) (local $q i32) (local $cj i32) (local $cq i32) (local $ld i32)
+    (local $d f64) (local $r f64)
+    (local.set $ld (i32.shl (local.get $nr) (i32.const 3)))
+    (local.set $j0 (i32.const 0))
+    (block $blocksDone
+      (loop $blocks
+        (br_if $blocksDone (i32.ge_s (local.get $j0) (local.get $nc)))
+        (local.set $jb (i32.sub (local.get $nc) (local.get $j0)))
+        (if (i32.gt_s (local.get $jb) (i32.const 4)) (then (local.set $jb (i32.const 4))))
+        (local.set $m (i32.sub (local.get $nr) (local.get $j0)))
+        (if (i32.gt_s (local.get $j0) (i32.const 0))
+          (then
+            (local.set $m4 (i32.and (i32.add (local.get $m) (i32.const 3)) (i32.const -4)))
+            (call $syrk (i32.add (local.get $pa) (i32.shl (local.get $j0) (i32.const 3)))
+              (local.get $ld) (local.get $m4) (i32.const 4) (local.get $j0) (local.get $pw))
+            (local.set $t (i32.const 0))
+            (block $subDone
+              (loop $sub
+                (br_if $subDone (i32.ge_s (local.get $t) (local.get $jb)))
+                ;; column j0+t, rows j0+t … nr-1  -=  work column t, rows t … m-1
+                (call $subtract
+                  (i32.add (local.get $pa) (i32.shl
+                    (i32.add (i32.mul (i32.add (local.get $j0) (local.get $t)) (local.get $nr))
+                             (i32.add (local.get $j0) (local.get $t))) (i32.const 3)))
+                  (i32.add (local.get $pw) (i32.shl
+                    (i32.add (i32.mul (local.get $t) (local.get $m4)) (local.get $t)) (i32.const 3)))
+                  (i32.sub (local.get $m) (local.get $t)))
+                (local.set $t (i32.add (local.get $t) (i32.const 1)))
+                (br $sub)))))
+        (local.set $j (local.get $j0))
+        (block $colsDone
+          (loop $cols
+            (br_if $colsDone (i32.ge_s (local.get $j) (i32.add (local.get $j0) (local.get $jb))))
+            (local.set $cj (i32.add (local.get $pa) (i32.mul (local.get $j) (local.get $ld))))
+            (local.set $q (local.get $j0))
+            (block $qDone
+              (loop $qs
+                (br_if $qDone (i32.ge_s (local.get $q) (local.get $j)))
+                (local.set $cq (i32.add (local.get $pa) (i32.mul (local.get $q) (local.get $ld))))
+                (call $axpyNeg
+                  (i32.add (local.get $cj) (i32.shl (local.get $j) (i32.const 3)))
+                  (i32.add (local.get $cq) (i32.shl (local.get $j) (i32.const 3)))
+                  (f64.load (i32.add (local.get $cq) (i32.shl (local.get $j) (i32.const 3))))
+                  (i32.sub (local.get $nr) (local.get $j)))
+                (local.set $q (i32.add (local.get $q) (i32.const 1)))
+                (br $qs)))
+            (local.set $d (f64.load (i32.add (local.get $cj) (i32.shl (local.get $j) (i32.const 3)))))
+            (if (i32.eqz (i32.and
+                  (f64.gt (local.get $d) (f64.load (i32.add (local.get $ptol) (i32.shl (local.get $j) (i32.const 3)))))
+                  (f64.gt (local.get $d) (f64.const 0))))
+              (then (return (local.get $j))))
+            (local.set $r (f64.sqrt (local.get $d)))
+            (f64.store (i32.add (local.get $cj) (i32.shl (local.get $j) (i32.const 3))) (local.get $r))
+            (call $scale
+              (i32.add (local.get $cj) (i32.shl (i32.add (local.get $j) (i32.const 1)) (i32.const 3)))
+              (f64.div (f64.const 1) (local.get $r))
+              (i32.sub (i32.sub (local.get $nr) (local.get $j)) (i32.const 1)))
+            (local.set $j (i32.add (local.get $j) (i32.const 1)))
+            (br $cols)))
+        (local.set $j0 (i32.add (local.get $j0) (i32.const 4)))
+        (br $blocks)))
+    (i32.const -1))
 )

@@ -51,10 +51,12 @@ export function numericFactor(A: Csr, sym: Symbolic, options: FactorOptions = {}
   let work: Float64Array;
   let rowOff = new Int32Array(0);
   let colAddr = new Int32Array(0);
+  let tolv = new Float64Array(0);
   const workAt = roundUp4(total + 8);
   const rowOffAt = (workAt + workLen + 8) * 8; // bytes
   const colAddrAt = rowOffAt + 4 * roundUp4(maxRows);
-  const bytes = colAddrAt + 4 * roundUp4(maxCols) + 64;
+  const tolAt = colAddrAt + 4 * roundUp4(maxCols); // bytes, f64 per panel column
+  const bytes = tolAt + 8 * roundUp4(maxCols) + 64;
   let reused = false;
   if (mode !== 'js') {
     const prior = reuse && reuse.length === total ? wasmOfValues.get(reuse) : undefined;
@@ -69,6 +71,7 @@ export function numericFactor(A: Csr, sym: Symbolic, options: FactorOptions = {}
     work = new Float64Array(buf, workAt * 8, workLen);
     rowOff = new Int32Array(buf, rowOffAt, roundUp4(maxRows));
     colAddr = new Int32Array(buf, colAddrAt, roundUp4(maxCols));
+    tolv = new Float64Array(buf, tolAt, roundUp4(maxCols));
     wasmOfValues.set(L, wk);
   } else if (reuse && reuse.length === total && !wasmOfValues.has(reuse)) {
     L = reuse;
@@ -80,6 +83,7 @@ export function numericFactor(A: Csr, sym: Symbolic, options: FactorOptions = {}
   }
   const syrk = wk ? wk.syrk : null;
   const scatter = wk ? wk.scatter : null;
+  const panel = wk ? wk.panel : null;
   const workByte = workAt * 8;
   const map = new Int32Array(n);
   const link = new Int32Array(nSuper).fill(-1);
@@ -151,7 +155,13 @@ export function numericFactor(A: Csr, sym: Symbolic, options: FactorOptions = {}
       d = dNext;
     }
 
-    denseCholeskyPanel(L, base, nr, nc, f, diag, perm, pivotTol, work, syrk, workByte);
+    if (panel !== null) {
+      for (let c = 0; c < nc; c++) tolv[c] = pivotTol * Math.abs(diag[f + c]);
+      const bad = panel(base * 8, nr, nc, tolAt, workByte);
+      if (bad >= 0) throw new NotPositiveDefiniteError(perm[f + bad], L[base + bad * nr + bad], diag[f + bad]);
+    } else {
+      denseCholeskyPanel(L, base, nr, nc, f, diag, perm, pivotTol, work);
+    }
 
     nextRow[s] = nc;
     if (nc < nr) {
@@ -259,24 +269,15 @@ function denseCholeskyPanel(
   perm: Int32Array,
   pivotTol: number,
   work: Float64Array,
-  syrk: WasmKernels['syrk'] | null,
-  workByte: number,
 ): void {
   for (let j0 = 0; j0 < nc; j0 += PANEL_BLOCK) {
     const jb = Math.min(PANEL_BLOCK, nc - j0);
     const m = nr - j0;
     if (j0 > 0) {
-      // with wasm the work block has leading dimension m rounded up to 4
-      let ldw = m;
-      if (syrk !== null) {
-        ldw = roundUp4(m);
-        syrk((base + j0) * 8, nr * 8, ldw, 4, j0, workByte);
-      } else {
-        updateProduct(L, base + j0, nr, m, jb, j0, work);
-      }
+      updateProduct(L, base + j0, nr, m, jb, j0, work);
       for (let t = 0; t < jb; t++) {
         const cj = base + (j0 + t) * nr + j0;
-        const w = t * ldw;
+        const w = t * m;
         for (let i = t; i < m; i++) L[cj + i] -= work[w + i];
       }
     }

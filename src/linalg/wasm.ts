@@ -21,6 +21,8 @@ export interface WasmKernels {
   syrk: (px: number, ld: number, m4: number, k4: number, kk: number, pc: number) => void;
   /** scatter-subtract C into a panel through byte-offset maps (see kernels.wat) */
   scatter: (pc: number, m4: number, m: number, k: number, prow: number, pcol: number) => void;
+  /** dense Cholesky of one panel; returns the failing column or -1 (see kernels.wat) */
+  panel: (pa: number, nr: number, nc: number, ptol: number, pw: number) => number;
 }
 
 const PAGE = 65536;
@@ -56,7 +58,7 @@ export function createWasmKernels(bytes: number): WasmKernels | null {
     const memory = new WA.Memory({ initial: Math.max(1, pages), maximum: Math.max(1, pages) });
     const inst = new WA.Instance(mod, { env: { mem: memory } });
     const ex = inst.exports as unknown as Omit<WasmKernels, 'memory'>;
-    return { memory, syrk: ex.syrk, scatter: ex.scatter };
+    return { memory, syrk: ex.syrk, scatter: ex.scatter, panel: ex.panel };
   } catch {
     return null;
   }
