@@ -32,9 +32,10 @@ function fails(text: string): ModelError {
 
 describe('demo models', () => {
   const files = readdirSync(modelsDir).filter((f) => f.endsWith('.yaml'));
-  it('has the six demo models', () => {
+  it('has the seven demo models', () => {
     expect(files.sort()).toEqual([
-      'edge-slit.yaml', 'ellipse-hole.yaml', 'l-bracket-fillet.yaml', 'l-bracket-sharp.yaml', 'strap-pin-hole.yaml', 'web-opening.yaml',
+      'edge-slit.yaml', 'ellipse-hole.yaml', 'l-bracket-fillet.yaml', 'l-bracket-sharp.yaml', 'lug-bearing.yaml', 'strap-pin-hole.yaml',
+      'web-opening.yaml',
     ]);
   });
 
