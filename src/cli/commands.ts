@@ -20,7 +20,9 @@ import { csrSubmatrix, matrixMarketChunks, vectorToMatrixMarket } from '../linal
 import { stressUnit } from '../model/index.js';
 import { VERSION } from '../version.js';
 import { modelName, prepareOutDir, readModelText, writeFileAtomic } from './io.js';
-import { plain } from './report-error.js';
+import { plain, nearestPosition } from './report-error.js';
+import { totalmem } from 'node:os';
+import { dofLimitError, estimateMeshSize, healthWarnings } from '../fem/health.js';
 
 /** What the error printer needs to know about the run so far. */
 export interface CliContext {
@@ -47,6 +49,42 @@ export function useColor(opts: CommonOptions): boolean {
   if (opts.color === false) return false;
   if (process.env.NO_COLOR !== undefined && process.env.NO_COLOR !== '') return false;
   return process.stdout.isTTY === true;
+}
+
+/**
+ * Stop requests (Ctrl-C) reach a study between two solves through this flag: the CLI's signal
+ * handler sets it (from the main thread, through shared memory when the study runs in a worker).
+ */
+let stopFlag: Int32Array | undefined;
+export function setStopFlag(flag: Int32Array): void {
+  stopFlag = flag;
+}
+export function stopRequested(): boolean {
+  return stopFlag !== undefined && Atomics.load(stopFlag, 0) !== 0;
+}
+
+/** Default memory cap for one factor: half of this machine's memory. */
+export function defaultFactorBytes(): number {
+  return 0.5 * totalmem();
+}
+
+/** Model hints (e.g. E in other units) as `file:line:col key: message`. */
+export function modelWarnings(model: Model, file: string): string[] {
+  return (model.warnings ?? []).map((w) => {
+    const pos = nearestPosition(model, w.keyPath);
+    return `${file}${pos ? `:${pos.line}:${pos.col}` : ''} ${w.keyPath}: ${w.message}`;
+  });
+}
+
+/** Warnings go to stderr, one line each, unless --quiet (they still reach --json output). */
+export function emitWarnings(warnings: readonly string[], opts: CommonOptions): void {
+  if (opts.quiet) return;
+  for (const w of warnings) process.stderr.write(`peakwise: warning: ${plain(w)}\n`);
+}
+
+/** Cap on dofs from --max-dofs (default 2 000 000). */
+export function maxDofsOf(opts: { maxDofs?: string }): number {
+  return opts.maxDofs !== undefined ? Math.floor(positiveNumber(opts.maxDofs, '--max-dofs')) : 2_000_000;
 }
 
 /** Read, parse and apply the command-line overrides. */
@@ -156,7 +194,7 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
   const sizeAt0 = sizeFieldFromSettings(geometry, model.mesh);
   const requiredPoints = requiredPointsOf(model);
   const measure = model.study.measure;
-  const maxDofs = opts.maxDofs !== undefined ? Math.floor(positiveNumber(opts.maxDofs, '--max-dofs')) : 2_000_000;
+  const maxDofs = maxDofsOf(opts);
   const color = useColor(opts);
   const t0 = performance.now();
   let mesh: Mesh;
@@ -187,12 +225,12 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
       );
     }
   } else {
+    const est = estimateMeshSize(geometry, sizeAt0, model.mesh.order, 4 * maxDofs);
+    if (est.dofs > maxDofs) throw dofLimitError(est.dofs, maxDofs, model.mesh.size, est.exceeded ? 'more-than' : 'estimated');
     mesh = meshPlate(geometry, { sizeAt: sizeAt0, order: model.mesh.order, requiredPoints });
     meshS = (performance.now() - t0) / 1000;
-    if (mesh.xy.length > maxDofs) {
-      throw new PeakwiseError('solve', `the mesh has ${mesh.xy.length} dofs, above --max-dofs ${maxDofs}; raise mesh.size or --size to coarsen it`);
-    }
-    solution = solvePlate({ mesh, geometry, section, supports: model.supports, loads: [...model.loads, ...(model.fieldLoads ?? [])] });
+    if (mesh.xy.length > maxDofs) throw dofLimitError(mesh.xy.length, maxDofs, model.mesh.size, 'counted');
+    solution = solvePlate({ mesh, geometry, section, supports: model.supports, maxFactorBytes: defaultFactorBytes(), loads: [...model.loads, ...(model.fieldLoads ?? [])] });
     gauss = gaussStresses(mesh, solution.u, section);
     field = recoverSpr(mesh, gauss, section);
     estimate = estimateError(mesh, gauss, field, section);
@@ -233,6 +271,8 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
     writeFileAtomic(join(outDir, 'report.html'), reportHtml({ model, study: oneSolve, mesh, geometry, field: chosen, u: solution.u, mode: 'solve' }), [file]);
   }
 
+  const warnings = [...modelWarnings(model, file), ...healthWarnings({ section, geometry, mesh, size: model.mesh.size, lengthUnit: model.units.length })];
+  emitWarnings(warnings, opts);
   const stressUnitLabel = stressUnit(model.units);
   const timings = { meshS, assembleS: solution.timings.assembleS, orderS: solution.timings.orderS, factorS: solution.timings.factorS, solveS: solution.timings.solveS, recoverS };
   if (opts.json) {
@@ -255,6 +295,7 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
       stress: { measure, max: peak.value, at: peak.at, errorPercent: estimate.errorPercent },
       timings,
       factor: { nnzL: solution.nnzL },
+      warnings,
     };
     if (cycles) out.cycles = cycles.map((c) => ({ dofs: c.dofs, errorPercent: c.errorPercent, max: c.max }));
     process.stdout.write(JSON.stringify(out, null, 2) + '\n');
@@ -321,6 +362,7 @@ function exportSystem(model: Model, mesh: Mesh, geometry: PlateGeometry, section
 export interface StudyCliOptions extends CommonOptions {
   levels?: string;
   ratio?: string;
+  maxDofs?: string;
 }
 
 /** A progress bar on stderr, only when stderr is a terminal and not --quiet / --json. */
@@ -346,6 +388,7 @@ export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOpti
   const ratio = opts.ratio !== undefined ? Number(opts.ratio) : undefined;
   if (levels !== undefined && !(Number.isInteger(levels) && levels >= 2 && levels <= 12)) throw new PeakwiseError('usage', `--levels must be an integer from 2 to 12, got "${opts.levels}"`);
   if (ratio !== undefined && !(ratio > 1 && ratio <= 4)) throw new PeakwiseError('usage', `--ratio must be a number above 1 and at most 4, got "${opts.ratio}"`);
+  const maxDofs = maxDofsOf(opts);
   const bar = progressBar(opts);
   let base: BaseSolve | undefined;
   let study: StudyResult;
@@ -355,17 +398,38 @@ export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOpti
       ...(ratio !== undefined ? { ratio } : {}),
       onProgress: (done, total, label) => bar.update(done, total, label),
       onBase: (b) => { base = b; },
+      shouldStop: stopRequested,
+      maxDofs,
+      maxFactorBytes: defaultFactorBytes(),
     });
   } finally {
     bar.stop();
   }
+  const warnings = modelWarnings(model, file);
+  if (base) {
+    warnings.push(...healthWarnings({ section: sectionOf(model), geometry: base.geometry, mesh: base.mesh, size: model.mesh.size, lengthUnit: model.units.length }));
+  }
+  emitWarnings(warnings, opts);
+  if (warnings.length > 0) (study as StudyResult & { warnings?: string[] }).warnings = warnings;
   writeStudyOutputs(model, study, base, outDir, file);
+  if ((study as { interrupted?: boolean }).interrupted) {
+    process.stderr.write(`peakwise: interrupted: the finished levels are written to ${outDir} (study.json has "interrupted": true)\n`);
+    throw new StudyInterrupted();
+  }
   if (opts.json) {
     process.stdout.write(studyJson(study) + '\n');
     return;
   }
   process.stdout.write(studyTable(study, { color: useColor(opts) }) + '\n');
   process.stdout.write(`  results in ${outDir}: study.json, spots.csv, field.csv, report.html\n`);
+}
+
+/** A study stopped by Ctrl-C after writing what it had: the CLI exits with status 130. */
+export class StudyInterrupted extends PeakwiseError {
+  constructor() {
+    super('study', 'interrupted');
+    this.name = 'StudyInterrupted';
+  }
 }
 
 /** study.json text: NaN (an undefined uncertainty) is written as null. */

@@ -6,7 +6,8 @@
 import { Command, CommanderError, Option } from 'commander';
 import { isPeakwiseError } from '../errors.js';
 import { describeError } from './report-error.js';
-import { runMesh, runSolve, runStudy, type CliContext } from './commands.js';
+import { runMesh, runSolve, runStudy, setStopFlag, StudyInterrupted, type CliContext } from './commands.js';
+import { Worker, isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { VERSION } from '../version.js';
 import { registerSweep } from './sweep.js';
 import { registerCheck } from './check.js';
@@ -55,7 +56,8 @@ export function buildProgram(): Command {
       .command('study <model>')
       .description('find every hot spot, refine it level after level and give a verdict')
       .option('--levels <n>', 'refinement levels per spot (overrides study.levels)')
-      .option('--ratio <r>', 'element size ratio between levels (overrides study.ratio)'),
+      .option('--ratio <r>', 'element size ratio between levels (overrides study.ratio)')
+      .option('--max-dofs <n>', 'cap on degrees of freedom per solve', '2000000'),
   ).action(async (model: string, opts) => runStudy(ctx, model, opts));
 
   registerSweep(program, ctx);
@@ -74,6 +76,7 @@ async function main(argv: string[]): Promise<number> {
       // help and version are "errors" to commander with exit code 0
       return e.exitCode === 0 ? 0 : 1;
     }
+    if (e instanceof StudyInterrupted) return 130;
     if (isPeakwiseError(e)) {
       process.stderr.write(`peakwise: ${describeError(e, ctx.file, ctx.model)}\n`);
       return 1;
@@ -84,6 +87,55 @@ async function main(argv: string[]): Promise<number> {
   }
 }
 
-main(process.argv).then((code) => {
-  process.exitCode = code;
-});
+/**
+ * A study runs in a worker thread so that Ctrl-C can reach it: the study is synchronous, and a
+ * signal handler only runs when the thread that owns it is idle. The main thread keeps the
+ * handler and sets a shared flag; the study reads it between two solves, writes what it has
+ * and ends with status 130. A second Ctrl-C quits at once.
+ */
+function runInWorker(argv: string[]): void {
+  const flag = new Int32Array(new SharedArrayBuffer(4));
+  const worker = new Worker(new URL(import.meta.url), {
+    argv: argv.slice(2),
+    workerData: { flag, stdoutTTY: process.stdout.isTTY === true, stderrTTY: process.stderr.isTTY === true, columns: process.stderr.columns },
+  });
+  let interrupts = 0;
+  const onSigint = (): void => {
+    interrupts++;
+    if (interrupts > 1) process.exit(130);
+    Atomics.store(flag, 0, 1);
+    process.stderr.write('\npeakwise: stopping after the current solve and writing the finished levels (Ctrl-C again to quit at once)\n');
+  };
+  process.on('SIGINT', onSigint);
+  let code = 2;
+  worker.on('message', (m: unknown) => { if (typeof m === 'number') code = m; });
+  worker.on('error', (e) => {
+    process.stderr.write(`peakwise: internal error: ${e instanceof Error ? e.message : String(e)}\n`);
+    code = 2;
+  });
+  worker.on('exit', () => {
+    process.off('SIGINT', onSigint);
+    process.exitCode = code;
+  });
+}
+
+if (isMainThread) {
+  if (process.argv[2] === 'study') {
+    runInWorker(process.argv);
+  } else {
+    main(process.argv).then((code) => {
+      process.exitCode = code;
+    });
+  }
+} else {
+  const data = workerData as { flag: Int32Array; stdoutTTY: boolean; stderrTTY: boolean; columns?: number };
+  setStopFlag(data.flag);
+  // the worker's streams are pipes to the main thread's; let colours and the progress bar
+  // follow the real terminal
+  if (data.stdoutTTY) Object.defineProperty(process.stdout, 'isTTY', { value: true });
+  if (data.stderrTTY) {
+    Object.defineProperty(process.stderr, 'isTTY', { value: true });
+    if (data.columns) Object.defineProperty(process.stderr, 'columns', { value: data.columns });
+  }
+  main(process.argv).then((code) => parentPort?.postMessage(code));
+}

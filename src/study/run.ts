@@ -15,6 +15,7 @@ import { levelSizeField, probeLevel, rosettePoints, NEIGHBOURHOOD_SIZES, type Sp
 import { judgeSpot } from './verdict.js';
 import { boundaryEdgesAt } from './mesh-tools.js';
 import { nsifUnits } from './readouts.js';
+import { dofLimitError, estimateMeshSize } from '../fem/health.js';
 
 export interface StudyOptions {
   levels?: number;
@@ -25,6 +26,19 @@ export interface StudyOptions {
   onProgress?(done: number, total: number, label: string): void;
   /** receives the first (model-size) solve, for field files and pictures */
   onBase?(base: BaseSolve): void;
+  /** asked between solves; true stops the ladder, keeps the finished levels and sets `interrupted` */
+  shouldStop?(): boolean;
+  /** cap on degrees of freedom, checked on an estimate before each mesh (default: none) */
+  maxDofs?: number;
+  /** cap on the factor's memory in bytes, checked before each factorisation (default: none) */
+  maxFactorBytes?: number;
+}
+
+/** Limits passed down to every solve of a study. */
+interface SolveLimits {
+  maxDofs?: number;
+  maxFactorBytes?: number;
+  size: number;
 }
 
 /** The first solve of a study at the model's own mesh size. */
@@ -50,9 +64,14 @@ interface Solved {
   gauss: ReturnType<typeof gaussStresses>;
 }
 
-function solveOn(model: Model, geom: ReturnType<typeof buildGeometry>, section: ElasticSection, sizeAt: SizeField, order: 1 | 2, required: Point[], measure: StressMeasure): Solved {
+function solveOn(model: Model, geom: ReturnType<typeof buildGeometry>, section: ElasticSection, sizeAt: SizeField, order: 1 | 2, required: Point[], measure: StressMeasure, limits: SolveLimits = { size: 0 }): Solved {
+  if (limits.maxDofs !== undefined) {
+    const est = estimateMeshSize(geom, sizeAt, order, 4 * limits.maxDofs);
+    if (est.dofs > limits.maxDofs) throw dofLimitError(est.dofs, limits.maxDofs, limits.size, est.exceeded ? 'more-than' : 'estimated');
+  }
   const mesh = meshPlate(geom, { sizeAt, order, requiredPoints: required });
-  const solution = solvePlate({ mesh, geometry: geom, section, supports: model.supports, loads: [...model.loads, ...(model.fieldLoads ?? [])] });
+  if (limits.maxDofs !== undefined && mesh.xy.length > limits.maxDofs) throw dofLimitError(mesh.xy.length, limits.maxDofs, limits.size, 'counted');
+  const solution = solvePlate({ mesh, geometry: geom, section, supports: model.supports, ...(limits.maxFactorBytes !== undefined ? { maxFactorBytes: limits.maxFactorBytes } : {}), loads: [...model.loads, ...(model.fieldLoads ?? [])] });
   const gauss = gaussStresses(mesh, solution.u, section);
   const field = recoverSpr(mesh, gauss, section);
   return { mesh, solution, field, nodal: nodalMeasure(field, measure), gauss };
@@ -126,7 +145,8 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const progress = (done: number, label: string) => opts.onProgress?.(done, total, label);
 
   progress(0, 'first solve');
-  const first = solveOn(model, geom, section, base, order, dedupe(required, 1e-9 * geom.scale), measure);
+  const limits: SolveLimits = { size, ...(opts.maxDofs !== undefined ? { maxDofs: opts.maxDofs } : {}), ...(opts.maxFactorBytes !== undefined ? { maxFactorBytes: opts.maxFactorBytes } : {}) };
+  const first = solveOn(model, geom, section, base, order, dedupe(required, 1e-9 * geom.scale), measure, limits);
   opts.onBase?.({ mesh: first.mesh, geometry: geom, solution: first.solution, field: first.field, nodal: first.nodal });
   progress(1, 'hot spots');
   const cands = findSpots({ model, geom, mesh: first.mesh, solution: first.solution, measure: first.nodal, baseSize: base });
@@ -144,11 +164,13 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const straight = cands.map((c) => straightFacesAt(first.mesh, geom, c.node));
   const perSpot: LevelResult[][] = cands.map(() => []);
   let stopped = '';
+  let interrupted = false;
   for (let k = 0; k < levels && cands.length > 0; k++) {
+    if (opts.shouldStop?.()) { interrupted = true; stopped = `interrupted after ${k} level${k === 1 ? '' : 's'}`; break; }
     let s: Solved;
     try {
       const seeds = cands.flatMap((c, i) => rosettePoints(c, h0[i] / Math.pow(ratio, k), straight[i]).filter((p) => seedFits(geom, p, h0[i] / Math.pow(ratio, k), c.at)));
-      s = solveOn(model, geom, section, levelSizeField(base, cands, h0, ratio, k), order, dedupe([...required, ...spotPoints, ...seeds], 1e-9 * geom.scale), measure);
+      s = solveOn(model, geom, section, levelSizeField(base, cands, h0, ratio, k), order, dedupe([...required, ...spotPoints, ...seeds], 1e-9 * geom.scale), measure, limits);
     } catch (e) {
       if (k >= 1 && isPeakwiseError(e)) { stopped = `level ${k + 1} failed (${e.message}); fitted on ${k} levels`; break; }
       throw e;
@@ -178,6 +200,7 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
     measure,
     spots,
     timings: { totalS: (performance.now() - t0) / 1000 },
+    ...(interrupted ? { interrupted: true } : {}),
   };
 }
 
