@@ -1,5 +1,5 @@
 import { describe, it, expect, beforeAll } from 'vitest';
-import { CHECK_CASES, checksJson, checksTable, runChecks, tadaCentreCrackK, feddersenCentreCrackK, extrapolateK, type CheckResult } from '../../src/check/index.js';
+import { CHECK_CASES, checksHtml, checksJson, checksMarkdown, checksTable, runChecks, tadaCentreCrackK, feddersenCentreCrackK, extrapolateK, type CheckResult } from '../../src/check/index.js';
 
 /*
  * The built-in verification suite of `peakwise check`, run once; every case must pass against its
@@ -31,8 +31,8 @@ describe('peakwise check: every case passes', () => {
     for (const w of [/Kirsch.*peak/, /Kirsch.*along the edge/, /strip hole/, /Inglis/, /Lamé/, /cantilever/, /patch test/, /Williams 270°/, /Williams crack/, /centre crack: K_I/]) {
       expect(names).toMatch(w);
     }
-    expect(results.filter((r) => /strip hole/.test(r.name)).length).toBe(3);
-    expect(results.filter((r) => /Inglis/.test(r.name)).length).toBe(2);
+    expect(results.filter((r) => r.caseId?.startsWith('strip-')).length).toBe(3);
+    expect(results.filter((r) => r.caseId?.startsWith('inglis-')).length).toBe(2);
   });
 });
 
@@ -61,6 +61,27 @@ describe('checksJson / checksTable', () => {
   });
   it('unknown case ids are refused by name', () => {
     expect(() => runChecks({ only: ['no-such-case'] })).toThrow(/no-such-case/);
+  });
+});
+
+describe('docs/verification.md and the HTML page', () => {
+  it('markdown has one table row per case with the seven columns and escaped pipes', () => {
+    const md = checksMarkdown(checksJson(results), { version: '0.1.0', command: 'test' });
+    const rows = md.split('\n').filter((l) => l.startsWith('| ') && !l.startsWith('| case') && !l.startsWith('| ---'));
+    expect(rows.length).toBe(results.length);
+    for (const row of rows) {
+      // 8 cells (case, source, quantity, reference, value, error, tolerance, result) → 9 unescaped bars
+      expect(row.replace(/\\\|/g, '').split('|').length - 1).toBe(9);
+    }
+    expect(md).toMatch(/all \d+ cases pass/);
+  });
+  it('the HTML page escapes text and has no scripts or external files', () => {
+    const bad: CheckResult = { name: '<b>x</b>', source: 'A & B 1999', quantity: 'q', reference: 1, value: 2, error: 1, tolerance: 0.1, pass: false };
+    const html = checksHtml([bad], { version: '0.1.0' });
+    expect(html).toContain('&lt;b&gt;x&lt;/b&gt;');
+    expect(html).toContain('A &amp; B 1999');
+    expect(html).toMatch(/1 of 1 checks fail/);
+    expect(html).not.toMatch(/<script|<link|src=/);
   });
 });
 
