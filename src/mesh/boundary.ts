@@ -33,7 +33,12 @@ export interface BoundaryPoints {
 /** cut parameters of one piece: required-point parameters, then size-driven subdivision */
 function pieceParams(geom: PlateGeometry, pid: number, cuts: number[], sizeAt: SizeField, hCap: number): number[] {
   const c = geom.pieces[pid].curve;
-  const ts = [0, ...cuts.sort((a, b) => a - b), 1];
+  // required points closer than the tolerance along the curve are one cut
+  const len = Math.max(curveSpeed(c, 0), 1e-300);
+  const tGap = (1e-9 * geom.scale) / len;
+  const ts = [0];
+  for (const t of [...cuts].sort((a, b) => a - b)) if (t - ts[ts.length - 1] > tGap && 1 - t > tGap) ts.push(t);
+  ts.push(1);
   const out: number[] = [0];
   const p = [0, 0];
   const curved = isCurved(c);

@@ -133,6 +133,9 @@ export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions)
     const lmax = Math.max(la, lb, lc);
     const h = sizeFactor * sizeAt((ax + bx + cx) / 3, (ay + by + cy) / 3);
     if (lmax > h * h) return true;
+    if (!(h > 0)) {
+      throw new MeshError(`size field gave ${h / sizeFactor} at (${(ax + bx + cx) / 3}, ${(ay + by + cy) / 3}); sizes must be positive numbers`, 'mesh.size');
+    }
     const area2 = (bx - ax) * (cy - ay) - (by - ay) * (cx - ax);
     const lmin = Math.min(la, lb, lc);
     // R² = la lb lc / (4 area2²) ; skinny when R² > B² lmin²

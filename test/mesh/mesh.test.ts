@@ -115,6 +115,10 @@ describe('meshPlate: area, coverage, validity', () => {
       }
     }
     expect(() => meshPlate(g, { sizeAt: () => 6, order: 1, requiredPoints: [[30, 25]] })).toThrow(MeshError);
+    // the same point twice (and once a hair away) is one node, not an error
+    const twice = meshPlate(g, { sizeAt: () => 6, order: 1, requiredPoints: [[100, 17.25], [100, 17.25], [100, 17.25 + 1e-13], [60, 20], [60, 20]] });
+    expect(validateMesh(twice, g)).toEqual([]);
+    expect(findNode(twice, [100, 17.25], 1e-9 * g.scale)).toBeGreaterThanOrEqual(0);
   });
 
   it('graded toward a point: min angle stays ≥ 25° and sizes shrink there', () => {
@@ -172,6 +176,8 @@ describe('meshPlate: area, coverage, validity', () => {
     const g = plate(rect(0, 0, 100, 100));
     expect(() => meshPlate(g, { sizeAt: () => 0.5, order: 1, maxVertices: 2000 })).toThrow(/mesh\.size|vertices/);
     expect(() => meshPlate(g, { sizeAt: () => 0, order: 1 })).toThrow(MeshError);
+    // a field that is positive on the boundary but NaN inside
+    expect(() => meshPlate(g, { sizeAt: (x, y) => (x > 10 && x < 90 && y > 10 && y < 90 ? NaN : 5), order: 1 })).toThrow(/size field gave NaN/);
     expect(() => meshPlate(g, { sizeAt: () => 1, order: 3 as 1 })).toThrow(MeshError);
   });
 });
