@@ -4,7 +4,7 @@ import type { ElasticSection, GaussStresses, Solution } from '../fem/types.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import { meshPlate } from '../mesh/index.js';
 import type { Mesh, SizeField } from '../mesh/types.js';
-import type { Load, StressMeasure, Support } from '../model/types.js';
+import type { AnyLoad, StressMeasure, Support } from '../model/types.js';
 import { cornerArea } from './element.js';
 import { estimateError } from './estimate.js';
 import { nodalMeasure } from './invariants.js';
@@ -16,7 +16,7 @@ export interface AdaptiveInput {
   geometry: PlateGeometry;
   section: ElasticSection;
   supports: readonly Support[];
-  loads: readonly Load[];
+  loads: readonly AnyLoad[];
   order: 1 | 2;
   /** size field of the first mesh */
   sizeAt0: SizeField;

@@ -177,7 +177,7 @@ export function reportHtml(input: ReportInput): string {
         : `<ul>${model.plate.openings.map((o) => `<li><b>${escapeXml(o.id)}</b>: ${escapeXml(shapeWords(o.shape, L))}</li>`).join('')}</ul>`,
     ),
     row('Supports', `<ul>${model.supports.map((s) => `<li>${escapeXml(describeSupport(s, L))}</li>`).join('')}</ul>`),
-    row('Loads', `<ul>${model.loads.map((l) => `<li>${escapeXml(describeLoad(l, units))}</li>`).join('')}</ul>`),
+    row('Loads', `<ul>${[...model.loads, ...(model.fieldLoads ?? [])].map((l) => `<li>${escapeXml(describeLoad(l, units))}</li>`).join('')}</ul>`),
     row('Study', escapeXml(`${measure}; ${model.study.levels} levels, element size ÷ ${formatNumber(model.study.ratio)} per level`)),
   ];
 

@@ -2,7 +2,7 @@
  * Plain-language descriptions shared by the terminal and the HTML page: the caution, verdict
  * wording, and loads / supports in words.
  */
-import type { Load, Model, Selector, Support } from '../model/types.js';
+import type { AnyLoad, DisplacementValue, Model, Selector, Support } from '../model/types.js';
 import type { SpotResult, StudyResult } from '../study/types.js';
 import { formatFixed, formatNumber, stripControl } from './text.js';
 
@@ -30,13 +30,25 @@ export function describeSelector(where: Selector, lengthUnit: string): string {
   }
 }
 
+function displacementWords(v: DisplacementValue | undefined, axis: string, lengthUnit: string): string {
+  if (v === undefined) return '';
+  return typeof v === 'number' ? `u${axis} = ${formatNumber(v)} ${stripControl(lengthUnit)}`.trimEnd() : `u${axis} = ${stripControl(v.expression)}`;
+}
+
 export function describeSupport(support: Support, lengthUnit: string): string {
+  const d = support.displace;
+  if (d) {
+    const where = capitalise(describeSelector(support.where, lengthUnit));
+    if (d.kind === 'table') return `${where} is moved by the displacements of the table ${stripControl(d.file)} (${d.rows.length / 4} points).`;
+    const parts = [displacementWords(d.x, 'x', lengthUnit), displacementWords(d.y, 'y', lengthUnit)].filter(Boolean);
+    return `${where} is moved to ${parts.join(', ')}.`;
+  }
   const dirs = [support.fix.x ? 'x' : '', support.fix.y ? 'y' : ''].filter(Boolean);
   const held = dirs.length === 2 ? 'held in x and y' : dirs.length === 1 ? `held in ${dirs[0]} only` : 'free';
   return `${capitalise(describeSelector(support.where, lengthUnit))} is ${held}.`;
 }
 
-export function describeLoad(load: Load, units: { length: string; force: string; stress: string }): string {
+export function describeLoad(load: AnyLoad, units: { length: string; force: string; stress: string }): string {
   const where = describeSelector(load.where, units.length);
   const s = stripControl(units.stress);
   const f = stripControl(units.force);
@@ -47,6 +59,10 @@ export function describeLoad(load: Load, units: { length: string; force: string;
       return `Pressure ${formatNumber(load.pressure)} ${s} pushing on ${where}.`;
     case 'force':
       return `Concentrated force (${formatNumber(load.force[0])}, ${formatNumber(load.force[1])}) ${f} at ${where}.`;
+    case 'stress':
+      return `Far-field stress (σxx, σyy, τxy) = (${load.stress.map((v) => formatNumber(v)).join(', ')}) ${s} applied as tractions on ${where}.`;
+    case 'bearing':
+      return `Pin bearing (${formatNumber(load.force[0])}, ${formatNumber(load.force[1])}) ${f} as a cosine pressure on ${where}.`;
   }
 }
 
