@@ -49,7 +49,7 @@ export function formatFigure(v: number, sig = 6): string {
   if (!Number.isFinite(v)) return '—';
   if (v === 0) return '0';
   const abs = Math.abs(v);
-  if (abs < 1e-3 || abs >= 1e6) return v.toExponential(2);
+  if (abs < 1e-3 || abs >= 1e6) return v.toExponential(Math.max(1, sig - 1));
   return String(Number(v.toPrecision(sig)));
 }
 
@@ -87,18 +87,25 @@ const width = (t: string) => [...t.replace(ANSI, '')].length;
  * The verification table for the terminal: one row per case (case, source, quantity,
  * reference, peakwise, error, tolerance, pass/FAIL), a summary line and the caution.
  */
-export function checksTable(results: readonly CheckResult[], options: { color: boolean }): string {
+export function checksTable(results: readonly CheckResult[], options: { color: boolean; wrap?: number }): string {
   const c = pc.createColors(options.color);
-  const rows = [TABLE_HEADER, ...tableRows(results)];
-  const widths = TABLE_HEADER.map((_, j) => Math.max(...rows.map((r) => width(r[j]))));
-  const lines = rows.map((r, i) => {
-    const cells = r.map((cell, j) => {
-      const padded = j === r.length - 1 ? cell : cell + ' '.repeat(widths[j] - width(cell));
-      if (i > 0 && j === r.length - 1) return results[i - 1].pass ? c.green(padded) : c.red(c.bold(padded));
-      return padded;
-    });
-    const line = cells.join('  ');
-    return i === 0 ? c.bold(line) : line;
+  const wrapAt = options.wrap ?? 44;
+  // long text columns (source, quantity) wrap onto continuation lines so the table fits a terminal
+  const wrapped = [TABLE_HEADER, ...tableRows(results)].map((r) => r.map((cell, j) => (j === 1 || j === 2 ? wrapText(cell, wrapAt) : [cell])));
+  const widths = TABLE_HEADER.map((_, j) => Math.max(...wrapped.map((r) => Math.max(...r[j].map(width)))));
+  const lines: string[] = [];
+  wrapped.forEach((r, i) => {
+    const height = Math.max(...r.map((cell) => cell.length));
+    for (let k = 0; k < height; k++) {
+      const cells = r.map((cellLines, j) => {
+        const text = cellLines[k] ?? '';
+        const padded = j === r.length - 1 ? text : text + ' '.repeat(widths[j] - width(text));
+        if (i > 0 && j === r.length - 1 && k === 0) return results[i - 1].pass ? c.green(padded) : c.red(c.bold(padded));
+        return padded;
+      });
+      const line = cells.join('  ').trimEnd();
+      lines.push(i === 0 ? c.bold(line) : line);
+    }
   });
   const failed = results.filter((r) => !r.pass);
   for (const r of failed) if (r.failure) lines.push(c.red(`${stripControl(r.name)}: ${stripControl(r.failure)}`));
@@ -111,6 +118,20 @@ export function checksTable(results: readonly CheckResult[], options: { color: b
   );
   lines.push(c.dim(CAUTION));
   return lines.join('\n') + '\n';
+}
+
+/** Greedy word wrap at `max` visible characters (a longer single word stays whole). */
+function wrapText(text: string, max: number): string[] {
+  const out: string[] = [];
+  let line = '';
+  for (const word of text.split(' ')) {
+    if (line && width(line) + 1 + width(word) > max) {
+      out.push(line);
+      line = word;
+    } else line = line ? `${line} ${word}` : word;
+  }
+  out.push(line);
+  return out;
 }
 
 export interface ChecksJson {
