@@ -36,8 +36,8 @@ export function registerPathOptions(cmd: Command): Command {
     .option('--radius <a>', 'hole radius (kirsch) or inner radius (lame); default: the circular opening')
     .option('--outer-radius <b>', 'outer radius for --compare lame; default: a circular outline')
     .option('--centre <x,y>', 'centre of the hole or ring; default: the opening')
-    .option('--inner-pressure <p>', 'internal pressure for --compare lame (default 0)')
-    .option('--outer-pressure <q>', 'external pressure for --compare lame (default 0)');
+    .option('--inner-pressure <p>', 'internal pressure for --compare lame (default: the model\'s pressure on that opening)')
+    .option('--outer-pressure <q>', 'external pressure for --compare lame (default: the model\'s pressure on the outline)');
 }
 
 function num(text: string | undefined, option: string): number | undefined {

@@ -253,9 +253,10 @@ function need(v: number | undefined, option: string, kind: string): number {
 /**
  * Fill the constants of a comparison from the options and the model: the hole's centre and radius
  * from a circular opening (the path's, else the only circle), Lamé's outer radius from a circular
- * outline, the ellipse's semi-axes and axis angle from an elliptical opening.
+ * outline, Lamé's pressures from the model's pressure loads on that opening and on the outline,
+ * the ellipse's semi-axes and axis angle from an elliptical opening.
  */
-export function resolveCompare(input: CompareInputs, model: Pick<Model, 'plate' | 'material' | 'state'>): PathCompare {
+export function resolveCompare(input: CompareInputs, model: Pick<Model, 'plate' | 'material' | 'state' | 'loads'>): PathCompare {
   const kind = input.kind;
   const openings = model.plate.openings;
   const pick = (shape: 'circle' | 'ellipse') => {
@@ -276,12 +277,16 @@ export function resolveCompare(input: CompareInputs, model: Pick<Model, 'plate' 
     const outline = model.plate.outline.kind === 'circle' ? model.plate.outline : undefined;
     const center = input.center ?? hole?.center ?? outline?.center;
     if (!center) throw usage('--compare lame needs --centre x,y');
+    // pressures default to the model's own pressure loads on the bore and on the outline
+    const holeId = input.opening ?? openings.find((o) => o.shape === hole)?.id;
+    const pressureOn = (test: (w: Model['loads'][number]['where']) => boolean) =>
+      model.loads.filter((l) => l.kind === 'pressure' && test(l.where)).reduce((s, l) => s + (l.kind === 'pressure' ? l.pressure : 0), 0);
     return {
       kind, center,
       inner: need(input.radius ?? hole?.radius, '--radius (inner radius)', kind),
       outer: need(input.outerRadius ?? outline?.radius, '--outer-radius', kind),
-      innerPressure: input.innerPressure ?? 0,
-      outerPressure: input.outerPressure ?? 0,
+      innerPressure: input.innerPressure ?? pressureOn((w) => w.kind === 'opening' && w.id === holeId),
+      outerPressure: input.outerPressure ?? pressureOn((w) => w.kind === 'outline'),
       E: model.material.E, nu: model.material.nu, state: model.state,
     };
   }

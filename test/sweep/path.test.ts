@@ -3,6 +3,10 @@ import { parseModel } from '../../src/model/index.js';
 import { mesh, recover, solve } from '../../src/index.js';
 import { comparePath, ellipseEdgeStress, openingPath, parsePathSpec, pathCsv, resolveCompare, samplePath } from '../../src/sweep/path.js';
 import { PeakwiseError } from '../../src/errors.js';
+import { writePathOutputs } from '../../src/cli/path.js';
+import { mkdtempSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 
 // A signboard base plate with a cable hole: wide against the hole (d/W = 0.1) so Kirsch applies
 const MODEL = `
@@ -80,5 +84,53 @@ describe('stress along paths of a plate with a small hole', () => {
   });
   it('names the openings when the id is wrong', () => {
     expect(() => openingPath(r.mesh, r.geometry, r.field, 'pin')).toThrow(/cable/);
+  });
+});
+
+// A hydraulic ring: bore 20, outside 50, bore pressure 30; three point supports with no load by symmetry
+const RING = `
+title: Hydraulic ring
+params: { a: 20, b: 50, p: 30 }
+material: { E: 200000, nu: 0.3 }
+thickness: 5
+plate:
+  outline: { circle: { center: [0, 0], radius: b } }
+  openings:
+    - { id: bore, circle: { center: [0, 0], radius: a } }
+supports:
+  - { where: { point: [b, 0] }, fix: [y] }
+  - { where: { point: [-50, 0] }, fix: [y] }
+  - { where: { point: [0, b] }, fix: [x] }
+loads:
+  - { where: { opening: bore }, pressure: p }
+mesh:
+  size: 3
+`;
+
+describe('path.csv through the CLI helper, against Lamé', () => {
+  const model = parseModel(RING, 'ring.yaml');
+  const r = recover(solve(mesh(model)));
+  it('radial line: von Mises follows Lamé (1852) within 1 % of the bore hoop stress', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'peakwise-path-'));
+    const file = writePathOutputs(dir, { path: '20,0:50,0:31', compare: 'lame' }, { model, mesh: r.mesh, geometry: r.geometry, field: r.field });
+    expect(file).toBe(join(dir, 'path.csv'));
+    const rows = readFileSync(file!, 'utf8').trimEnd().split('\r\n');
+    const head = rows[0].split(',').map((h) => h.replace(/"/g, ''));
+    const col = (name: string) => rows.slice(1).map((l) => Number(l.split(',')[head.indexOf(name)]));
+    // Lamé: σθ(a) = p (b² + a²)/(b² − a²) = 30 · 2900/2100 = 41.43 at the bore
+    const hoopBore = (30 * (2500 + 400)) / (2500 - 400);
+    expect(col('ref_syy')[0]).toBeCloseTo(hoopBore, 9);
+    const diff = col('diff_von_mises');
+    expect(diff).toHaveLength(31);
+    for (const d of diff) expect(Math.abs(d)).toBeLessThan(0.01 * hoopBore);
+  });
+  it('around the bore: tangential stress is the Lamé hoop stress all round', () => {
+    const t = comparePath(openingPath(r.mesh, r.geometry, r.field, 'bore'), resolveCompare({ kind: 'lame', opening: 'bore' }, model));
+    // 1.5 % on the edge: recovered stresses are least accurate at boundary nodes (Zienkiewicz & Zhu 1992)
+    for (const d of t.extra.diff_tangential) expect(Math.abs(d)).toBeLessThan(0.015 * 41.43);
+  });
+  it('without --path nothing is written; --compare inglis on a line is refused', () => {
+    expect(writePathOutputs('/nonexistent', {}, { model, mesh: r.mesh, geometry: r.geometry, field: r.field })).toBeUndefined();
+    expect(() => writePathOutputs('/tmp', { path: '0,0:1,1', compare: 'inglis' }, { model, mesh: r.mesh, geometry: r.geometry, field: r.field })).toThrow(PeakwiseError);
   });
 });
