@@ -8,6 +8,7 @@ import { refineMesh } from './refine.js';
 import { buildMeshOutput } from './output.js';
 import { INSERT_REJECTED, V_FREE } from './trimesh.js';
 import type { TriMesh } from './trimesh.js';
+import { curveLen } from './curves.js';
 
 export const DEFAULT_MIN_ANGLE_DEG = 28;
 export const DEFAULT_MAX_VERTICES = 3_000_000;
@@ -32,6 +33,15 @@ export function meshPlate(geom: PlateGeometry, opts: MeshOptions): Mesh {
   }
   if (!(geom.scale > 0)) throw new MeshError(`plate geometry scale must be > 0, got ${geom.scale}`);
   const tol = 1e-9 * geom.scale;
+  for (const piece of geom.pieces) {
+    const len = curveLen(piece.curve);
+    if (!(len > 1e-9 * geom.scale)) {
+      throw new GeometryError(
+        `${piece.keyPath}: boundary piece of length ${len.toPrecision(3)} is too short to mesh on a plate of size ${geom.scale.toPrecision(4)} (a fillet or edge that small should be left out)`,
+        piece.keyPath,
+      );
+    }
+  }
   const required = opts.requiredPoints ?? [];
 
   const b = discretiseBoundary(geom, opts.sizeAt, required, tol);

@@ -266,13 +266,15 @@ export function validateMesh(mesh: Mesh, geom: PlateGeometry): string[] {
       }
     }
   }
-  // duplicate nodes
+  // duplicate nodes: closer than round-off of the coordinates (tiny fillets may legitimately
+  // put distinct nodes far closer than the on-curve tolerance)
+  const dupTol = 1e-11 * geom.scale;
   const order = Array.from({ length: nN }, (_, i) => i).sort((i, j) => xy[2 * i] - xy[2 * j]);
   for (let k = 0; k < nN; k++) {
     const i = order[k];
-    for (let l = k + 1; l < nN && xy[2 * order[l]] - xy[2 * i] <= tol; l++) {
+    for (let l = k + 1; l < nN && xy[2 * order[l]] - xy[2 * i] <= dupTol; l++) {
       const j = order[l];
-      if (Math.abs(xy[2 * j + 1] - xy[2 * i + 1]) <= tol) say(`nodes ${i} and ${j} coincide`);
+      if (Math.abs(xy[2 * j + 1] - xy[2 * i + 1]) <= dupTol) say(`nodes ${i} and ${j} coincide`);
     }
   }
   return problems;

@@ -121,8 +121,11 @@ export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions)
     return true;
   };
 
-  /** 0: fine; 1: needs a split */
+  /** set by needsSplit when the cure is a segment split rather than a Steiner point */
+  let pendingSegment = -1;
+  /** true when triangle t must be refined (see pendingSegment) */
   const needsSplit = (t: number): boolean => {
+    pendingSegment = -1;
     const tri = m.tri;
     const xy = m.xy;
     const a = tri[3 * t], b = tri[3 * t + 1], c = tri[3 * t + 2];
@@ -162,7 +165,19 @@ export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions)
       if (at) {
         const du = Math.hypot(xy[2 * u] - at[0], xy[2 * u + 1] - at[1]);
         const dw = Math.hypot(xy[2 * w] - at[0], xy[2 * w + 1] - at[1]);
-        if (Math.abs(du - dw) <= 0.05 * Math.max(du, dw)) return false;
+        if (Math.abs(du - dw) <= 0.05 * Math.max(du, dw)) {
+          // but a long segment edge from the shell outward along a side is split, so the
+          // triangle's far vertex moves in and its angle opens up
+          pendingSegment = -1;
+          for (let j = 0; j < 3; j++) {
+            const e = 3 * t + j;
+            if (m.twin[e] >= 0) continue;
+            const p0 = tri[e], p1 = tri[nextHalf(e)];
+            const l2 = (xy[2 * p0] - xy[2 * p1]) ** 2 + (xy[2 * p0 + 1] - xy[2 * p1 + 1]) ** 2;
+            if (l2 > 4 * lmin) pendingSegment = e;
+          }
+          return pendingSegment >= 0;
+        }
       }
     }
     return true;
@@ -225,6 +240,10 @@ export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions)
     if (triQ.size === 0) break;
     const t = triQ.shift();
     if (!needsSplit(t)) continue;
+    if (pendingSegment >= 0) {
+      if (splitSegment(pendingSegment)) triQ.push(t);
+      continue;
+    }
     steinerPoint(t, sp);
     const loc = m.locate(t, sp[0], sp[1]);
     if (loc <= -2) {

@@ -76,7 +76,7 @@ describe('fuzz: random plates with random openings', () => {
           const problems = validateMesh(m, g);
           const margin = angleRuleMargin(m, g);
           if (process.env.FUZZ_DUMP && (problems.length || margin < 0 || Date.now() - t0 > 1000)) {
-            console.log('CASE', Date.now() - t0, 'ms', margin, problems.slice(0, 3), JSON.stringify({ outline, openings, size }));
+            console.log('CASE', Date.now() - t0, 'ms', margin, JSON.stringify(problems.slice(0, 3)), JSON.stringify({ outline, openings, size, order }));
           }
           expect(problems).toEqual([]);
           expect(margin).toBeGreaterThanOrEqual(0);

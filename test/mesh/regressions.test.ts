@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { buildGeometry } from '../../src/geometry/index.js';
 import type { PlateGeometry } from '../../src/geometry/index.js';
-import { meshPlate, meshQuality, validateMesh, sizeFieldFromSettings } from '../../src/mesh/index.js';
+import { meshPlate, meshQuality, validateMesh, sizeFieldFromSettings, gradedToward } from '../../src/mesh/index.js';
 import type { Plate, Shape } from '../../src/model/types.js';
 import { angleRuleMargin, chordAreaBound, forcedAngleDeg } from './helpers.js';
 
@@ -42,6 +42,28 @@ describe('regressions found by the fuzz', () => {
     // Shewchuk 2002 (from memory): arctan(sin φ / (2 − cos φ)) ≈ 21.8° for φ ≈ 26.2°
     expect(forcedAngleDeg(sharp.interiorAngleDeg)).toBeCloseTo(21.83, 1);
     expect(angleRuleMargin(m, g)).toBeGreaterThanOrEqual(0);
+  });
+});
+
+describe('refinement ladders toward corners', () => {
+  it('grading toward a 20° tip and a 330° notch root keeps the angle rule at every level', () => {
+    // a wedge-tipped tab with a V notch in its lower edge (invented part)
+    const g = geometry({
+      kind: 'polygon',
+      vertices: ([[0, 0], [40, 0], [45, 12], [50, 0], [90, 0], [160, 12.7], [90, 25.4], [0, 25.4]] as Array<[number, number]>).map((at) => ({ at, round: 0 })),
+    });
+    const tip = g.corners.reduce((a, c) => (c.interiorAngleDeg < a.interiorAngleDeg ? c : a));
+    const root = g.corners.reduce((a, c) => (c.interiorAngleDeg > a.interiorAngleDeg ? c : a));
+    expect(tip.interiorAngleDeg).toBeLessThan(60);
+    expect(root.interiorAngleDeg).toBeGreaterThan(300);
+    const base = sizeFieldFromSettings(g, { size: 6, local: [] });
+    for (const level of [1, 3, 6]) {
+      const h = 6 / 2 ** level;
+      const f = gradedToward(gradedToward(base, tip.at, h), root.at, h);
+      const m = meshPlate(g, { sizeAt: f, order: 2 });
+      expect(validateMesh(m, g)).toEqual([]);
+      expect(angleRuleMargin(m, g)).toBeGreaterThanOrEqual(0);
+    }
   });
 });
 
