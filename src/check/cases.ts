@@ -304,10 +304,11 @@ function inglisCase(aOverB: number): CheckResult[] {
  * u_x = 0 at (0, b)), a statically determinate set, so the reactions are zero.
  * Tolerances (suggested case 4): u_r 0.2 % and σθ(a) 1 % for LST.
  */
-function lameCase(): CheckResult[] {
+function solveLame(state: 'plane-stress' | 'plane-strain'): Solved {
   const a = 1, b = 2, p = 1, E = 1000, nu = 0.3;
   const model = caseModel({
     title: 'Lamé ring under internal pressure',
+    state,
     plate: {
       outline: { kind: 'circle', center: [0, 0], radius: b },
       openings: [{ id: 'bore', shape: { kind: 'circle', center: [0, 0], radius: a }, keyPath: 'plate.openings[0]' }],
@@ -317,7 +318,7 @@ function lameCase(): CheckResult[] {
     // 10 LST elements through the wall (suggested case 4 asks for ≥ 8)
     size: 0.1,
   });
-  const s = solveModel(model, {
+  return solveModel(model, {
     requiredPoints: [[b, 0], [-b, 0], [0, b]],
     prescribe: (mesh) => [
       { dof: 2 * nearestNode(mesh, b, 0) + 1, value: 0 },
@@ -325,6 +326,11 @@ function lameCase(): CheckResult[] {
       { dof: 2 * nearestNode(mesh, 0, b), value: 0 },
     ],
   });
+}
+
+function lameCase(): CheckResult[] {
+  const a = 1, b = 2, p = 1, E = 1000, nu = 0.3;
+  const s = solveLame('plane-stress');
   const exactA = lameRing({ a, b, p }, a, E, nu, 'plane-stress');
   let worstU = -1, valU = 0;
   for (const n of nodesWhere(s.mesh, (x, y) => Math.abs(Math.hypot(x, y) - a) < 1e-9)) {
@@ -343,6 +349,30 @@ function lameCase(): CheckResult[] {
   return [
     result({ name: 'Lamé ring: u_r(a)', source: `${src}: u_r = [(1 − ν)Ar + (1 + ν)B/r]/E`, quantity: 'radial displacement of the bore, worst node', reference: exactA.ur, value: valU, error: worstU, tolerance: 0.002 }),
     result({ name: 'Lamé ring: σθ(a)', source: `${src}: σθ = A + B/r²`, quantity: 'hoop stress on the bore, worst node', reference: exactA.st, value: valS, error: worstS, tolerance: 0.01 }),
+  ];
+}
+
+/*
+ * The same ring in plane strain (reference notes §4 and suggested case 14): u_r(a) = 1.906667e−3 and
+ * σz = ν(σr + σθ) = 2νA = 0.2 everywhere — a check of the plane-strain law and of the σz
+ * bookkeeping of the recovered field. Bands as for plane stress (0.2 % on u_r, 1 % on σz).
+ */
+function lamePlaneStrainCase(): CheckResult[] {
+  const a = 1, b = 2, p = 1, E = 1000, nu = 0.3;
+  const s = solveLame('plane-strain');
+  const exactA = lameRing({ a, b, p }, a, E, nu, 'plane-strain');
+  let worstU = -1, valU = 0, worstZ = -1, valZ = 0;
+  for (const n of nodesWhere(s.mesh, (x, y) => Math.abs(Math.hypot(x, y) - a) < 1e-9)) {
+    const x = s.mesh.xy[2 * n], y = s.mesh.xy[2 * n + 1];
+    const ur = (s.solution.u[2 * n] * x + s.solution.u[2 * n + 1] * y) / a;
+    if (relError(ur, exactA.ur) > worstU) { worstU = relError(ur, exactA.ur); valU = ur; }
+    const sz = s.field.szz[n];
+    if (relError(sz, exactA.sz) > worstZ) { worstZ = relError(sz, exactA.sz); valZ = sz; }
+  }
+  const src = 'Lamé 1852; Timoshenko & Goodier 1970, plane strain';
+  return [
+    result({ name: 'Lamé ring, plane strain: u_r(a)', source: `${src}: u_r = (1 + ν)[(1 − 2ν)Ar + B/r]/E`, quantity: 'radial displacement of the bore, worst node', reference: exactA.ur, value: valU, error: worstU, tolerance: 0.002 }),
+    result({ name: 'Lamé ring, plane strain: σz', source: `${src}: σz = ν(σr + σθ) = 2νA`, quantity: 'out-of-plane stress on the bore (SPR), worst node', reference: exactA.sz, value: valZ, error: worstZ, tolerance: 0.01 }),
   ];
 }
 
@@ -577,6 +607,7 @@ export const CHECK_CASES: readonly CheckCase[] = [
   { id: 'inglis-2', run: () => inglisCase(2) },
   { id: 'inglis-3', run: () => inglisCase(3) },
   { id: 'lame', run: lameCase },
+  { id: 'lame-plane-strain', run: lamePlaneStrainCase },
   { id: 'cantilever', run: cantileverCase },
   { id: 'williams-corner', run: williamsCornerCase },
   { id: 'williams-crack', run: williamsCrackCase },

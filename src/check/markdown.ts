@@ -45,7 +45,7 @@ export function checksMarkdown(json: ChecksJson, meta: { version: string; comman
     '- **Inglis** (1913): a/b = 2 and 3 across the load, 2a/W = 0.05, tip elements ρ/8 (ρ = b²/a);',
     '  2 % band (finite width adds about 0.2 %).',
     '- **Lamé** (1852): whole ring a = 1, b = 2 under internal pressure through the model\'s own pressure',
-    '  load; worst node on the bore for u_r and σθ.',
+    '  load; worst node on the bore for u_r and σθ; again in plane strain for u_r and σz = 2νA = 0.2.',
     '- **Cantilever** (Timoshenko & Goodier): root condition (c) — the exact root displacements',
     '  prescribed — and the parabolic end shear; tip deflection and σxx(L/2, D/2).',
     '- **Williams exponents** (1952): the hot-spot study (5 levels) on an L plate (270° corner, q = 0.4555)',
