@@ -58,10 +58,6 @@ export function runCheck(_ctx: CliContext, opts: CheckCliOptions): void {
   }
   if (results.some((r) => !r.pass)) {
     process.exitCode = 1;
-    // main() assigns its own status once the action resolves; keep the failure status past it
-    process.once('beforeExit', () => {
-      process.exitCode = 1;
-    });
   }
 }
 

@@ -124,7 +124,8 @@ if (isMainThread) {
     runInWorker(process.argv);
   } else {
     main(process.argv).then((code) => {
-      process.exitCode = code;
+      // an action may have set a failure status itself (check: a case failed); keep it
+      if (code !== 0) process.exitCode = code;
     });
   }
 } else {
