@@ -209,8 +209,7 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
     const target = positiveNumber(opts.adapt, '--adapt');
     const say = (line: string): void => { if (!opts.json && !opts.quiet) process.stderr.write(line + '\n'); };
     const result = adaptiveSolve(
-      // adaptiveSolve hands loads to solvePlate unchanged, so field loads pass through its Load[] type
-      { geometry, section, supports: model.supports, loads: [...model.loads, ...(model.fieldLoads ?? [])] as typeof model.loads, order: model.mesh.order, sizeAt0, requiredPoints, measure },
+      { geometry, section, supports: model.supports, loads: [...model.loads, ...(model.fieldLoads ?? [])], order: model.mesh.order, sizeAt0, requiredPoints, measure },
       {
         targetPercent: target,
         maxDofs,
