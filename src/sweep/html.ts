@@ -26,6 +26,15 @@ export function roundTicks(lo: number, hi: number, count = 5): number[] {
   return out;
 }
 
+/** Tick text with just enough significant digits that neighbouring ticks read differently. */
+export function tickLabel(t: number, ticks: readonly number[]): string {
+  for (let sig = 3; sig < 12; sig++) {
+    const texts = ticks.map((v) => formatNumber(v, sig));
+    if (new Set(texts).size === texts.length) return formatNumber(t, sig);
+  }
+  return formatNumber(t, 12);
+}
+
 interface PlotPoint {
   x: number;
   y: number;
@@ -75,7 +84,9 @@ export function familyPlotSvg(sweep: Pick<SweepResult, 'axes' | 'points'>, famil
   let y0 = Math.min(...all.map((p) => p.y - (p.verdict === 'converging' && Number.isFinite(p.u) ? p.u : 0)));
   let y1 = Math.max(...all.map((p) => p.y + (p.verdict === 'converging' && Number.isFinite(p.u) ? p.u : 0)));
   if (!(x1 > x0)) { x0 -= 1; x1 += 1; }
-  if (!(y1 > y0)) { const d = Math.abs(y0) * 0.1 || 1; y0 -= d; y1 += d; }
+  // a nearly flat family should look flat: the value axis spans at least 2 % of the largest value
+  const minSpan = 0.02 * Math.max(Math.abs(y0), Math.abs(y1)) || 1;
+  if (y1 - y0 < minSpan) { const mid = 0.5 * (y0 + y1); y0 = mid - minSpan / 2; y1 = mid + minSpan / 2; }
   const padY = 0.06 * (y1 - y0);
   y0 -= padY;
   y1 += padY;
@@ -86,13 +97,15 @@ export function familyPlotSvg(sweep: Pick<SweepResult, 'axes' | 'points'>, famil
   const yPx = (v: number) => H - M.bottom - ((v - y0) / (y1 - y0)) * (H - M.top - M.bottom);
   const parts: string[] = [];
   parts.push(`<rect x="${M.left}" y="${M.top}" width="${W - M.left - M.right}" height="${H - M.top - M.bottom}" fill="none" stroke="#9aa5b1"/>`);
-  for (const t of roundTicks(x0, x1)) {
+  const xTicks = roundTicks(x0, x1);
+  for (const t of xTicks) {
     const X = xPx(t).toFixed(1);
-    parts.push(`<line x1="${X}" x2="${X}" y1="${H - M.bottom}" y2="${H - M.bottom + 4}" stroke="#52606d"/><text x="${X}" y="${H - M.bottom + 16}" text-anchor="middle">${escapeXml(formatNumber(t))}</text>`);
+    parts.push(`<line x1="${X}" x2="${X}" y1="${H - M.bottom}" y2="${H - M.bottom + 4}" stroke="#52606d"/><text x="${X}" y="${H - M.bottom + 16}" text-anchor="middle">${escapeXml(tickLabel(t, xTicks))}</text>`);
   }
-  for (const t of roundTicks(y0, y1)) {
+  const yTicks = roundTicks(y0, y1);
+  for (const t of yTicks) {
     const Y = yPx(t).toFixed(1);
-    parts.push(`<line x1="${M.left - 4}" x2="${M.left}" y1="${Y}" y2="${Y}" stroke="#52606d"/><line x1="${M.left}" x2="${W - M.right}" y1="${Y}" y2="${Y}" stroke="#eef1f4"/><text x="${M.left - 7}" y="${Y}" dy="0.35em" text-anchor="end">${escapeXml(formatNumber(t))}</text>`);
+    parts.push(`<line x1="${M.left - 4}" x2="${M.left}" y1="${Y}" y2="${Y}" stroke="#52606d"/><line x1="${M.left}" x2="${W - M.right}" y1="${Y}" y2="${Y}" stroke="#eef1f4"/><text x="${M.left - 7}" y="${Y}" dy="0.35em" text-anchor="end">${escapeXml(tickLabel(t, yTicks))}</text>`);
   }
   parts.push(`<text x="${(M.left + W - M.right) / 2}" y="${H - 8}" text-anchor="middle">${escapeXml(xAxis.name)}</text>`);
   parts.push(`<text transform="translate(14 ${(M.top + H - M.bottom) / 2}) rotate(-90)" text-anchor="middle">value (${escapeXml(stressUnit)})</text>`);

@@ -3,6 +3,6 @@ export type * from './types.js';
 export { parseVary, expandRange, cartesian, checkAxes, MAX_AXIS_VALUES, MAX_SWEEP_POINTS } from './values.js';
 export { matchSpots, memberAt, featureClass, matchTolerance, MATCH_TOLERANCE_FRACTION, MATCH_RADIUS_FACTOR } from './match.js';
 export { sweepCsv, FAMILY_COLUMNS } from './csv.js';
-export { sweepHtml, familyPlotSvg, roundTicks } from './html.js';
+export { sweepHtml, familyPlotSvg, roundTicks, tickLabel } from './html.js';
 export { pointKey, runPoint, toJson, fromJson, type PointTask, type PointOutcome } from './point.js';
 export { runSweep, WORKER_URL, type SweepOptions, type PointCache } from './runner.js';

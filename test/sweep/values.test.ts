@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { cartesian, expandRange, parseVary, matchSpots, sweepCsv, roundTicks, featureClass } from '../../src/sweep/index.js';
+import { cartesian, expandRange, parseVary, matchSpots, sweepCsv, roundTicks, featureClass, tickLabel } from '../../src/sweep/index.js';
 import type { SpotResult, StudyResult } from '../../src/study/types.js';
 import { PeakwiseError } from '../../src/errors.js';
 
@@ -45,6 +45,11 @@ describe('--vary values', () => {
   it('round ticks cover the range with 1-2-2.5-5 steps', () => {
     expect(roundTicks(0, 10, 5)).toEqual([0, 2, 4, 6, 8, 10]);
     expect(roundTicks(0.13, 0.91, 4)).toEqual([0.2, 0.4, 0.6, 0.8]);
+  });
+  it('tick labels of a narrow axis stay distinct', () => {
+    const ticks = roundTicks(215.28, 215.36, 4);
+    const labels = ticks.map((t) => tickLabel(t, ticks));
+    expect(new Set(labels).size).toBe(ticks.length);
   });
 });
 
