@@ -1,4 +1,4 @@
-export type { Csr, Ordering, Symbolic, Factor } from './types.js';
+export type { Csr, Ordering, Symbolic, Factor, EliminationTree } from './types.js';
 export { csrFromTriplets, csrMatVec, csrSubmatrix, csrGet, csrNormInf, isSymmetric, residualNorm, validateCsr } from './csr.js';
 export { NotPositiveDefiniteError } from './errors.js';
 export { amdOrder } from './amd.js';
@@ -14,7 +14,8 @@ export {
   type ChooseOrderingOptions,
   type NestedDissectionOptions,
 } from './ordering.js';
-export { eliminationTree, postorderTree, columnCounts, symbolicFactor, type SupernodeOptions } from './symbolic.js';
+export { eliminationTree, postorderTree, postorderedTree, columnCounts, symbolicFactor, type SupernodeOptions } from './symbolic.js';
+export { nodeEliminationTree } from './node-tree.js';
 export { factorKernels, type FactorOptions } from './numeric.js';
 export { wasmKernelsAvailable } from './wasm.js';
 export { analyze, factorize, refactorize, solveFactor, solveSpd, type SpdSolution } from './solve.js';

@@ -1,6 +1,7 @@
 import { amdOrder } from './amd.js';
-import { compressGraph, expandNodePerm, inversePerm, nodeWeights, type NodeGraph } from './graph.js';
-import { columnCounts, eliminationTree, postorderTree } from './symbolic.js';
+import { compressGraph, inversePerm, nodeWeights, type NodeGraph } from './graph.js';
+import { nodeEliminationTree } from './node-tree.js';
+import { postorderedTree } from './symbolic.js';
 import type { Csr, Ordering } from './types.js';
 
 export function orderNatural(n: number): Ordering {
@@ -9,12 +10,21 @@ export function orderNatural(n: number): Ordering {
   return { perm, iperm: perm.slice(), method: 'natural' };
 }
 
+/**
+ * Row ordering from a node ordering, with the elimination tree and column counts computed on
+ * the node graph on the way (so choosing between candidates and the symbolic factorisation
+ * need no pass over A).
+ */
+function fromNodePerm(g: NodeGraph, nodePerm: Int32Array, nRows: number, method: Ordering['method']): Ordering {
+  const tree = nodeEliminationTree(g, nodePerm, nRows);
+  return { perm: tree.perm, iperm: inversePerm(tree.perm), method, tree };
+}
+
 /** Approximate minimum degree on the compressed node graph, expanded to rows. */
-export function orderAmd(A: Csr): Ordering {
-  const g = compressGraph(A);
+export function orderAmd(A: Csr, graph?: NodeGraph): Ordering {
+  const g = graph ?? compressGraph(A);
   const nodePerm = amdOrder(g.n, g.adjPtr, g.adjIdx, nodeWeights(g));
-  const perm = expandNodePerm(g, nodePerm, A.n);
-  return { perm, iperm: inversePerm(perm), method: 'amd' };
+  return fromNodePerm(g, nodePerm, A.n, 'amd');
 }
 
 export interface NestedDissectionOptions {
@@ -33,12 +43,13 @@ export function orderNestedDissection(
   A: Csr,
   rowXY: Float64Array,
   options: NestedDissectionOptions = {},
+  graph?: NodeGraph,
 ): Ordering {
   if (rowXY.length !== 2 * A.n) {
     throw new TypeError(`rowXY must hold x, y for each of the ${A.n} rows, got length ${rowXY.length}`);
   }
   const leafSize = options.leafSize ?? 128;
-  const g = compressGraph(A);
+  const g = graph ?? compressGraph(A);
   const nx = new Float64Array(g.n);
   const ny = new Float64Array(g.n);
   for (let v = 0; v < g.n; v++) {
@@ -47,8 +58,7 @@ export function orderNestedDissection(
     ny[v] = rowXY[2 * r + 1];
   }
   const nodePerm = dissect(g, nx, ny, leafSize);
-  const perm = expandNodePerm(g, nodePerm, A.n);
-  return { perm, iperm: inversePerm(perm), method: 'nested-dissection' };
+  return fromNodePerm(g, nodePerm, A.n, 'nested-dissection');
 }
 
 function dissect(g: NodeGraph, nx: Float64Array, ny: Float64Array, leafSize: number): Int32Array {
@@ -199,26 +209,13 @@ function selectByKey(nodes: Int32Array, key: Float64Array, k: number): void {
   }
 }
 
-/** nnz(L) (diagonal included) that an ordering would give — etree and column counts only. */
+/**
+ * nnz(L) (diagonal included) that an ordering would give — from the tree the ordering carries,
+ * else elimination tree and column counts only (no supernodes, no row structure).
+ */
 export function predictNnzL(A: Csr, ordering: Ordering): number {
-  const parent0 = eliminationTree(A, ordering.perm, ordering.iperm);
-  const post = postorderTree(parent0);
-  const n = A.n;
-  const perm = new Int32Array(n);
-  const ipost = new Int32Array(n);
-  for (let k = 0; k < n; k++) {
-    perm[k] = ordering.perm[post[k]];
-    ipost[post[k]] = k;
-  }
-  const parent = new Int32Array(n);
-  for (let k = 0; k < n; k++) {
-    const p = parent0[post[k]];
-    parent[k] = p === -1 ? -1 : ipost[p];
-  }
-  const counts = columnCounts(A, perm, inversePerm(perm), parent);
-  let s = 0;
-  for (let j = 0; j < n; j++) s += counts[j];
-  return s;
+  if (ordering.tree && ordering.tree.perm === ordering.perm) return ordering.tree.nnzL;
+  return postorderedTree(A, ordering).nnzL;
 }
 
 export interface OrderingChoice {
@@ -244,12 +241,13 @@ export interface ChooseOrderingOptions {
 export function chooseOrderingDetailed(A: Csr, rowXY?: Float64Array, options: ChooseOrderingOptions = {}): OrderingChoice {
   const ndMinRows = options.ndMinRows ?? 100_000;
   const candidates: OrderingChoice['candidates'] = [];
-  const amd = orderAmd(A);
+  const g = compressGraph(A);
+  const amd = orderAmd(A, g);
   let best = amd;
   let bestNnz = predictNnzL(A, amd);
   candidates.push({ method: 'amd', nnzL: bestNnz });
   if (rowXY && A.n >= ndMinRows) {
-    const nd = orderNestedDissection(A, rowXY);
+    const nd = orderNestedDissection(A, rowXY, {}, g);
     const ndNnz = predictNnzL(A, nd);
     candidates.push({ method: 'nested-dissection', nnzL: ndNnz });
     if (ndNnz < bestNnz) {

@@ -1,4 +1,4 @@
-import type { Csr, Ordering, Symbolic } from './types.js';
+import type { Csr, EliminationTree, Ordering, Symbolic } from './types.js';
 
 /**
  * Elimination tree of P A Pᵀ from the full symmetric pattern of A.
@@ -66,7 +66,16 @@ export function postorderTree(parent: Int32Array): Int32Array {
  * count is a sum of ±1 "deltas" placed at the leaves of the row subtrees and at the least
  * common ancestors of consecutive leaves, found with a disjoint-set forest.
  */
-export function columnCounts(A: Csr, perm: Int32Array, iperm: Int32Array, parent: Int32Array): Int32Array {
+export function columnCounts(
+  A: Csr,
+  perm: Int32Array,
+  iperm: Int32Array,
+  parent: Int32Array,
+  weight?: Int32Array,
+): Int32Array {
+  // weight[j] (optional) = rows that permuted vertex j stands for: every ±1 of row i becomes
+  // ±weight[i], so the counts are sums of weights (used on the compressed node graph)
+  if (weight) return weightedColumnCounts(A, perm, iperm, parent, weight);
   const n = A.n;
   const delta = new Int32Array(n);
   const first = new Int32Array(n).fill(-1);
@@ -107,6 +116,51 @@ export function columnCounts(A: Csr, perm: Int32Array, iperm: Int32Array, parent
   return delta;
 }
 
+function weightedColumnCounts(
+  A: Csr,
+  perm: Int32Array,
+  iperm: Int32Array,
+  parent: Int32Array,
+  weight: Int32Array,
+): Int32Array {
+  const n = A.n;
+  const delta = new Int32Array(n);
+  const first = new Int32Array(n).fill(-1);
+  const maxFirst = new Int32Array(n).fill(-1);
+  const prevLeaf = new Int32Array(n).fill(-1);
+  const ancestor = new Int32Array(n);
+  for (let k = 0; k < n; k++) {
+    let j = k;
+    delta[j] = first[j] === -1 ? weight[j] : 0;
+    for (; j !== -1 && first[j] === -1; j = parent[j]) first[j] = k;
+  }
+  for (let i = 0; i < n; i++) ancestor[i] = i;
+  for (let j = 0; j < n; j++) {
+    if (parent[j] !== -1) delta[parent[j]] -= weight[j];
+    const row = perm[j];
+    for (let p = A.rowPtr[row]; p < A.rowPtr[row + 1]; p++) {
+      const i = iperm[A.colIdx[p]];
+      if (i <= j || first[j] <= maxFirst[i]) continue;
+      maxFirst[i] = first[j];
+      const jPrev = prevLeaf[i];
+      prevLeaf[i] = j;
+      delta[j] += weight[i];
+      if (jPrev === -1) continue;
+      let q = jPrev;
+      while (q !== ancestor[q]) q = ancestor[q];
+      for (let s = jPrev; s !== q; ) {
+        const sp = ancestor[s];
+        ancestor[s] = q;
+        s = sp;
+      }
+      delta[q] -= weight[i];
+    }
+    if (parent[j] !== -1) ancestor[j] = parent[j];
+  }
+  for (let j = 0; j < n; j++) if (parent[j] !== -1) delta[parent[j]] += delta[j];
+  return delta;
+}
+
 /** Entries of a lower trapezoidal panel of nc columns and nr rows (nr ≥ nc). */
 function panelEntries(nc: number, nr: number): number {
   return nc * nr - (nc * (nc - 1)) / 2;
@@ -133,6 +187,33 @@ export interface SupernodeOptions {
 }
 
 /**
+ * Elimination tree of P A Pᵀ relabelled to a postorder (fill unchanged, subtrees become
+ * contiguous), with the column counts — from the full pattern of A, row by row.
+ */
+export function postorderedTree(A: Csr, ordering: Ordering): EliminationTree {
+  const n = A.n;
+  const parent0 = eliminationTree(A, ordering.perm, ordering.iperm);
+  const post = postorderTree(parent0);
+  const perm = new Int32Array(n);
+  const ipost = new Int32Array(n);
+  for (let k = 0; k < n; k++) {
+    perm[k] = ordering.perm[post[k]];
+    ipost[post[k]] = k;
+  }
+  const parent = new Int32Array(n);
+  for (let k = 0; k < n; k++) {
+    const p = parent0[post[k]];
+    parent[k] = p === -1 ? -1 : ipost[p];
+  }
+  const iperm = new Int32Array(n);
+  for (let k = 0; k < n; k++) iperm[perm[k]] = k;
+  const colCounts = columnCounts(A, perm, iperm, parent);
+  let nnzL = 0;
+  for (let j = 0; j < n; j++) nnzL += colCounts[j];
+  return { perm, parent, colCounts, nnzL };
+}
+
+/**
  * Symbolic factorisation for an ordering: postorders the elimination tree (fill unchanged,
  * subtrees become contiguous), counts columns, finds fundamental supernodes (Liu, Ng & Peyton,
  * "On finding supernodes for sparse matrix computations", SIAM J. Matrix Anal. Appl. 14(1),
@@ -142,28 +223,13 @@ export function symbolicFactor(A: Csr, ordering: Ordering, options: SupernodeOpt
   const n = A.n;
   const relax = options.relax ?? true;
   const maxCols = options.maxCols ?? 96;
-  let perm = ordering.perm;
-  let iperm = ordering.iperm.slice();
-  const parent0 = eliminationTree(A, perm, iperm);
-  const post = postorderTree(parent0);
-  // relabel so that the tree is postordered
-  const newPerm = new Int32Array(n);
-  const ipost = new Int32Array(n);
-  for (let k = 0; k < n; k++) {
-    newPerm[k] = perm[post[k]];
-    ipost[post[k]] = k;
-  }
-  const parent = new Int32Array(n);
-  for (let k = 0; k < n; k++) {
-    const p = parent0[post[k]];
-    parent[k] = p === -1 ? -1 : ipost[p];
-  }
-  perm = newPerm;
-  iperm = new Int32Array(n);
+  const tree = ordering.tree && ordering.tree.perm === ordering.perm ? ordering.tree : postorderedTree(A, ordering);
+  let perm = tree.perm;
+  const parent = tree.parent.slice();
+  const colCounts = tree.colCounts.slice();
+  const nnzL = tree.nnzL;
+  const iperm = new Int32Array(n);
   for (let k = 0; k < n; k++) iperm[perm[k]] = k;
-  const colCounts = columnCounts(A, perm, iperm, parent);
-  let nnzL = 0;
-  for (let j = 0; j < n; j++) nnzL += colCounts[j];
 
   // --- fundamental supernodes: j joins j-1 when j-1 is j's only child and L(:,j-1) = {j-1} ∪ L(:,j)
   const childCount = new Int32Array(n);

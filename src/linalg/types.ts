@@ -15,6 +15,22 @@ export interface Ordering {
   perm: Int32Array;
   iperm: Int32Array;
   method: 'natural' | 'amd' | 'nested-dissection';
+  /**
+   * Elimination tree of P A Pᵀ for exactly this perm (which is then a postorder), when the
+   * ordering routine computed it on the way (added by linalg; `symbolicFactor` then skips
+   * recomputing it). Left out by hand-made orderings.
+   */
+  tree?: EliminationTree;
+}
+
+/** Elimination tree of a postordered P A Pᵀ with the column counts of L (diagonal included). */
+export interface EliminationTree {
+  /** the permutation the tree belongs to (postordered) */
+  perm: Int32Array;
+  parent: Int32Array;
+  colCounts: Int32Array;
+  /** Σ colCounts */
+  nnzL: number;
 }
 
 /** Symbolic analysis of a permuted matrix: elimination tree and column counts of L. */
