@@ -227,19 +227,23 @@ export interface OrderingChoice {
 
 export interface ChooseOrderingOptions {
   /**
-   * Try nested dissection only from this many rows on (default 100 000): on our 2D meshes
-   * AMD's fill is as good or better below a few hundred thousand dofs (measured with the
-   * solver benchmark), so smaller problems save the second ordering.
+   * Try nested dissection only from this many rows on (default 300 000). Measured on the
+   * benchmark plates (docs/linalg.md): with CST, AMD's fill is lower up to 200 000 dofs
+   * (ND/AMD 1.07, 1.01, 1.007 at 50k, 100k, 200k) and ND wins from about 300 000 (0.97 at
+   * 315k, 0.92 at 805k); with LST, AMD is still lower at 410 000 (1.04). ND costs about 2.5×
+   * AMD, so below the threshold it would be paid for nothing.
    */
   ndMinRows?: number;
 }
 
 /**
- * Try AMD and, when coordinates are given, nested dissection; keep the one with the smaller
- * predicted nnz(L) (counting costs about one pass over A, far less than either ordering).
+ * Try AMD and, when coordinates are given and the matrix is large enough, nested dissection;
+ * keep the one with the smaller predicted nnz(L). The node graph is built once for both, and
+ * each candidate carries its elimination tree and column counts (computed on the node graph),
+ * so the prediction is a sum and `symbolicFactor` starts from the winner's tree.
  */
 export function chooseOrderingDetailed(A: Csr, rowXY?: Float64Array, options: ChooseOrderingOptions = {}): OrderingChoice {
-  const ndMinRows = options.ndMinRows ?? 100_000;
+  const ndMinRows = options.ndMinRows ?? 300_000;
   const candidates: OrderingChoice['candidates'] = [];
   const g = compressGraph(A);
   const amd = orderAmd(A, g);
