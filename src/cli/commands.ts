@@ -19,6 +19,7 @@ import { adaptiveSolve, estimateError, nodalMeasure, recoverSpr, vonMises, type 
 import { csrSubmatrix, matrixMarketChunks, vectorToMatrixMarket } from '../linalg/index.js';
 import { stressUnit } from '../model/index.js';
 import { VERSION } from '../version.js';
+import { checkPathOptions, writePathOutputs, type PathCliOptions } from './path.js';
 import { modelName, prepareOutDir, readModelText, writeFileAtomic } from './io.js';
 import { plain, nearestPosition } from './report-error.js';
 import { totalmem } from 'node:os';
@@ -166,7 +167,7 @@ export function fmt(v: number): string {
   return Number(v.toPrecision(5)).toString();
 }
 
-export interface SolveOptions extends CommonOptions {
+export interface SolveOptions extends CommonOptions, PathCliOptions {
   exportMatrix?: string;
   exportLoad?: string;
   adapt?: string;
@@ -187,6 +188,7 @@ export function nodalMax(mesh: Mesh, values: Float64Array): { value: number; at:
 }
 
 export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions): Promise<void> {
+  checkPathOptions(opts);
   const model = loadModel(ctx, file, opts);
   const outDir = outDirFor(file, opts);
   const section = sectionOf(model);
@@ -254,6 +256,8 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
   if (model.state === 'plane-strain') columns.szz = field.szz;
   columns.von_mises = vm;
   writeFileAtomic(join(outDir, 'field.csv'), fieldCsv(mesh, solution.u, columns), [file]);
+  const pathFile = writePathOutputs(outDir, opts, { model, mesh, geometry, field }, [file]);
+  if (pathFile && !opts.json && !opts.quiet) process.stderr.write(`peakwise: stresses along the path written to ${pathFile}\n`);
   if (opts.exportMatrix || opts.exportLoad) exportSystem(model, mesh, geometry, section, solution, opts, file);
   if (opts.report) {
     const q0 = meshQuality(mesh);
@@ -358,7 +362,7 @@ function exportSystem(model: Model, mesh: Mesh, geometry: PlateGeometry, section
   }
 }
 
-export interface StudyCliOptions extends CommonOptions {
+export interface StudyCliOptions extends CommonOptions, PathCliOptions {
   levels?: string;
   ratio?: string;
   maxDofs?: string;
@@ -381,6 +385,7 @@ function progressBar(opts: CommonOptions): { update(done: number, total: number,
 }
 
 export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOptions): Promise<void> {
+  checkPathOptions(opts);
   const model = loadModel(ctx, file, opts);
   const outDir = outDirFor(file, opts);
   const levels = opts.levels !== undefined ? Number(opts.levels) : undefined;
@@ -411,6 +416,10 @@ export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOpti
   emitWarnings(warnings, opts);
   if (warnings.length > 0) (study as StudyResult & { warnings?: string[] }).warnings = warnings;
   writeStudyOutputs(model, study, base, outDir, file);
+  if (base) {
+    const pathFile = writePathOutputs(outDir, opts, { model, mesh: base.mesh, geometry: base.geometry, field: base.field }, [file]);
+    if (pathFile && !opts.json && !opts.quiet) process.stderr.write(`peakwise: stresses along the path written to ${pathFile}\n`);
+  }
   if ((study as { interrupted?: boolean }).interrupted) {
     process.stderr.write(`peakwise: interrupted: the finished levels are written to ${outDir} (study.json has "interrupted": true)\n`);
     throw new StudyInterrupted();

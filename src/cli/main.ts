@@ -6,6 +6,7 @@
 import { Command, CommanderError, Option } from 'commander';
 import { isPeakwiseError } from '../errors.js';
 import { describeError } from './report-error.js';
+import { registerPathOptions } from './path.js';
 import { runMesh, runSolve, runStudy, setStopFlag, StudyInterrupted, type CliContext } from './commands.js';
 import { Worker, isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { VERSION } from '../version.js';
@@ -40,7 +41,7 @@ export function buildProgram(): Command {
       .option('--svg <file>', 'draw the mesh as SVG (boundary tags coloured)'),
   ).action(async (model: string, opts) => runMesh(ctx, model, opts));
 
-  sharedOptions(
+  registerPathOptions(sharedOptions(
     program
       .command('solve <model>')
       .description('one solve: displacements, stresses, reaction check, error estimate, field.csv')
@@ -49,16 +50,16 @@ export function buildProgram(): Command {
       .option('--adapt <percent>', 'refine adaptively until the estimated energy error is below this')
       .option('--max-dofs <n>', 'cap on degrees of freedom', '2000000')
       .option('--report', 'also write report.html'),
-  ).action(async (model: string, opts) => runSolve(ctx, model, opts));
+  )).action(async (model: string, opts) => runSolve(ctx, model, opts));
 
-  sharedOptions(
+  registerPathOptions(sharedOptions(
     program
       .command('study <model>')
       .description('find every hot spot, refine it level after level and give a verdict')
       .option('--levels <n>', 'refinement levels per spot (overrides study.levels)')
       .option('--ratio <r>', 'element size ratio between levels (overrides study.ratio)')
       .option('--max-dofs <n>', 'cap on degrees of freedom per solve', '2000000'),
-  ).action(async (model: string, opts) => runStudy(ctx, model, opts));
+  )).action(async (model: string, opts) => runStudy(ctx, model, opts));
 
   registerSweep(program, ctx);
   registerCheck(program, ctx);
@@ -120,6 +121,11 @@ function runInWorker(argv: string[]): void {
 }
 
 if (isMainThread) {
+  // `peakwise … | head` closes the pipe early: that is not an error
+  process.stdout.on('error', (e: NodeJS.ErrnoException) => {
+    if (e.code === 'EPIPE') process.exit(process.exitCode ?? 0);
+    throw e;
+  });
   if (process.argv[2] === 'study') {
     runInWorker(process.argv);
   } else {
