@@ -39,7 +39,10 @@ export function amdOrder(
 
   const elbow = nnzAdj + Math.floor(nnzAdj / 5) + 2 * n;
   const iw = new Int32Array(elbow); // quotient graph storage (elements first, then variables)
-  const pe = new Int32Array(n + 1); // start of each list in iw, or FLIP(parent) once absorbed
+  // start of each list in iw, or -parent - 2 once absorbed ("flipped", so -1 stays free for
+  // "none"); the flip is written out inline: a helper call there deoptimised the function
+  // the first time a large graph took a branch the small ones had not
+  const pe = new Int32Array(n + 1);
   iw.set(adjIdx.subarray(0, nnzAdj));
   for (let i = 0; i <= n; i++) pe[i] = i < n ? adjPtr[i] : 0;
   let cnz = nnzAdj;
@@ -93,7 +96,7 @@ export function amdOrder(
       nv[n] += nv[i];
       nv[i] = 0;
       elen[i] = -1;
-      pe[i] = FLIP(n);
+      pe[i] = -n - 2;
     } else {
       if (head[d] !== -1) last[head[d]] = i;
       next[i] = head[d];
@@ -117,12 +120,12 @@ export function amdOrder(
         const p = pe[j];
         if (p >= 0) {
           pe[j] = iw[p];
-          iw[p] = FLIP(j);
+          iw[p] = -j - 2;
         }
       }
       let q = 0;
       for (let p = 0; p < cnz; ) {
-        const j = FLIP(iw[p++]);
+        const j = -iw[p++] - 2;
         if (j >= 0) {
           iw[q] = pe[j];
           pe[j] = q++;
@@ -162,7 +165,7 @@ export function amdOrder(
         else head[degree[i]] = next[i];
       }
       if (e !== k) {
-        pe[e] = FLIP(k); // element absorption: e is now inside k
+        pe[e] = -k - 2; // element absorption: e is now inside k
         w[e] = 0;
       }
     }
@@ -204,7 +207,7 @@ export function amdOrder(
             iw[pn++] = e;
             h += e;
           } else {
-            pe[e] = FLIP(k); // aggressive absorption: Le ⊆ Lk
+            pe[e] = -k - 2; // aggressive absorption: Le ⊆ Lk
             w[e] = 0;
           }
         }
@@ -222,7 +225,7 @@ export function amdOrder(
       }
       if (d === 0) {
         // mass elimination: i's only neighbours are in Lk, eliminate it with k
-        pe[i] = FLIP(k);
+        pe[i] = -k - 2;
         const nvi = -nv[i];
         dk -= nvi;
         nvk += nvi;
@@ -264,7 +267,7 @@ export function amdOrder(
             if (w[iw[q]] !== mark) same = false;
           }
           if (same) {
-            pe[j] = FLIP(i); // j merges into supervariable i
+            pe[j] = -i - 2; // j merges into supervariable i
             nv[i] += nv[j];
             nv[j] = 0;
             elen[j] = -1;
@@ -305,7 +308,7 @@ export function amdOrder(
   }
 
   // --- postorder the assembly tree (elements, with absorbed variables hanging below them)
-  for (let i = 0; i < n; i++) pe[i] = FLIP(pe[i]);
+  for (let i = 0; i < n; i++) pe[i] = -pe[i] - 2;
   for (let j = 0; j <= n; j++) head[j] = -1;
   for (let j = n; j >= 0; j--) {
     if (nv[j] > 0 || pe[j] === -1) continue; // non-principal variables hang below their representative
@@ -331,9 +334,6 @@ export function amdOrder(
   return perm;
 }
 
-function FLIP(i: number): number {
-  return -i - 2;
-}
 
 /** Reset the marker array when the running mark would overflow 32 bits. */
 function clearMarks(mark: number, lemax: number, w: Int32Array, n: number): number {
