@@ -372,44 +372,42 @@ export function symbolicFactor(A: Csr, ordering: Ordering, options: SupernodeOpt
   // flops from the true column counts: Σ c_j² (one multiply-add per pair of entries below)
   for (let j = 0; j < n; j++) flops += colCounts[j] * colCounts[j];
 
-  // --- row structures: union of A's entries below the block and the children's structures
+  // --- row structures in one pass over the rows of P A Pᵀ, by row subtrees: row i of L is
+  // nonzero in every column on the elimination-tree paths from the columns j < i of A's row i
+  // up to i (Liu 1986; the traversal of cs_ereach in Davis 2006, §4.1), so walking the
+  // supernodal tree from supernode(j) until a supernode already holding i appends i to every
+  // supernode whose structure contains it — and, rows being taken in increasing order, every
+  // structure comes out sorted, with no per-supernode merge or sort.
   const superRows = new Int32Array(superRowPtr[nSuper]);
-  const childHead = new Int32Array(nSuper).fill(-1);
-  const childNext = new Int32Array(nSuper).fill(-1);
-  const mark = new Int32Array(n).fill(-1);
+  const superParent = new Int32Array(nSuper);
+  const writePos = new Int32Array(nSuper);
+  const mark = new Int32Array(nSuper).fill(-1);
   for (let s = 0; s < nSuper; s++) {
     const f = superStart[s];
-    const l = superStart[s + 1]; // exclusive
+    const l = superStart[s + 1];
     let w = superRowPtr[s];
-    for (let c = f; c < l; c++) superRows[w++] = c;
-    const offStart = w;
-    for (let c = f; c < l; c++) {
-      const row = perm[c];
-      for (let p = A.rowPtr[row]; p < A.rowPtr[row + 1]; p++) {
-        const i = iperm[A.colIdx[p]];
-        if (i >= l && mark[i] !== s) {
-          mark[i] = s;
-          superRows[w++] = i;
-        }
+    for (let c = f; c < l; c++) superRows[w++] = c; // the diagonal block's rows come first
+    writePos[s] = w;
+    const top = parent[l - 1];
+    superParent[s] = top === -1 ? -1 : superOfCol[top];
+  }
+  for (let i = 0; i < n; i++) {
+    const si = superOfCol[i];
+    mark[si] = i; // the walk from any descendant stops at i's own supernode
+    const row = perm[i];
+    const end = A.rowPtr[row + 1];
+    for (let p = A.rowPtr[row]; p < end; p++) {
+      const j = iperm[A.colIdx[p]];
+      if (j >= i) continue;
+      for (let sj = superOfCol[j]; mark[sj] !== i; sj = superParent[sj]) {
+        mark[sj] = i;
+        superRows[writePos[sj]++] = i;
       }
     }
-    for (let ch = childHead[s]; ch !== -1; ch = childNext[ch]) {
-      for (let p = superRowPtr[ch]; p < superRowPtr[ch + 1]; p++) {
-        const i = superRows[p];
-        if (i >= l && mark[i] !== s) {
-          mark[i] = s;
-          superRows[w++] = i;
-        }
-      }
-    }
-    if (w !== superRowPtr[s + 1]) {
-      throw new Error(`symbolic: supernode ${s} structure has ${w - superRowPtr[s]} rows, counts predicted ${superRowPtr[s + 1] - superRowPtr[s]}`);
-    }
-    superRows.subarray(offStart, w).sort();
-    if (w > offStart) {
-      const ps = superOfCol[superRows[offStart]];
-      childNext[s] = childHead[ps];
-      childHead[ps] = s;
+  }
+  for (let s = 0; s < nSuper; s++) {
+    if (writePos[s] !== superRowPtr[s + 1]) {
+      throw new Error(`symbolic: supernode ${s} structure has ${writePos[s] - superRowPtr[s]} rows, counts predicted ${superRowPtr[s + 1] - superRowPtr[s]}`);
     }
   }
   return {
