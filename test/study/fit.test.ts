@@ -79,6 +79,18 @@ describe('verdict rules (docs/study.md)', () => {
     expect(v.reason).toMatch(/^oscillating/);
     expect(v.advice).toBeTruthy();
   });
+  it('shrinking oscillation within 1 % → converging, value mid-range, band 1.25 × half range (Stern et al. 2001)', () => {
+    // finest three: 691.91, 691.34 (R = ε21/ε32 = (691.34 − 691.91)/(691.91 − 690.44) = −0.39)
+    const v = judgeSpot(h, [673.87, 687.53, 690.44, 691.91, 691.34], 2, 2, 0);
+    expect(v.verdict).toBe('converging');
+    expect(v.estimate.value).toBeCloseTo(0.5 * (691.91 + 690.44), 10);
+    expect(v.estimate.uncertainty).toBeCloseTo(1.25 * 0.5 * (691.91 - 690.44), 10);
+    expect(v.reason).toContain('oscillations');
+  });
+  it('the same oscillation where theory predicts a singularity stays undecided', () => {
+    const v = judgeSpot(h, [673.87, 687.53, 690.44, 691.91, 691.34], 2, 2, 0.4555, 're-entrant corner 270°');
+    expect(v.verdict).toBe('undecided');
+  });
   it('two levels → undecided, too few levels', () => {
     const v = judgeSpot([1, 0.5], [3, 3.1], 2, 2, 0);
     expect(v.verdict).toBe('undecided');
