@@ -414,13 +414,13 @@ export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOpti
     warnings.push(...healthWarnings({ section: sectionOf(model), geometry: base.geometry, mesh: base.mesh, size: model.mesh.size, lengthUnit: model.units.length }));
   }
   emitWarnings(warnings, opts);
-  if (warnings.length > 0) (study as StudyResult & { warnings?: string[] }).warnings = warnings;
+  if (warnings.length > 0) study.warnings = warnings;
   writeStudyOutputs(model, study, base, outDir, file);
   if (base) {
     const pathFile = writePathOutputs(outDir, opts, { model, mesh: base.mesh, geometry: base.geometry, field: base.field }, [file]);
     if (pathFile && !opts.json && !opts.quiet) process.stderr.write(`peakwise: stresses along the path written to ${pathFile}\n`);
   }
-  if ((study as { interrupted?: boolean }).interrupted) {
+  if (study.interrupted) {
     process.stderr.write(`peakwise: interrupted: the finished levels are written to ${outDir} (study.json has "interrupted": true)\n`);
     throw new StudyInterrupted();
   }

@@ -86,4 +86,8 @@ export interface StudyResult {
   measure: string;
   spots: SpotResult[];
   timings?: { totalS: number };
+  /** set when the study was stopped (Ctrl-C) before every level was solved */
+  interrupted?: boolean;
+  /** health warnings of the model and mesh (printed by the CLI, shown in the report) */
+  warnings?: string[];
 }
