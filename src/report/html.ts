@@ -306,6 +306,7 @@ export function reportHtml(input: ReportInput): string {
 <h1>${title}</h1>
 <p class="lede">${escapeXml(solveOnly ? `One solve; measure: ${measure} in ${S}.` : `${study.spots.length} hot spot${study.spots.length === 1 ? '' : 's'} (${counts}); measure: ${measure} in ${S}.`)}</p>
 <p class="caution" role="note">${escapeXml(CAUTION)}</p>
+${(study.warnings ?? []).length > 0 ? `<ul class="warnings">${(study.warnings ?? []).map((w) => `<li>Warning: ${escapeXml(w)}</li>`).join('')}</ul>` : ''}
 </header>
 <main>
 <section id="model"><h2>Model</h2><table class="facts">${modelRows.join('')}</table></section>

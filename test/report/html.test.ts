@@ -35,6 +35,12 @@ describe('reportHtml', () => {
     expect(html).toContain('plane stress');
   });
 
+  it('lists the health warnings of the study, escaped', () => {
+    const w = reportHtml({ ...input, study: { ...input.study, warnings: ['fewer than 6 elements per quarter circle on <hole>'] } });
+    expect(w).toContain('<ul class="warnings"><li>Warning: fewer than 6 elements per quarter circle on &lt;hole&gt;</li></ul>');
+    expect(html).not.toContain('class="warnings"');
+  });
+
   it('makes no external references (no scripts, links, images or url() fetches)', () => {
     expect(html).not.toMatch(/<script|<link|<img|<iframe|@import|https?:\/\/(?!www\.w3\.org\/)/i);
     for (const m of html.matchAll(/url\(([^)]*)\)/g)) expect(m[1].startsWith('#')).toBe(true);
