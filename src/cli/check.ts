@@ -4,7 +4,7 @@
  * exit status 1 when any case fails.
  */
 import type { Command } from 'commander';
-import cliProgress from 'cli-progress';
+import { progressBar } from './progress.js';
 import { CHECK_CASES, checksHtml, checksJson, checksTable, runChecks, type CheckResult } from '../check/index.js';
 import { PeakwiseError } from '../errors.js';
 import { VERSION } from '../version.js';
@@ -20,23 +20,9 @@ export interface CheckCliOptions {
   color?: boolean;
 }
 
-function progress(opts: CheckCliOptions): { update(done: number, total: number, label: string): void; stop(): void } {
-  if (opts.quiet || opts.json || process.stderr.isTTY !== true) return { update() {}, stop() {} };
-  const bar = new cliProgress.SingleBar(
-    { stream: process.stderr, format: '  {bar} {value}/{total} cases  {label}', hideCursor: true, clearOnComplete: true, barsize: 30 },
-    cliProgress.Presets.shades_classic,
-  );
-  let started = false;
-  return {
-    update(done, total, label) {
-      if (!started) { bar.start(total, done, { label }); started = true; } else bar.update(done, { label });
-    },
-    stop() { if (started) bar.stop(); },
-  };
-}
 
 export function runCheck(_ctx: CliContext, opts: CheckCliOptions): void {
-  const bar = progress(opts);
+  const bar = progressBar(opts, 'cases');
   let results: CheckResult[];
   try {
     const only = opts.only ? opts.only.split(',').map((id) => id.trim()).filter(Boolean) : undefined;

@@ -9,7 +9,7 @@ import { meshPlate, meshQuality, sizeFieldFromSettings } from '../mesh/index.js'
 import { fieldCsv, measureName, meshSvg, reportHtml, solveSummary, spotsCsv, studyTable } from '../report/index.js';
 import { runStudy as runStudyStage, type BaseSolve } from '../study/index.js';
 import type { StudyResult } from '../study/types.js';
-import cliProgress from 'cli-progress';
+import { progressBar } from './progress.js';
 import type { Mesh } from '../mesh/types.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { ElasticSection, GaussStresses, Solution } from '../fem/types.js';
@@ -368,21 +368,6 @@ export interface StudyCliOptions extends CommonOptions, PathCliOptions {
   maxDofs?: string;
 }
 
-/** A progress bar on stderr, only when stderr is a terminal and not --quiet / --json. */
-function progressBar(opts: CommonOptions): { update(done: number, total: number, label: string): void; stop(): void } {
-  if (opts.quiet || opts.json || process.stderr.isTTY !== true) return { update() {}, stop() {} };
-  const bar = new cliProgress.SingleBar(
-    { stream: process.stderr, format: '  {bar} {value}/{total} solves  {label}', hideCursor: true, clearOnComplete: true, barsize: 30 },
-    cliProgress.Presets.shades_classic,
-  );
-  let started = false;
-  return {
-    update(done, total, label) {
-      if (!started) { bar.start(total, done, { label }); started = true; } else { bar.setTotal(total); bar.update(done, { label }); }
-    },
-    stop() { if (started) bar.stop(); },
-  };
-}
 
 export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOptions): Promise<void> {
   checkPathOptions(opts);
@@ -393,7 +378,7 @@ export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOpti
   if (levels !== undefined && !(Number.isInteger(levels) && levels >= 2 && levels <= 12)) throw new PeakwiseError('usage', `--levels must be an integer from 2 to 12, got "${opts.levels}"`);
   if (ratio !== undefined && !(ratio > 1 && ratio <= 4)) throw new PeakwiseError('usage', `--ratio must be a number above 1 and at most 4, got "${opts.ratio}"`);
   const maxDofs = maxDofsOf(opts);
-  const bar = progressBar(opts);
+  const bar = progressBar(opts, 'solves');
   let base: BaseSolve | undefined;
   let study: StudyResult;
   try {

@@ -6,7 +6,7 @@
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { Option, type Command } from 'commander';
-import cliProgress from 'cli-progress';
+import { progressBar } from './progress.js';
 import pc from 'picocolors';
 import { PeakwiseError } from '../errors.js';
 import { parseModel, stressUnit } from '../model/index.js';
@@ -73,21 +73,6 @@ function duration(s: number): string {
   return `${Math.floor(s / 60)} min ${Math.round(s % 60)} s`;
 }
 
-/** Progress on stderr: points done / total and time left; silent unless stderr is a terminal. */
-function sweepBar(opts: CommonOptions): { update(done: number, total: number, left: number): void; stop(): void } {
-  if (opts.quiet || opts.json || process.stderr.isTTY !== true) return { update() {}, stop() {} };
-  const bar = new cliProgress.SingleBar(
-    { stream: process.stderr, format: '  {bar} {value}/{total} points  {left} left', hideCursor: true, clearOnComplete: true, barsize: 30 },
-    cliProgress.Presets.shades_classic,
-  );
-  let started = false;
-  return {
-    update(done, total, left) {
-      if (!started) { bar.start(total, done, { left: duration(left) }); started = true; } else bar.update(done, { left: duration(left) });
-    },
-    stop() { if (started) bar.stop(); },
-  };
-}
 
 function spotLine(s: SpotResult, unit: string, lengthUnit: string): string {
   const r = s.readouts.atDistance !== undefined && Number.isFinite(s.readouts.atDistance)
@@ -143,14 +128,14 @@ export async function runSweepCommand(ctx: CliContext, file: string, opts: Sweep
   ctx.model = model;
   const outDir = outDirFor(file, opts);
   const protect = [file];
-  const bar = sweepBar(opts);
+  const bar = progressBar(opts, 'points');
   let sweep: SweepResult;
   try {
     sweep = await runSweep(text, file, axes, {
       ...options,
       ...(jobs !== undefined ? { jobs } : {}),
       cache: pointFolderCache(join(outDir, 'points'), protect),
-      onProgress: (done, total, left) => bar.update(done, total, left),
+      onProgress: (done, total, left) => bar.update(done, total, `${duration(left)} left`),
     });
   } finally {
     bar.stop();
