@@ -161,6 +161,13 @@ function weightedColumnCounts(
   return delta;
 }
 
+/** Do the adjacent rows colIdx[a…b) and colIdx[b…end) hold the same columns? */
+function samePattern(colIdx: Int32Array, a: number, b: number, end: number): boolean {
+  if (b - a !== end - b) return false;
+  for (let t = 0; t < end - b; t++) if (colIdx[a + t] !== colIdx[b + t]) return false;
+  return true;
+}
+
 /** Entries of a lower trapezoidal panel of nc columns and nr rows (nr ≥ nc). */
 function panelEntries(nc: number, nr: number): number {
   return nc * nr - (nc * (nc - 1)) / 2;
@@ -391,17 +398,28 @@ export function symbolicFactor(A: Csr, ordering: Ordering, options: SupernodeOpt
     const top = parent[l - 1];
     superParent[s] = top === -1 ? -1 : superOfCol[top];
   }
+  // supernodes that received the previous row: the next row, when it is the following row of
+  // the same node (same pattern in A, same supernode), goes to exactly the same ones
+  const touched = new Int32Array(nSuper);
+  let nTouched = 0;
+  const rowPtr = A.rowPtr, colIdx = A.colIdx;
   for (let i = 0; i < n; i++) {
     const si = superOfCol[i];
-    mark[si] = i; // the walk from any descendant stops at i's own supernode
     const row = perm[i];
-    const end = A.rowPtr[row + 1];
-    for (let p = A.rowPtr[row]; p < end; p++) {
-      const j = iperm[A.colIdx[p]];
+    const start = rowPtr[row], end = rowPtr[row + 1];
+    if (i > 0 && perm[i - 1] === row - 1 && superOfCol[i - 1] === si && samePattern(colIdx, rowPtr[row - 1], start, end)) {
+      for (let t = 0; t < nTouched; t++) superRows[writePos[touched[t]]++] = i;
+      continue;
+    }
+    mark[si] = i; // the walk from any descendant stops at i's own supernode
+    nTouched = 0;
+    for (let p = start; p < end; p++) {
+      const j = iperm[colIdx[p]];
       if (j >= i) continue;
       for (let sj = superOfCol[j]; mark[sj] !== i; sj = superParent[sj]) {
         mark[sj] = i;
         superRows[writePos[sj]++] = i;
+        touched[nTouched++] = sj;
       }
     }
   }
