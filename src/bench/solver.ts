@@ -205,6 +205,11 @@ export function runAnchor(file: string): AnchorResult | undefined {
 }
 
 const seconds = (t0: number) => (performance.now() - t0) / 1000;
+/** CPU seconds of this process since c0 (steadier than wall time on a loaded machine) */
+const cpuSeconds = (c0: NodeJS.CpuUsage) => {
+  const c = process.cpuUsage(c0);
+  return (c.user + c.system) / 1e6;
+};
 
 export async function benchSolver(opts: BenchSolverOptions = {}): Promise<object> {
   const max = opts.max ?? 1e6;
@@ -234,11 +239,15 @@ export async function benchSolver(opts: BenchSolverOptions = {}): Promise<object
     const assembleS = seconds(t0);
     if (K.n > max * 1.05) break;
     t0 = performance.now();
+    let c0 = process.cpuUsage();
     const choice = chooseOrderingDetailed(K, rowXY);
     const orderS = seconds(t0);
+    const orderCpuS = cpuSeconds(c0);
     t0 = performance.now();
+    c0 = process.cpuUsage();
     const sym = symbolicFactor(K, choice.ordering);
     const symbolicS = seconds(t0);
+    const symbolicCpuS = cpuSeconds(c0);
     t0 = performance.now();
     const cpu0 = process.cpuUsage();
     const F = factorize(K, sym);
@@ -258,7 +267,9 @@ export async function benchSolver(opts: BenchSolverOptions = {}): Promise<object
       nnzA: K.rowPtr[K.n],
       assembleS,
       orderS,
+      orderCpuS,
       symbolicS,
+      symbolicCpuS,
       factorS,
       factorCpuS,
       kernels,
@@ -276,7 +287,7 @@ export async function benchSolver(opts: BenchSolverOptions = {}): Promise<object
     say(
       `dofs ${K.n}: assemble ${assembleS.toFixed(3)} s, order ${orderS.toFixed(3)} s (${choice.ordering.method}; ` +
         choice.candidates.map((c) => `${c.method} ${(c.nnzL / 1e6).toFixed(2)}M`).join(', ') +
-        `), symbolic ${symbolicS.toFixed(3)} s, factor ${factorS.toFixed(3)} s (${(sym.flops / 1e9).toFixed(2)} Gflop, ` +
+        `; cpu ${orderCpuS.toFixed(3)} s), symbolic ${symbolicS.toFixed(3)} s (cpu ${symbolicCpuS.toFixed(3)} s), factor ${factorS.toFixed(3)} s (${(sym.flops / 1e9).toFixed(2)} Gflop, ` +
         `${(sym.flops / 1e9 / factorS).toFixed(2)} Gflop/s; cpu ${factorCpuS.toFixed(3)} s, ${(sym.flops / 1e9 / factorCpuS).toFixed(2)} Gflop/s; ` +
         `${kernels === 'wasm' ? 'WebAssembly SIMD' : 'JavaScript'} kernels, 1 thread), solve ${solveS.toFixed(3)} s, nnz(L) ${(sym.nnzL / 1e6).toFixed(2)}M ` +
         `(stored ${(sym.nnzStored / 1e6).toFixed(2)}M), residual ${residual.toExponential(2)}, peak RSS ${maxRssMiB.toFixed(0)} MiB`,
@@ -291,11 +302,12 @@ export async function benchSolver(opts: BenchSolverOptions = {}): Promise<object
         const theirs = a.t_analyze + a.t_factorize;
         row.anchor = a;
         row.ratioTime = ours / theirs;
+        row.ratioTimeCpu = (orderCpuS + symbolicCpuS + factorCpuS) / theirs;
         row.ratioNnzL = sym.nnzL / a.lnz;
         say(
           `  anchor: analyze ${a.t_analyze.toFixed(3)} s (${a.ordering}), factor ${a.t_factorize.toFixed(3)} s ` +
             `(repeat ${a.t_factorize2.toFixed(3)} s), solve ${a.t_solve_med.toFixed(3)} s, nnz(L) ${(a.lnz / 1e6).toFixed(2)}M, ` +
-            `RSS ${a.maxrss_MiB.toFixed(0)} MiB → ratio ordering+factor ${(ours / theirs).toFixed(2)}, nnz(L) ${(sym.nnzL / a.lnz).toFixed(2)}`,
+            `RSS ${a.maxrss_MiB.toFixed(0)} MiB → ratio ordering+factor ${(ours / theirs).toFixed(2)} (our cpu ${((orderCpuS + symbolicCpuS + factorCpuS) / theirs).toFixed(2)}), nnz(L) ${(sym.nnzL / a.lnz).toFixed(2)}`,
         );
       } else {
         say('  anchor: run failed');
