@@ -33,7 +33,7 @@ function sameRowPattern(A: Csr, i: number, j: number): boolean {
 export function compressGraph(A: Csr, maxGroup = 8): NodeGraph {
   const n = A.n;
   const nodeOfRow = new Int32Array(n);
-  const starts: number[] = [];
+  const starts = new Int32Array(n + 1);
   let v = -1;
   for (let i = 0; i < n; i++) {
     const start = v >= 0 ? starts[v] : 0;
@@ -41,13 +41,12 @@ export function compressGraph(A: Csr, maxGroup = 8): NodeGraph {
       nodeOfRow[i] = v;
     } else {
       v++;
-      starts.push(i);
+      starts[v] = i;
       nodeOfRow[i] = v;
     }
   }
   const nNodes = v + 1;
-  const rowStart = new Int32Array(nNodes + 1);
-  for (let t = 0; t < nNodes; t++) rowStart[t] = starts[t];
+  const rowStart = starts.slice(0, nNodes + 1);
   rowStart[nNodes] = n;
   // adjacency of each node = distinct nodes of the columns of its first row (all rows alike)
   const adjPtr = new Int32Array(nNodes + 1);
