@@ -7,6 +7,7 @@ import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { Option, type Command } from 'commander';
 import { progressBar } from './progress.js';
+import { CAUTION } from '../report/index.js';
 import pc from 'picocolors';
 import { PeakwiseError } from '../errors.js';
 import { parseModel, stressUnit } from '../model/index.js';
@@ -100,6 +101,7 @@ export function sweepSummary(sweep: SweepResult, units: { stress: string; length
       lines.push(`    ${params}  ${plain(s.id).padEnd(4)}  ${paint(s.verdict.padEnd(10))}  ${plain(spotLine(s, units.stress, units.length))}`);
     }
   }
+  lines.push('', c.dim(CAUTION));
   return lines.join('\n');
 }
 

@@ -170,6 +170,8 @@ export function adaptiveSolve(input: AdaptiveInput, opts: AdaptiveOptions): Adap
       if (err instanceof MeshError && last) return { ...last, cycles, stoppedBy: 'dofs' };
       throw err;
     }
+    // the prediction can fall short: a refined mesh that came out above the cap is not solved
+    if (last && 2 * (mesh.xy.length / 2) > maxDofs) return { ...last, cycles, stoppedBy: 'dofs' };
     const solution = solvePlate({
       mesh,
       geometry: input.geometry,

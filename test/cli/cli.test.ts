@@ -55,6 +55,40 @@ describe('peakwise binary basics', () => {
   });
 });
 
+describe('solve through the binary', () => {
+  it('--json carries the solution, stress, timing and factor keys, and the reactions balance the loads', async () => {
+    const out = mkdtempSync(join(tmpdir(), 'pw-solve-'));
+    const r = await run(['solve', 'models/strap-pin-hole.yaml', '--json', '--out', out]);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.stdout) as {
+      solution: { dofs: number; maxDisplacement: number; maxDisplacementAt: number[]; reactionSum: number[]; appliedSum: number[] };
+      stress: { measure: string; max: number; at: number[]; errorPercent: number };
+      timings: Record<string, number>;
+      factor: { nnzL: number };
+    };
+    for (const k of ['meshS', 'assembleS', 'orderS', 'factorS', 'solveS']) expect(j.timings[k]).toBeGreaterThanOrEqual(0);
+    expect(j.factor.nnzL).toBeGreaterThan(j.solution.dofs);
+    expect(j.stress.measure).toBe('von-mises');
+    expect(j.stress.errorPercent).toBeGreaterThan(0);
+    // statics: Σ reactions + Σ applied loads = 0 (1e-9 of the applied resultant)
+    const F = Math.hypot(j.solution.appliedSum[0], j.solution.appliedSum[1]);
+    expect(Math.hypot(j.solution.reactionSum[0] + j.solution.appliedSum[0], j.solution.reactionSum[1] + j.solution.appliedSum[1])).toBeLessThan(1e-9 * F);
+    const header = readFileSync(join(out, 'field.csv'), 'utf8').split('\n')[0];
+    expect(header).toBe('node,x,y,ux,uy,sxx,syy,sxy,von_mises');
+  });
+
+  it('--adapt stops at the dof cap with a warning line, exit 0, and no solved mesh above the cap', async () => {
+    const out = mkdtempSync(join(tmpdir(), 'pw-adapt-'));
+    const r = await run(['solve', 'models/l-bracket-sharp.yaml', '--adapt', '0.01', '--max-dofs', '8000', '--json', '--out', out]);
+    expect(r.code).toBe(0);
+    expect(r.stderr).toMatch(/warning: adaptive loop stopped by the dof cap/);
+    expect(r.stderr).not.toMatch(STACK);
+    const j = JSON.parse(r.stdout) as { cycles: { dofs: number; errorPercent: number }[] };
+    expect(j.cycles.length).toBeGreaterThanOrEqual(1);
+    for (const c of j.cycles) expect(c.dofs).toBeLessThanOrEqual(8000);
+  });
+});
+
 describe('mesh --json on every demo model', () => {
   const models = readdirSync(join(root, 'models')).filter((f) => f.endsWith('.yaml'));
   it.concurrent.each(models)('%s', async (f) => {

@@ -104,8 +104,8 @@ describe('adaptive loop always terminates', () => {
   it('a DOF cap stops it before a mesh would exceed the cap', () => {
     const res = adaptiveSolve(input, { targetPercent: 0.01, maxDofs: 3000 });
     expect(res.stoppedBy).toBe('dofs');
+    // every solved mesh respects the cap, whether the prediction or the mesh itself stopped it
     for (const c of res.cycles) expect(c.dofs).toBeLessThanOrEqual(3000);
-    expect(res.cycles[res.cycles.length - 1].nextDofs).toBeGreaterThan(3000);
   });
   it('a cycle cap stops it after that many solves', () => {
     const res = adaptiveSolve(input, { targetPercent: 0.01, maxCycles: 2 });
