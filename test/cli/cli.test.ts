@@ -74,7 +74,7 @@ describe('solve through the binary', () => {
     const F = Math.hypot(j.solution.appliedSum[0], j.solution.appliedSum[1]);
     expect(Math.hypot(j.solution.reactionSum[0] + j.solution.appliedSum[0], j.solution.reactionSum[1] + j.solution.appliedSum[1])).toBeLessThan(1e-9 * F);
     const header = readFileSync(join(out, 'field.csv'), 'utf8').split('\n')[0];
-    expect(header).toBe('node,x,y,ux,uy,sxx,syy,sxy,von_mises');
+    expect(header).toBe('"node","x","y","ux","uy","sxx","syy","sxy","von_mises"');
   });
 
   it('--adapt stops at the dof cap with a warning line, exit 0, and no solved mesh above the cap', async () => {
