@@ -29,169 +29,118 @@ export function amdOrder(
 ): Int32Array {
   const perm = new Int32Array(n);
   if (n === 0) return perm;
-  const g = new QuotientGraph(n, adjPtr, adjIdx, weight);
-  // each pivot's steps are methods called once per pivot, not one long loop body: V8 then
-  // optimises them as ordinary hot functions early in the first large run, where a single
-  // function with many loops was compiled loop by loop (on-stack replacement) and fell back
-  // to the interpreter each time a loop exited or a branch ran for the first time
-  while (g.nel < g.N) {
-    const k = g.selectPivot();
-    const elenk = g.elen[k];
-    if (elenk > 0 && g.cnz + g.mindeg >= g.nzmax) g.collectGarbage();
-    const pk1 = g.buildElement(k, elenk);
-    const pk2 = g.len[k] + pk1;
-    g.externalDegrees(pk1, pk2);
-    g.updateDegrees(k, pk1, pk2);
-    g.findSupervariables(pk1, pk2);
-    g.finishElement(k, elenk, pk1, pk2);
+  const nnzAdj = adjPtr[n];
+  let totalWeight = 0;
+  for (let i = 0; i < n; i++) totalWeight += weight ? weight[i] : 1;
+  const N = totalWeight;
+  // rows denser than this are set aside and ordered last (they would dominate every list)
+  let dense = Math.max(16, 10 * Math.sqrt(n));
+  dense = Math.min(n - 2, dense);
+
+  const elbow = nnzAdj + Math.floor(nnzAdj / 5) + 2 * n;
+  const iw = new Int32Array(elbow); // quotient graph storage (elements first, then variables)
+  // start of each list in iw, or -parent - 2 once absorbed ("flipped", so -1 stays free for
+  // "none"); the flip is written out inline: a helper call there deoptimised the function
+  // the first time a large graph took a branch the small ones had not
+  const pe = new Int32Array(n + 1);
+  iw.set(adjIdx.subarray(0, nnzAdj));
+  for (let i = 0; i <= n; i++) pe[i] = i < n ? adjPtr[i] : 0;
+  let cnz = nnzAdj;
+  const nzmax = elbow;
+
+  const len = new Int32Array(n + 1);
+  const nv = new Int32Array(n + 1);
+  const next = new Int32Array(n + 1);
+  const last = new Int32Array(n + 1);
+  const head = new Int32Array(Math.max(n, N) + 1);
+  const hhead = new Int32Array(n + 1);
+  const elen = new Int32Array(n + 1);
+  const degree = new Int32Array(n + 1);
+  const w = new Int32Array(n + 1);
+
+  for (let i = 0; i < n; i++) len[i] = adjPtr[i + 1] - adjPtr[i];
+  len[n] = 0;
+  head.fill(-1);
+  last.fill(-1);
+  next.fill(-1);
+  hhead.fill(-1);
+  w.fill(1);
+  for (let i = 0; i < n; i++) {
+    nv[i] = weight ? weight[i] : 1;
   }
-  return g.postorder(perm);
-}
+  nv[n] = 0;
+  for (let i = 0; i < n; i++) {
+    let d = 0;
+    for (let p = adjPtr[i]; p < adjPtr[i + 1]; p++) d += nv[adjIdx[p]];
+    degree[i] = d;
+  }
+  let mark = clearMarks(0, 0, w, n);
+  elen[n] = -2; // n is a placeholder root for the dense rows
+  pe[n] = -1;
+  w[n] = 0;
+  let nel = 0;
+  let mindeg = 0;
+  let lemax = 0;
 
-/**
- * The quotient graph of the elimination and the degree lists (Amestoy, Davis & Duff 1996;
- * layout of Davis 2006, §7.1). All storage is flat Int32Arrays sized once; no allocation
- * happens while pivots are eliminated.
- */
-class QuotientGraph {
-  readonly n: number;
-  readonly N: number;
-  readonly nzmax: number;
-  /** quotient graph storage (element lists and variable lists) with elbow room */
-  readonly iw: Int32Array;
-  /** start of each list in iw, or -parent - 2 once absorbed ("flipped", -1 stays free for "none") */
-  readonly pe: Int32Array;
-  readonly len: Int32Array;
-  readonly nv: Int32Array;
-  readonly next: Int32Array;
-  readonly last: Int32Array;
-  readonly head: Int32Array;
-  readonly hhead: Int32Array;
-  readonly elen: Int32Array;
-  readonly degree: Int32Array;
-  readonly w: Int32Array;
-  cnz: number;
-  mark: number;
-  nel = 0;
-  mindeg = 0;
-  lemax = 0;
-  /** weight of the current pivot's element and its degree, carried between the steps */
-  nvk = 0;
-  dk = 0;
-
-  constructor(n: number, adjPtr: Int32Array, adjIdx: Int32Array, weight: Int32Array | undefined) {
-    this.n = n;
-    const nnzAdj = adjPtr[n];
-    let totalWeight = 0;
-    for (let i = 0; i < n; i++) totalWeight += weight ? weight[i] : 1;
-    const N = totalWeight;
-    this.N = N;
-    // rows denser than this are set aside and ordered last (they would dominate every list)
-    const dense = Math.min(n - 2, Math.max(16, 10 * Math.sqrt(n)));
-    const elbow = nnzAdj + Math.floor(nnzAdj / 5) + 2 * n;
-    this.nzmax = elbow;
-    const iw = (this.iw = new Int32Array(elbow));
-    const pe = (this.pe = new Int32Array(n + 1));
-    iw.set(adjIdx.subarray(0, nnzAdj));
-    pe.set(adjPtr.subarray(0, n));
-    this.cnz = nnzAdj;
-    const len = (this.len = new Int32Array(n + 1));
-    const nv = (this.nv = new Int32Array(n + 1));
-    const next = (this.next = new Int32Array(n + 1).fill(-1));
-    const last = (this.last = new Int32Array(n + 1).fill(-1));
-    const head = (this.head = new Int32Array(Math.max(n, N) + 1).fill(-1));
-    this.hhead = new Int32Array(n + 1).fill(-1);
-    const elen = (this.elen = new Int32Array(n + 1));
-    const degree = (this.degree = new Int32Array(n + 1));
-    const w = (this.w = new Int32Array(n + 1).fill(1));
-    for (let i = 0; i < n; i++) len[i] = adjPtr[i + 1] - adjPtr[i];
-    if (weight) nv.set(weight.subarray(0, n));
-    else nv.fill(1, 0, n);
-    nv[n] = 0;
-    for (let i = 0; i < n; i++) {
-      let d = 0;
-      for (let p = adjPtr[i]; p < adjPtr[i + 1]; p++) d += nv[adjIdx[p]];
-      degree[i] = d;
+  for (let i = 0; i < n; i++) {
+    const d = degree[i];
+    if (len[i] === 0) {
+      // isolated vertex: eliminate now, ordered early by the postorder
+      elen[i] = -2;
+      nel += nv[i];
+      pe[i] = -1;
+      w[i] = 0;
+    } else if (len[i] > dense) {
+      // dense row: absorbed into the placeholder root, ordered last
+      nel += nv[i];
+      nv[n] += nv[i];
+      nv[i] = 0;
+      elen[i] = -1;
+      pe[i] = -n - 2;
+    } else {
+      if (head[d] !== -1) last[head[d]] = i;
+      next[i] = head[d];
+      head[d] = i;
     }
-    this.mark = clearMarks(0, 0, w, n);
-    elen[n] = -2; // n is a placeholder root for the dense rows
-    pe[n] = -1;
-    w[n] = 0;
-    let nel = 0;
-    for (let i = 0; i < n; i++) {
-      const d = degree[i];
-      if (len[i] === 0) {
-        // isolated vertex: eliminate now, ordered early by the postorder
-        elen[i] = -2;
-        nel += nv[i];
-        pe[i] = -1;
-        w[i] = 0;
-      } else if (len[i] > dense) {
-        // dense row: absorbed into the placeholder root, ordered last
-        nel += nv[i];
-        nv[n] += nv[i];
-        nv[i] = 0;
-        elen[i] = -1;
-        pe[i] = -n - 2;
-      } else {
-        if (head[d] !== -1) last[head[d]] = i;
-        next[i] = head[d];
-        head[d] = i;
-      }
-    }
-    this.nel = nel;
   }
 
-  /** Take a variable of minimum approximate degree off its degree list. */
-  selectPivot(): number {
-    const head = this.head, next = this.next, last = this.last, N = this.N;
-    let mindeg = this.mindeg;
+  while (nel < N) {
+    // --- select a variable of minimum approximate degree
     let k = -1;
     for (; mindeg < N && (k = head[mindeg]) === -1; mindeg++);
-    this.mindeg = mindeg;
     if (next[k] !== -1) last[next[k]] = -1;
     head[mindeg] = next[k];
-    this.nvk = this.nv[k];
-    this.nel += this.nvk;
-    return k;
-  }
+    const elenk = elen[k];
+    let nvk = nv[k];
+    nel += nvk;
 
-  /** Compact iw in place, dropping absorbed lists, when the new element might not fit. */
-  collectGarbage(): void {
-    const n = this.n, pe = this.pe, iw = this.iw, len = this.len;
-    for (let j = 0; j < n; j++) {
-      const p = pe[j];
-      if (p >= 0) {
-        pe[j] = iw[p];
-        iw[p] = -j - 2;
+    // --- garbage collection when the new element might not fit
+    if (elenk > 0 && cnz + mindeg >= nzmax) {
+      for (let j = 0; j < n; j++) {
+        const p = pe[j];
+        if (p >= 0) {
+          pe[j] = iw[p];
+          iw[p] = -j - 2;
+        }
       }
-    }
-    let q = 0;
-    for (let p = 0; p < this.cnz; ) {
-      const j = -iw[p++] - 2;
-      if (j >= 0) {
-        iw[q] = pe[j];
-        pe[j] = q++;
-        for (let t = 0; t < len[j] - 1; t++) iw[q++] = iw[p++];
+      let q = 0;
+      for (let p = 0; p < cnz; ) {
+        const j = -iw[p++] - 2;
+        if (j >= 0) {
+          iw[q] = pe[j];
+          pe[j] = q++;
+          for (let t = 0; t < len[j] - 1; t++) iw[q++] = iw[p++];
+        }
       }
+      cnz = q;
     }
-    this.cnz = q;
-  }
 
-  /**
-   * Construct the new element Lk = union of k's variables and its elements' variables,
-   * absorbing those elements; returns where Lk starts in iw (len[k] holds its length).
-   */
-  buildElement(k: number, elenk: number): number {
-    const iw = this.iw, pe = this.pe, len = this.len, nv = this.nv, next = this.next, last = this.last;
-    const head = this.head, degree = this.degree, w = this.w;
+    // --- construct the new element Lk = union of k's variables and its elements' variables
     let dk = 0;
-    const nvk = this.nvk;
     nv[k] = -nvk; // flag k as part of Lk
     let p = pe[k];
-    const pk1 = elenk === 0 ? p : this.cnz; // in place when k has no elements
+    const pk1 = elenk === 0 ? p : cnz; // in place when k has no elements
     let pk2 = pk1;
-    const flipK = -k - 2;
     for (let k1 = 1; k1 <= elenk + 1; k1++) {
       let e: number, pj: number, ln: number;
       if (k1 > elenk) {
@@ -216,49 +165,32 @@ class QuotientGraph {
         else head[degree[i]] = next[i];
       }
       if (e !== k) {
-        pe[e] = flipK; // element absorption: e is now inside k
+        pe[e] = -k - 2; // element absorption: e is now inside k
         w[e] = 0;
       }
     }
-    if (elenk !== 0) this.cnz = pk2;
+    if (elenk !== 0) cnz = pk2;
     degree[k] = dk;
     pe[k] = pk1;
     len[k] = pk2 - pk1;
-    this.elen[k] = -2; // k is now an element
-    this.dk = dk;
-    return pk1;
-  }
+    elen[k] = -2; // k is now an element
 
-  /** |Le \ Lk| for every element e adjacent to a variable of Lk, stored as w[e] - mark. */
-  externalDegrees(pk1: number, pk2: number): void {
-    const iw = this.iw, pe = this.pe, elen = this.elen, nv = this.nv, w = this.w, degree = this.degree;
-    const mark = (this.mark = clearMarks(this.mark, this.lemax, w, this.n));
+    // --- |Le \ Lk| for every element e adjacent to a variable of Lk (stored as w[e] - mark)
+    mark = clearMarks(mark, lemax, w, n);
     for (let pk = pk1; pk < pk2; pk++) {
       const i = iw[pk];
       const eln = elen[i];
       if (eln <= 0) continue;
       const nvi = -nv[i];
       const wnvi = mark - nvi;
-      const q2 = pe[i] + eln;
-      for (let q = pe[i]; q < q2; q++) {
+      for (let q = pe[i]; q <= pe[i] + eln - 1; q++) {
         const e = iw[q];
-        const we = w[e];
-        if (we >= mark) w[e] = we - nvi;
-        else if (we !== 0) w[e] = degree[e] + wnvi;
+        if (w[e] >= mark) w[e] -= nvi;
+        else if (w[e] !== 0) w[e] = degree[e] + wnvi;
       }
     }
-  }
 
-  /**
-   * Approximate degree of each variable of Lk (eq. 4 of the paper), aggressive absorption,
-   * mass elimination, and a hash of each survivor's lists for the supervariable search.
-   */
-  updateDegrees(k: number, pk1: number, pk2: number): void {
-    const iw = this.iw, pe = this.pe, elen = this.elen, len = this.len, nv = this.nv, w = this.w;
-    const degree = this.degree, next = this.next, last = this.last, hhead = this.hhead, n = this.n;
-    const mark = this.mark;
-    const flipK = -k - 2;
-    let dk = this.dk, nvk = this.nvk, nel = this.nel;
+    // --- approximate degree update of each variable in Lk, and a hash for supervariables
     for (let pk = pk1; pk < pk2; pk++) {
       const i = iw[pk];
       const p1 = pe[i];
@@ -268,15 +200,14 @@ class QuotientGraph {
       let d = 0;
       for (let q = p1; q <= p2; q++) {
         const e = iw[q];
-        const we = w[e];
-        if (we !== 0) {
-          const dext = we - mark;
+        if (w[e] !== 0) {
+          const dext = w[e] - mark;
           if (dext > 0) {
             d += dext;
             iw[pn++] = e;
             h += e;
           } else {
-            pe[e] = flipK; // aggressive absorption: Le ⊆ Lk
+            pe[e] = -k - 2; // aggressive absorption: Le ⊆ Lk
             w[e] = 0;
           }
         }
@@ -294,7 +225,7 @@ class QuotientGraph {
       }
       if (d === 0) {
         // mass elimination: i's only neighbours are in Lk, eliminate it with k
-        pe[i] = flipK;
+        pe[i] = -k - 2;
         const nvi = -nv[i];
         dk -= nvi;
         nvk += nvi;
@@ -302,7 +233,7 @@ class QuotientGraph {
         nv[i] = 0;
         elen[i] = -1;
       } else {
-        if (d < degree[i]) degree[i] = d;
+        degree[i] = Math.min(degree[i], d);
         // put k first in i's element list
         iw[pn] = iw[p3];
         iw[p3] = iw[p1];
@@ -315,18 +246,10 @@ class QuotientGraph {
       }
     }
     degree[k] = dk;
-    this.dk = dk;
-    this.nvk = nvk;
-    this.nel = nel;
-    if (dk > this.lemax) this.lemax = dk;
-    this.mark = clearMarks(mark + this.lemax, this.lemax, w, n);
-  }
+    lemax = Math.max(lemax, dk);
+    mark = clearMarks(mark + lemax, lemax, w, n);
 
-  /** Merge variables of Lk with identical lists (compared within each hash bucket). */
-  findSupervariables(pk1: number, pk2: number): void {
-    const iw = this.iw, pe = this.pe, elen = this.elen, len = this.len, nv = this.nv, w = this.w;
-    const next = this.next, last = this.last, hhead = this.hhead;
-    let mark = this.mark;
+    // --- supervariable detection: compare variables that share a hash bucket
     for (let pk = pk1; pk < pk2; pk++) {
       let i = iw[pk];
       if (nv[i] >= 0) continue;
@@ -336,13 +259,11 @@ class QuotientGraph {
       for (; i !== -1 && next[i] !== -1; i = next[i], mark++) {
         const ln = len[i];
         const eln = elen[i];
-        const pi = pe[i];
-        for (let q = pi + 1; q < pi + ln; q++) w[iw[q]] = mark;
+        for (let q = pe[i] + 1; q <= pe[i] + ln - 1; q++) w[iw[q]] = mark;
         let jlast = i;
         for (let j = next[i]; j !== -1; ) {
           let same = len[j] === ln && elen[j] === eln;
-          const pj = pe[j];
-          for (let q = pj + 1; same && q < pj + ln; q++) {
+          for (let q = pe[j] + 1; same && q <= pe[j] + ln - 1; q++) {
             if (w[iw[q]] !== mark) same = false;
           }
           if (same) {
@@ -359,14 +280,8 @@ class QuotientGraph {
         }
       }
     }
-    this.mark = mark;
-  }
 
-  /** Restore the weights of Lk's variables and put them back on the degree lists. */
-  finishElement(k: number, elenk: number, pk1: number, pk2: number): void {
-    const iw = this.iw, nv = this.nv, degree = this.degree, head = this.head, next = this.next, last = this.last;
-    const N = this.N, nel = this.nel, dk = this.dk;
-    let mindeg = this.mindeg;
+    // --- finalise Lk: restore weights, reinsert its variables in the degree lists
     let pw = pk1;
     for (let pk = pk1; pk < pk2; pk++) {
       const i = iw[pk];
@@ -374,54 +289,51 @@ class QuotientGraph {
       if (nvi <= 0) continue;
       nv[i] = nvi;
       let d = degree[i] + dk - nvi;
-      if (d > N - nel - nvi) d = N - nel - nvi;
+      d = Math.min(d, N - nel - nvi);
       if (head[d] !== -1) last[head[d]] = i;
       next[i] = head[d];
       last[i] = -1;
       head[d] = i;
-      if (d < mindeg) mindeg = d;
+      mindeg = Math.min(mindeg, d);
       degree[i] = d;
       iw[pw++] = i;
     }
-    this.mindeg = mindeg;
-    nv[k] = this.nvk;
-    this.len[k] = pw - pk1;
-    if (pw === pk1) {
-      this.pe[k] = -1; // k is a root of the assembly tree
-      this.w[k] = 0;
+    nv[k] = nvk;
+    len[k] = pw - pk1;
+    if (len[k] === 0) {
+      pe[k] = -1; // k is a root of the assembly tree
+      w[k] = 0;
     }
-    if (elenk !== 0) this.cnz = pw;
+    if (elenk !== 0) cnz = pw;
   }
 
-  /** Postorder of the assembly tree (elements, with absorbed variables hanging below them). */
-  postorder(perm: Int32Array): Int32Array {
-    const n = this.n, pe = this.pe, nv = this.nv, head = this.head, next = this.next;
-    for (let i = 0; i < n; i++) pe[i] = -pe[i] - 2;
-    for (let j = 0; j <= n; j++) head[j] = -1;
-    for (let j = n; j >= 0; j--) {
-      if (nv[j] > 0 || pe[j] === -1) continue; // non-principal variables hang below their representative
-      next[j] = head[pe[j]];
-      head[pe[j]] = j;
-    }
-    for (let e = n; e >= 0; e--) {
-      if (nv[e] <= 0) continue;
-      if (pe[e] !== -1) {
-        next[e] = head[pe[e]];
-        head[pe[e]] = e;
-      }
-    }
-    const order = new Int32Array(n + 1);
-    const stack = new Int32Array(n + 1);
-    let k = 0;
-    for (let i = 0; i <= n; i++) {
-      if (pe[i] === -1) k = depthFirst(i, k, head, next, order, stack);
-    }
-    // drop the placeholder root n
-    let q = 0;
-    for (let t = 0; t < k; t++) if (order[t] !== n) perm[q++] = order[t];
-    return perm;
+  // --- postorder the assembly tree (elements, with absorbed variables hanging below them)
+  for (let i = 0; i < n; i++) pe[i] = -pe[i] - 2;
+  for (let j = 0; j <= n; j++) head[j] = -1;
+  for (let j = n; j >= 0; j--) {
+    if (nv[j] > 0 || pe[j] === -1) continue; // non-principal variables hang below their representative
+    next[j] = head[pe[j]];
+    head[pe[j]] = j;
   }
+  for (let e = n; e >= 0; e--) {
+    if (nv[e] <= 0) continue;
+    if (pe[e] !== -1) {
+      next[e] = head[pe[e]];
+      head[pe[e]] = e;
+    }
+  }
+  const order = new Int32Array(n + 1);
+  const stack = new Int32Array(n + 1);
+  let k = 0;
+  for (let i = 0; i <= n; i++) {
+    if (pe[i] === -1) k = depthFirst(i, k, head, next, order, stack);
+  }
+  // drop the placeholder root n
+  let q = 0;
+  for (let t = 0; t < k; t++) if (order[t] !== n) perm[q++] = order[t];
+  return perm;
 }
+
 
 /** Reset the marker array when the running mark would overflow 32 bits. */
 function clearMarks(mark: number, lemax: number, w: Int32Array, n: number): number {
