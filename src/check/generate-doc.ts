@@ -9,15 +9,18 @@ import { VERSION } from '../version.js';
 import { runChecks, checksJson } from './run.js';
 import { checksMarkdown } from './markdown.js';
 
-export function verificationDoc(): { markdown: string; failed: number } {
+export function verificationDoc(): { markdown: string; json: string; failed: number } {
   const json = checksJson(runChecks());
-  return { markdown: checksMarkdown(json, { version: VERSION, command: 'node dist/check/generate-doc.js' }), failed: json.cases.filter((c) => !c.pass).length };
+  // the same results as data, for the verification strip of every report (src/cli/checks-record.ts)
+  const record = JSON.stringify({ tool: 'peakwise', version: VERSION, date: new Date().toISOString().slice(0, 10), ...json }, (_k, v: unknown) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2);
+  return { markdown: checksMarkdown(json, { version: VERSION, command: 'node dist/check/generate-doc.js' }), json: record + '\n', failed: json.cases.filter((c) => !c.pass).length };
 }
 
 if (process.argv[1] && resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {
   const out = process.argv[2] ?? 'docs/verification.md';
-  const { markdown, failed } = verificationDoc();
+  const { markdown, json, failed } = verificationDoc();
   writeFileSync(out, markdown);
+  writeFileSync(out.replace(/\.md$/, '') + '.json', json);
   process.stdout.write(`wrote ${out}${failed ? ` (${failed} failing case${failed === 1 ? '' : 's'})` : ''}\n`);
   if (failed) process.exitCode = 1;
 }

@@ -10,6 +10,7 @@ import { fieldCsv, measureName, meshSvg, reportHtml, solveSummary, spotsCsv, stu
 import { runStudy as runStudyStage, type BaseSolve } from '../study/index.js';
 import type { StudyResult } from '../study/types.js';
 import { progressBar } from './progress.js';
+import { recordedChecks } from './checks-record.js';
 import type { Mesh } from '../mesh/types.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { ElasticSection, GaussStresses, Solution } from '../fem/types.js';
@@ -271,7 +272,7 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
       measure,
       spots: [],
     };
-    writeFileAtomic(join(outDir, 'report.html'), reportHtml({ model, study: oneSolve, mesh, geometry, field: chosen, u: solution.u, mode: 'solve' }), [file]);
+    writeFileAtomic(join(outDir, 'report.html'), reportHtml({ model, study: oneSolve, mesh, geometry, field: chosen, u: solution.u, mode: 'solve', checks: recordedChecks() }), [file]);
   }
 
   const warnings = [...modelWarnings(model, file), ...healthWarnings({ section, geometry, mesh, size: model.mesh.size, lengthUnit: model.units.length })];
@@ -443,6 +444,6 @@ function writeStudyOutputs(model: Model, study: StudyResult, base: BaseSolve | u
     if (model.state === 'plane-strain') columns.szz = field.szz;
     columns.von_mises = nodalMeasure(field, 'von-mises');
     writeFileAtomic(join(outDir, 'field.csv'), fieldCsv(mesh, solution.u, columns), protect);
-    writeFileAtomic(join(outDir, 'report.html'), reportHtml({ model, study, mesh, geometry: base.geometry, field: base.nodal, u: solution.u }), protect);
+    writeFileAtomic(join(outDir, 'report.html'), reportHtml({ model, study, mesh, geometry: base.geometry, field: base.nodal, u: solution.u, checks: recordedChecks() }), protect);
   }
 }
