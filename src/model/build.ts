@@ -257,6 +257,9 @@ export function buildModel(
     return { where, fix, keyPath, displace: motion };
   });
 
+  if (raw.loads.length === 0 && !supports.some((s) => s.displace !== undefined)) {
+    b.fail('expected at least one load (or a support that prescribes a displacement with displace:)', 'loads');
+  }
   const loads: Load[] = [];
   const fieldLoads: FieldLoad[] = [];
   raw.loads.forEach((l, i) => {
