@@ -17,7 +17,7 @@ import {
   type PointCache, type PointOutcome, type SweepResult, type SweepStudyOptions,
 } from '../sweep/index.js';
 import type { SpotResult } from '../study/types.js';
-import { outDirFor, useColor, type CliContext, type CommonOptions } from './commands.js';
+import { StudyInterrupted, outDirFor, useColor, type CliContext, type CommonOptions } from './commands.js';
 import { readModelText, writeFileAtomic } from './io.js';
 import { plain } from './report-error.js';
 
@@ -132,15 +132,26 @@ export async function runSweepCommand(ctx: CliContext, file: string, opts: Sweep
   const protect = [file];
   const bar = progressBar(opts, 'points');
   let sweep: SweepResult;
+  // Ctrl-C: hand out no new point, let the running ones finish, write what is done (exit 130);
+  // a second Ctrl-C quits at once. Finished points are in points/ either way and are reused.
+  let stop = false;
+  const onSigint = (): void => {
+    if (stop) process.exit(130);
+    stop = true;
+    process.stderr.write('\npeakwise: stopping after the running points and writing the finished ones (Ctrl-C again to quit at once)\n');
+  };
+  process.on('SIGINT', onSigint);
   try {
     sweep = await runSweep(text, file, axes, {
       ...options,
       ...(jobs !== undefined ? { jobs } : {}),
       cache: pointFolderCache(join(outDir, 'points'), protect),
       onProgress: (done, total, left) => bar.update(done, total, `${duration(left)} left`),
+      shouldStop: () => stop,
     });
   } finally {
     bar.stop();
+    process.off('SIGINT', onSigint);
   }
   const unit = stressUnit(model.units);
   writeFileAtomic(join(outDir, 'sweep.csv'), sweepCsv(sweep), protect);
@@ -149,10 +160,14 @@ export async function runSweepCommand(ctx: CliContext, file: string, opts: Sweep
   writeFileAtomic(join(outDir, 'sweep.json'), json, protect);
   if (opts.json) {
     process.stdout.write(json);
-    return;
+  } else {
+    process.stdout.write(sweepSummary(sweep, { stress: unit, length: model.units.length }, useColor(opts)) + '\n');
+    process.stdout.write(`  results in ${outDir}: sweep.csv, sweep.html, sweep.json, points/\n`);
   }
-  process.stdout.write(sweepSummary(sweep, { stress: unit, length: model.units.length }, useColor(opts)) + '\n');
-  process.stdout.write(`  results in ${outDir}: sweep.csv, sweep.html, sweep.json, points/\n`);
+  if (sweep.interrupted) {
+    process.stderr.write(`peakwise: interrupted: ${sweep.points.length} finished points are written to ${outDir}; run the same sweep again to compute the rest\n`);
+    throw new StudyInterrupted();
+  }
 }
 
 /** sweep.json: the sweep without each point's level-by-level detail (that stays in points/). */
@@ -164,6 +179,7 @@ export function sweepJson(sweep: SweepResult): unknown {
     axes: sweep.axes,
     reused: sweep.reused,
     totalS: sweep.totalS,
+    ...(sweep.interrupted ? { interrupted: true } : {}),
     families: sweep.families,
     points: sweep.points.map((p) => ({
       index: p.index,

@@ -29,6 +29,8 @@ export interface SweepOptions extends SweepStudyOptions {
   cache?: PointCache;
   /** after each point: points done (reused included), total, estimated seconds left (NaN at first) */
   onProgress?(done: number, total: number, secondsLeft: number): void;
+  /** asked before each new point is handed out; true stops the sweep after the running points */
+  shouldStop?(): boolean;
 }
 
 /** The compiled worker next to this file; absent when running from the TypeScript sources. */
@@ -104,6 +106,7 @@ export async function runSweep(text: string, file: string, axes: VaryAxis[], opt
   opts.onProgress?.(done, total, NaN);
   if (pending.length > 0 && jobs === 0) {
     for (const task of pending) {
+      if (opts.shouldStop?.()) break;
       let outcome: PointOutcome;
       try {
         outcome = runPoint(task);
@@ -116,10 +119,11 @@ export async function runSweep(text: string, file: string, axes: VaryAxis[], opt
     if (!existsSync(fileURLToPath(WORKER_URL))) {
       throw new PeakwiseError('usage', `the sweep worker ${fileURLToPath(WORKER_URL)} is missing: build with \`npm run build\`, or pass jobs: 0 to run in this thread`);
     }
-    await runPool(pending, jobs, finish);
+    await runPool(pending, jobs, finish, opts.shouldStop);
   }
   void computeS;
-  const finished = points as SweepPoint[];
+  const finished = points.filter((p): p is SweepPoint => p !== undefined);
+  const interrupted = finished.length < total;
   return {
     tool: 'peakwise',
     version: VERSION,
@@ -129,11 +133,12 @@ export async function runSweep(text: string, file: string, axes: VaryAxis[], opt
     families: matchSpots(finished),
     reused,
     totalS: (performance.now() - t0) / 1000,
+    ...(interrupted ? { interrupted: true } : {}),
   };
 }
 
 /** Hand tasks to `jobs` workers, one at a time each; reject on the first failed point. */
-function runPool(tasks: PointTask[], jobs: number, finish: (task: PointTask, outcome: PointOutcome) => void): Promise<void> {
+function runPool(tasks: PointTask[], jobs: number, finish: (task: PointTask, outcome: PointOutcome) => void, shouldStop?: () => boolean): Promise<void> {
   return new Promise((resolve, reject) => {
     const queue = tasks.slice();
     const byIndex = new Map(tasks.map((t) => [t.index, t]));
@@ -149,6 +154,7 @@ function runPool(tasks: PointTask[], jobs: number, finish: (task: PointTask, out
       for (const w of workers) stop(w);
     };
     const feed = (w: Worker): void => {
+      if (shouldStop?.()) queue.length = 0;
       const next = queue.shift();
       if (!next) {
         stop(w);

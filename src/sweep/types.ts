@@ -67,6 +67,8 @@ export interface SweepResult {
   reused: number;
   /** wall time of the whole sweep (s) */
   totalS: number;
+  /** set when the sweep was stopped (Ctrl-C) before every point was computed; `points` then holds the finished ones */
+  interrupted?: boolean;
 }
 
 export type { FeatureKind };
