@@ -227,31 +227,95 @@ export function postorderedTree(A: Csr, ordering: Ordering): EliminationTree {
  * 1993), amalgamates, and builds each supernode's row structure.
  */
 export function symbolicFactor(A: Csr, ordering: Ordering, options: SupernodeOptions = {}): Symbolic {
+  // the steps are separate small functions on purpose: V8 compiles a long function with many
+  // loops loop by loop (on-stack replacement, the whole function each time) on its first
+  // calls, which made the first large analyses several times slower than later ones
   const n = A.n;
   const relax = options.relax ?? true;
   const maxCols = options.maxCols ?? 96;
   const tree = ordering.tree && ordering.tree.perm === ordering.perm ? ordering.tree : postorderedTree(A, ordering);
-  let perm = tree.perm;
-  const parent = tree.parent.slice();
-  const colCounts = tree.colCounts.slice();
-  const nnzL = tree.nnzL;
-  const iperm = new Int32Array(n);
-  for (let k = 0; k < n; k++) iperm[perm[k]] = k;
+  const fundStart = fundamentalSupernodes(tree.parent, tree.colCounts);
+  const groups = amalgamate(fundStart, tree.parent, tree.colCounts, relax, maxCols, n);
+  const { perm, parent, colCounts } = renumberColumns(tree, groups.newToOld);
+  const iperm = inversePermutation(perm);
+  const nSuper = groups.nGroups;
+  const superStart = groups.groupStart;
+  const superRowPtr = new Int32Array(nSuper + 1);
+  const superValPtr = new Float64Array(nSuper + 1);
+  const superOfCol = new Int32Array(n);
+  for (let s = 0; s < nSuper; s++) {
+    const nr = groups.groupRows[s];
+    const f = superStart[s], l = superStart[s + 1];
+    superRowPtr[s + 1] = superRowPtr[s] + nr;
+    superValPtr[s + 1] = superValPtr[s] + (l - f) * nr;
+    superOfCol.fill(s, f, l);
+  }
+  // flops from the true column counts: Σ c_j² (one multiply-add per pair of entries below)
+  let flops = 0;
+  for (let j = 0; j < n; j++) flops += colCounts[j] * colCounts[j];
+  const superRows = rowStructures(A, perm, iperm, parent, superStart, superRowPtr, superOfCol);
+  return {
+    n,
+    ordering: { perm, iperm, method: ordering.method },
+    parent,
+    colCounts,
+    nnzL: tree.nnzL,
+    nSuper,
+    superStart,
+    superRowPtr,
+    superRows,
+    superValPtr,
+    superOfCol,
+    nnzStored: superValPtr[nSuper],
+    flops,
+  };
+}
 
-  // --- fundamental supernodes: j joins j-1 when j-1 is j's only child and L(:,j-1) = {j-1} ∪ L(:,j)
+function inversePermutation(perm: Int32Array): Int32Array {
+  const iperm = new Int32Array(perm.length);
+  for (let k = 0; k < perm.length; k++) iperm[perm[k]] = k;
+  return iperm;
+}
+
+/** Fundamental supernodes: j joins j-1 when j-1 is j's only child and L(:,j-1) = {j-1} ∪ L(:,j). */
+function fundamentalSupernodes(parent: Int32Array, colCounts: Int32Array): Int32Array {
+  const n = parent.length;
   const childCount = new Int32Array(n);
   for (let j = 0; j < n; j++) if (parent[j] !== -1) childCount[parent[j]]++;
-  const fundStart: number[] = [];
+  const starts = new Int32Array(n + 1);
+  let nf = 0;
   for (let j = 0; j < n; j++) {
     const joins = j > 0 && parent[j - 1] === j && childCount[j] === 1 && colCounts[j - 1] === colCounts[j] + 1;
-    if (!joins) fundStart.push(j);
+    if (!joins) starts[nf++] = j;
   }
-  fundStart.push(n);
+  starts[nf] = n;
+  return starts.slice(0, nf + 1);
+}
 
-  // --- amalgamation on the supernodal tree: merge a child into its parent when the explicit
-  // zeros stay small. Siblings may be merged into the same parent; the merged columns are then
-  // renumbered (children's subtrees first, then the members) — any topological order of the
-  // elimination tree gives the same fill (Liu 1990, "The role of elimination trees").
+interface Groups {
+  nGroups: number;
+  /** first column of each group in the new numbering, length nGroups + 1 */
+  groupStart: Int32Array;
+  /** rows of each group's panel */
+  groupRows: Float64Array;
+  /** old column of each new column */
+  newToOld: Int32Array;
+}
+
+/**
+ * Amalgamation on the supernodal tree: merge a child into its parent when the explicit zeros
+ * stay small. Siblings may be merged into the same parent; the merged columns are then
+ * renumbered (children's subtrees first, then the members) — any topological order of the
+ * elimination tree gives the same fill (Liu 1990, "The role of elimination trees").
+ */
+function amalgamate(
+  fundStart: Int32Array,
+  parent: Int32Array,
+  colCounts: Int32Array,
+  relax: boolean,
+  maxCols: number,
+  n: number,
+): Groups {
   const nFund = fundStart.length - 1;
   const fNc = new Int32Array(nFund);
   const fParent = new Int32Array(nFund).fill(-1);
@@ -319,8 +383,9 @@ export function symbolicFactor(A: Csr, ordering: Ordering, options: SupernodeOpt
   }
   // postorder of the group tree, emitting member columns
   const newToOld = new Int32Array(n);
-  const groupStart: number[] = [];
-  const groupRows: number[] = [];
+  const groupStart = new Int32Array(nFund + 1);
+  const groupRows = new Float64Array(nFund);
+  let nGroups = 0;
   const stack = new Int32Array(nFund);
   let col = 0;
   for (let root = 0; root < nFund; root++) {
@@ -336,55 +401,56 @@ export function symbolicFactor(A: Csr, ordering: Ordering, options: SupernodeOpt
         continue;
       }
       top--;
-      groupStart.push(col);
-      groupRows.push(gNr[g]);
+      groupStart[nGroups] = col;
+      groupRows[nGroups++] = gNr[g];
       for (let m = memberHead[g]; m !== -1; m = memberNext[m]) {
         for (let c = fundStart[m]; c < fundStart[m + 1]; c++) newToOld[col++] = c;
       }
     }
   }
-  {
-    const oldToNew = new Int32Array(n);
-    for (let k = 0; k < n; k++) oldToNew[newToOld[k]] = k;
-    const perm2 = new Int32Array(n);
-    const parent2 = new Int32Array(n);
-    const counts2 = new Int32Array(n);
-    for (let k = 0; k < n; k++) {
-      const o = newToOld[k];
-      perm2[k] = perm[o];
-      parent2[k] = parent[o] === -1 ? -1 : oldToNew[parent[o]];
-      counts2[k] = colCounts[o];
-    }
-    perm = perm2;
-    for (let k = 0; k < n; k++) iperm[perm[k]] = k;
-    parent.set(parent2);
-    colCounts.set(counts2);
-  }
-  const nSuper = groupStart.length;
-  const superStart = new Int32Array(nSuper + 1);
-  const superRowPtr = new Int32Array(nSuper + 1);
-  const superValPtr = new Float64Array(nSuper + 1);
-  const superOfCol = new Int32Array(n);
-  let flops = 0;
-  for (let s = 0; s < nSuper; s++) {
-    superStart[s] = groupStart[s];
-    superRowPtr[s + 1] = superRowPtr[s] + groupRows[s];
-  }
-  superStart[nSuper] = n;
-  for (let s = 0; s < nSuper; s++) {
-    const nc = superStart[s + 1] - superStart[s];
-    superValPtr[s + 1] = superValPtr[s] + nc * groupRows[s];
-    for (let c = superStart[s]; c < superStart[s + 1]; c++) superOfCol[c] = s;
-  }
-  // flops from the true column counts: Σ c_j² (one multiply-add per pair of entries below)
-  for (let j = 0; j < n; j++) flops += colCounts[j] * colCounts[j];
+  groupStart[nGroups] = n;
+  return { nGroups, groupStart: groupStart.slice(0, nGroups + 1), groupRows, newToOld };
+}
 
-  // --- row structures in one pass over the rows of P A Pᵀ, by row subtrees: row i of L is
-  // nonzero in every column on the elimination-tree paths from the columns j < i of A's row i
-  // up to i (Liu 1986; the traversal of cs_ereach in Davis 2006, §4.1), so walking the
-  // supernodal tree from supernode(j) until a supernode already holding i appends i to every
-  // supernode whose structure contains it — and, rows being taken in increasing order, every
-  // structure comes out sorted, with no per-supernode merge or sort.
+/** perm, parent and counts in the new column numbering of the amalgamated supernodes. */
+function renumberColumns(
+  tree: EliminationTree,
+  newToOld: Int32Array,
+): { perm: Int32Array; parent: Int32Array; colCounts: Int32Array } {
+  const n = newToOld.length;
+  const oldToNew = inversePermutation(newToOld);
+  const perm = new Int32Array(n);
+  const parent = new Int32Array(n);
+  const colCounts = new Int32Array(n);
+  const perm0 = tree.perm, parent0 = tree.parent, counts0 = tree.colCounts;
+  for (let k = 0; k < n; k++) {
+    const o = newToOld[k];
+    perm[k] = perm0[o];
+    parent[k] = parent0[o] === -1 ? -1 : oldToNew[parent0[o]];
+    colCounts[k] = counts0[o];
+  }
+  return { perm, parent, colCounts };
+}
+
+/**
+ * Row structures in one pass over the rows of P A Pᵀ, by row subtrees: row i of L is nonzero
+ * in every column on the elimination-tree paths from the columns j < i of A's row i up to i
+ * (Liu 1986; the traversal of cs_ereach in Davis 2006, §4.1), so walking the supernodal tree
+ * from supernode(j) until a supernode already holding i appends i to every supernode whose
+ * structure contains it — and, rows being taken in increasing order, every structure comes
+ * out sorted, with no per-supernode merge or sort.
+ */
+function rowStructures(
+  A: Csr,
+  perm: Int32Array,
+  iperm: Int32Array,
+  parent: Int32Array,
+  superStart: Int32Array,
+  superRowPtr: Int32Array,
+  superOfCol: Int32Array,
+): Int32Array {
+  const n = A.n;
+  const nSuper = superStart.length - 1;
   const superRows = new Int32Array(superRowPtr[nSuper]);
   const superParent = new Int32Array(nSuper);
   const writePos = new Int32Array(nSuper);
@@ -428,19 +494,5 @@ export function symbolicFactor(A: Csr, ordering: Ordering, options: SupernodeOpt
       throw new Error(`symbolic: supernode ${s} structure has ${writePos[s] - superRowPtr[s]} rows, counts predicted ${superRowPtr[s + 1] - superRowPtr[s]}`);
     }
   }
-  return {
-    n,
-    ordering: { perm, iperm, method: ordering.method },
-    parent,
-    colCounts,
-    nnzL,
-    nSuper,
-    superStart,
-    superRowPtr,
-    superRows,
-    superValPtr,
-    superOfCol,
-    nnzStored: superValPtr[nSuper],
-    flops,
-  };
+  return superRows;
 }
