@@ -1,5 +1,5 @@
-import type { NodeGraph } from './graph.js';
-import { columnCounts, eliminationTree, postorderTree } from './symbolic.js';
+import { inversePerm, type NodeGraph } from './graph.js';
+import { columnCounts, eliminationTree, relabelPostorder } from './symbolic.js';
 import type { Csr, EliminationTree } from './types.js';
 
 /**
@@ -19,50 +19,53 @@ import type { Csr, EliminationTree } from './types.js';
  * differ from the order the caller passed; it is the permutation the tree belongs to.
  */
 export function nodeEliminationTree(g: NodeGraph, nodePerm: Int32Array, nRows: number): EliminationTree {
-  const n = g.n;
-  const nodeIperm = new Int32Array(n);
-  for (let k = 0; k < n; k++) nodeIperm[nodePerm[k]] = k;
-  const graph: Csr = { n, rowPtr: g.adjPtr, colIdx: g.adjIdx, values: new Float64Array(0) };
-  const parent0 = eliminationTree(graph, nodePerm, nodeIperm);
-  const post = postorderTree(parent0);
-  // relabel so that the node tree is postordered
-  const perm = new Int32Array(n);
-  const ipost = new Int32Array(n);
-  for (let k = 0; k < n; k++) {
-    perm[k] = nodePerm[post[k]];
-    ipost[post[k]] = k;
-  }
-  const parent = new Int32Array(n);
-  for (let k = 0; k < n; k++) {
-    const p = parent0[post[k]];
-    parent[k] = p === -1 ? -1 : ipost[p];
-  }
-  for (let k = 0; k < n; k++) nodeIperm[perm[k]] = k;
-  const weight = new Int32Array(n);
-  for (let k = 0; k < n; k++) weight[k] = g.rowStart[perm[k] + 1] - g.rowStart[perm[k]];
-  const nodeCounts = columnCounts(graph, perm, nodeIperm, parent, weight);
+  // small step functions rather than one long one: see symbolicFactor
+  const graph: Csr = { n: g.n, rowPtr: g.adjPtr, colIdx: g.adjIdx, values: new Float64Array(0) };
+  const parent0 = eliminationTree(graph, nodePerm, inversePerm(nodePerm));
+  const { perm, parent } = relabelPostorder(nodePerm, parent0);
+  const weight = permutedWeights(g.rowStart, perm);
+  const nodeCounts = columnCounts(graph, perm, inversePerm(perm), parent, weight);
+  return expandToRows(g.rowStart, perm, parent, weight, nodeCounts, nRows);
+}
 
-  // expand to rows: rows of the k-th node follow each other, the last one's parent is the
-  // first row of the parent node
+/** Rows of each node, in the node order perm. */
+function permutedWeights(rowStart: Int32Array, perm: Int32Array): Int32Array {
+  const weight = new Int32Array(perm.length);
+  for (let k = 0; k < perm.length; k++) weight[k] = rowStart[perm[k] + 1] - rowStart[perm[k]];
+  return weight;
+}
+
+/**
+ * Row-level tree from the node tree: the rows of the k-th node follow each other, the last
+ * one's parent is the first row of the parent node, and row t of a node has t fewer entries
+ * in its column than the node's first row.
+ */
+function expandToRows(
+  rowStart: Int32Array,
+  perm: Int32Array,
+  parent: Int32Array,
+  weight: Int32Array,
+  nodeCounts: Int32Array,
+  nRows: number,
+): EliminationTree {
+  const n = perm.length;
   const rowPerm = new Int32Array(nRows);
   const rowParent = new Int32Array(nRows);
   const rowCounts = new Int32Array(nRows);
-  const firstRow = new Int32Array(n);
-  let r = 0;
-  for (let k = 0; k < n; k++) {
-    firstRow[k] = r;
-    r += weight[k];
-  }
+  const firstRow = new Int32Array(n + 1);
+  for (let k = 0; k < n; k++) firstRow[k + 1] = firstRow[k] + weight[k];
   let nnzL = 0;
   for (let k = 0; k < n; k++) {
-    const v = perm[k];
+    const v0 = rowStart[perm[k]];
     const r0 = firstRow[k];
     const w = weight[k];
+    const c = nodeCounts[k];
+    const up = parent[k] === -1 ? -1 : firstRow[parent[k]];
     for (let t = 0; t < w; t++) {
-      rowPerm[r0 + t] = g.rowStart[v] + t;
-      rowCounts[r0 + t] = nodeCounts[k] - t;
-      nnzL += nodeCounts[k] - t;
-      rowParent[r0 + t] = t < w - 1 ? r0 + t + 1 : parent[k] === -1 ? -1 : firstRow[parent[k]];
+      rowPerm[r0 + t] = v0 + t;
+      rowCounts[r0 + t] = c - t;
+      nnzL += c - t;
+      rowParent[r0 + t] = t < w - 1 ? r0 + t + 1 : up;
     }
   }
   return { perm: rowPerm, parent: rowParent, colCounts: rowCounts, nnzL };

@@ -1,3 +1,4 @@
+import { inversePerm } from './graph.js';
 import type { Csr, EliminationTree, Ordering, Symbolic } from './types.js';
 
 /**
@@ -200,11 +201,24 @@ export interface SupernodeOptions {
 export function postorderedTree(A: Csr, ordering: Ordering): EliminationTree {
   const n = A.n;
   const parent0 = eliminationTree(A, ordering.perm, ordering.iperm);
+  const { perm, parent } = relabelPostorder(ordering.perm, parent0);
+  const colCounts = columnCounts(A, perm, inversePerm(perm), parent);
+  let nnzL = 0;
+  for (let j = 0; j < n; j++) nnzL += colCounts[j];
+  return { perm, parent, colCounts, nnzL };
+}
+
+/**
+ * Renumber an elimination tree (of the order perm0) in a depth-first postorder: returns the
+ * new order and the parent of each new column.
+ */
+export function relabelPostorder(perm0: Int32Array, parent0: Int32Array): { perm: Int32Array; parent: Int32Array } {
+  const n = perm0.length;
   const post = postorderTree(parent0);
   const perm = new Int32Array(n);
   const ipost = new Int32Array(n);
   for (let k = 0; k < n; k++) {
-    perm[k] = ordering.perm[post[k]];
+    perm[k] = perm0[post[k]];
     ipost[post[k]] = k;
   }
   const parent = new Int32Array(n);
@@ -212,12 +226,7 @@ export function postorderedTree(A: Csr, ordering: Ordering): EliminationTree {
     const p = parent0[post[k]];
     parent[k] = p === -1 ? -1 : ipost[p];
   }
-  const iperm = new Int32Array(n);
-  for (let k = 0; k < n; k++) iperm[perm[k]] = k;
-  const colCounts = columnCounts(A, perm, iperm, parent);
-  let nnzL = 0;
-  for (let j = 0; j < n; j++) nnzL += colCounts[j];
-  return { perm, parent, colCounts, nnzL };
+  return { perm, parent };
 }
 
 /**
@@ -237,7 +246,7 @@ export function symbolicFactor(A: Csr, ordering: Ordering, options: SupernodeOpt
   const fundStart = fundamentalSupernodes(tree.parent, tree.colCounts);
   const groups = amalgamate(fundStart, tree.parent, tree.colCounts, relax, maxCols, n);
   const { perm, parent, colCounts } = renumberColumns(tree, groups.newToOld);
-  const iperm = inversePermutation(perm);
+  const iperm = inversePerm(perm);
   const nSuper = groups.nGroups;
   const superStart = groups.groupStart;
   const superRowPtr = new Int32Array(nSuper + 1);
@@ -269,12 +278,6 @@ export function symbolicFactor(A: Csr, ordering: Ordering, options: SupernodeOpt
     nnzStored: superValPtr[nSuper],
     flops,
   };
-}
-
-function inversePermutation(perm: Int32Array): Int32Array {
-  const iperm = new Int32Array(perm.length);
-  for (let k = 0; k < perm.length; k++) iperm[perm[k]] = k;
-  return iperm;
 }
 
 /** Fundamental supernodes: j joins j-1 when j-1 is j's only child and L(:,j-1) = {j-1} ∪ L(:,j). */
@@ -418,7 +421,7 @@ function renumberColumns(
   newToOld: Int32Array,
 ): { perm: Int32Array; parent: Int32Array; colCounts: Int32Array } {
   const n = newToOld.length;
-  const oldToNew = inversePermutation(newToOld);
+  const oldToNew = inversePerm(newToOld);
   const perm = new Int32Array(n);
   const parent = new Int32Array(n);
   const colCounts = new Int32Array(n);
