@@ -6,7 +6,7 @@ import type { Model } from '../model/types.js';
 import { parseModel } from '../model/index.js';
 import { buildGeometry } from '../geometry/index.js';
 import { meshPlate, meshQuality, sizeFieldFromSettings } from '../mesh/index.js';
-import { fieldCsv, measureName, meshSvg, reportHtml, solveSummary, spotsCsv, studyTable } from '../report/index.js';
+import { type PathPlotInput, fieldCsv, measureName, meshSvg, reportHtml, solveSummary, spotsCsv, studyTable } from '../report/index.js';
 import { runStudy as runStudyStage, type BaseSolve } from '../study/index.js';
 import type { StudyResult } from '../study/types.js';
 import { progressBar } from './progress.js';
@@ -257,8 +257,8 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
   if (model.state === 'plane-strain') columns.szz = field.szz;
   columns.von_mises = vm;
   writeFileAtomic(join(outDir, 'field.csv'), fieldCsv(mesh, solution.u, columns), [file]);
-  const pathFile = writePathOutputs(outDir, opts, { model, mesh, geometry, field }, [file]);
-  if (pathFile && !opts.json && !opts.quiet) process.stderr.write(`peakwise: stresses along the path written to ${pathFile}\n`);
+  const path = writePathOutputs(outDir, opts, { model, mesh, geometry, field }, [file]);
+  if (path && !opts.json && !opts.quiet) process.stderr.write(`peakwise: stresses along the path written to ${path.file}\n`);
   if (opts.exportMatrix || opts.exportLoad) exportSystem(model, mesh, geometry, section, solution, opts, file);
   if (opts.report) {
     const q0 = meshQuality(mesh);
@@ -272,7 +272,7 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
       measure,
       spots: [],
     };
-    writeFileAtomic(join(outDir, 'report.html'), reportHtml({ model, study: oneSolve, mesh, geometry, field: chosen, u: solution.u, mode: 'solve', checks: recordedChecks() }), [file]);
+    writeFileAtomic(join(outDir, 'report.html'), reportHtml({ model, study: oneSolve, mesh, geometry, field: chosen, u: solution.u, mode: 'solve', checks: recordedChecks(), ...(path ? { path: path.plot } : {}) }), [file]);
   }
 
   const warnings = [...modelWarnings(model, file), ...healthWarnings({ section, geometry, mesh, size: model.mesh.size, lengthUnit: model.units.length })];
@@ -401,11 +401,9 @@ export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOpti
   }
   emitWarnings(warnings, opts);
   if (warnings.length > 0) study.warnings = warnings;
-  writeStudyOutputs(model, study, base, outDir, file);
-  if (base) {
-    const pathFile = writePathOutputs(outDir, opts, { model, mesh: base.mesh, geometry: base.geometry, field: base.field }, [file]);
-    if (pathFile && !opts.json && !opts.quiet) process.stderr.write(`peakwise: stresses along the path written to ${pathFile}\n`);
-  }
+  const path = base ? writePathOutputs(outDir, opts, { model, mesh: base.mesh, geometry: base.geometry, field: base.field }, [file]) : undefined;
+  if (path && !opts.json && !opts.quiet) process.stderr.write(`peakwise: stresses along the path written to ${path.file}\n`);
+  writeStudyOutputs(model, study, base, outDir, file, path?.plot);
   if (study.interrupted) {
     process.stderr.write(`peakwise: interrupted: the finished levels are written to ${outDir} (study.json has "interrupted": true)\n`);
     throw new StudyInterrupted();
@@ -431,7 +429,7 @@ export function studyJson(study: StudyResult): string {
   return JSON.stringify(study, (_k, v: unknown) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2);
 }
 
-function writeStudyOutputs(model: Model, study: StudyResult, base: BaseSolve | undefined, outDir: string, file: string): void {
+function writeStudyOutputs(model: Model, study: StudyResult, base: BaseSolve | undefined, outDir: string, file: string, path?: PathPlotInput): void {
   const protect = [file];
   writeFileAtomic(join(outDir, 'study.json'), studyJson(study) + '\n', protect);
   writeFileAtomic(join(outDir, 'spots.csv'), spotsCsv(study), protect);
@@ -444,6 +442,6 @@ function writeStudyOutputs(model: Model, study: StudyResult, base: BaseSolve | u
     if (model.state === 'plane-strain') columns.szz = field.szz;
     columns.von_mises = nodalMeasure(field, 'von-mises');
     writeFileAtomic(join(outDir, 'field.csv'), fieldCsv(mesh, solution.u, columns), protect);
-    writeFileAtomic(join(outDir, 'report.html'), reportHtml({ model, study, mesh, geometry: base.geometry, field: base.nodal, u: solution.u, checks: recordedChecks() }), protect);
+    writeFileAtomic(join(outDir, 'report.html'), reportHtml({ model, study, mesh, geometry: base.geometry, field: base.nodal, u: solution.u, checks: recordedChecks(), ...(path ? { path } : {}) }), protect);
   }
 }

@@ -13,6 +13,8 @@ import type { PlateGeometry } from '../geometry/types.js';
 import type { NodalStress } from '../recovery/types.js';
 import { comparePath, openingPath, parsePathSpec, pathCsv, resolveCompare, samplePath, type PathTable } from '../sweep/path.js';
 import { writeFileAtomic } from './io.js';
+import { capitalise, type PathPlotInput, type PathSeries } from '../report/index.js';
+import { stressUnit } from '../model/index.js';
 
 export interface PathCliOptions {
   path?: string;
@@ -96,18 +98,37 @@ export function pathTable(opts: PathCliOptions, input: { model: Model; mesh: Mes
 }
 
 /**
- * Writes `<outDir>/path.csv` when --path was given and returns its path (undefined otherwise).
- * `protect` lists input files that must never be overwritten (the model file).
+ * Writes `<outDir>/path.csv` when --path was given; returns its path and the curves for the
+ * report's path plot (undefined without --path). `protect` lists input files that must never be
+ * overwritten (the model file).
  */
 export function writePathOutputs(
   outDir: string,
   opts: PathCliOptions,
   input: { model: Model; mesh: Mesh; geometry: PlateGeometry; field: NodalStress },
   protect: string[] = [],
-): string | undefined {
+): { file: string; plot: PathPlotInput } | undefined {
   const table = pathTable(opts, input);
   if (!table) return undefined;
   const file = join(outDir, 'path.csv');
   writeFileAtomic(file, pathCsv(table), protect);
-  return file;
+  return { file, plot: pathPlotOf(table, opts, input.model) };
+}
+
+/** The report's plot: tangential stress around an opening, von Mises along a line; references dashed. */
+export function pathPlotOf(table: PathTable, opts: PathCliOptions, model: Model): PathPlotInput {
+  const S = stressUnit(model.units);
+  const onEdge = table.kind === 'opening';
+  const fe = table.samples.map((p) => (onEdge ? p.tangential : p.vonMises));
+  const ref = table.extra[onEdge ? 'ref_tangential' : 'ref_von_mises'];
+  const what = onEdge ? 'tangential stress' : 'von Mises stress';
+  const series: PathSeries[] = [{ label: `peakwise ${what}`, values: fe }];
+  if (ref) series.push({ label: `${opts.compare ?? 'closed form'} ${what}`, values: ref, reference: true });
+  return {
+    title: `${capitalise(what)} along ${opts.path ?? 'the path'}`,
+    s: table.samples.map((p) => p.s),
+    series,
+    xLabel: `arc length s (${model.units.length})`,
+    yLabel: `${what} (${S})`,
+  };
 }

@@ -8,7 +8,7 @@ import type { Model, Shape } from '../model/types.js';
 import type { SpotResult, StudyResult } from '../study/types.js';
 import { contourSvg } from './contour.js';
 import { plotCss } from './css.js';
-import { convergencePlotSvg } from './plot.js';
+import { convergencePlotSvg, pathPlotSvg, type PathPlotInput } from './plot.js';
 import { escapeXml, formatFixed, formatNumber, safeId } from './text.js';
 import {
   CAUTION, capitalise, describeLoad, describeSupport, featureLabel, materialLine, spotReadout, spotValue, spotWhere,
@@ -32,6 +32,8 @@ export interface ReportInput {
   /** displacements, 2 per node of `mesh` */
   u: Float64Array;
   checks?: ReportCheck[];
+  /** stresses along a --path (with closed-form references when compared), drawn in their own section */
+  path?: PathPlotInput;
   /**
    * 'study' (default): the full page with verdicts and spot sections. 'solve': one solve, no
    * refinement study — the verdict and spot sections are replaced by a pointer to `peakwise
@@ -315,6 +317,7 @@ ${(study.warnings ?? []).length > 0 ? `<ul class="warnings">${(study.warnings ??
 <p class="toggle-row"><label for="show-mesh" class="toggle">show element edges</label></p>
 <figure class="figure">${main}</figure></section>
 ${studySections}
+${input.path ? `<section id="path"><h2>Along the path</h2>${pathPlotSvg(input.path)}</section>` : ''}
 <section id="verification"><h2>Verification</h2>${checksHtml}</section>
 </main>
 <footer><p class="caution">${escapeXml(CAUTION)}</p><p class="small">Made by peakwise ${escapeXml(study.version)} from ${escapeXml(study.model.file || 'a model built in code')}.</p></footer>

@@ -305,3 +305,61 @@ export function convergencePlotSvg(spot: SpotResult, opts: ConvergencePlotOption
   parts.push('</svg>');
   return parts.join('');
 }
+
+/** A stress curve along a path for `pathPlotSvg`. */
+export interface PathSeries {
+  label: string;
+  values: ArrayLike<number>;
+  /** drawn dashed (a closed-form reference) */
+  reference?: boolean;
+}
+
+export interface PathPlotInput {
+  title: string;
+  /** arc length of each sample */
+  s: ArrayLike<number>;
+  series: PathSeries[];
+  /** e.g. "arc length s (mm)" and "tangential stress (MPa)" */
+  xLabel: string;
+  yLabel: string;
+}
+
+/**
+ * Linear plot of stresses against arc length along a `--path`: the FE curves solid, closed-form
+ * references dashed, with a legend of our own (short line samples and their labels below).
+ */
+export function pathPlotSvg(input: PathPlotInput): string {
+  const W = 560, H = 300;
+  const panel: Panel = { x: 72, y: 30, w: W - 72 - 18, h: H - 30 - 78 };
+  const s = Array.from(input.s);
+  const all: number[] = [];
+  for (const ser of input.series) for (let i = 0; i < ser.values.length; i++) all.push(ser.values[i]);
+  const ax = makeAxis(s, panel.x, panel.x + panel.w, false);
+  const ay = makeAxis(all, panel.y + panel.h, panel.y, false);
+  const colours = [POINT, FIT, BAND, THEORY];
+  const parts: string[] = [
+    `<svg xmlns="http://www.w3.org/2000/svg" class="path-plot" viewBox="0 0 ${W} ${H}" width="${W}" height="${H}" font-family="${FONT}" role="img" aria-label="${escapeXml(input.title)}">`,
+    `<text x="${panel.x}" y="18" font-size="12" font-weight="600" fill="${INK}">${escapeXml(input.title)}</text>`,
+    axesSvg(panel, ax, ay, input.xLabel, input.yLabel, false),
+  ];
+  input.series.forEach((ser, k) => {
+    const colour = ser.reference ? THEORY : colours[k % colours.length];
+    // a NaN sample (outside the mesh) breaks the curve instead of joining across it
+    let d = '';
+    let pen = false;
+    for (let i = 0; i < s.length && i < ser.values.length; i++) {
+      const v = ser.values[i];
+      if (!Number.isFinite(v) || !Number.isFinite(s[i])) { pen = false; continue; }
+      d += `${pen ? 'L' : 'M'}${c1(ax.at(s[i]))} ${c1(ay.at(v))}`;
+      pen = true;
+    }
+    parts.push(`<path d="${d}" fill="none" stroke="${colour}" stroke-width="${ser.reference ? 1.3 : 1.6}"${ser.reference ? ' stroke-dasharray="5 3"' : ''}/>`);
+    const lx = panel.x + (k % 2) * 240, ly = H - 22 + Math.floor(k / 2) * 14;
+    parts.push(
+      `<line x1="${lx}" x2="${lx + 22}" y1="${ly - 4}" y2="${ly - 4}" stroke="${colour}" stroke-width="1.6"${ser.reference ? ' stroke-dasharray="5 3"' : ''}/>`,
+      `<text x="${lx + 28}" y="${ly}" font-size="10.5" fill="${INK}">${escapeXml(ser.label)}</text>`,
+    );
+  });
+  parts.push('</svg>');
+  return parts.join('');
+}
