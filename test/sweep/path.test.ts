@@ -112,9 +112,10 @@ describe('path.csv through the CLI helper, against Lamé', () => {
   const r = recover(solve(mesh(model)));
   it('radial line: von Mises follows Lamé (1852) within 1 % of the bore hoop stress', () => {
     const dir = mkdtempSync(join(tmpdir(), 'peakwise-path-'));
-    const file = writePathOutputs(dir, { path: '20,0:50,0:31', compare: 'lame' }, { model, mesh: r.mesh, geometry: r.geometry, field: r.field });
-    expect(file).toBe(join(dir, 'path.csv'));
-    const rows = readFileSync(file!, 'utf8').trimEnd().split('\r\n');
+    const out = writePathOutputs(dir, { path: '20,0:50,0:31', compare: 'lame' }, { model, mesh: r.mesh, geometry: r.geometry, field: r.field });
+    expect(out?.file).toBe(join(dir, 'path.csv'));
+    expect(out?.plot.series.map((x) => x.reference === true)).toEqual([false, true]);
+    const rows = readFileSync(out!.file, 'utf8').trimEnd().split('\r\n');
     const head = rows[0].split(',').map((h) => h.replace(/"/g, ''));
     const col = (name: string) => rows.slice(1).map((l) => Number(l.split(',')[head.indexOf(name)]));
     // Lamé: σθ(a) = p (b² + a²)/(b² − a²) = 30 · 2900/2100 = 41.43 at the bore
