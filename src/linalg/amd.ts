@@ -69,11 +69,7 @@ export function amdOrder(
     nv[i] = weight ? weight[i] : 1;
   }
   nv[n] = 0;
-  for (let i = 0; i < n; i++) {
-    let d = 0;
-    for (let p = adjPtr[i]; p < adjPtr[i + 1]; p++) d += nv[adjIdx[p]];
-    degree[i] = d;
-  }
+  weightedDegrees(n, adjPtr, adjIdx, nv, degree);
   let mark = clearMarks(0, 0, w, n);
   elen[n] = -2; // n is a placeholder root for the dense rows
   pe[n] = -1;
@@ -307,7 +303,19 @@ export function amdOrder(
     if (elenk !== 0) cnz = pw;
   }
 
-  // --- postorder the assembly tree (elements, with absorbed variables hanging below them)
+  return assemblyTreePostorder(n, pe, nv, head, next, perm);
+}
+
+
+/** Postorder of the assembly tree (elements, with absorbed variables hanging below them). */
+function assemblyTreePostorder(
+  n: number,
+  pe: Int32Array,
+  nv: Int32Array,
+  head: Int32Array,
+  next: Int32Array,
+  perm: Int32Array,
+): Int32Array {
   for (let i = 0; i < n; i++) pe[i] = -pe[i] - 2;
   for (let j = 0; j <= n; j++) head[j] = -1;
   for (let j = n; j >= 0; j--) {
@@ -334,6 +342,14 @@ export function amdOrder(
   return perm;
 }
 
+/** degree[i] = Σ weights of i's neighbours. */
+function weightedDegrees(n: number, adjPtr: Int32Array, adjIdx: Int32Array, nv: Int32Array, degree: Int32Array): void {
+  for (let i = 0; i < n; i++) {
+    let d = 0;
+    for (let p = adjPtr[i]; p < adjPtr[i + 1]; p++) d += nv[adjIdx[p]];
+    degree[i] = d;
+  }
+}
 
 /** Reset the marker array when the running mark would overflow 32 bits. */
 function clearMarks(mark: number, lemax: number, w: Int32Array, n: number): number {
