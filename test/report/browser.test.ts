@@ -5,13 +5,14 @@
  * Skipped only when /usr/bin/chromium is missing and CI is not set; under CI it must run.
  */
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
-import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { chromium, type Browser } from 'playwright-core';
-import { reportHtml } from '../../src/report/index.js';
-import { demoReportInput } from './fixtures.js';
+import { reportHtml, type ReportInput } from '../../src/report/index.js';
+import { parseModel } from '../../src/model/index.js';
+import { runStudy, type BaseSolve } from '../../src/study/index.js';
 import { decodePng, distinctColours } from './png.js';
 
 const CHROMIUM = '/usr/bin/chromium';
@@ -23,11 +24,23 @@ describe.skipIf(!haveChromium && !inCi)('report in a real browser', () => {
   let browser: Browser;
   let dir: string;
   let url: string;
-  const input = demoReportInput();
-  input.model.title = HOSTILE_TITLE;
+  let input: ReportInput;
+
+  /** the real pipeline on a demo model (3 levels keep it short), with a hostile title */
+  function demoStudyReport(): ReportInput {
+    const file = 'models/l-bracket-sharp.yaml';
+    const model = parseModel(readFileSync(join(import.meta.dirname, '..', '..', file), 'utf8'), file);
+    model.title = HOSTILE_TITLE;
+    let base: BaseSolve | undefined;
+    const study = runStudy(model, { levels: 3, onBase: (b) => { base = b; } });
+    if (!base) throw new Error('the study gave no base solve');
+    return { model, study, mesh: base.mesh, geometry: base.geometry, field: base.nodal, u: base.solution.u };
+  }
 
   beforeAll(async () => {
     if (!haveChromium) throw new Error(`CI is set but ${CHROMIUM} is missing: install chromium (see .ci/run)`);
+    input = demoStudyReport();
+    expect(input.study.spots.length).toBeGreaterThanOrEqual(2);
     dir = mkdtempSync(join(tmpdir(), 'peakwise-report-'));
     const file = join(dir, 'report.html');
     writeFileSync(file, reportHtml(input));
