@@ -260,7 +260,9 @@ export function symbolicFactor(A: Csr, ordering: Ordering, options: SupernodeOpt
     superOfCol.fill(s, f, l);
   }
   // flops from the true column counts: Σ c_j² (one multiply-add per pair of entries below)
-  let flops = 0;
+  // (starts as a double: the sum passes 2^31 from about 50k dofs, and a small-integer start
+  // made V8 deoptimise symbolicFactor there on its overflow)
+  let flops = -0;
   for (let j = 0; j < n; j++) flops += colCounts[j] * colCounts[j];
   const superRows = rowStructures(A, perm, iperm, parent, superStart, superRowPtr, superOfCol);
   return {
@@ -276,7 +278,7 @@ export function symbolicFactor(A: Csr, ordering: Ordering, options: SupernodeOpt
     superValPtr,
     superOfCol,
     nnzStored: superValPtr[nSuper],
-    flops,
+    flops: flops + 0, // + 0 turns the -0 of an empty matrix into 0
   };
 }
 
