@@ -39,9 +39,13 @@ export function toMatrixMarket(A: Csr): string {
   return s;
 }
 
-/** A vector as a Matrix Market dense `array real general` n × 1 matrix. */
+/**
+ * A vector as a Matrix Market `coordinate real general` n × 1 matrix (1-based rows, one line per
+ * non-zero entry), the same format family as the stiffness, so any reader of one reads the other.
+ */
 export function vectorToMatrixMarket(b: ArrayLike<number>): string {
-  const lines: string[] = ['%%MatrixMarket matrix array real general', '% written by peakwise', `${b.length} 1`];
-  for (let i = 0; i < b.length; i++) lines.push(fmt(b[i]));
+  const rows: string[] = [];
+  for (let i = 0; i < b.length; i++) if (b[i] !== 0) rows.push(`${i + 1} 1 ${fmt(b[i])}`);
+  const lines: string[] = ['%%MatrixMarket matrix coordinate real general', '% written by peakwise', `${b.length} 1 ${rows.length}`, ...rows];
   return lines.join('\n') + '\n';
 }

@@ -107,14 +107,21 @@ describe('Matrix Market export', () => {
     expect(Array.from(B.values)).toEqual(Array.from(A.values)); // shortest round-trip decimal
   });
 
-  it('chunked writer gives the same text; vector export is an n × 1 array', () => {
+  it('chunked writer gives the same text; vector export is an n × 1 coordinate matrix of its non-zeros', () => {
     const { A } = gridKronecker(6, 5);
     expect([...matrixMarketChunks(A, 7)].join('')).toBe(toMatrixMarket(A));
-    const b = [0.1, -2.5e-300, 1 / 3];
+    const b = [0.1, 0, -2.5e-300, 1 / 3];
     const lines = vectorToMatrixMarket(b).trim().split('\n');
-    expect(lines[0]).toBe('%%MatrixMarket matrix array real general');
+    expect(lines[0]).toBe('%%MatrixMarket matrix coordinate real general');
     const data = lines.filter((l) => !l.startsWith('%'));
-    expect(data[0]).toBe('3 1');
-    expect(data.slice(1).map(Number)).toEqual(b);
+    expect(data[0]).toBe('4 1 3');
+    // read it back: row, column, value, shortest round-trip decimals
+    const back = new Array<number>(4).fill(0);
+    for (const l of data.slice(1)) {
+      const [i, j, v] = l.split(' ');
+      expect(j).toBe('1');
+      back[Number(i) - 1] = Number(v);
+    }
+    expect(back).toEqual(b);
   });
 });
