@@ -107,7 +107,8 @@ export function requiredPointsOf(model: Model): [number, number][] {
   const pts: [number, number][] = [];
   for (const l of model.loads) if (l.where.kind === 'point') pts.push(l.where.at);
   for (const s of model.supports) if (s.where.kind === 'point') pts.push(s.where.at);
-  return pts;
+  // a load and a support on one point: the mesher wants each point once
+  return pts.filter((p, i) => pts.findIndex((q) => q[0] === p[0] && q[1] === p[1]) === i);
 }
 
 export function outDirFor(file: string, opts: CommonOptions): string {
