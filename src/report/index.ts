@@ -14,5 +14,5 @@ export type { ReportInput, ReportCheck } from './html.js';
 export { bandScale, bandColour, bandEdge, bandIndex, colourAt, triangleBands } from './isobands.js';
 export type { BandScale, BandSink } from './isobands.js';
 export { stripControl, escapeXml, formatNumber } from './text.js';
-export { CAUTION, capitalise } from './words.js';
+export { CAUTION, capitalise, featureLabel } from './words.js';
 export type { Box } from './draw.js';

@@ -79,8 +79,11 @@ export function spotWhere(spot: SpotResult, lengthUnit: string): string {
 export function featureLabel(spot: SpotResult): string {
   const f = spot.feature;
   switch (f.kind) {
-    case 'corner':
-      return `corner ${formatNumber(f.interiorAngleDeg, 4)}°`;
+    case 'corner': {
+      // a corner where a support ends says so: its singularity belongs to the idealised support
+      const held = f.faceConditions?.some((c) => c !== 'free') ? `, faces ${f.faceConditions.join('/')}` : '';
+      return `corner ${formatNumber(f.interiorAngleDeg, 4)}°${stripControl(held)}`;
+    }
     case 'fillet':
       return `fillet r ${formatNumber(f.radius)}`;
     case 'opening':

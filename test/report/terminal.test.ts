@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { CAUTION, equilibriumMismatch, solveSummary, studyTable } from '../../src/report/index.js';
+import { CAUTION, equilibriumMismatch, featureLabel, solveSummary, studyTable } from '../../src/report/index.js';
 import { HOSTILE, demoStudy } from './fixtures.js';
 
 // eslint-disable-next-line no-control-regex
@@ -86,5 +86,14 @@ describe('solveSummary', () => {
     const m = equilibriumMismatch([-3.5e-8, -4.5e-9], [-8e-11, 5.5e-11], 8000);
     expect(m).toBeLessThan(1e-11);
     expect(solveSummary({ ...info, reactionSum: [-3.5e-8, -4.5e-9], appliedSum: [-8e-11, 5.5e-11], loadScale: 8000 }, { color: false })).not.toContain('check supports');
+  });
+});
+
+describe('feature labels', () => {
+  const spot = (feature: Record<string, unknown>) => ({ feature } as unknown as Parameters<typeof featureLabel>[0]);
+  it('a free corner gives its angle; a corner at the end of a support also names its faces', () => {
+    expect(featureLabel(spot({ kind: 'corner', interiorAngleDeg: 270, radius: 0, faceConditions: ['free', 'free'] }))).toBe('corner 270°');
+    expect(featureLabel(spot({ kind: 'corner', interiorAngleDeg: 90, radius: 0, faceConditions: ['clamped', 'free'] }))).toBe('corner 90°, faces clamped/free');
+    expect(featureLabel(spot({ kind: 'fillet', interiorAngleDeg: 0, radius: 8 }))).toBe('fillet r 8');
   });
 });
