@@ -97,7 +97,10 @@ export function judgeSpot(
   const growing = inc.sameSign && Math.sign(f1) * inc.sign > 0;
   const qOk = inc.q > R.minSingularQ;
   const seOk = !Number.isFinite(inc.qSe) || inc.qSe <= Math.max(R.maxQSe, R.maxQSeRelative * inc.q);
-  if (growing && qOk && seOk) {
+  // where theory predicts a bounded stress, two growing increments (3 levels) are not enough to
+  // contradict it: a coarse ladder often still climbs toward a finite value (pre-asymptotic)
+  const evidenceOk = growthTheory > 0 || w >= R.singularWindow;
+  if (growing && qOk && seOk && evidenceOk) {
     const q = inc.q;
     const qSe = Number.isFinite(inc.qSe) ? inc.qSe : Math.abs(Math.log(Math.abs((f1 - f2) / (f2 - f3))) / Math.log(r) - q);
     let reason = `peak keeps rising like h^-${fmt(q)} over the finest ${w} levels`;
@@ -161,6 +164,9 @@ export function judgeSpot(
   } else if (fit.kind === 'monotone') {
     reason = `not yet asymptotic: converging, but with observed order ${fmt(fit.p, 2)} below ${R.minOrder}`;
     advice = 'add levels (or start finer) until the observed order settles';
+  } else if (growing && qOk && !evidenceOk) {
+    reason = `not yet asymptotic: the peak still rises (q = ${fmt(inc.q)}) over ${w} levels, where theory predicts a bounded stress`;
+    advice = 'add levels: at least 4 are needed before a rise can be called a singularity here';
   } else {
     reason = `not yet asymptotic: the peak grows (q = ${fmt(inc.q)} ± ${fmt(inc.qSe)}) but not steadily enough to call`;
     advice = 'add levels: a singular spot needs at least 4 levels in the asymptotic range';

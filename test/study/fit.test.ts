@@ -91,6 +91,15 @@ describe('verdict rules (docs/study.md)', () => {
     const v = judgeSpot(h, [673.87, 687.53, 690.44, 691.91, 691.34], 2, 2, 0.4555, 're-entrant corner 270°');
     expect(v.verdict).toBe('undecided');
   });
+  it('three rising levels where theory predicts a bounded stress → undecided, not singular', () => {
+    const h3 = [1, 0.5, 0.25];
+    const rising = h3.map((x) => 1.5 + x ** -0.455516);
+    const v = judgeSpot(h3, rising, 2, 2, 0);
+    expect(v.verdict).toBe('undecided');
+    expect(v.reason).toContain('theory predicts a bounded stress');
+    // the same three levels at a 270° corner (Williams 1952: q = 0.4555) are read as singular
+    expect(judgeSpot(h3, rising, 2, 2, 0.455516, 're-entrant corner 270°').verdict).toBe('singular');
+  });
   it('two levels → undecided, too few levels', () => {
     const v = judgeSpot([1, 0.5], [3, 3.1], 2, 2, 0);
     expect(v.verdict).toBe('undecided');
