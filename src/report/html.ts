@@ -218,7 +218,7 @@ export function reportHtml(input: ReportInput): string {
     const readouts: string[] = [];
     if (s.verdict === 'converging') {
       readouts.push(row('Converged value', escapeXml(`${formatNumber(s.estimate.value, 5)} ± ${formatNumber(s.estimate.uncertainty, 2)} ${S}`)));
-      readouts.push(row('Observed order', escapeXml(formatFixed(s.estimate.observedOrder, 2))));
+      if (Number.isFinite(s.estimate.observedOrder)) readouts.push(row('Observed order', escapeXml(formatFixed(s.estimate.observedOrder, 2))));
     } else {
       readouts.push(
         row(

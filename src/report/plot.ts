@@ -169,9 +169,11 @@ function polyline(points: [number, number][]): string {
 
 /** Slope label text: the growth exponent q (singular, undecided) or the observed order p (converging). */
 export function slopeLabel(spot: SpotResult): string {
-  return spot.verdict === 'converging'
-    ? `observed order p = ${formatFixed(spot.estimate.observedOrder, 2)}`
-    : `fitted q = ${formatFixed(spot.growth.exponent, 2)}`;
+  if (spot.verdict === 'converging') {
+    // settled or oscillating sequences have no observed order (null in the JSON)
+    return Number.isFinite(spot.estimate.observedOrder) ? `observed order p = ${formatFixed(spot.estimate.observedOrder, 2)}` : 'settled (no observed order)';
+  }
+  return `fitted q = ${formatFixed(spot.growth.exponent, 2)}`;
 }
 
 export function convergencePlotSvg(spot: SpotResult, opts: ConvergencePlotOptions): string {

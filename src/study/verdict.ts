@@ -140,19 +140,24 @@ export function judgeSpot(
   // (3) settled: both finest increments below 0.1 % of the peak, whatever their signs
   if (Math.abs(f1 - f2) <= R.settledFraction * scale && Math.abs(f2 - f3) <= R.settledFraction * scale) {
     const u = GCI_SAFETY_FACTOR * Math.max(Math.abs(f1 - f2), Math.abs(f2 - f3));
-    return converged(f1, u, finiteOr(fit.p, 0), `settled: the last two changes are below ${R.settledFraction * 100} % of the peak (${fit.kind}); band 1.25 × the larger change`);
+    return converged(f1, u, fit.kind === 'monotone' ? fit.p : NaN, `settled: the last two changes are below ${R.settledFraction * 100} % of the peak (${fit.kind}); band 1.25 × the larger change`);
   }
-  // (3b) oscillatory convergence, |R| < 1: the swings shrink. Stern, Wilson, Coleman & Paterson,
-  // "Comprehensive approach to verification and validation of CFD simulations", J. Fluids Eng. 123
-  // (2001): uncertainty ½(S_U − S_L) from the range of the oscillation; we multiply it by F_s = 1.25
-  // like the GCI, take the midpoint of that range as the value, and accept it only where no
-  // singularity is predicted and the swing is small (≤ 1 % of the peak: common practice).
-  if (fit.kind === 'oscillatory' && Math.abs(fit.R) < 1 && growthTheory === 0) {
+  // (3b) oscillatory convergence (R < 0). Stern, Wilson, Coleman & Paterson, "Comprehensive
+  // approach to verification and validation of CFD simulations", J. Fluids Eng. 123 (2001):
+  // uncertainty ½(S_U − S_L) from the range of the oscillation; we multiply it by F_s = 1.25 like
+  // the GCI, take the middle of the range as the value, and accept it only where no singularity is
+  // predicted and the last three peaks span at most 1 % (common practice). Swings that do not
+  // shrink yet (|R| ≥ 1) are accepted on the same terms — the band then comes from their range
+  // alone, and the reason says so.
+  if (fit.kind === 'oscillatory' && growthTheory === 0) {
     const hi = Math.max(f1, f2, f3);
     const lo = Math.min(f1, f2, f3);
     if (hi - lo <= R.oscillationFraction * scale) {
-      return converged(0.5 * (hi + lo), GCI_SAFETY_FACTOR * 0.5 * (hi - lo), finiteOr(fit.p, 0),
-        `converges with shrinking oscillations (R = ${fmt(fit.R, 2)}); value the middle of the last three peaks, band 1.25 × half their range (Stern et al. 2001)`);
+      const how = Math.abs(fit.R) < 1
+        ? `converges with shrinking oscillations (R = ${fmt(fit.R, 2)})`
+        : `oscillates within ${fmt((100 * (hi - lo)) / scale, 2)} % over the last three levels, swings not yet shrinking (R = ${fmt(fit.R, 2)})`;
+      return converged(0.5 * (hi + lo), GCI_SAFETY_FACTOR * 0.5 * (hi - lo), NaN,
+        `${how}; value the middle of the last three peaks, band 1.25 × half their range (Stern et al. 2001)`);
     }
   }
   // (4) undecided, with the reason

@@ -87,6 +87,15 @@ describe('verdict rules (docs/study.md)', () => {
     expect(v.estimate.uncertainty).toBeCloseTo(1.25 * 0.5 * (691.91 - 690.44), 10);
     expect(v.reason).toContain('oscillations');
   });
+  it('swings that do not shrink but stay within 1 % → converging with the band from their range; no observed order', () => {
+    // finest three 125.36, 126.15, 125.22: R = (125.22 − 126.15)/(126.15 − 125.36) = −1.18
+    const v = judgeSpot(h, [110.46, 124.09, 125.36, 126.15, 125.22], 2, 1, 0);
+    expect(v.verdict).toBe('converging');
+    expect(v.estimate.value).toBeCloseTo(0.5 * (126.15 + 125.22), 10);
+    expect(v.estimate.uncertainty).toBeCloseTo(1.25 * 0.5 * (126.15 - 125.22), 10);
+    expect(Number.isNaN(v.estimate.observedOrder)).toBe(true);
+    expect(v.reason).toContain('not yet shrinking');
+  });
   it('the same oscillation where theory predicts a singularity stays undecided', () => {
     const v = judgeSpot(h, [673.87, 687.53, 690.44, 691.91, 691.34], 2, 2, 0.4555, 're-entrant corner 270°');
     expect(v.verdict).toBe('undecided');
