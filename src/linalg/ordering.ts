@@ -367,10 +367,10 @@ export interface OrderingChoice {
 export interface ChooseOrderingOptions {
   /**
    * Try nested dissection only from this many rows on (default 300 000). Measured on the
-   * benchmark plates (docs/linalg.md): with CST, AMD's fill is lower up to 200 000 dofs
-   * (ND/AMD 1.07, 1.01, 1.007 at 50k, 100k, 200k) and ND wins from about 300 000 (0.97 at
-   * 315k, 0.92 at 805k); with LST, AMD is still lower at 410 000 (1.04). ND costs about 2.5×
-   * AMD, so below the threshold it would be paid for nothing.
+   * benchmark plates (docs/linalg.md, "Nested dissection fill"): ND's fill is now lower than
+   * AMD's from 50 000 dofs on the structured plates, but on the meshed hole plate only by 3 %
+   * at 200 000 dofs (8 % at 400 000, 15 % at 1M), while ND costs 3–4× AMD's time (0.3–0.5 s
+   * against 0.1 s at 200 000 dofs), so below the threshold it would mostly be paid for nothing.
    */
   ndMinRows?: number;
 }
