@@ -35,6 +35,24 @@ export function lstShape(xi: number, eta: number, N: Float64Array): void {
   N[5] = 4 * L3 * L1;
 }
 
+/** ∂N/∂ξ into dXi[0..5] and ∂N/∂η into dEta[0..5] of the six LST shape functions at (ξ, η) */
+export function lstParametricDerivatives(xi: number, eta: number, dXi: Float64Array, dEta: Float64Array): void {
+  const L1 = 1 - xi - eta;
+  const a = 4 * L1 - 1;
+  dXi[0] = -a;
+  dEta[0] = -a;
+  dXi[1] = 4 * xi - 1;
+  dEta[1] = 0;
+  dXi[2] = 0;
+  dEta[2] = 4 * eta - 1;
+  dXi[3] = 4 * (L1 - xi);
+  dEta[3] = -4 * xi;
+  dXi[4] = 4 * eta;
+  dEta[4] = 4 * xi;
+  dXi[5] = -4 * eta;
+  dEta[5] = 4 * (L1 - eta);
+}
+
 /**
  * Cartesian derivatives of the LST shape functions at (ξ, η) for an element with node
  * coordinates xy = [x0, y0, …, x5, y5]. Writes dNdx[0..5], dNdy[0..5]; returns det J
@@ -47,23 +65,8 @@ export function lstGradients(
   dNdx: Float64Array,
   dNdy: Float64Array,
 ): number {
-  const L1 = 1 - xi - eta;
-  const L2 = xi;
-  const L3 = eta;
   // derivatives with respect to ξ (dNdx is used as scratch) and η (dNdy)
-  const a = 4 * L1 - 1;
-  dNdx[0] = -a;
-  dNdy[0] = -a;
-  dNdx[1] = 4 * L2 - 1;
-  dNdy[1] = 0;
-  dNdx[2] = 0;
-  dNdy[2] = 4 * L3 - 1;
-  dNdx[3] = 4 * (L1 - L2);
-  dNdy[3] = -4 * L2;
-  dNdx[4] = 4 * L3;
-  dNdy[4] = 4 * L2;
-  dNdx[5] = -4 * L3;
-  dNdy[5] = 4 * (L1 - L3);
+  lstParametricDerivatives(xi, eta, dNdx, dNdy);
   let j11 = 0;
   let j12 = 0;
   let j21 = 0;

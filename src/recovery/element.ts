@@ -1,4 +1,5 @@
 import type { Mesh } from '../mesh/types.js';
+import { lstParametricDerivatives, lstShape } from '../fem/index.js';
 
 /**
  * Element-level helpers shared by the recovery stage: shape functions of the 3- and 6-node
@@ -52,47 +53,29 @@ export const RULE_7: TriangleRule = (() => {
 })();
 // RULE_7 weights above are tabulated for the reference area ½; doubling makes them sum to 1.
 
-/** Shape functions at (ξ, η) into `N` (length 3 or 6). */
+/** Shape functions at (ξ, η) into `N` (length 3 or 6); the LST ones are the fem stage's. */
 export function shapeFunctions(nodesPerElem: 3 | 6, xi: number, eta: number, N: Float64Array): void {
-  const L1 = 1 - xi - eta;
-  if (nodesPerElem === 3) {
-    N[0] = L1;
-    N[1] = xi;
-    N[2] = eta;
+  if (nodesPerElem === 6) {
+    lstShape(xi, eta, N);
     return;
   }
-  N[0] = L1 * (2 * L1 - 1);
-  N[1] = xi * (2 * xi - 1);
-  N[2] = eta * (2 * eta - 1);
-  N[3] = 4 * L1 * xi;
-  N[4] = 4 * xi * eta;
-  N[5] = 4 * eta * L1;
+  N[0] = 1 - xi - eta;
+  N[1] = xi;
+  N[2] = eta;
 }
 
 /** ∂N/∂ξ and ∂N/∂η at (ξ, η). */
 export function shapeDerivatives(nodesPerElem: 3 | 6, xi: number, eta: number, dXi: Float64Array, dEta: Float64Array): void {
-  if (nodesPerElem === 3) {
-    dXi[0] = -1;
-    dXi[1] = 1;
-    dXi[2] = 0;
-    dEta[0] = -1;
-    dEta[1] = 0;
-    dEta[2] = 1;
+  if (nodesPerElem === 6) {
+    lstParametricDerivatives(xi, eta, dXi, dEta);
     return;
   }
-  const L1 = 1 - xi - eta;
-  dXi[0] = -(4 * L1 - 1);
-  dEta[0] = -(4 * L1 - 1);
-  dXi[1] = 4 * xi - 1;
-  dEta[1] = 0;
+  dXi[0] = -1;
+  dXi[1] = 1;
   dXi[2] = 0;
-  dEta[2] = 4 * eta - 1;
-  dXi[3] = 4 * (L1 - xi);
-  dEta[3] = -4 * xi;
-  dXi[4] = 4 * eta;
-  dEta[4] = 4 * xi;
-  dXi[5] = -4 * eta;
-  dEta[5] = 4 * (L1 - eta);
+  dEta[0] = -1;
+  dEta[1] = 0;
+  dEta[2] = 1;
 }
 
 /** Area of the straight triangle through the three corner nodes (positive counter-clockwise). */
