@@ -114,7 +114,8 @@ export function judgeSpot(
     return {
       verdict: 'singular', reason,
       advice: 'do not read the peak as a stress: use the readouts (stress at a distance, average, notch stress intensity) or model the real radius',
-      estimate: { value: f1, uncertainty: NaN, observedOrder: finiteOr(fit.p, NaN) },
+      // no value: the peak of a singular spot is not a stress (it is in levels[].peak)
+      estimate: { value: NaN, uncertainty: NaN, observedOrder: NaN },
       growth: { exponent: q, exponentUncertainty: qSe, theory: growthTheory },
       history, peakSlope,
     };

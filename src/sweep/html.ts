@@ -66,14 +66,16 @@ export function familyPlotSvg(sweep: Pick<SweepResult, 'axes' | 'points'>, famil
     const m = memberAt(family, point.index);
     if (!m) continue;
     const spot = point.study.spots[m.spot];
+    // a singular spot has no value: it is drawn (with its own marker) at its finest-level peak
+    const y = spot.verdict === 'singular' ? (spot.levels[spot.levels.length - 1]?.peak ?? NaN) : spot.estimate.value;
     const label = others.map((a) => `${a.name} = ${formatNumber(point.params[a.name])}`).join(', ');
     const list = series.get(label) ?? [];
     list.push({
       x: point.params[xAxis.name],
-      y: spot.estimate.value,
+      y,
       u: spot.estimate.uncertainty,
       verdict: spot.verdict,
-      title: `${xAxis.name} = ${formatNumber(point.params[xAxis.name])}${label ? ', ' + label : ''}: ${spot.id} ${spot.verdict}, ${formatNumber(spot.estimate.value)} ${stressUnit}`,
+      title: `${xAxis.name} = ${formatNumber(point.params[xAxis.name])}${label ? ', ' + label : ''}: ${spot.id} ${spot.verdict}, ${spot.verdict === 'singular' ? 'finest peak ' : ''}${formatNumber(y)} ${stressUnit}`,
     });
     series.set(label, list);
   }
@@ -144,7 +146,7 @@ export function sweepHtml(sweep: SweepResult, stressUnit: string): string {
       const s = p.study.spots[m.spot];
       const value = s.verdict === 'converging'
         ? `${formatNumber(s.estimate.value)} ± ${formatNumber(s.estimate.uncertainty, 2)}`
-        : s.verdict === 'singular' ? `peak ${formatNumber(s.estimate.value)}; q = ${formatNumber(s.growth.exponent, 3)} (theory ${formatNumber(s.growth.theory, 3)})` : formatNumber(s.estimate.value);
+        : s.verdict === 'singular' ? `finest peak ${formatNumber(s.levels[s.levels.length - 1]?.peak ?? NaN)}; q = ${formatNumber(s.growth.exponent, 3)} (theory ${formatNumber(s.growth.theory, 3)})` : formatNumber(s.estimate.value);
       return `<tr>${params}<td>${escapeXml(s.id)} ${escapeXml(s.feature.kind)}</td><td>${escapeXml(s.verdict)}</td><td>${escapeXml(value)}</td><td>${escapeXml(formatNumber(s.readouts.atDistance))}</td></tr>`;
     }).join('');
     const head = sweep.axes.map((a) => `<th>${escapeXml(a.name)}</th>`).join('');

@@ -52,6 +52,8 @@ describe('verdict rules (docs/study.md)', () => {
     expect(v.verdict).toBe('singular');
     expect(v.growth.exponent).toBeCloseTo(0.455516, 9);
     expect(v.reason).toContain('as theory predicts');
+    // no value is offered for a singular spot (no fake Kt): its peak is not a stress
+    expect(Number.isNaN(v.estimate.value)).toBe(true);
   });
   it('converging sequence f = 3 + 0.2 h² → converging to 3 with p = 2, exact extrapolation', () => {
     const v = judgeSpot(h, h.map((x) => 3 + 0.2 * x * x), 2, 2, 0);
