@@ -15,18 +15,8 @@ import {
   type Curve,
 } from '../../src/geometry/index.js';
 import { circle, ellipse, plate, poly, rectPoints } from './fixtures.js';
+import { seededRandom as rng } from '../helpers/random.js';
 
-/** Deterministic pseudo-random numbers (mulberry32) so the sampled checks are repeatable. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /**
  * Ellipse perimeter by the Gauss–Kummer series P = π(a + b) Σ C(1/2, n)² hⁿ, h = ((a − b)/(a + b))²

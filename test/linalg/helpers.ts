@@ -1,16 +1,7 @@
 import { csrFromTriplets, type Csr } from '../../src/linalg/index.js';
+import { seededRandom } from '../helpers/random.js';
 
-/** Deterministic pseudo-random numbers (mulberry32) so failures reproduce. */
-export function seededRandom(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { seededRandom };
 
 /** Random sparse SPD: symmetric random off-diagonals, diagonal made strictly dominant. */
 export function randomSpd(n: number, density: number, seed: number): Csr {

@@ -5,18 +5,9 @@
  */
 import type { GaussStresses } from '../../src/fem/types.js';
 import type { Mesh } from '../../src/mesh/types.js';
+import { seededRandom as rng } from '../helpers/random.js';
 
-/** Small deterministic generator (mulberry32) so jittered meshes are reproducible. */
-export function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { rng };
 
 export function rectMesh(nx: number, ny: number, W: number, H: number, order: 1 | 2, jitter = 0, seed = 1): Mesh {
   const rand = rng(seed);
