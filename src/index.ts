@@ -43,14 +43,14 @@ export {
   buildPointLocator, stressAt, boundaryTangentialStress, adaptiveSolve,
   type PointLocator, type PointStress, type BoundaryStress, type AdaptiveOptions, type AdaptiveResult,
 } from './recovery/index.js';
-export { runStudy, findSpots, williamsRoots, wedgeTheory, type StudyOptions, type BaseSolve } from './study/index.js';
-export { studyTable, spotsCsv, fieldCsv, reportHtml, meshSvg, contourSvg, convergencePlotSvg, CAUTION } from './report/index.js';
+export { runStudy, findSites, williamsRoots, wedgeTheory, type StudyOptions, type BaseSolve } from './study/index.js';
+export { studyTable, sitesCsv, fieldCsv, reportHtml, meshSvg, contourSvg, convergencePlotSvg, CAUTION } from './report/index.js';
 export { kirschPolar, kirschCartesian, lameRing, inglisKt } from './reference/index.js';
 export {
-  runSweep, parseVary, expandRange, cartesian, matchSpots, sweepCsv, sweepHtml, pointKey,
+  runSweep, parseVary, expandRange, cartesian, matchSites, sweepCsv, sweepHtml, pointKey,
   type SweepOptions, type PointCache, type PointOutcome,
 } from './sweep/index.js';
-export { samplePath, openingPath, pathCsv, parsePathSpec, type PathSample, type PathSpec, type PathTable } from './sweep/path.js';
+export { sampleCut, openingCut, cutCsv, parseCutSpec, type CutSample, type CutSpec, type CutTable } from './sweep/cut.js';
 
 /**
  * Read and parse a model file (this one does file I/O; `parseModel(text, file)` is the pure form).
@@ -123,7 +123,7 @@ export function recover(solved: Solved): Recovered {
   return { ...solved, gauss, field, estimate, nodal: nodalMeasure(field, solved.model.study.measure) };
 }
 
-/** The hot-spot study of a model (verdict per spot); the same as `peakwise study`. */
+/** The convergence study of a model (verdict per site); the same as `peakwise study`. */
 export function study(model: Model, opts: StudyOptions = {}): StudyResult {
   return runStudy(model, opts);
 }
@@ -131,7 +131,7 @@ export function study(model: Model, opts: StudyOptions = {}): StudyResult {
 /**
  * The study repeated over parameter values, on worker threads (from the built package; pass
  * `jobs: 0` to stay in this thread). `vary` is `{ r: [0, 2, 4] }`, a list of axes, or `--vary`
- * strings such as `'r=0:2:20'`. Returns every point's study and the spot families.
+ * strings such as `'r=0:2:20'`. Returns every point's study and the site families.
  */
 export function sweep(modelText: string, file: string, vary: Record<string, number[]> | VaryAxis[] | string[], opts: SweepOptions = {}): Promise<SweepResult> {
   let axes: VaryAxis[];

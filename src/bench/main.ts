@@ -111,8 +111,8 @@ function benchStudies(): void {
     const t0 = performance.now();
     const r = runStudy(model);
     const s = (performance.now() - t0) / 1000;
-    const verdicts = r.spots.map((p) => `${p.id} ${p.verdict}`).join(', ');
-    process.stdout.write(`  ${f}: ${s.toFixed(2)} s, ${r.spots.length} spots × ${model.study.levels} levels (${verdicts})\n`);
+    const verdicts = r.sites.map((p) => `${p.id} ${p.verdict}`).join(', ');
+    process.stdout.write(`  ${f}: ${s.toFixed(2)} s, ${r.sites.length} sites × ${model.study.levels} levels (${verdicts})\n`);
   }
 }
 

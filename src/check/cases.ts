@@ -1,6 +1,6 @@
 /**
  * The built-in verification cases of `peakwise check`. Each case builds its own model in code,
- * runs the product pipeline (mesh → solve → SPR, or the whole hot-spot study where a verdict or
+ * runs the product pipeline (mesh → solve → SPR, or the whole convergence study where a verdict or
  * an exponent is the quantity) and compares one number with a closed form. Tolerances follow
  * the project's reference notes ("Suggested test cases"); the reason is given beside each.
  * Meshes are LST (order 2) and modest so the whole suite runs in well under a minute.
@@ -11,7 +11,7 @@ import {
   cantileverDisplacement, cantileverStress, kirschCartesian, kirschHoopAtEdge, lameRing, type CantileverData,
 } from '../reference/index.js';
 import { boundaryTangentialStress, stressAt } from '../recovery/index.js';
-import { runStudy, type SpotResult, type StudyResult } from '../study/index.js';
+import { runStudy, type SiteResult, type StudyResult } from '../study/index.js';
 import type { PrescribedDisplacement } from '../fem/index.js';
 import { caseModel, nearestNode, nodesWhere, relError, solveModel, type Solved } from './pipeline.js';
 import { extrapolateK, feddersenCentreCrackK, tadaCentreCrackK } from './crack.js';
@@ -419,7 +419,7 @@ function cantileverCase(): CheckResult[] {
 }
 
 // ---------------------------------------------------------------------------------------------
-// Williams exponents through the hot-spot study
+// Williams exponents through the convergence study
 
 const STUDY_HEAD = `
 units: { length: mm, force: N }
@@ -428,13 +428,13 @@ thickness: 1
 state: plane-stress
 `;
 
-function spotAt(r: StudyResult, x: number, y: number): SpotResult | undefined {
-  return r.spots.find((p) => Math.hypot(p.at[0] - x, p.at[1] - y) < 1e-6);
+function siteAt(r: StudyResult, x: number, y: number): SiteResult | undefined {
+  return r.sites.find((p) => Math.hypot(p.at[0] - x, p.at[1] - y) < 1e-6);
 }
 
-function exponentResult(name: string, source: string, spot: SpotResult | undefined, qRef: number, tolerance: number): CheckResult {
-  const q = spot ? spot.growth.exponent : NaN;
-  const verdict = spot ? spot.verdict : 'missing';
+function exponentResult(name: string, source: string, site: SiteResult | undefined, qRef: number, tolerance: number): CheckResult {
+  const q = site ? site.growth.exponent : NaN;
+  const verdict = site ? site.verdict : 'missing';
   return {
     ...result({
       name, source,
@@ -465,7 +465,7 @@ loads:
 mesh: { size: 0.25, order: 2 }
 `, 'check-l-plate.yaml');
   const r = runStudy(model, { levels: 5 });
-  return [exponentResult('Williams 270° corner: exponent', 'Williams 1952 (J. Appl. Mech. 19), free–free 270°: λ = 0.544484', spotAt(r, 1, 1), 0.455516, 0.05)];
+  return [exponentResult('Williams 270° corner: exponent', 'Williams 1952 (J. Appl. Mech. 19), free–free 270°: λ = 0.544484', siteAt(r, 1, 1), 0.455516, 0.05)];
 }
 
 /*
@@ -486,7 +486,7 @@ loads:
 mesh: { size: 0.25, order: 2 }
 `, 'check-edge-slit.yaml');
   const r = runStudy(model, { levels: 5 });
-  return [exponentResult('Williams crack tip: exponent', 'Williams 1952 (J. Appl. Mech. 19), 360° crack: λ = 1/2', spotAt(r, 0.5, 0), 0.5, 0.06)];
+  return [exponentResult('Williams crack tip: exponent', 'Williams 1952 (J. Appl. Mech. 19), 360° crack: λ = 1/2', siteAt(r, 0.5, 0), 0.5, 0.06)];
 }
 
 /*
@@ -510,16 +510,16 @@ loads:
 mesh: { size: 3, order: 2 }
 `, 'check-strip-hole.yaml');
   const r = runStudy(model, { levels: 4 });
-  const spot = spotAt(r, 1, 0) ?? spotAt(r, -1, 0);
-  const value = spot ? spot.estimate.value : NaN;
+  const site = siteAt(r, 1, 0) ?? siteAt(r, -1, 0);
+  const value = site ? site.estimate.value : NaN;
   const ref = 3.036;
   const row = result({
     name: 'study: strip hole d/W = 0.1, Ktg',
     source: 'Howland 1930 (Phil. Trans. A 229); value: reference notes §2 computed column',
-    quantity: `study estimate of the converged von Mises peak / S (verdict ${spot ? spot.verdict : 'missing'})`,
+    quantity: `study estimate of the converged von Mises peak / S (verdict ${site ? site.verdict : 'missing'})`,
     reference: ref, value, error: relError(value, ref), tolerance: 0.01,
   });
-  return [spot && spot.verdict === 'converging' ? row : { ...row, pass: false }];
+  return [site && site.verdict === 'converging' ? row : { ...row, pass: false }];
 }
 
 // ---------------------------------------------------------------------------------------------

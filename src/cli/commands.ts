@@ -6,7 +6,7 @@ import type { Model } from '../model/types.js';
 import { parseModel } from '../model/index.js';
 import { buildGeometry } from '../geometry/index.js';
 import { meshPlate, meshQuality, sizeFieldFromSettings } from '../mesh/index.js';
-import { type PathPlotInput, fieldCsv, measureName, meshSvg, reportHtml, solveSummary, spotsCsv, studyTable } from '../report/index.js';
+import { type CutPlotInput, fieldCsv, measureName, meshSvg, reportHtml, solveSummary, sitesCsv, studyTable } from '../report/index.js';
 import { runStudy as runStudyStage, type BaseSolve } from '../study/index.js';
 import type { StudyResult } from '../study/types.js';
 import { progressBar } from './progress.js';
@@ -20,7 +20,7 @@ import { adaptiveSolve, estimateError, nodalMeasure, recoverSpr, vonMises, type 
 import { csrSubmatrix, matrixMarketChunks, vectorToMatrixMarket } from '../linalg/index.js';
 import { stressUnit } from '../model/index.js';
 import { VERSION } from '../version.js';
-import { checkPathOptions, writePathOutputs, type PathCliOptions } from './path.js';
+import { checkCutOptions, writeCutOutputs, type CutCliOptions } from './cut.js';
 import { modelName, prepareOutDir, readModelText, writeFileAtomic } from './io.js';
 import { plain, nearestPosition } from './report-error.js';
 import { totalmem } from 'node:os';
@@ -169,7 +169,7 @@ export function fmt(v: number): string {
   return Number(v.toPrecision(5)).toString();
 }
 
-export interface SolveOptions extends CommonOptions, PathCliOptions {
+export interface SolveOptions extends CommonOptions, CutCliOptions {
   exportMatrix?: string;
   exportLoad?: string;
   adapt?: string;
@@ -190,7 +190,7 @@ export function nodalMax(mesh: Mesh, values: Float64Array): { value: number; at:
 }
 
 export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions): Promise<void> {
-  checkPathOptions(opts);
+  checkCutOptions(opts);
   const model = loadModel(ctx, file, opts);
   const outDir = outDirFor(file, opts);
   const section = sectionOf(model);
@@ -258,8 +258,8 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
   if (model.state === 'plane-strain') columns.szz = field.szz;
   columns.von_mises = vm;
   writeFileAtomic(join(outDir, 'field.csv'), fieldCsv(mesh, solution.u, columns), [file]);
-  const path = writePathOutputs(outDir, opts, { model, mesh, geometry, field }, [file]);
-  if (path && !opts.json && !opts.quiet) process.stderr.write(`peakwise: stresses along the path written to ${path.file}\n`);
+  const cut = writeCutOutputs(outDir, opts, { model, mesh, geometry, field }, [file]);
+  if (cut && !opts.json && !opts.quiet) process.stderr.write(`peakwise: stresses along the cut written to ${cut.file}\n`);
   if (opts.exportMatrix || opts.exportLoad) exportSystem(model, mesh, geometry, section, solution, opts, file);
   if (opts.report) {
     const q0 = meshQuality(mesh);
@@ -271,9 +271,9 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
       mesh: { nodes: q0.nodes, elements: q0.elements, order: q0.order, minAngleDeg: q0.minAngleDeg },
       solution: { dofs: solution.dofs, maxDisplacement: solution.maxDisplacement, reactionSum: solution.reactionSum, appliedSum: solution.appliedSum },
       measure,
-      spots: [],
+      sites: [],
     };
-    writeFileAtomic(join(outDir, 'report.html'), reportHtml({ model, study: oneSolve, mesh, geometry, field: chosen, u: solution.u, mode: 'solve', checks: recordedChecks(), ...(path ? { path: path.plot } : {}) }), [file]);
+    writeFileAtomic(join(outDir, 'report.html'), reportHtml({ model, study: oneSolve, mesh, geometry, field: chosen, u: solution.u, mode: 'solve', checks: recordedChecks(), ...(cut ? { cut: cut.plot } : {}) }), [file]);
   }
 
   const warnings = [...modelWarnings(model, file), ...healthWarnings({ section, geometry, mesh, size: model.mesh.size, lengthUnit: model.units.length })];
@@ -364,7 +364,7 @@ function exportSystem(model: Model, mesh: Mesh, geometry: PlateGeometry, section
   }
 }
 
-export interface StudyCliOptions extends CommonOptions, PathCliOptions {
+export interface StudyCliOptions extends CommonOptions, CutCliOptions {
   levels?: string;
   ratio?: string;
   maxDofs?: string;
@@ -372,7 +372,7 @@ export interface StudyCliOptions extends CommonOptions, PathCliOptions {
 
 
 export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOptions): Promise<void> {
-  checkPathOptions(opts);
+  checkCutOptions(opts);
   const model = loadModel(ctx, file, opts);
   const outDir = outDirFor(file, opts);
   const levels = opts.levels !== undefined ? Number(opts.levels) : undefined;
@@ -402,9 +402,9 @@ export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOpti
   }
   emitWarnings(warnings, opts);
   if (warnings.length > 0) study.warnings = warnings;
-  const path = base ? writePathOutputs(outDir, opts, { model, mesh: base.mesh, geometry: base.geometry, field: base.field }, [file]) : undefined;
-  if (path && !opts.json && !opts.quiet) process.stderr.write(`peakwise: stresses along the path written to ${path.file}\n`);
-  writeStudyOutputs(model, study, base, outDir, file, path?.plot);
+  const cut = base ? writeCutOutputs(outDir, opts, { model, mesh: base.mesh, geometry: base.geometry, field: base.field }, [file]) : undefined;
+  if (cut && !opts.json && !opts.quiet) process.stderr.write(`peakwise: stresses along the cut written to ${cut.file}\n`);
+  writeStudyOutputs(model, study, base, outDir, file, cut?.plot);
   if (study.interrupted) {
     process.stderr.write(`peakwise: interrupted: the finished levels are written to ${outDir} (study.json has "interrupted": true)\n`);
     throw new StudyInterrupted();
@@ -414,7 +414,7 @@ export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOpti
     return;
   }
   process.stdout.write(studyTable(study, { color: useColor(opts) }) + '\n');
-  process.stdout.write(`  results in ${outDir}: study.json, spots.csv, field.csv, report.html\n`);
+  process.stdout.write(`  results in ${outDir}: study.json, sites.csv, field.csv, report.html\n`);
 }
 
 /** A study stopped by Ctrl-C after writing what it had: the CLI exits with status 130. */
@@ -430,10 +430,10 @@ export function studyJson(study: StudyResult): string {
   return JSON.stringify(study, (_k, v: unknown) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2);
 }
 
-function writeStudyOutputs(model: Model, study: StudyResult, base: BaseSolve | undefined, outDir: string, file: string, path?: PathPlotInput): void {
+function writeStudyOutputs(model: Model, study: StudyResult, base: BaseSolve | undefined, outDir: string, file: string, cut?: CutPlotInput): void {
   const protect = [file];
   writeFileAtomic(join(outDir, 'study.json'), studyJson(study) + '\n', protect);
-  writeFileAtomic(join(outDir, 'spots.csv'), spotsCsv(study), protect);
+  writeFileAtomic(join(outDir, 'sites.csv'), sitesCsv(study), protect);
   if (base) {
     const { mesh, field, solution } = base;
     const n = mesh.xy.length / 2;
@@ -443,6 +443,6 @@ function writeStudyOutputs(model: Model, study: StudyResult, base: BaseSolve | u
     if (model.state === 'plane-strain') columns.szz = field.szz;
     columns.von_mises = nodalMeasure(field, 'von-mises');
     writeFileAtomic(join(outDir, 'field.csv'), fieldCsv(mesh, solution.u, columns), protect);
-    writeFileAtomic(join(outDir, 'report.html'), reportHtml({ model, study, mesh, geometry: base.geometry, field: base.nodal, u: solution.u, checks: recordedChecks(), ...(path ? { path } : {}) }), protect);
+    writeFileAtomic(join(outDir, 'report.html'), reportHtml({ model, study, mesh, geometry: base.geometry, field: base.nodal, u: solution.u, checks: recordedChecks(), ...(cut ? { cut } : {}) }), protect);
   }
 }

@@ -6,7 +6,7 @@
 import { Command, CommanderError, Option } from 'commander';
 import { isPeakwiseError } from '../errors.js';
 import { describeError } from './report-error.js';
-import { registerPathOptions } from './path.js';
+import { registerCutOptions } from './cut.js';
 import { runMesh, runSolve, runStudy, setStopFlag, StudyInterrupted, type CliContext } from './commands.js';
 import { Worker, isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { VERSION } from '../version.js';
@@ -41,7 +41,7 @@ export function buildProgram(): Command {
       .option('--svg <file>', 'draw the mesh as SVG (boundary tags coloured)'),
   ).action(async (model: string, opts) => runMesh(ctx, model, opts));
 
-  registerPathOptions(sharedOptions(
+  registerCutOptions(sharedOptions(
     program
       .command('solve <model>')
       .description('one solve: displacements, stresses, reaction check, error estimate, field.csv')
@@ -52,11 +52,11 @@ export function buildProgram(): Command {
       .option('--report', 'also write report.html'),
   )).action(async (model: string, opts) => runSolve(ctx, model, opts));
 
-  registerPathOptions(sharedOptions(
+  registerCutOptions(sharedOptions(
     program
       .command('study <model>')
-      .description('find every hot spot, refine it level after level and give a verdict')
-      .option('--levels <n>', 'refinement levels per spot (overrides study.levels)')
+      .description('find every site, refine it level after level and give a verdict')
+      .option('--levels <n>', 'refinement levels per site (overrides study.levels)')
       .option('--ratio <r>', 'element size ratio between levels (overrides study.ratio)')
       .option('--max-dofs <n>', 'cap on degrees of freedom per solve', '2000000'),
   )).action(async (model: string, opts) => runStudy(ctx, model, opts));
@@ -67,7 +67,24 @@ export function buildProgram(): Command {
   return program;
 }
 
+/** Options of earlier versions and their present names: an old option gets a hint, not "unknown option". */
+const RENAMED_OPTIONS: Readonly<Record<string, string>> = { '--path': '--cut' };
+
+function renamedOptionHint(argv: readonly string[]): string | undefined {
+  for (const a of argv.slice(2)) {
+    const name = a.split('=')[0];
+    const now = RENAMED_OPTIONS[name];
+    if (now !== undefined) return `option ${name} is now called ${now} (same meaning); rename it`;
+  }
+  return undefined;
+}
+
 async function main(argv: string[]): Promise<number> {
+  const hint = renamedOptionHint(argv);
+  if (hint !== undefined) {
+    process.stderr.write(`peakwise: ${hint}\n`);
+    return 1;
+  }
   const program = buildProgram();
   try {
     await program.parseAsync(argv);

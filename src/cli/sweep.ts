@@ -16,7 +16,7 @@ import {
   fromJson, memberAt, parseVary, runSweep, sweepCsv, sweepHtml, toJson,
   type PointCache, type PointOutcome, type SweepResult, type SweepStudyOptions,
 } from '../sweep/index.js';
-import type { SpotResult } from '../study/types.js';
+import type { SiteResult } from '../study/types.js';
 import { StudyInterrupted, outDirFor, useColor, type CliContext, type CommonOptions } from './commands.js';
 import { readModelText, writeFileAtomic } from './io.js';
 import { plain } from './report-error.js';
@@ -44,7 +44,7 @@ export function pointFolderCache(dir: string, protect: string[]): PointCache {
       if (!existsSync(path)) return undefined;
       try {
         const data = fromJson<PointFile>(readFileSync(path, 'utf8'));
-        if (data.key !== key || !data.study || !Array.isArray(data.study.spots)) return undefined;
+        if (data.key !== key || !data.study || !Array.isArray(data.study.sites)) return undefined;
         return { study: data.study, scale: data.scale, seconds: 0 };
       } catch {
         return undefined; // a damaged file is recomputed and replaced
@@ -75,7 +75,7 @@ function duration(s: number): string {
 }
 
 
-function spotLine(s: SpotResult, unit: string, lengthUnit: string): string {
+function siteLine(s: SiteResult, unit: string, lengthUnit: string): string {
   const r = s.readouts.atDistance !== undefined && Number.isFinite(s.readouts.atDistance)
     ? `; ${formatNumber(s.readouts.atDistance)} ${unit} at ${formatNumber(s.readouts.distance)} ${lengthUnit}`
     : '';
@@ -84,7 +84,7 @@ function spotLine(s: SpotResult, unit: string, lengthUnit: string): string {
   return `last ${formatNumber(s.estimate.value)} ${unit} (unsettled)`;
 }
 
-/** The terminal summary: one block per spot family, one line per sweep point. */
+/** The terminal summary: one block per site family, one line per sweep point. */
 export function sweepSummary(sweep: SweepResult, units: { stress: string; length: string }, color: boolean): string {
   const c = color ? pc : pc.createColors(false);
   const paint = (v: string) => (v === 'converging' ? c.green(v) : v === 'singular' ? c.magenta(v) : c.yellow(v));
@@ -92,13 +92,13 @@ export function sweepSummary(sweep: SweepResult, units: { stress: string; length
   const widths = sweep.axes.map((a) => Math.max(a.name.length, ...a.values.map((v) => formatNumber(v).length)));
   for (const f of sweep.families) {
     lines.push('', c.bold(`  ${f.id} ${f.featureClass} near (${formatNumber(f.at[0])}, ${formatNumber(f.at[1])})`));
-    lines.push('    ' + sweep.axes.map((a, i) => a.name.padEnd(widths[i])).join('  ') + '  spot  verdict     value');
+    lines.push('    ' + sweep.axes.map((a, i) => a.name.padEnd(widths[i])).join('  ') + '  site  verdict     value');
     for (const p of sweep.points) {
       const m = memberAt(f, p.index);
       const params = sweep.axes.map((a, i) => formatNumber(p.params[a.name]).padEnd(widths[i])).join('  ');
       if (!m) { lines.push(`    ${params}  —`); continue; }
-      const s = p.study.spots[m.spot];
-      lines.push(`    ${params}  ${plain(s.id).padEnd(4)}  ${paint(s.verdict.padEnd(10))}  ${plain(spotLine(s, units.stress, units.length))}`);
+      const s = p.study.sites[m.site];
+      lines.push(`    ${params}  ${plain(s.id).padEnd(4)}  ${paint(s.verdict.padEnd(10))}  ${plain(siteLine(s, units.stress, units.length))}`);
     }
   }
   lines.push('', c.dim(CAUTION));
@@ -187,7 +187,7 @@ export function sweepJson(sweep: SweepResult): unknown {
       key: p.key,
       reused: p.reused,
       seconds: p.seconds,
-      spots: p.study.spots.map((s) => ({
+      sites: p.study.sites.map((s) => ({
         id: s.id, at: s.at, feature: s.feature.kind, verdict: s.verdict, estimate: s.estimate, growth: s.growth, readouts: s.readouts,
       })),
     })),
@@ -199,9 +199,9 @@ export function registerSweep(program: Command, ctx: CliContext): void {
   program
     .command('sweep <model>')
     .description('repeat the study over parameter values (worker threads), resuming from earlier point files')
-    .option('--vary <name=values>', 'a parameter and its values: r=0,2,4 or r=0:2:20 (start:step:end); repeat for a grid', collect, [] as string[])
+    .option('--vary <name=values>', 'a parameter and its values: r=0,2,4 or "r=0..20 by 2" (start..end by step); repeat for a grid', collect, [] as string[])
     .option('--jobs <n>', 'worker threads (default: one per core)')
-    .option('--levels <n>', 'refinement levels per spot (overrides study.levels)')
+    .option('--levels <n>', 'refinement levels per site (overrides study.levels)')
     .option('--ratio <r>', 'element size ratio between levels (overrides study.ratio)')
     .option('--out <dir>', 'output folder (default out/<model-name>)')
     .option('--json', 'print the machine-readable result on stdout')

@@ -18,5 +18,5 @@ export { checkRigidRestraint, supportedDofs } from './supports.js';
 export { validateSolverMesh, validateSection } from './validate.js';
 export { solvePlate, type PlateProblem, type PrescribedDisplacement } from './solve.js';
 export { farFieldStressLoad } from './farfield.js';
-export { bearingLoad } from './bearing.js';
+export { pinForceLoad } from './pin-force.js';
 export { prescribedFromSupports, interpolateTable, TABLE_TOLERANCE_RELATIVE, type PrescribedValue } from './prescribe.js';

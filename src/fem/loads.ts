@@ -3,7 +3,7 @@ import type { PlateGeometry } from '../geometry/types.js';
 import type { Mesh } from '../mesh/types.js';
 import type { AnyLoad } from '../model/types.js';
 import { farFieldStressLoad } from './farfield.js';
-import { bearingLoad } from './bearing.js';
+import { pinForceLoad } from './pin-force.js';
 import { describeSelector, selectBoundary } from './selectors.js';
 import { cstGradients, gatherElementXY, lstGradients, lstShape } from './shape.js';
 import type { ElasticSection } from './types.js';
@@ -134,8 +134,8 @@ export function loadVector(
     const { edges } = selectBoundary(mesh, geom, load.where, where);
     if (load.kind === 'stress') {
       farFieldStressLoad(mesh, edges, section.thickness, load, f);
-    } else if (load.kind === 'bearing') {
-      bearingLoad(mesh, edges, section.thickness, load.force, keyPath, f);
+    } else if (load.kind === 'pinForce') {
+      pinForceLoad(mesh, edges, section.thickness, load.force, keyPath, f);
     } else if (load.kind === 'traction') {
       const t: readonly [number, number] = [load.traction[0], load.traction[1]];
       edgeTractionLoad(mesh, edges, section.thickness, () => t, f);

@@ -31,7 +31,7 @@ export interface PlateProblem {
   geometry: Pick<PlateGeometry, 'pieces' | 'loops' | 'scale'>;
   section: ElasticSection;
   supports: readonly Support[];
-  /** the model's loads, including its far-field stress and bearing loads (`Model.fieldLoads`) */
+  /** the model's loads, including its far-field stress and pin forces (`Model.fieldLoads`) */
   loads: readonly AnyLoad[];
   /**
    * Non-zero (or zero) displacements imposed at single dofs, eliminated like supports.

@@ -40,7 +40,7 @@ export type SizeField = (x: number, y: number) => number;
 export interface MeshOptions {
   sizeAt: SizeField;
   order: 1 | 2;
-  /** points that must become mesh nodes (concentrated loads, point supports, spot centres) */
+  /** points that must become mesh nodes (concentrated loads, point supports, site centres) */
   requiredPoints?: ReadonlyArray<readonly [number, number]>;
   /** minimum angle target in degrees for the refinement (default 28) */
   minAngleDeg?: number;

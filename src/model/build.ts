@@ -30,7 +30,7 @@ export const MAX_ESTIMATED_TRIANGLES = 2e7;
 const EQUILATERAL = Math.sqrt(3) / 4;
 
 export const DEFAULT_STUDY: Readonly<Omit<StudySettings, 'readouts'>> = {
-  measure: 'von-mises', levels: 6, ratio: 2, spots: 'auto',
+  measure: 'von-mises', levels: 6, ratio: 2, sites: 'auto',
 };
 
 interface Rule {
@@ -282,9 +282,9 @@ export function buildModel(
         keyPath,
       });
     } else {
-      const force = b.point(l.bearing!, joinPath(keyPath, 'bearing'));
-      if (force[0] === 0 && force[1] === 0) b.fail('a bearing force of [0, 0] has no direction; give the pin force [Fx, Fy]', joinPath(keyPath, 'bearing'));
-      fieldLoads.push({ kind: 'bearing', where: where as Selector & { kind: 'opening' }, force, keyPath });
+      const force = b.point(l.pinForce!, joinPath(keyPath, 'pinForce'));
+      if (force[0] === 0 && force[1] === 0) b.fail('a pin force of [0, 0] has no direction; give the pin force [Fx, Fy]', joinPath(keyPath, 'pinForce'));
+      fieldLoads.push({ kind: 'pinForce', where: where as Selector & { kind: 'opening' }, force, keyPath });
     }
   });
 
@@ -320,9 +320,9 @@ export function buildModel(
     ratio: s?.ratio === undefined ? DEFAULT_STUDY.ratio : b.num(s.ratio, 'study.ratio', 'refinement ratio', {
       test: (v) => v > 1 && v <= 10, text: 'must be > 1 (size shrinks by this factor per level) and at most 10',
     }),
-    spots: s?.spots === undefined || s.spots === 'auto'
+    sites: s?.sites === undefined || s.sites === 'auto'
       ? 'auto'
-      : s.spots.map((p, i) => b.point(p, joinPath('study.spots', i))),
+      : s.sites.map((p, i) => b.point(p, joinPath('study.sites', i))),
     readouts: {
       distance: s?.readouts?.distance === undefined
         ? undefined

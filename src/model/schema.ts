@@ -10,6 +10,12 @@ import { describe, didYouMean, listOr, quote } from './text.js';
 /** `expected <what>, got <what the file holds>` for any issue raised by one schema. */
 const expected = (what: string) => (issue: { input?: unknown }) => `expected ${what}, got ${describe(issue.input)}`;
 
+/**
+ * Keys of earlier versions of the format and their present names: an old key gets a hint to the new
+ * one instead of a plain "unknown key" (docs/model-format.md, "Renamed keys").
+ */
+export const RENAMED_KEYS: Readonly<Record<string, string>> = { spots: 'sites', bearing: 'pinForce' };
+
 /** A strict mapping whose unknown keys are reported with a hint from its own keys. */
 function mapping<T extends z.ZodRawShape>(shape: T, what: string) {
   const keys = Object.keys(shape);
@@ -17,6 +23,8 @@ function mapping<T extends z.ZodRawShape>(shape: T, what: string) {
     error: (issue) => {
       if (issue.code === 'unrecognized_keys') {
         const key = (issue as { keys: string[] }).keys[0];
+        const renamed = RENAMED_KEYS[key];
+        if (renamed !== undefined && keys.includes(renamed)) return `key ${quote(key)} is now called ${quote(renamed)} (same meaning); rename it`;
         const hint = didYouMean(key, keys);
         return hint ? `unknown key ${quote(key)}${hint}` : `unknown key ${quote(key)}; allowed here: ${keys.join(', ')}`;
       }
@@ -174,7 +182,7 @@ const SupportLike = mapping(
   }
 });
 
-export const LOAD_KINDS = ['traction', 'pressure', 'force', 'stress', 'bearing'] as const;
+export const LOAD_KINDS = ['traction', 'pressure', 'force', 'stress', 'pinForce'] as const;
 
 const LoadLike = mapping(
   {
@@ -188,9 +196,9 @@ const LoadLike = mapping(
       'a stress gradient { sxx: [d/dx, d/dy], syy: …, sxy: … }',
     ).optional(),
     about: PointLike.optional(),
-    bearing: PointLike.optional(),
+    pinForce: PointLike.optional(),
   },
-  'a load { where: …, traction | pressure | force | stress | bearing: … }',
+  'a load { where: …, traction | pressure | force | stress | pinForce: … }',
 )
   .superRefine(exactlyOne(LOAD_KINDS))
   .superRefine((value, ctx) => {
@@ -201,10 +209,10 @@ const LoadLike = mapping(
         return;
       }
     }
-    if (value.bearing !== undefined && value.where.opening === undefined) {
+    if (value.pinForce !== undefined && value.where.opening === undefined) {
       ctx.addIssue({
         code: 'custom',
-        message: 'a bearing load acts on the edge of a hole; use where: { opening: id }',
+        message: 'a pin force acts on the edge of a hole; use where: { opening: id }',
         path: ['where'],
       });
     } else if (value.force !== undefined && !atPoint) {
@@ -244,7 +252,7 @@ const StudyLike = mapping(
     measure: word(MEASURES).optional(),
     levels: NumberLike.optional(),
     ratio: NumberLike.optional(),
-    spots: z
+    sites: z
       .union([
         z.literal('auto'),
         z.array(PointLike, { error: expected('a list of points [x, y]') }).min(1, { error: () => 'expected at least one point, or auto' }),
@@ -252,7 +260,7 @@ const StudyLike = mapping(
       .optional(),
     readouts: mapping({ distance: NumberLike.optional() }, 'readouts { distance }').optional(),
   },
-  'study settings { measure, levels, ratio, spots, readouts }',
+  'study settings { measure, levels, ratio, sites, readouts }',
 );
 
 export const STATES = ['plane-stress', 'plane-strain'] as const;

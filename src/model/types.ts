@@ -103,8 +103,8 @@ export type FieldLoad =
       kind: 'stress'; where: Selector; stress: [number, number, number];
       gradient: { sxx: Point; syy: Point; sxy: Point }; about: Point; keyPath: string;
     }
-  /** pin bearing: cosine pressure on the half of an opening facing the force, resultant = force */
-  | { kind: 'bearing'; where: Selector & { kind: 'opening' }; force: Point; keyPath: string };
+  /** pin force: cosine pressure on the half of an opening facing the force, resultant = force */
+  | { kind: 'pinForce'; where: Selector & { kind: 'opening' }; force: Point; keyPath: string };
 
 /** Any load a model can carry. */
 export type AnyLoad = Load | FieldLoad;
@@ -128,7 +128,7 @@ export interface StudySettings {
   levels: number;
   ratio: number;
   /** 'auto' or explicit points */
-  spots: 'auto' | Point[];
+  sites: 'auto' | Point[];
   readouts: { distance: number | undefined };
 }
 
@@ -162,7 +162,7 @@ export interface Model {
   plate: Plate;
   supports: Support[];
   loads: Load[];
-  /** far-field stress and bearing loads (issue 9); absent when the file has none */
+  /** far-field stress and pin forces (issue 9); absent when the file has none */
   fieldLoads?: FieldLoad[];
   mesh: MeshSettings;
   study: StudySettings;

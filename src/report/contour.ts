@@ -23,8 +23,8 @@ export interface ContourOptions {
   units: string;
   /** heading drawn above the picture */
   title: string;
-  /** hot spots to mark with a ring and their id */
-  spots?: { id: string; at: Point }[];
+  /** sites to mark with a ring and their id */
+  sites?: { id: string; at: Point }[];
   /** draw the deformed outline: node n moves by scale·(u[2n], u[2n+1]) */
   deformed?: { u: Float64Array; scale: number };
   /** draw the element edges in a `<g class="mesh-overlay">` (the HTML page toggles it) */
@@ -353,8 +353,8 @@ export function colourBarSvg(
   return parts.join('');
 }
 
-/** A hot-spot marker: white-and-dark double ring, a short leader and the id in a pill. */
-export function spotMarkerSvg(x: number, y: number, id: string, flipLeft: boolean, below = false): string {
+/** A site marker: white-and-dark double ring, a short leader and the id in a pill. */
+export function siteMarkerSvg(x: number, y: number, id: string, flipLeft: boolean, below = false): string {
   const label = escapeXml(id);
   const textWidth = Math.max(14, 7 * [...id].length + 10);
   const lx = flipLeft ? x - 12 - textWidth : x + 12;
@@ -362,7 +362,7 @@ export function spotMarkerSvg(x: number, y: number, id: string, flipLeft: boolea
   const leaderX = flipLeft ? x - 6 : x + 6;
   const leaderY = below ? y + 6 : y - 6;
   return (
-    `<g class="spot-marker">` +
+    `<g class="site-marker">` +
     `<circle cx="${c1(x)}" cy="${c1(y)}" r="7" fill="none" stroke="#fff" stroke-width="3.5"/>` +
     `<circle cx="${c1(x)}" cy="${c1(y)}" r="7" fill="none" stroke="#1b1b2f" stroke-width="1.4"/>` +
     `<line x1="${c1(leaderX)}" y1="${c1(leaderY)}" x2="${c1(flipLeft ? lx + textWidth : lx)}" y2="${c1(ly + 9)}" stroke="#1b1b2f" stroke-width="1"/>` +
@@ -374,7 +374,7 @@ export function spotMarkerSvg(x: number, y: number, id: string, flipLeft: boolea
 
 /**
  * Filled contour of a nodal field: smooth iso-bands, continuous colour bar with units and the
- * end values, plate outline, optional deformed outline, mesh overlay and hot-spot rings.
+ * end values, plate outline, optional deformed outline, mesh overlay and site rings.
  */
 export function contourSvg(mesh: Mesh, values: Float64Array, opts: ContourOptions): string {
   const nNodes = mesh.xy.length / 2;
@@ -449,11 +449,11 @@ export function contourSvg(mesh: Mesh, values: Float64Array, opts: ContourOption
   }
   body.push('</g>');
   // markers sit above the window clip so that a label next to the frame edge stays whole
-  for (const spot of opts.spots ?? []) {
-    const [x, y] = spot.at;
+  for (const site of opts.sites ?? []) {
+    const [x, y] = site.at;
     if (x < box.minX || x > box.maxX || y < box.minY || y > box.maxY) continue;
     const sx = px(frame, x), sy = py(frame, y);
-    body.push(spotMarkerSvg(sx, sy, spot.id, sx > frame.ox + frame.width - 60, sy < frame.oy + 26));
+    body.push(siteMarkerSvg(sx, sy, site.id, sx > frame.ox + frame.width - 60, sy < frame.oy + 26));
   }
   body.push(
     `<rect x="${c1(frame.ox)}" y="${c1(frame.oy)}" width="${c1(frame.width)}" height="${c1(frame.height)}" fill="none" stroke="#bbb" stroke-width="0.6"/>`,

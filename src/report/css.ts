@@ -25,8 +25,8 @@ table.verdicts thead th, table.levels thead th { border-bottom: 2px solid var(--
 .verdict-singular { color: #8a1c5c; border-color: #a61e4d; background: #fff0f6; }
 .verdict-undecided { color: #7c5a00; border-color: #d39e00; background: #fff9db; }
 .where { font-weight: 400; color: var(--muted); font-size: 13px; }
-section.spot { border: 1px solid var(--rule); border-radius: 6px; padding: 12px 14px; margin: 14px 0; }
-.spot-figures { display: flex; flex-wrap: wrap; gap: 8px; align-items: flex-start; }
+section.site { border: 1px solid var(--rule); border-radius: 6px; padding: 12px 14px; margin: 14px 0; }
+.site-figures { display: flex; flex-wrap: wrap; gap: 8px; align-items: flex-start; }
 figure { margin: 0; }
 svg { max-width: 100%; height: auto; }
 .legend-text, .small { color: var(--muted); font-size: 12.5px; }
@@ -50,8 +50,8 @@ footer { margin-top: 28px; border-top: 1px solid var(--rule); }
   body { max-width: none; padding: 0; font-size: 10.5pt; }
   .toggle-row { display: none; }
   h2 { break-after: avoid; }
-  section.spot, figure, table.facts, table.verdicts tr { break-inside: avoid; }
-  section.spot { border: none; padding: 0; border-top: 1px solid var(--rule); border-radius: 0; }
+  section.site, figure, table.facts, table.verdicts tr { break-inside: avoid; }
+  section.site { border: none; padding: 0; border-top: 1px solid var(--rule); border-radius: 0; }
   details > summary { list-style: none; }
   a { color: inherit; text-decoration: none; }
   svg { max-width: 100%; }

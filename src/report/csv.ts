@@ -29,34 +29,34 @@ export function csvNumber(value: number | undefined): string {
 const EOL = '\r\n';
 
 /**
- * One row per spot and refinement level (level 1 = coarsest). The spot-level columns
- * (verdict, estimate, uncertainty, exponent, theory) repeat on every row of that spot so that
+ * One row per site and refinement level (level 1 = coarsest). The site-level columns
+ * (verdict, estimate, uncertainty, exponent, theory) repeat on every row of that site so that
  * any row stands alone after sorting or filtering.
  */
-export function spotsCsv(study: StudyResult): string {
+export function sitesCsv(study: StudyResult): string {
   const header = [
-    'spot', 'x', 'y', 'feature', 'verdict', 'level', 'h', 'dofs', 'peak', 'atDistance',
+    'site', 'x', 'y', 'feature', 'verdict', 'level', 'h', 'dofs', 'peak', 'atDistance',
     'estimate', 'uncertainty', 'exponent', 'theory',
   ];
   const out: string[] = [header.map(csvText).join(',')];
-  for (const spot of study.spots) {
-    spot.levels.forEach((level, i) => {
+  for (const site of study.sites) {
+    site.levels.forEach((level, i) => {
       out.push(
         [
-          csvText(spot.id),
-          csvNumber(spot.at[0]),
-          csvNumber(spot.at[1]),
-          csvText(spot.feature.kind),
-          csvText(spot.verdict),
+          csvText(site.id),
+          csvNumber(site.at[0]),
+          csvNumber(site.at[1]),
+          csvText(site.feature.kind),
+          csvText(site.verdict),
           csvNumber(i + 1),
           csvNumber(level.h),
           csvNumber(level.dofs),
           csvNumber(level.peak),
           csvNumber(level.atDistance),
-          csvNumber(spot.estimate.value),
-          csvNumber(spot.estimate.uncertainty),
-          csvNumber(spot.growth.exponent),
-          csvNumber(spot.growth.theory),
+          csvNumber(site.estimate.value),
+          csvNumber(site.estimate.uncertainty),
+          csvNumber(site.growth.exponent),
+          csvNumber(site.growth.theory),
         ].join(','),
       );
     });

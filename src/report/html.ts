@@ -5,13 +5,13 @@
 import type { PlateGeometry } from '../geometry/types.js';
 import type { Mesh } from '../mesh/types.js';
 import type { Model, Shape } from '../model/types.js';
-import type { SpotResult, StudyResult } from '../study/types.js';
+import type { SiteResult, StudyResult } from '../study/types.js';
 import { contourSvg } from './contour.js';
 import { plotCss } from './css.js';
-import { convergencePlotSvg, pathPlotSvg, type PathPlotInput } from './plot.js';
+import { convergencePlotSvg, cutPlotSvg, type CutPlotInput } from './plot.js';
 import { escapeXml, formatFixed, formatNumber, safeId } from './text.js';
 import {
-  CAUTION, capitalise, describeLoad, describeSupport, featureLabel, materialLine, spotReadout, spotValue, spotWhere,
+  CAUTION, capitalise, describeLoad, describeSupport, featureLabel, materialLine, siteReadout, siteValue, siteWhere,
 } from './words.js';
 
 export interface ReportCheck {
@@ -32,12 +32,12 @@ export interface ReportInput {
   /** displacements, 2 per node of `mesh` */
   u: Float64Array;
   checks?: ReportCheck[];
-  /** stresses along a --path (with closed-form references when compared), drawn in their own section */
-  path?: PathPlotInput;
+  /** stresses along a --cut (with closed-form references when compared), drawn in their own section */
+  cut?: CutPlotInput;
   /**
-   * 'study' (default): the full page with verdicts and spot sections. 'solve': one solve, no
-   * refinement study — the verdict and spot sections are replaced by a pointer to `peakwise
-   * study`; pass a StudyResult with `spots: []` and the solve's figures.
+   * 'study' (default): the full page with verdicts and site sections. 'solve': one solve, no
+   * refinement study — the verdict and site sections are replaced by a pointer to `peakwise
+   * study`; pass a StudyResult with `sites: []` and the solve's figures.
    */
   mode?: 'study' | 'solve';
   /** magnification of the deformed outline (default: a round number that makes the largest displacement about 6 % of the plate size) */
@@ -129,11 +129,11 @@ function verdictBadge(verdict: string): string {
   return `<span class="verdict verdict-${safeId(verdict)}">${escapeXml(verdict)}</span>`;
 }
 
-/** Section ids for spots: `spot-<id>`, made unique when cleaned ids collide. */
-export function spotSectionIds(spots: SpotResult[]): string[] {
+/** Section ids for sites: `site-<id>`, made unique when cleaned ids collide. */
+export function siteSectionIds(sites: SiteResult[]): string[] {
   const used = new Set<string>();
-  return spots.map((s, i) => {
-    let id = `spot-${safeId(s.id)}`;
+  return sites.map((s, i) => {
+    let id = `site-${safeId(s.id)}`;
     if (used.has(id)) id = `${id}-${i + 1}`;
     used.add(id);
     return id;
@@ -146,14 +146,14 @@ export function reportHtml(input: ReportInput): string {
   const L = units.length, S = units.stress;
   const measure = measureName(study.measure);
   const stats = meshStats(mesh);
-  const sectionIds = spotSectionIds(study.spots);
+  const sectionIds = siteSectionIds(study.sites);
   const deformScale = input.deformationScale ?? autoDeformationScale(u, geometry.scale);
-  const spotMarks = study.spots.map((s) => ({ id: s.id, at: s.at }));
+  const siteMarks = study.sites.map((s) => ({ id: s.id, at: s.at }));
 
   const main = contourSvg(mesh, field, {
     units: `${measure}, ${S}`,
     title: `${measure} (${S}) over the plate`,
-    spots: spotMarks,
+    sites: siteMarks,
     deformed: deformScale !== undefined ? { u, scale: deformScale } : undefined,
     showMesh: true,
     idPrefix: 'main',
@@ -161,7 +161,7 @@ export function reportHtml(input: ReportInput): string {
     lengthUnit: L,
   });
 
-  const insetBudget = Math.max(8_000, Math.min(30_000, Math.floor(120_000 / Math.max(1, study.spots.length))));
+  const insetBudget = Math.max(8_000, Math.min(30_000, Math.floor(120_000 / Math.max(1, study.sites.length))));
   const half = 0.07 * geometry.scale;
 
   const modelRows = [
@@ -197,16 +197,16 @@ export function reportHtml(input: ReportInput): string {
     ),
   ];
 
-  const verdictRows = study.spots
+  const verdictRows = study.sites
     .map(
       (s, i) =>
-        `<tr><td><a href="#${sectionIds[i]}">${escapeXml(s.id)}</a></td><td>${escapeXml(spotWhere(s, L))}</td>` +
+        `<tr><td><a href="#${sectionIds[i]}">${escapeXml(s.id)}</a></td><td>${escapeXml(siteWhere(s, L))}</td>` +
         `<td>${escapeXml(featureLabel(s))}</td><td>${verdictBadge(s.verdict)}</td>` +
-        `<td>${escapeXml(spotValue(s, S))}</td><td>${escapeXml(spotReadout(s, units))}</td></tr>`,
+        `<td>${escapeXml(siteValue(s, S))}</td><td>${escapeXml(siteReadout(s, units))}</td></tr>`,
     )
     .join('');
 
-  const spotSections = study.spots.map((s, i) => {
+  const siteSections = study.sites.map((s, i) => {
     const levelsRows = s.levels
       .map(
         (l, k) =>
@@ -242,7 +242,7 @@ export function reportHtml(input: ReportInput): string {
     const inset = contourSvg(mesh, field, {
       units: `${measure}, ${S}`,
       title: `Around ${s.id}`,
-      spots: [{ id: s.id, at: s.at }],
+      sites: [{ id: s.id, at: s.at }],
       viewBox: { minX: s.at[0] - half, maxX: s.at[0] + half, minY: s.at[1] - half, maxY: s.at[1] + half },
       showMesh: true,
       width: 300,
@@ -255,13 +255,13 @@ export function reportHtml(input: ReportInput): string {
       lengthUnit: L,
     });
     return (
-      `<section class="spot" id="${sectionIds[i]}">` +
-      `<h3>${escapeXml(s.id)} <span class="where">at ${escapeXml(spotWhere(s, L))}</span> ${verdictBadge(s.verdict)}</h3>` +
+      `<section class="site" id="${sectionIds[i]}">` +
+      `<h3>${escapeXml(s.id)} <span class="where">at ${escapeXml(siteWhere(s, L))}</span> ${verdictBadge(s.verdict)}</h3>` +
       `<p class="feature">${escapeXml(capitalise(s.feature.description || featureLabel(s)))}</p>` +
       `<p class="why"><b>Why:</b> ${escapeXml(s.reason)}</p>` +
       (s.advice ? `<p class="advice"><b>Next step:</b> ${escapeXml(s.advice)}</p>` : '') +
       `<table class="facts">${readouts.join('')}</table>` +
-      `<div class="spot-figures"><figure class="plot">${convergencePlotSvg(s, { units: S, lengthUnit: L, measure })}</figure>` +
+      `<div class="site-figures"><figure class="plot">${convergencePlotSvg(s, { units: S, lengthUnit: L, measure })}</figure>` +
       `<figure class="inset">${inset}</figure></div>` +
       `<details open="open"><summary>Refinement levels</summary><table class="levels"><thead><tr><th>level</th><th>h (${escapeXml(L)})</th><th>dofs</th><th>peak (${escapeXml(S)})</th><th>at distance (${escapeXml(S)})</th></tr></thead><tbody>${levelsRows}</tbody></table></details>` +
       `</section>`
@@ -283,15 +283,15 @@ export function reportHtml(input: ReportInput): string {
 
   const solveOnly = input.mode === 'solve';
   const studySections = solveOnly
-    ? `<section id="verdicts"><h2>Hot spots</h2><p>This page shows one solve. It does not say which peaks are real stress concentrations and which are singularities of the idealised model: <code>peakwise study</code> refines every hot spot and gives that verdict.</p></section>`
+    ? `<section id="verdicts"><h2>Sites</h2><p>This page shows one solve. It does not say which peaks are real stress concentrations and which are singularities of the idealised model: <code>peakwise study</code> refines every site and gives that verdict.</p></section>`
     : `<section id="verdicts"><h2>Verdicts</h2>
-<table class="verdicts"><thead><tr><th>spot</th><th>where</th><th>feature</th><th>verdict</th><th>value</th><th>readout</th></tr></thead><tbody>${verdictRows || '<tr><td colspan="6">No hot spots were found.</td></tr>'}</tbody></table>
+<table class="verdicts"><thead><tr><th>site</th><th>where</th><th>feature</th><th>verdict</th><th>value</th><th>readout</th></tr></thead><tbody>${verdictRows || '<tr><td colspan="6">No sites were found.</td></tr>'}</tbody></table>
 <p class="legend-text">Converging: the peak settles to a finite value (shown with its extrapolation uncertainty); design for it. Singular: the peak keeps growing like h<sup>−q</sup> as elements shrink; it is a property of the idealised model, not a stress, so use the readouts. Undecided: the levels do not yet tell.</p>
 </section>
-<section id="spots"><h2>Hot spots</h2>${spotSections.join('\n')}</section>`;
+<section id="sites"><h2>Sites</h2>${siteSections.join('\n')}</section>`;
   const title = escapeXml(model.title || study.model.title || 'peakwise study');
   const counts = (['converging', 'singular', 'undecided'] as const)
-    .map((v) => `${study.spots.filter((s) => s.verdict === v).length} ${v}`)
+    .map((v) => `${study.sites.filter((s) => s.verdict === v).length} ${v}`)
     .join(', ');
   return `<!DOCTYPE html>
 <html lang="en" xmlns="http://www.w3.org/1999/xhtml">
@@ -304,9 +304,9 @@ export function reportHtml(input: ReportInput): string {
 <body>
 <input type="checkbox" id="show-mesh" class="toggle-input" aria-label="show element edges"/>
 <header>
-<p class="tool">peakwise ${escapeXml(study.version)} · ${solveOnly ? 'single solve' : 'hot-spot study'}</p>
+<p class="tool">peakwise ${escapeXml(study.version)} · ${solveOnly ? 'single solve' : 'convergence study'}</p>
 <h1>${title}</h1>
-<p class="lede">${escapeXml(solveOnly ? `One solve; measure: ${measure} in ${S}.` : `${study.spots.length} hot spot${study.spots.length === 1 ? '' : 's'} (${counts}); measure: ${measure} in ${S}.`)}</p>
+<p class="lede">${escapeXml(solveOnly ? `One solve; measure: ${measure} in ${S}.` : `${study.sites.length} site${study.sites.length === 1 ? '' : 's'} (${counts}); measure: ${measure} in ${S}.`)}</p>
 <p class="caution" role="note">${escapeXml(CAUTION)}</p>
 ${(study.warnings ?? []).length > 0 ? `<ul class="warnings">${(study.warnings ?? []).map((w) => `<li>Warning: ${escapeXml(w)}</li>`).join('')}</ul>` : ''}
 </header>
@@ -317,7 +317,7 @@ ${(study.warnings ?? []).length > 0 ? `<ul class="warnings">${(study.warnings ??
 <p class="toggle-row"><label for="show-mesh" class="toggle">show element edges</label></p>
 <figure class="figure">${main}</figure></section>
 ${studySections}
-${input.path ? `<section id="path"><h2>Along the path</h2>${pathPlotSvg(input.path)}</section>` : ''}
+${input.cut ? `<section id="cut"><h2>Along the cut</h2>${cutPlotSvg(input.cut)}</section>` : ''}
 <section id="verification"><h2>Verification</h2>${checksHtml}</section>
 </main>
 <footer><p class="caution">${escapeXml(CAUTION)}</p><p class="small">Made by peakwise ${escapeXml(study.version)} from ${escapeXml(study.model.file || 'a model built in code')}.</p></footer>

@@ -1,10 +1,10 @@
 /**
- * Log–log convergence plot of one hot spot: peak against element size h (finer to the right)
+ * Log–log convergence plot of one site: peak against element size h (finer to the right)
  * and, smaller, against degrees of freedom. Shows the levels, the fitted trend over the levels
- * the fit used, the theory slope as a dashed reference and, for a converging spot, the
+ * the fit used, the theory slope as a dashed reference and, for a converging site, the
  * extrapolated value with its uncertainty band.
  */
-import type { SpotResult } from '../study/types.js';
+import type { SiteResult } from '../study/types.js';
 import { c1, niceTicks } from './draw.js';
 import { escapeXml, formatFixed, formatNumber } from './text.js';
 
@@ -168,24 +168,24 @@ function polyline(points: [number, number][]): string {
 }
 
 /** Slope label text: the growth exponent q (singular, undecided) or the observed order p (converging). */
-export function slopeLabel(spot: SpotResult): string {
-  if (spot.verdict === 'converging') {
+export function slopeLabel(site: SiteResult): string {
+  if (site.verdict === 'converging') {
     // settled or oscillating sequences have no observed order (null in the JSON)
-    return Number.isFinite(spot.estimate.observedOrder) ? `observed order p = ${formatFixed(spot.estimate.observedOrder, 2)}` : 'settled (no observed order)';
+    return Number.isFinite(site.estimate.observedOrder) ? `observed order p = ${formatFixed(site.estimate.observedOrder, 2)}` : 'settled (no observed order)';
   }
-  return `fitted q = ${formatFixed(spot.growth.exponent, 2)}`;
+  return `fitted q = ${formatFixed(site.growth.exponent, 2)}`;
 }
 
-export function convergencePlotSvg(spot: SpotResult, opts: ConvergencePlotOptions): string {
+export function convergencePlotSvg(site: SiteResult, opts: ConvergencePlotOptions): string {
   const units = opts.units;
   const L = opts.lengthUnit ?? '';
   const measure = opts.measure ?? 'peak';
-  const levels = spot.levels.filter((l) => l.h > 0 && Number.isFinite(l.peak));
+  const levels = site.levels.filter((l) => l.h > 0 && Number.isFinite(l.peak));
   const width = 660, height = 330;
-  const head = `<svg xmlns="http://www.w3.org/2000/svg" class="convergence-plot" data-spot="${escapeXml(spot.id)}" viewBox="0 0 ${width} ${height}" width="${width}" height="${height}" font-family="${FONT}" role="img" aria-label="${escapeXml(`convergence of ${spot.id}`)}">`;
-  const title = `<text x="12" y="18" font-size="13" font-weight="600" fill="${INK}">${escapeXml(`${spot.id}: ${measure} peak under refinement`)}</text>`;
+  const head = `<svg xmlns="http://www.w3.org/2000/svg" class="convergence-plot" data-site="${escapeXml(site.id)}" viewBox="0 0 ${width} ${height}" width="${width}" height="${height}" font-family="${FONT}" role="img" aria-label="${escapeXml(`convergence of ${site.id}`)}">`;
+  const title = `<text x="12" y="18" font-size="13" font-weight="600" fill="${INK}">${escapeXml(`${site.id}: ${measure} peak under refinement`)}</text>`;
   if (levels.length === 0) {
-    return `${head}${title}<text x="12" y="60" font-size="12" fill="${INK}">No refinement levels were computed for this spot.</text></svg>`;
+    return `${head}${title}<text x="12" y="60" font-size="12" fill="${INK}">No refinement levels were computed for this site.</text></svg>`;
   }
   const hs = levels.map((l) => l.h);
   const peaks = levels.map((l) => l.peak);
@@ -194,8 +194,8 @@ export function convergencePlotSvg(spot: SpotResult, opts: ConvergencePlotOption
   const hFit0 = Math.max(...fitSet.map((l) => l.h)), hFit1 = Math.min(...fitSet.map((l) => l.h));
   const hMax = Math.max(...hs), hMin = Math.min(...hs);
   const finest = levels[levels.length - 1];
-  const converging = spot.verdict === 'converging';
-  const est = spot.estimate;
+  const converging = site.verdict === 'converging';
+  const est = site.estimate;
 
   // fitted trend, sampled in h over the levels the fit used
   const fitCurve: [number, number][] = [];
@@ -214,14 +214,14 @@ export function convergencePlotSvg(spot: SpotResult, opts: ConvergencePlotOption
       const h = hFit0 * (hFit1 / hFit0) ** (i / nSamples);
       fitCurve.push([h, est.value + c * h ** p]);
     }
-  } else if (!converging && Number.isFinite(spot.growth.exponent) && fitSet.every((l) => l.peak > 0)) {
+  } else if (!converging && Number.isFinite(site.growth.exponent) && fitSet.every((l) => l.peak > 0)) {
     // log peak = b − q log h, b by least squares over the fitted levels with q fixed
-    const q = spot.growth.exponent;
+    const q = site.growth.exponent;
     const b = fitSet.reduce((acc, l) => acc + Math.log(l.peak) + q * Math.log(l.h), 0) / fitSet.length;
     for (const h of [hFit0, hFit1]) fitCurve.push([h, Math.exp(b - q * Math.log(h))]);
   }
   // theory reference through the finest level, over the whole h range
-  const theory = spot.growth.theory;
+  const theory = site.growth.theory;
   const theoryLine: [number, number][] =
     Number.isFinite(theory) && finest.peak > 0
       ? [hMax, hMin].map((h) => [h, finest.peak * (h / finest.h) ** -theory] as [number, number])
@@ -237,7 +237,7 @@ export function convergencePlotSvg(spot: SpotResult, opts: ConvergencePlotOption
   const axH = makeAxis([hMin, hMax], main.x + main.w, main.x, true);
   const ayMain = makeAxis(yValues, main.y + main.h, main.y, allowLogY);
   const parts: string[] = [head, title];
-  parts.push(axesSvg(main, axH, ayMain, `element size h near the spot${L ? ` (${L})` : ''}, finer →`, `${measure} (${units})`, false));
+  parts.push(axesSvg(main, axH, ayMain, `element size h near the site${L ? ` (${L})` : ''}, finer →`, `${measure} (${units})`, false));
 
   const drawBand = (ax: Axis, ay: Axis, panel: Panel) => {
     if (!band) return '';
@@ -268,8 +268,8 @@ export function convergencePlotSvg(spot: SpotResult, opts: ConvergencePlotOption
 
   // legend and labels under the main panel
   const ly = main.y + main.h + 50;
-  const slope = slopeLabel(spot);
-  const slopeValue = converging ? formatFixed(est.observedOrder, 2) : formatFixed(spot.growth.exponent, 2);
+  const slope = slopeLabel(site);
+  const slopeValue = converging ? formatFixed(est.observedOrder, 2) : formatFixed(site.growth.exponent, 2);
   parts.push(
     `<g class="legend" font-size="10.5" fill="${INK}">` +
       `<circle cx="${main.x + 4}" cy="${ly - 4}" r="3.6" fill="${POINT}" stroke="${POINT}"/><circle cx="${main.x + 14}" cy="${ly - 4}" r="3.6" fill="#fff" stroke="${POINT}" stroke-width="1.4"/>` +
@@ -308,29 +308,29 @@ export function convergencePlotSvg(spot: SpotResult, opts: ConvergencePlotOption
   return parts.join('');
 }
 
-/** A stress curve along a path for `pathPlotSvg`. */
-export interface PathSeries {
+/** A stress curve along a path for `cutPlotSvg`. */
+export interface CutSeries {
   label: string;
   values: ArrayLike<number>;
   /** drawn dashed (a closed-form reference) */
   reference?: boolean;
 }
 
-export interface PathPlotInput {
+export interface CutPlotInput {
   title: string;
   /** arc length of each sample */
   s: ArrayLike<number>;
-  series: PathSeries[];
+  series: CutSeries[];
   /** e.g. "arc length s (mm)" and "tangential stress (MPa)" */
   xLabel: string;
   yLabel: string;
 }
 
 /**
- * Linear plot of stresses against arc length along a `--path`: the FE curves solid, closed-form
+ * Linear plot of stresses against arc length along a `--cut`: the FE curves solid, closed-form
  * references dashed, with a legend of our own (short line samples and their labels below).
  */
-export function pathPlotSvg(input: PathPlotInput): string {
+export function cutPlotSvg(input: CutPlotInput): string {
   const W = 560, H = 300;
   const panel: Panel = { x: 72, y: 30, w: W - 72 - 18, h: H - 30 - 78 };
   const s = Array.from(input.s);
@@ -340,7 +340,7 @@ export function pathPlotSvg(input: PathPlotInput): string {
   const ay = makeAxis(all, panel.y + panel.h, panel.y, false);
   const colours = [POINT, FIT, BAND, THEORY];
   const parts: string[] = [
-    `<svg xmlns="http://www.w3.org/2000/svg" class="path-plot" viewBox="0 0 ${W} ${H}" width="${W}" height="${H}" font-family="${FONT}" role="img" aria-label="${escapeXml(input.title)}">`,
+    `<svg xmlns="http://www.w3.org/2000/svg" class="cut-plot" viewBox="0 0 ${W} ${H}" width="${W}" height="${H}" font-family="${FONT}" role="img" aria-label="${escapeXml(input.title)}">`,
     `<text x="${panel.x}" y="18" font-size="12" font-weight="600" fill="${INK}">${escapeXml(input.title)}</text>`,
     axesSvg(panel, ax, ay, input.xLabel, input.yLabel, false),
   ];

@@ -7,7 +7,7 @@ import pc from 'picocolors';
 import type { Point } from '../model/types.js';
 import type { StudyResult, Verdict } from '../study/types.js';
 import { formatNumber, formatPoint, stripControl } from './text.js';
-import { CAUTION, featureLabel, spotReadout, spotValue, spotWhere } from './words.js';
+import { CAUTION, featureLabel, siteReadout, siteValue, siteWhere } from './words.js';
 
 export interface TerminalOptions {
   color: boolean;
@@ -42,23 +42,23 @@ function columns(rows: string[][], c: Colors): string[] {
 }
 
 /**
- * The verdict table of a study: one row per spot (spot, where, feature, verdict, value,
+ * The verdict table of a study: one row per site (site, where, feature, verdict, value,
  * readout), a short header naming the model and measure, and the caution line at the end.
  */
 export function studyTable(study: StudyResult, options: TerminalOptions): string {
   const c = pc.createColors(options.color);
   const units = study.units;
-  const header = ['spot', 'where', 'feature', 'verdict', 'value', 'readout'];
+  const header = ['site', 'where', 'feature', 'verdict', 'value', 'readout'];
   const rows: string[][] = [header];
-  for (const spot of study.spots) {
-    const verdict = stripControl(spot.verdict);
+  for (const site of study.sites) {
+    const verdict = stripControl(site.verdict);
     rows.push([
-      stripControl(spot.id),
-      spotWhere(spot, units.length),
-      featureLabel(spot),
-      verdictColour(c, spot.verdict)(verdict),
-      spotValue(spot, units.stress),
-      spotReadout(spot, units),
+      stripControl(site.id),
+      siteWhere(site, units.length),
+      featureLabel(site),
+      verdictColour(c, site.verdict)(verdict),
+      siteValue(site, units.stress),
+      siteReadout(site, units),
     ]);
   }
   const lines: string[] = [];
@@ -67,13 +67,13 @@ export function studyTable(study: StudyResult, options: TerminalOptions): string
   lines.push(
     c.dim(
       `${stripControl(study.measure)} in ${stripControl(units.stress)} · ${study.mesh.order === 2 ? 'LST' : 'CST'} · ` +
-        `${study.spots.length} spot${study.spots.length === 1 ? '' : 's'}`,
+        `${study.sites.length} site${study.sites.length === 1 ? '' : 's'}`,
     ),
   );
   lines.push('');
-  if (study.spots.length === 0) lines.push('No hot spots were found.');
+  if (study.sites.length === 0) lines.push('No sites were found.');
   else lines.push(...columns(rows, c));
-  const undecided = study.spots.filter((s) => s.verdict === 'undecided');
+  const undecided = study.sites.filter((s) => s.verdict === 'undecided');
   for (const s of undecided) {
     if (s.advice) lines.push(c.yellow(`${stripControl(s.id)}: ${stripControl(s.advice)}`));
   }

@@ -1,6 +1,6 @@
 /**
  * Text hygiene shared by every output format. Model-provided strings (title, units, opening ids,
- * file names, spot descriptions) can hold anything a YAML file can hold, so each format cleans
+ * file names, site descriptions) can hold anything a YAML file can hold, so each format cleans
  * them at its own edge: the terminal drops control characters, HTML/SVG escapes markup, CSV
  * quotes and guards against formula injection (see csv.ts).
  */

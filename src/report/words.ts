@@ -3,7 +3,7 @@
  * wording, and loads / supports in words.
  */
 import type { AnyLoad, DisplacementValue, Model, Selector, Support } from '../model/types.js';
-import type { SpotResult, StudyResult } from '../study/types.js';
+import type { SiteResult, StudyResult } from '../study/types.js';
 import { formatFixed, formatNumber, stripControl } from './text.js';
 
 export const CAUTION =
@@ -61,8 +61,8 @@ export function describeLoad(load: AnyLoad, units: { length: string; force: stri
       return `Concentrated force (${formatNumber(load.force[0])}, ${formatNumber(load.force[1])}) ${f} at ${where}.`;
     case 'stress':
       return `Far-field stress (σxx, σyy, τxy) = (${load.stress.map((v) => formatNumber(v)).join(', ')}) ${s} applied as tractions on ${where}.`;
-    case 'bearing':
-      return `Pin bearing (${formatNumber(load.force[0])}, ${formatNumber(load.force[1])}) ${f} as a cosine pressure on ${where}.`;
+    case 'pinForce':
+      return `Pin force (${formatNumber(load.force[0])}, ${formatNumber(load.force[1])}) ${f} as a cosine pressure on ${where}.`;
   }
 }
 
@@ -71,13 +71,13 @@ export function capitalise(text: string): string {
 }
 
 /** "S1 at (12, 30) mm" style location. */
-export function spotWhere(spot: SpotResult, lengthUnit: string): string {
-  return `(${formatNumber(spot.at[0])}, ${formatNumber(spot.at[1])}) ${stripControl(lengthUnit)}`.trimEnd();
+export function siteWhere(site: SiteResult, lengthUnit: string): string {
+  return `(${formatNumber(site.at[0])}, ${formatNumber(site.at[1])}) ${stripControl(lengthUnit)}`.trimEnd();
 }
 
 /** The short feature label used in tables: "corner 270°", "fillet r 5", "point load". */
-export function featureLabel(spot: SpotResult): string {
-  const f = spot.feature;
+export function featureLabel(site: SiteResult): string {
+  const f = site.feature;
   switch (f.kind) {
     case 'corner': {
       // a corner where a support ends says so: its singularity belongs to the idealised support
@@ -94,24 +94,24 @@ export function featureLabel(spot: SpotResult): string {
 }
 
 /**
- * The headline value of a spot: the extrapolated value for a converging spot, the growth rate
+ * The headline value of a site: the extrapolated value for a converging site, the growth rate
  * for a singular one (the peak itself means nothing there), the last peak for an undecided one.
  */
-export function spotValue(spot: SpotResult, stressUnit: string): string {
+export function siteValue(site: SiteResult, stressUnit: string): string {
   const s = stripControl(stressUnit);
-  if (spot.verdict === 'converging') {
-    return `${formatNumber(spot.estimate.value)} ± ${formatNumber(spot.estimate.uncertainty, 2)} ${s}`.trimEnd();
+  if (site.verdict === 'converging') {
+    return `${formatNumber(site.estimate.value)} ± ${formatNumber(site.estimate.uncertainty, 2)} ${s}`.trimEnd();
   }
-  if (spot.verdict === 'singular') {
-    return `q = ${formatFixed(spot.growth.exponent, 2)} (theory ${formatFixed(spot.growth.theory, 2)})`;
+  if (site.verdict === 'singular') {
+    return `q = ${formatFixed(site.growth.exponent, 2)} (theory ${formatFixed(site.growth.theory, 2)})`;
   }
-  const last = spot.levels[spot.levels.length - 1];
+  const last = site.levels[site.levels.length - 1];
   return last ? `last peak ${formatNumber(last.peak)} ${s} (unsettled)`.trimEnd() : 'no levels';
 }
 
-/** The usable engineering measure(s) of a spot, in one line. */
-export function spotReadout(spot: SpotResult, units: StudyResult['units']): string {
-  const r = spot.readouts;
+/** The usable engineering measure(s) of a site, in one line. */
+export function siteReadout(site: SiteResult, units: StudyResult['units']): string {
+  const r = site.readouts;
   const s = stripControl(units.stress);
   const L = stripControl(units.length);
   const parts: string[] = [];

@@ -1,16 +1,16 @@
-/** The hot-spot study: Williams corner theory, convergence fits, verdicts, readouts, ladders. */
+/** The convergence study: Williams corner theory, convergence fits, verdicts, readouts, ladders. */
 export type * from './types.js';
 export { williamsRoots, familyRoots, brentRoot, kolosovKappa, type WedgeFaces, type WedgeRoot, type WilliamsRoots } from './williams.js';
 export {
   threeLevelFit, observedOrderVariableRatio, lineFit, logLogSlope, incrementExponent, GCI_SAFETY_FACTOR,
   type ThreeLevelFit, type ConvergenceClass,
 } from './fit.js';
-export { judgeSpot, VERDICT_RULES, type SpotVerdict, type FitHistoryEntry } from './verdict.js';
+export { judgeSite, VERDICT_RULES, type SiteVerdict, type FitHistoryEntry } from './verdict.js';
 export {
   tanhSinh, criticalDistance, pointMethod, lineMethod, lineAverage, sampledAverage, notchStressIntensity, nsifUnits,
   extrapolateToZero, hotSpotLinear, hotSpotQuadratic, hotSpotTypeB, hotSpotPoints,
 } from './readouts.js';
 export { wedgeTheory, theoryExponent, type WedgeTheory } from './wedge-theory.js';
-export { findSpots, SPOT_RULES, type SpotCandidate } from './spots.js';
-export { levelSizeField, probeLevel, LADDER_GRADING, NEIGHBOURHOOD_SIZES, type SpotProbe } from './ladder.js';
+export { findSites, SITE_RULES, type SiteCandidate } from './sites.js';
+export { levelSizeField, probeLevel, LADDER_GRADING, NEIGHBOURHOOD_SIZES, type SiteProbe } from './ladder.js';
 export { runStudy, DEFAULT_READOUT_FRACTION, type StudyOptions, type BaseSolve } from './run.js';

@@ -1,7 +1,7 @@
 /**
- * Mesh-independent readouts for singular spots: stress at a distance, averaged stress, generalised notch
+ * Mesh-independent readouts for singular sites: stress at a distance, averaged stress, generalised notch
  * stress intensity, and weld hot-spot extrapolation. All take the stress as a function of the distance r
- * from the spot (sampled from a recovered FE field by the caller) or as sampled values.
+ * from the site (sampled from a recovered FE field by the caller) or as sampled values.
  */
 
 /**

@@ -9,10 +9,10 @@ import type { ElasticSection, Solution } from '../fem/types.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { NodalStress } from '../recovery/types.js';
 import { buildPointLocator, nodalMeasure, recoverSpr } from '../recovery/index.js';
-import type { LevelResult, SpotResult, StudyResult } from './types.js';
-import { findSpots, type SpotCandidate } from './spots.js';
-import { levelSizeField, probeLevel, rosettePoints, NEIGHBOURHOOD_SIZES, type SpotProbe } from './ladder.js';
-import { judgeSpot } from './verdict.js';
+import type { LevelResult, SiteResult, StudyResult } from './types.js';
+import { findSites, type SiteCandidate } from './sites.js';
+import { levelSizeField, probeLevel, rosettePoints, NEIGHBOURHOOD_SIZES, type SiteProbe } from './ladder.js';
+import { judgeSite } from './verdict.js';
 import { boundaryEdgesAt } from './mesh-tools.js';
 import { nsifUnits } from './readouts.js';
 import { dofLimitError, estimateMeshSize } from '../fem/health.js';
@@ -88,7 +88,7 @@ function straightFacesAt(mesh: Mesh, geom: ReturnType<typeof buildGeometry>, nod
  * A seed point is used when it lies in the material at least h/2 from every boundary piece, or on a straight
  * piece at least h/2 from that piece's ends (never next to another feature).
  */
-function seedFits(geom: ReturnType<typeof buildGeometry>, p: Point, h: number, spot: Point): boolean {
+function seedFits(geom: ReturnType<typeof buildGeometry>, p: Point, h: number, site: Point): boolean {
   const tol = 1e-9 * geom.scale;
   let onLine = false;
   for (const piece of geom.pieces) {
@@ -96,12 +96,12 @@ function seedFits(geom: ReturnType<typeof buildGeometry>, p: Point, h: number, s
     if (c.distance <= tol) {
       if (piece.curve.kind !== 'line') return false;
       const a = piece.curve.from, b = piece.curve.to;
-      const ends = [a, b].filter((e) => Math.hypot(e[0] - spot[0], e[1] - spot[1]) > tol);
+      const ends = [a, b].filter((e) => Math.hypot(e[0] - site[0], e[1] - site[1]) > tol);
       if (ends.some((e) => Math.hypot(e[0] - p[0], e[1] - p[1]) < 0.5 * h)) return false;
       onLine = true;
     } else if (c.distance < 0.5 * h) {
-      // near a piece that does not pass through the spot itself
-      const passes = closestOnCurve(piece.curve, spot).distance <= tol;
+      // near a piece that does not pass through the site itself
+      const passes = closestOnCurve(piece.curve, site).distance <= tol;
       if (!passes) return false;
     }
   }
@@ -120,8 +120,8 @@ function check(cond: boolean, message: string, keyPath: string): void {
 }
 
 /**
- * The hot-spot study (issue 5): first solve at the model size, hot spots, one refinement ladder shared by
- * all spots (level k: each spot's local size h₀/ratio^k), SPR recovery, per-spot convergence fits and verdicts.
+ * The convergence study (issue 5): first solve at the model size, sites, one refinement ladder shared by
+ * all sites (level k: each site's local size h₀/ratio^k), SPR recovery, per-site convergence fits and verdicts.
  */
 export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const t0 = performance.now();
@@ -148,21 +148,21 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const limits: SolveLimits = { size, ...(opts.maxDofs !== undefined ? { maxDofs: opts.maxDofs } : {}), ...(opts.maxFactorBytes !== undefined ? { maxFactorBytes: opts.maxFactorBytes } : {}) };
   const first = solveOn(model, geom, section, base, order, dedupe(required, 1e-9 * geom.scale), measure, limits);
   opts.onBase?.({ mesh: first.mesh, geometry: geom, solution: first.solution, field: first.field, nodal: first.nodal });
-  progress(1, 'hot spots');
-  const cands = findSpots({ model, geom, mesh: first.mesh, solution: first.solution, measure: first.nodal, baseSize: base });
+  progress(1, 'sites');
+  const cands = findSites({ model, geom, mesh: first.mesh, solution: first.solution, measure: first.nodal, baseSize: base });
   const d = model.study.readouts.distance ?? DEFAULT_READOUT_FRACTION * geom.scale;
   const h0 = cands.map((c) => base(c.at[0], c.at[1]));
-  const probes: SpotProbe[] = cands.map((spot, i) => {
+  const probes: SiteProbe[] = cands.map((site, i) => {
     let radius = NEIGHBOURHOOD_SIZES * h0[i];
-    // keep neighbourhoods apart so one spot's peak is never another's
+    // keep neighbourhoods apart so one site's peak is never another's
     for (let j = 0; j < cands.length; j++) {
-      if (j !== i) radius = Math.min(radius, 0.5 * Math.hypot(cands[j].at[0] - spot.at[0], cands[j].at[1] - spot.at[1]));
+      if (j !== i) radius = Math.min(radius, 0.5 * Math.hypot(cands[j].at[0] - site.at[0], cands[j].at[1] - site.at[1]));
     }
-    return { spot, radius, distance: d };
+    return { site, radius, distance: d };
   });
-  const spotPoints = cands.map((c) => c.at);
+  const sitePoints = cands.map((c) => c.at);
   const straight = cands.map((c) => straightFacesAt(first.mesh, geom, c.node));
-  const perSpot: LevelResult[][] = cands.map(() => []);
+  const perSite: LevelResult[][] = cands.map(() => []);
   let stopped = '';
   let interrupted = false;
   for (let k = 0; k < levels && cands.length > 0; k++) {
@@ -170,20 +170,20 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
     let s: Solved;
     try {
       const seeds = cands.flatMap((c, i) => rosettePoints(c, h0[i] / Math.pow(ratio, k), straight[i]).filter((p) => seedFits(geom, p, h0[i] / Math.pow(ratio, k), c.at)));
-      s = solveOn(model, geom, section, levelSizeField(base, cands, h0, ratio, k), order, dedupe([...required, ...spotPoints, ...seeds], 1e-9 * geom.scale), measure, limits);
+      s = solveOn(model, geom, section, levelSizeField(base, cands, h0, ratio, k), order, dedupe([...required, ...sitePoints, ...seeds], 1e-9 * geom.scale), measure, limits);
     } catch (e) {
       if (k >= 1 && isPeakwiseError(e)) { stopped = `level ${k + 1} failed (${e.message}); fitted on ${k} levels`; break; }
       throw e;
     }
     const locator = buildPointLocator(s.mesh);
     probes.forEach((p, i) => {
-      perSpot[i].push(probeLevel(s.mesh, s.field, s.nodal, s.gauss, section, measure, p, h0[i] / Math.pow(ratio, k), s.solution.dofs, locator));
+      perSite[i].push(probeLevel(s.mesh, s.field, s.nodal, s.gauss, section, measure, p, h0[i] / Math.pow(ratio, k), s.solution.dofs, locator));
     });
     progress(2 + k, `level ${k + 1} of ${levels}`);
   }
 
   const stress = stressUnit(model.units);
-  const spots: SpotResult[] = cands.map((c, i) => toSpotResult(`S${i + 1}`, c, perSpot[i], ratio, order, d, stress, model.units.length, stopped));
+  const sites: SiteResult[] = cands.map((c, i) => toSiteResult(`S${i + 1}`, c, perSite[i], ratio, order, d, stress, model.units.length, stopped));
   const q = meshQuality(first.mesh);
   return {
     tool: 'peakwise',
@@ -198,18 +198,18 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
       appliedSum: first.solution.appliedSum,
     },
     measure,
-    spots,
+    sites,
     timings: { totalS: (performance.now() - t0) / 1000 },
     ...(interrupted ? { interrupted: true } : {}),
   };
 }
 
-function toSpotResult(
-  id: string, c: SpotCandidate, levels: LevelResult[], ratio: number, order: 1 | 2, d: number, stress: string, length: string, stopped: string,
-): SpotResult {
-  const v = judgeSpot(levels.map((l) => l.h), levels.map((l) => l.peak), ratio, order, c.theory, c.theoryWhy);
+function toSiteResult(
+  id: string, c: SiteCandidate, levels: LevelResult[], ratio: number, order: 1 | 2, d: number, stress: string, length: string, stopped: string,
+): SiteResult {
+  const v = judgeSite(levels.map((l) => l.h), levels.map((l) => l.peak), ratio, order, c.theory, c.theoryWhy);
   const last = levels[levels.length - 1];
-  const readouts: SpotResult['readouts'] = {};
+  const readouts: SiteResult['readouts'] = {};
   if (last) {
     if (last.atDistance !== undefined) { readouts.atDistance = last.atDistance; readouts.distance = d; }
     if (last.average !== undefined) { readouts.average = last.average; readouts.distance = d; }

@@ -12,7 +12,7 @@ export type FeatureKind =
   | 'edge'
   | 'interior';
 
-export interface SpotFeature {
+export interface SiteFeature {
   kind: FeatureKind;
   /** material angle at a sharp corner (deg); 180 on a straight edge; 0 when not applicable */
   interiorAngleDeg: number;
@@ -32,14 +32,14 @@ export interface SpotFeature {
 }
 
 export interface LevelResult {
-  /** element size near the spot at this level */
+  /** element size near the site at this level */
   h: number;
   dofs: number;
-  /** peak of the study measure within the spot neighbourhood */
+  /** peak of the study measure within the site neighbourhood */
   peak: number;
   /** where the peak sits */
   peakAt: Point;
-  /** measure at the readout distance along the bisector (singular spots), if defined */
+  /** measure at the readout distance along the bisector (singular sites), if defined */
   atDistance?: number;
   /** average of the measure over a disk of the readout radius, if defined */
   average?: number;
@@ -53,15 +53,15 @@ export interface LevelResult {
 
 export type Verdict = 'converging' | 'singular' | 'undecided';
 
-export interface SpotResult {
+export interface SiteResult {
   id: string;
   at: Point;
-  feature: SpotFeature;
+  feature: SiteFeature;
   levels: LevelResult[];
   verdict: Verdict;
   /** one sentence: why this verdict (reason for undecided, theory agreement, …) */
   reason: string;
-  /** what to do next for an undecided spot */
+  /** what to do next for an undecided site */
   advice?: string;
   estimate: { value: number; uncertainty: number; observedOrder: number };
   growth: { exponent: number; exponentUncertainty: number; theory: number };
@@ -72,7 +72,7 @@ export interface SpotResult {
   };
   /** Richardson/GCI of every consecutive triple of levels, coarse → fine (the band should shrink) */
   history?: { finest: number; value: number; uncertainty: number; observedOrder: number }[];
-  /** direction from the spot into the material used for the readouts (unit vector), if defined */
+  /** direction from the site into the material used for the readouts (unit vector), if defined */
   direction?: Point;
 }
 
@@ -84,7 +84,7 @@ export interface StudyResult {
   mesh: { nodes: number; elements: number; order: 1 | 2; minAngleDeg: number };
   solution: { dofs: number; maxDisplacement: number; reactionSum: [number, number]; appliedSum: [number, number] };
   measure: string;
-  spots: SpotResult[];
+  sites: SiteResult[];
   timings?: { totalS: number };
   /** set when the study was stopped (Ctrl-C) before every level was solved */
   interrupted?: boolean;

@@ -29,7 +29,7 @@ export interface FitHistoryEntry {
   kind: ThreeLevelFit['kind'];
 }
 
-export interface SpotVerdict {
+export interface SiteVerdict {
   verdict: Verdict;
   reason: string;
   advice?: string;
@@ -52,13 +52,13 @@ function richardson(f1: number, f2: number, fit: ThreeLevelFit, r: number, pUsed
 }
 
 /**
- * Verdict for one spot from its peaks on levels of size h (coarse → fine, constant ratio r).
+ * Verdict for one site from its peaks on levels of size h (coarse → fine, constant ratio r).
  * `order` is the element order (1 or 2); `theory` the predicted growth exponent q_th = 1 − λ (0: none);
  * `theoryWhy` names what theory sees ("concentrated load", "re-entrant corner 270°", …).
  */
-export function judgeSpot(
+export function judgeSite(
   h: readonly number[], peak: readonly number[], r: number, order: 1 | 2, theory: number, theoryWhy = '',
-): SpotVerdict {
+): SiteVerdict {
   const n = peak.length;
   const R = VERDICT_RULES;
   const maxOrder = 2 * order + 2;
@@ -109,19 +109,19 @@ export function judgeSpot(
         ? `; this disagrees with the theory value ${fmt(growthTheory)} (${theoryWhy || 'wedge analysis'}) by more than ${R.theoryTolerance}`
         : `, as theory predicts for a ${theoryWhy || 'singular point'} (q = ${fmt(growthTheory)})`;
     } else {
-      reason += '; theory predicts no singularity here: check the geometry, supports and loads near this spot';
+      reason += '; theory predicts no singularity here: check the geometry, supports and loads near this site';
     }
     return {
       verdict: 'singular', reason,
       advice: 'do not read the peak as a stress: use the readouts (stress at a distance, average, notch stress intensity) or model the real radius',
-      // no value: the peak of a singular spot is not a stress (it is in levels[].peak)
+      // no value: the peak of a singular site is not a stress (it is in levels[].peak)
       estimate: { value: NaN, uncertainty: NaN, observedOrder: NaN },
       growth: { exponent: q, exponentUncertainty: qSe, theory: growthTheory },
       history, peakSlope,
     };
   }
 
-  const converged = (value: number, uncertainty: number, observedOrder: number, how: string): SpotVerdict => ({
+  const converged = (value: number, uncertainty: number, observedOrder: number, how: string): SiteVerdict => ({
     verdict: 'converging',
     reason: how + (growthTheory > 0 ? `; but${theorySays}: the rise may not have started at these sizes` : ''),
     ...(growthTheory > 0 ? { advice: 'refine further (more levels) before trusting this value' } : {}),
@@ -175,7 +175,7 @@ export function judgeSpot(
     advice = 'add levels: at least 4 are needed before a rise can be called a singularity here';
   } else {
     reason = `not yet asymptotic: the peak grows (q = ${fmt(inc.q)} ± ${fmt(inc.qSe)}) but not steadily enough to call`;
-    advice = 'add levels: a singular spot needs at least 4 levels in the asymptotic range';
+    advice = 'add levels: a singular site needs at least 4 levels in the asymptotic range';
   }
   if (growthTheory > 0) reason += `;${theorySays}`;
   return {

@@ -1,4 +1,4 @@
-import type { FaceCondition, SpotFeature } from './types.js';
+import type { FaceCondition, SiteFeature } from './types.js';
 import { williamsRoots, kolosovKappa, type WilliamsRoots } from './williams.js';
 import type { PlaneState } from '../model/types.js';
 
@@ -60,7 +60,7 @@ function round(v: number): string {
  * (1952) wedge value at a corner, 1 for a concentrated force or point support (Flamant field ∝ 1/r), 0 for
  * fillets, smooth opening edges, plain edges and the interior.
  */
-export function theoryExponent(feature: SpotFeature, section: { nu: number; state: PlaneState }): number {
+export function theoryExponent(feature: SiteFeature, section: { nu: number; state: PlaneState }): number {
   switch (feature.kind) {
     case 'point-load':
     case 'point-support':

@@ -1,6 +1,6 @@
 /**
- * sweep.csv: one row per sweep point; the varied parameters first, then eight columns per spot
- * family (F1_id, F1_feature, … as in docs/sweep.md). A family without a spot at a point leaves
+ * sweep.csv: one row per sweep point; the varied parameters first, then eight columns per site
+ * family (F1_id, F1_feature, … as in docs/sweep.md). A family without a site at a point leaves
  * its cells empty. Cells follow the report stage's CSV rules (quoted text, formula guard).
  */
 import { csvNumber, csvText } from '../report/index.js';
@@ -24,18 +24,18 @@ export function sweepCsv(sweep: Pick<SweepResult, 'axes' | 'points' | 'families'
         for (let i = 0; i < FAMILY_COLUMNS.length; i++) cells.push('');
         continue;
       }
-      const spot = point.study.spots[m.spot];
+      const site = point.study.sites[m.site];
       cells.push(
-        csvText(spot.id),
-        csvNumber(spot.at[0]),
-        csvNumber(spot.at[1]),
-        csvText(spot.feature.kind),
-        csvText(spot.verdict),
-        csvNumber(spot.estimate.value),
-        csvNumber(spot.estimate.uncertainty),
-        csvNumber(spot.growth.exponent),
-        csvNumber(spot.growth.theory),
-        csvNumber(spot.readouts.atDistance),
+        csvText(site.id),
+        csvNumber(site.at[0]),
+        csvNumber(site.at[1]),
+        csvText(site.feature.kind),
+        csvText(site.verdict),
+        csvNumber(site.estimate.value),
+        csvNumber(site.estimate.uncertainty),
+        csvNumber(site.growth.exponent),
+        csvNumber(site.growth.theory),
+        csvNumber(site.readouts.atDistance),
       );
     }
     rows.push(cells.join(','));

@@ -1,5 +1,5 @@
 /**
- * sweep.html: one self-contained page (inline CSS and SVG, no scripts). For every spot family a
+ * sweep.html: one self-contained page (inline CSS and SVG, no scripts). For every site family a
  * plot of its value against the first varied parameter, one line per combination of the other
  * parameters. Converging points are filled discs with their uncertainty as a bar; singular
  * points are hollow up-pointing triangles (the finest-level peak, which keeps rising and is not
@@ -7,8 +7,8 @@
  */
 import { CAUTION, escapeXml, formatNumber } from '../report/index.js';
 import { memberAt } from './match.js';
-import type { SpotFamily, SweepResult } from './types.js';
-import type { SpotResult } from '../study/types.js';
+import type { SiteFamily, SweepResult } from './types.js';
+import type { SiteResult } from '../study/types.js';
 
 const W = 520;
 const H = 300;
@@ -39,7 +39,7 @@ interface PlotPoint {
   x: number;
   y: number;
   u: number;
-  verdict: SpotResult['verdict'];
+  verdict: SiteResult['verdict'];
   title: string;
 }
 
@@ -58,24 +58,24 @@ function marker(p: PlotPoint, X: number, Y: number, colour: string, yPx: (v: num
 }
 
 /** The SVG plot of one family. */
-export function familyPlotSvg(sweep: Pick<SweepResult, 'axes' | 'points'>, family: SpotFamily, stressUnit: string): string {
+export function familyPlotSvg(sweep: Pick<SweepResult, 'axes' | 'points'>, family: SiteFamily, stressUnit: string): string {
   const xAxis = sweep.axes[0];
   const others = sweep.axes.slice(1);
   const series = new Map<string, PlotPoint[]>();
   for (const point of sweep.points) {
     const m = memberAt(family, point.index);
     if (!m) continue;
-    const spot = point.study.spots[m.spot];
-    // a singular spot has no value: it is drawn (with its own marker) at its finest-level peak
-    const y = spot.verdict === 'singular' ? (spot.levels[spot.levels.length - 1]?.peak ?? NaN) : spot.estimate.value;
+    const site = point.study.sites[m.site];
+    // a singular site has no value: it is drawn (with its own marker) at its finest-level peak
+    const y = site.verdict === 'singular' ? (site.levels[site.levels.length - 1]?.peak ?? NaN) : site.estimate.value;
     const label = others.map((a) => `${a.name} = ${formatNumber(point.params[a.name])}`).join(', ');
     const list = series.get(label) ?? [];
     list.push({
       x: point.params[xAxis.name],
       y,
-      u: spot.estimate.uncertainty,
-      verdict: spot.verdict,
-      title: `${xAxis.name} = ${formatNumber(point.params[xAxis.name])}${label ? ', ' + label : ''}: ${spot.id} ${spot.verdict}, ${spot.verdict === 'singular' ? 'finest peak ' : ''}${formatNumber(y)} ${stressUnit}`,
+      u: site.estimate.uncertainty,
+      verdict: site.verdict,
+      title: `${xAxis.name} = ${formatNumber(point.params[xAxis.name])}${label ? ', ' + label : ''}: ${site.id} ${site.verdict}, ${site.verdict === 'singular' ? 'finest peak ' : ''}${formatNumber(y)} ${stressUnit}`,
     });
     series.set(label, list);
   }
@@ -142,8 +142,8 @@ export function sweepHtml(sweep: SweepResult, stressUnit: string): string {
     const rows = sweep.points.map((p) => {
       const m = memberAt(f, p.index);
       const params = sweep.axes.map((a) => `<td>${escapeXml(formatNumber(p.params[a.name]))}</td>`).join('');
-      if (!m) return `<tr>${params}<td colspan="4" class="muted">no spot here</td></tr>`;
-      const s = p.study.spots[m.spot];
+      if (!m) return `<tr>${params}<td colspan="4" class="muted">no site here</td></tr>`;
+      const s = p.study.sites[m.site];
       const value = s.verdict === 'converging'
         ? `${formatNumber(s.estimate.value)} ± ${formatNumber(s.estimate.uncertainty, 2)}`
         : s.verdict === 'singular' ? `finest peak ${formatNumber(s.levels[s.levels.length - 1]?.peak ?? NaN)}; q = ${formatNumber(s.growth.exponent, 3)} (theory ${formatNumber(s.growth.theory, 3)})` : formatNumber(s.estimate.value);
@@ -152,7 +152,7 @@ export function sweepHtml(sweep: SweepResult, stressUnit: string): string {
     const head = sweep.axes.map((a) => `<th>${escapeXml(a.name)}</th>`).join('');
     return `<section><h2>${escapeXml(f.id)}: ${escapeXml(f.featureClass)} near (${escapeXml(formatNumber(f.at[0]))}, ${escapeXml(formatNumber(f.at[1]))})</h2>` +
       familyPlotSvg(sweep, f, stressUnit) +
-      `<table><thead><tr>${head}<th>spot</th><th>verdict</th><th>value (${escapeXml(stressUnit)})</th><th>at distance</th></tr></thead><tbody>${rows}</tbody></table></section>`;
+      `<table><thead><tr>${head}<th>site</th><th>verdict</th><th>value (${escapeXml(stressUnit)})</th><th>at distance</th></tr></thead><tbody>${rows}</tbody></table></section>`;
   }).join('\n');
   return `<!doctype html>
 <html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1">
@@ -160,7 +160,7 @@ export function sweepHtml(sweep: SweepResult, stressUnit: string): string {
 <body><header><p class="muted">peakwise ${escapeXml(sweep.version)} · parameter sweep</p><h1>${title}</h1>
 <p>${axes} — ${sweep.points.length} points (${sweep.reused} reused from earlier runs).</p>
 <p class="caution">${escapeXml(CAUTION)}</p></header>
-<p class="muted">Spots are followed from point to point by feature and location (a fillet continues the corner it rounds); the family names F1, F2, … are the sweep's own. A singular spot has no finite peak: read its stress at a distance instead.</p>
+<p class="muted">Sites are followed from point to point by feature and location (a fillet continues the corner it rounds); the family names F1, F2, … are the sweep's own. A singular site has no finite peak: read its stress at a distance instead.</p>
 ${KEY}
 ${sections}
 </body></html>

@@ -1,11 +1,11 @@
 /**
- * Following hot spots across sweep points. A study numbers its spots afresh for every model,
+ * Following sites across sweep points. A study numbers its sites afresh for every model,
  * and a change of geometry (a corner radius, a hole size) moves them, adds some and removes
- * others, so spots are matched by feature class and location, not by id.
+ * others, so sites are matched by feature class and location, not by id.
  */
-import type { FeatureKind, SpotResult } from '../study/types.js';
+import type { FeatureKind, SiteResult } from '../study/types.js';
 import type { Point } from '../model/types.js';
-import type { FamilyMember, SpotFamily, SweepPoint } from './types.js';
+import type { FamilyMember, SiteFamily, SweepPoint } from './types.js';
 
 /** Match radius as a fraction of the outline's bounding-box diagonal (docs/sweep.md). */
 export const MATCH_TOLERANCE_FRACTION = 0.05;
@@ -17,9 +17,9 @@ export function featureClass(kind: FeatureKind): string {
   return kind === 'fillet' ? 'corner' : kind;
 }
 
-/** How far a spot may lie from a family's earlier members and still join it. */
-export function matchTolerance(spot: Pick<SpotResult, 'feature'>, scale: number): number {
-  return Math.max(MATCH_TOLERANCE_FRACTION * scale, MATCH_RADIUS_FACTOR * spot.feature.radius);
+/** How far a site may lie from a family's earlier members and still join it. */
+export function matchTolerance(site: Pick<SiteResult, 'feature'>, scale: number): number {
+  return Math.max(MATCH_TOLERANCE_FRACTION * scale, MATCH_RADIUS_FACTOR * site.feature.radius);
 }
 
 function distance(a: Point, b: Point): number {
@@ -27,45 +27,45 @@ function distance(a: Point, b: Point): number {
 }
 
 /**
- * Group the spots of all points into families. Points are taken in sweep order; within a point,
- * candidate (spot, family) pairs of the same feature class closer than the tolerance are taken
- * nearest first (distance to the nearest earlier member, so a spot that drifts step by step
- * stays in its family), each family and spot at most once. A spot left over starts a family.
+ * Group the sites of all points into families. Points are taken in sweep order; within a point,
+ * candidate (site, family) pairs of the same feature class closer than the tolerance are taken
+ * nearest first (distance to the nearest earlier member, so a site that drifts step by step
+ * stays in its family), each family and site at most once. A site left over starts a family.
  */
-export function matchSpots(points: readonly Pick<SweepPoint, 'study' | 'scale'>[]): SpotFamily[] {
-  const families: SpotFamily[] = [];
+export function matchSites(points: readonly Pick<SweepPoint, 'study' | 'scale'>[]): SiteFamily[] {
+  const families: SiteFamily[] = [];
   points.forEach((point, p) => {
-    const spots = point.study.spots;
+    const sites = point.study.sites;
     const pairs: { s: number; f: number; d: number }[] = [];
-    spots.forEach((spot, s) => {
-      const cls = featureClass(spot.feature.kind);
-      const tol = matchTolerance(spot, point.scale);
+    sites.forEach((site, s) => {
+      const cls = featureClass(site.feature.kind);
+      const tol = matchTolerance(site, point.scale);
       families.forEach((fam, f) => {
         if (fam.featureClass !== cls) return;
         let d = Infinity;
-        for (const m of fam.members) d = Math.min(d, distance(m.at, spot.at));
+        for (const m of fam.members) d = Math.min(d, distance(m.at, site.at));
         if (d <= tol) pairs.push({ s, f, d });
       });
     });
     pairs.sort((a, b) => a.d - b.d || a.s - b.s || a.f - b.f);
-    const spotTaken = new Uint8Array(spots.length);
+    const siteTaken = new Uint8Array(sites.length);
     const famTaken = new Uint8Array(families.length);
-    const member = (s: number): FamilyMember => ({ point: p, spot: s, id: spots[s].id, at: spots[s].at, verdict: spots[s].verdict });
+    const member = (s: number): FamilyMember => ({ point: p, site: s, id: sites[s].id, at: sites[s].at, verdict: sites[s].verdict });
     for (const { s, f } of pairs) {
-      if (spotTaken[s] || famTaken[f]) continue;
-      spotTaken[s] = 1;
+      if (siteTaken[s] || famTaken[f]) continue;
+      siteTaken[s] = 1;
       famTaken[f] = 1;
       families[f].members.push(member(s));
     }
-    spots.forEach((spot, s) => {
-      if (spotTaken[s]) return;
-      families.push({ id: `F${families.length + 1}`, featureClass: featureClass(spot.feature.kind), at: spot.at, members: [member(s)] });
+    sites.forEach((site, s) => {
+      if (siteTaken[s]) return;
+      families.push({ id: `F${families.length + 1}`, featureClass: featureClass(site.feature.kind), at: site.at, members: [member(s)] });
     });
   });
   return families;
 }
 
-/** The member of a family at a sweep point, if the family has a spot there. */
-export function memberAt(family: SpotFamily, point: number): FamilyMember | undefined {
+/** The member of a family at a sweep point, if the family has a site there. */
+export function memberAt(family: SiteFamily, point: number): FamilyMember | undefined {
   return family.members.find((m) => m.point === point);
 }

@@ -11,7 +11,7 @@ import { Worker } from 'node:worker_threads';
 import { ModelError, PeakwiseError, type ErrorStage } from '../errors.js';
 import { parseModel } from '../model/index.js';
 import { VERSION } from '../version.js';
-import { matchSpots } from './match.js';
+import { matchSites } from './match.js';
 import { fromJson, pointKey, runPoint, type PointOutcome, type PointTask } from './point.js';
 import type { SweepPoint, SweepResult, SweepStudyOptions, VaryAxis } from './types.js';
 import { cartesian } from './values.js';
@@ -130,7 +130,7 @@ export async function runSweep(text: string, file: string, axes: VaryAxis[], opt
     model: { title, file },
     axes,
     points: finished,
-    families: matchSpots(finished),
+    families: matchSites(finished),
     reused,
     totalS: (performance.now() - t0) / 1000,
     ...(interrupted ? { interrupted: true } : {}),

@@ -22,7 +22,7 @@ export interface SweepPoint {
   params: Record<string, number>;
   /** sha256 of model text, params, options and tool version (hex) */
   key: string;
-  /** diagonal of the outline's bounding box: the length that spot matching tolerances scale with */
+  /** diagonal of the outline's bounding box: the length that site matching tolerances scale with */
   scale: number;
   study: StudyResult;
   /** true when the result came from an earlier run's point file */
@@ -31,24 +31,24 @@ export interface SweepPoint {
   seconds: number;
 }
 
-/** One spot of one sweep point, as a member of a family. */
+/** One site of one sweep point, as a member of a family. */
 export interface FamilyMember {
   point: number;
-  /** index of the spot in that point's study.spots */
-  spot: number;
+  /** index of the site in that point's study.sites */
+  site: number;
   id: string;
   at: Point;
   verdict: Verdict;
 }
 
 /**
- * The same physical hot spot followed across sweep points. Spot ids are renumbered by each
+ * The same physical site followed across sweep points. Site ids are renumbered by each
  * study as the geometry changes, so families are formed by feature class and location.
  */
-export interface SpotFamily {
+export interface SiteFamily {
   /** F1, F2, … in order of first appearance */
   id: string;
-  /** 'corner' covers both corner and fillet spots (a rounded corner is the same place) */
+  /** 'corner' covers both corner and fillet sites (a rounded corner is the same place) */
   featureClass: string;
   /** where the family was first seen */
   at: Point;
@@ -62,7 +62,7 @@ export interface SweepResult {
   model: { title: string; file: string };
   axes: VaryAxis[];
   points: SweepPoint[];
-  families: SpotFamily[];
+  families: SiteFamily[];
   /** points taken from earlier point files */
   reused: number;
   /** wall time of the whole sweep (s) */

@@ -1,11 +1,11 @@
 /**
- * `--vary` values: `name=v1,v2,…` lists and `name=start:step:end` ranges, and the cartesian
+ * `--vary` values: `name=v1,v2,…` lists and `name=start..end by step` ranges, and the cartesian
  * product of several axes. Pure functions; errors are usage errors naming the option.
  */
 import { PeakwiseError } from '../errors.js';
 import type { VaryAxis } from './types.js';
 
-/** Longest list one axis may expand to (a typo like 0:0.0001:100 should not hang the machine). */
+/** Longest list one axis may expand to (a typo like 0..100 by 0.0001 should not hang the machine). */
 export const MAX_AXIS_VALUES = 1000;
 /** Most points one sweep may have. */
 export const MAX_SWEEP_POINTS = 10000;
@@ -24,7 +24,7 @@ function number(text: string, option: string): number {
 }
 
 /**
- * start:step:end, end included when the walk lands on it. The k-th value is computed as
+ * start..end by step, end included when the walk lands on it. The k-th value is computed as
  * start + k·step (no running sum, so no accumulated drift), the count allows a slack of 1e-9
  * steps, and each value is rounded to 12 significant digits so 0.1-steps print as 0.3, not
  * 0.30000000000000004.
@@ -39,10 +39,13 @@ export function expandRange(start: number, step: number, end: number, option = '
   return out;
 }
 
-/** Parse one `--vary` argument: `r=0,2,4`, `r=0:2:20`, or a mix `r=0,1:1:3,8`. */
+/** `start..end by step` with free spaces around the words (one range of a `--vary` list). */
+const RANGE = /^(.*?)\.\.(.*?)\bby\b(.*)$/;
+
+/** Parse one `--vary` argument: `r=0,2,4`, `r=0..20 by 2`, or a mix `r=0,1..3 by 1,8`. */
 export function parseVary(text: string): VaryAxis {
   const eq = text.indexOf('=');
-  if (eq < 0) throw usage(`--vary "${text}": expected name=values, e.g. r=0,2,4 or r=0:2:20`);
+  if (eq < 0) throw usage(`--vary "${text}": expected name=values, e.g. r=0,2,4 or "r=0..20 by 2"`);
   const name = text.slice(0, eq).trim();
   if (!NAME.test(name)) throw usage(`--vary "${text}": "${name}" is not a parameter name`);
   const body = text.slice(eq + 1).trim();
@@ -50,9 +53,15 @@ export function parseVary(text: string): VaryAxis {
   const values: number[] = [];
   for (const part of body.split(',')) {
     if (part.includes(':')) {
+      // the colon form of an earlier version: say how to write it now
       const bits = part.split(':');
-      if (bits.length !== 3) throw usage(`--vary ${name}: "${part}" is not start:step:end`);
-      values.push(...expandRange(number(bits[0], name), number(bits[1], name), number(bits[2], name), name));
+      const now = bits.length === 3 ? `${bits[0].trim()}..${bits[2].trim()} by ${bits[1].trim()}` : 'start..end by step';
+      throw usage(`--vary ${name}: "${part}" uses the old start:step:end form; write "${now}" (start..end by step)`);
+    }
+    if (part.includes('..')) {
+      const m = RANGE.exec(part);
+      if (!m) throw usage(`--vary ${name}: "${part}" is not a range start..end by step`);
+      values.push(...expandRange(number(m[1], name), number(m[3], name), number(m[2], name), name));
     } else {
       values.push(number(part, name));
     }

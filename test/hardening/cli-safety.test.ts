@@ -42,11 +42,11 @@ describe('Ctrl-C during a study', () => {
     expect(code).toBe(130);
     expect(stderr).not.toMatch(STACK);
     expect(stderr).toContain('interrupted');
-    const study = JSON.parse(readFileSync(join(out, 'study.json'), 'utf8')) as { interrupted?: boolean; spots: { levels: unknown[] }[] };
+    const study = JSON.parse(readFileSync(join(out, 'study.json'), 'utf8')) as { interrupted?: boolean; sites: { levels: unknown[] }[] };
     expect(study.interrupted).toBe(true);
     // fewer levels than asked for, all of them complete records
-    for (const s of study.spots) expect(s.levels.length).toBeLessThan(12);
-    for (const f of ['spots.csv', 'field.csv', 'report.html']) expect(existsSync(join(out, f))).toBe(true);
+    for (const s of study.sites) expect(s.levels.length).toBeLessThan(12);
+    for (const f of ['sites.csv', 'field.csv', 'report.html']) expect(existsSync(join(out, f))).toBe(true);
     expect(noTempFiles(out)).toEqual([]);
   }, 120_000);
 });
@@ -98,9 +98,9 @@ describe('determinism', () => {
     expect(rb.code).toBe(0);
     const strip = (f: string) => readFileSync(f, 'utf8').replace(/"(\w*S|totalS|timings)": [-0-9.e+]+/g, '"$1": 0');
     const ja = strip(join(a, 'study.json'));
-    expect(ja).toContain('"spots"');
+    expect(ja).toContain('"sites"');
     expect(ja).toBe(strip(join(b, 'study.json')));
-    expect(readFileSync(join(a, 'spots.csv'), 'utf8')).toBe(readFileSync(join(b, 'spots.csv'), 'utf8'));
+    expect(readFileSync(join(a, 'sites.csv'), 'utf8')).toBe(readFileSync(join(b, 'sites.csv'), 'utf8'));
   }, 180_000);
 });
 
@@ -140,7 +140,7 @@ describe('hostile text in model strings', () => {
     expect(html).not.toContain('=evil<b>');
     expect(html).not.toContain('\u001b');
     // CSV: every text cell that would start a formula is quoted with a leading apostrophe
-    for (const f of ['spots.csv', 'field.csv']) {
+    for (const f of ['sites.csv', 'field.csv']) {
       for (const line of readFileSync(join(out, f), 'utf8').split(/\r?\n/)) {
         for (const cell of line.split(',')) expect(cell.replace(/^"/, '')).not.toMatch(/^[=+@]/);
       }

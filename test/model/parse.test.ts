@@ -34,7 +34,7 @@ describe('demo models', () => {
   const files = readdirSync(modelsDir).filter((f) => f.endsWith('.yaml'));
   it('has the seven demo models', () => {
     expect(files.sort()).toEqual([
-      'edge-slit.yaml', 'ellipse-hole.yaml', 'l-bracket-fillet.yaml', 'l-bracket-sharp.yaml', 'lug-bearing.yaml', 'strap-pin-hole.yaml',
+      'edge-slit.yaml', 'ellipse-hole.yaml', 'hoist-lug.yaml', 'l-bracket-fillet.yaml', 'l-bracket-sharp.yaml', 'strap-pin-hole.yaml',
       'web-opening.yaml',
     ]);
   });
@@ -136,7 +136,7 @@ describe('defaults and shape', () => {
     expect(m.plate.openings).toEqual([]);
     // default mesh size: a tenth of the smaller extent, 50/10
     expect(m.mesh).toEqual({ size: 5, order: 2, local: [] });
-    expect(m.study).toEqual({ measure: 'von-mises', levels: 6, ratio: 2, spots: 'auto', readouts: { distance: undefined } });
+    expect(m.study).toEqual({ measure: 'von-mises', levels: 6, ratio: 2, sites: 'auto', readouts: { distance: undefined } });
     expect(m.supports[0]).toEqual({ where: { kind: 'x', value: 0 }, fix: { x: true, y: true }, keyPath: 'supports[0]' });
     expect(m.loads[0]).toEqual({ kind: 'traction', where: { kind: 'x', value: 100 }, traction: [10, 0], keyPath: 'loads[0]' });
   });
@@ -189,7 +189,7 @@ study:
   measure: max-principal
   levels: 4
   ratio: 1.5
-  spots: [[400, 200], [0, 0]]
+  sites: [[400, 200], [0, 0]]
   readouts: { distance: 0.5 }
 `;
     const m = parseModel(text, 'panel.yaml');
@@ -216,7 +216,7 @@ study:
     expect(m.loads[2]).toMatchObject({ where: { kind: 'point', at: [400, 400] } });
     expect(m.loads[3].where).toEqual({ kind: 'y', value: 400 });
     expect(m.mesh).toEqual({ size: 25, order: 1, local: [{ near: [250, 125], size: 2, radius: 60 }] });
-    expect(m.study).toEqual({ measure: 'max-principal', levels: 4, ratio: 1.5, spots: [[400, 200], [0, 0]], readouts: { distance: 0.5 } });
+    expect(m.study).toEqual({ measure: 'max-principal', levels: 4, ratio: 1.5, sites: [[400, 200], [0, 0]], readouts: { distance: 0.5 } });
   });
 
   it('outline as one shape: rect and ellipse', () => {
@@ -341,7 +341,7 @@ describe('value rules (one case per rule beyond the corpus)', () => {
     ['levels 13', `${minimal}study: { levels: 13 }\n`, 'study.levels', 'from 2 to 12, got 13'],
     ['zero-length segment', minimal.replace('{ x: 0 }', '{ segment: [[0, 0], [0, 0]] }'), 'supports[0].where.segment', 'segment has zero length'],
     ['fix twice', minimal.replace('fix: [x, y]', 'fix: [y, y]'), 'supports[0].fix[1]', 'direction y is listed twice'],
-    ['spots typo', `${minimal}study: { spots: atuo }\n`, 'study.spots', "expected auto or a list of points [x, y], got 'atuo'"],
+    ['sites typo', `${minimal}study: { sites: atuo }\n`, 'study.sites', "expected auto or a list of points [x, y], got 'atuo'"],
     ['opening id not a name', minimal.replace('plate:\n', 'plate:\n  openings: [ { id: 3, circle: { center: [50, 25], radius: 1 } } ]\n'), 'plate.openings[0].id', 'expected a name, got 3'],
     ['no openings to refer to', minimal.replace('traction: [10, 0]', 'pressure: 1').replace('{ x: 100 }', '{ opening: h }'), 'loads[0].where.opening', 'the plate has no openings'],
     ['outline: false', minimal.replace('{ x: 0 }', '{ outline: false }'), 'supports[0].where.outline', 'expected true'],

@@ -1,6 +1,6 @@
 /**
  * Opens the demo report in Debian's Chromium (headless) and checks what an engineer would see:
- * no console errors, no network requests, every spot section and plot present, the hostile
+ * no console errors, no network requests, every site section and plot present, the hostile
  * title shown as text, and a contour picture with real colour variety.
  * Skipped only when /usr/bin/chromium is missing and CI is not set; under CI it must run.
  */
@@ -40,7 +40,7 @@ describe.skipIf(!haveChromium && !inCi)('report in a real browser', () => {
   beforeAll(async () => {
     if (!haveChromium) throw new Error(`CI is set but ${CHROMIUM} is missing: install chromium (see .ci/run)`);
     input = demoStudyReport();
-    expect(input.study.spots.length).toBeGreaterThanOrEqual(2);
+    expect(input.study.sites.length).toBeGreaterThanOrEqual(2);
     dir = mkdtempSync(join(tmpdir(), 'peakwise-report-'));
     const file = join(dir, 'report.html');
     writeFileSync(file, reportHtml(input));
@@ -80,12 +80,12 @@ describe.skipIf(!haveChromium && !inCi)('report in a real browser', () => {
     expect(dialogs).toEqual([]);
     expect(await page.locator('h1').textContent()).toBe(HOSTILE_TITLE);
     expect(await page.locator('script').count()).toBe(0);
-    for (const s of input.study.spots) {
-      expect(await page.locator(`section#spot-${s.id}`).count()).toBe(1);
-      expect(await page.locator(`section#spot-${s.id} svg.convergence-plot`).count()).toBe(1);
-      expect(await page.locator(`section#spot-${s.id} svg.contour-inset`).count()).toBe(1);
+    for (const s of input.study.sites) {
+      expect(await page.locator(`section#site-${s.id}`).count()).toBe(1);
+      expect(await page.locator(`section#site-${s.id} svg.convergence-plot`).count()).toBe(1);
+      expect(await page.locator(`section#site-${s.id} svg.contour-inset`).count()).toBe(1);
     }
-    expect(await page.locator('svg.convergence-plot').count()).toBe(input.study.spots.length);
+    expect(await page.locator('svg.convergence-plot').count()).toBe(input.study.sites.length);
 
     // the mesh overlay is hidden until the toggle is switched on
     expect(await page.locator('svg.contour-main .mesh-overlay').isVisible()).toBe(false);
@@ -103,7 +103,7 @@ describe.skipIf(!haveChromium && !inCi)('report in a real browser', () => {
     if (process.env.PEAKWISE_SHOTS) {
       await page.locator('#picture').screenshot({ path: '/tmp/pw-picture.png' });
       await page.locator('#verdicts').screenshot({ path: '/tmp/pw-verdicts.png' });
-      for (const s of input.study.spots) await page.locator(`section#spot-${s.id}`).screenshot({ path: `/tmp/pw-${s.id}.png` });
+      for (const s of input.study.sites) await page.locator(`section#site-${s.id}`).screenshot({ path: `/tmp/pw-${s.id}.png` });
     }
     await page.close();
   });

@@ -18,7 +18,7 @@ describe('contourSvg', () => {
   const svg = contourSvg(mesh, field, {
     units: 'von Mises, MPa',
     title: 'demo',
-    spots: [{ id: 'S1', at: corner }],
+    sites: [{ id: 'S1', at: corner }],
     deformed: { u, scale: 20 },
     showMesh: true,
   });
@@ -85,27 +85,27 @@ describe('contourSvg', () => {
     expect(svg).toMatch(/class="bar-min"/);
   });
 
-  it('marks the spot, the deformed outline at its magnification and the mesh overlay', () => {
-    expect(svg.match(/class="spot-marker"/g)?.length).toBe(1);
+  it('marks the site, the deformed outline at its magnification and the mesh overlay', () => {
+    expect(svg.match(/class="site-marker"/g)?.length).toBe(1);
     expect(svg).toContain('>S1<');
     expect(svg).toContain('class="deformed"');
     expect(svg).toContain('× 20');
     expect(svg).toContain('class="mesh-overlay"');
   });
 
-  it('zooms into a window: only triangles near the spot, markers outside left out', () => {
+  it('zooms into a window: only triangles near the site, markers outside left out', () => {
     const inset = contourSvg(mesh, field, {
-      units: 'MPa', title: 'inset', spots: [{ id: 'S1', at: corner }, { id: 'far', at: [10, 10] }],
+      units: 'MPa', title: 'inset', sites: [{ id: 'S1', at: corner }, { id: 'far', at: [10, 10] }],
       viewBox: { minX: 170, maxX: 230, minY: 120, maxY: 180 },
     });
     expect(checkXml(inset).errors).toEqual([]);
-    expect(inset.match(/class="spot-marker"/g)?.length).toBe(1);
+    expect(inset.match(/class="site-marker"/g)?.length).toBe(1);
     expect(inset.length).toBeLessThan(svg.length);
   });
 
   it('escapes hostile ids and labels', () => {
     const bad = '<script>alert(1)</script>&"\'';
-    const s = contourSvg(mesh, field, { units: bad, title: bad, spots: [{ id: bad, at: corner }], idPrefix: bad, className: bad });
+    const s = contourSvg(mesh, field, { units: bad, title: bad, sites: [{ id: bad, at: corner }], idPrefix: bad, className: bad });
     expect(checkXml(s).errors).toEqual([]);
     expect(s).not.toContain('<script>');
   });

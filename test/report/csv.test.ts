@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { csvText, fieldCsv, spotsCsv } from '../../src/report/index.js';
+import { csvText, fieldCsv, sitesCsv } from '../../src/report/index.js';
 import { HOSTILE, demoStudy, gridMesh } from './fixtures.js';
 
 /** RFC 4180 reader for the tests: returns rows of [raw cell, was quoted]. */
@@ -31,27 +31,27 @@ function parseCsv(text: string): { value: string; quoted: boolean }[][] {
   return rows;
 }
 
-describe('spotsCsv', () => {
+describe('sitesCsv', () => {
   const study = demoStudy();
-  const rows = parseCsv(spotsCsv(study));
+  const rows = parseCsv(sitesCsv(study));
 
-  it('has one row per spot and level under a quoted header', () => {
+  it('has one row per site and level under a quoted header', () => {
     expect(rows[0].map((c) => c.value)).toEqual([
-      'spot', 'x', 'y', 'feature', 'verdict', 'level', 'h', 'dofs', 'peak', 'atDistance',
+      'site', 'x', 'y', 'feature', 'verdict', 'level', 'h', 'dofs', 'peak', 'atDistance',
       'estimate', 'uncertainty', 'exponent', 'theory',
     ]);
     expect(rows[0].every((c) => c.quoted)).toBe(true);
-    expect(rows.length - 1).toBe(study.spots.reduce((a, s) => a + s.levels.length, 0));
+    expect(rows.length - 1).toBe(study.sites.reduce((a, s) => a + s.levels.length, 0));
     for (const r of rows) expect(r.length).toBe(14);
   });
 
   it('writes numbers bare with full round-trip precision', () => {
     const first = rows[1];
-    const level = study.spots[0].levels[0];
+    const level = study.sites[0].levels[0];
     expect(first[8].quoted).toBe(false);
     expect(Number(first[8].value)).toBe(level.peak); // exact, not rounded
-    expect(Number(first[12].value)).toBe(study.spots[0].growth.exponent);
-    expect(first[10].value).toBe(''); // NaN estimate of a singular spot → empty cell
+    expect(Number(first[12].value)).toBe(study.sites[0].growth.exponent);
+    expect(first[10].value).toBe(''); // NaN estimate of a singular site → empty cell
   });
 });
 
@@ -78,10 +78,10 @@ describe('formula-injection guard (text cells only)', () => {
     expect(Number(rows[3][4].value)).toBe(-1 / 7); // node 2, uy = u[5]
   });
 
-  it('guards hostile text in every spot string and leaves no formula start', () => {
+  it('guards hostile text in every site string and leaves no formula start', () => {
     const study = demoStudy();
-    for (const s of study.spots) s.id = `=cmd|' /C calc'!A0 ${HOSTILE}`;
-    const rows = parseCsv(spotsCsv(study));
+    for (const s of study.sites) s.id = `=cmd|' /C calc'!A0 ${HOSTILE}`;
+    const rows = parseCsv(sitesCsv(study));
     for (const r of rows.slice(1)) {
       expect(r[0].quoted).toBe(true);
       expect(r[0].value.startsWith("'=")).toBe(true);

@@ -1,13 +1,13 @@
 /**
  * Synthetic inputs for the report tests: a structured triangle mesh (rectangle or L-shape,
  * CST or LST) built straight into typed arrays, its plate geometry, a model, and a study
- * result with one converging, one singular and one undecided spot. The scenario (a bracket
+ * result with one converging, one singular and one undecided site. The scenario (a bracket
  * web with a notch in a pump skid) is our own invention.
  */
 import type { PlateGeometry, BoundaryPiece } from '../../src/geometry/types.js';
 import type { Mesh } from '../../src/mesh/types.js';
 import type { Model, Point } from '../../src/model/types.js';
-import type { SpotResult, StudyResult } from '../../src/study/types.js';
+import type { SiteResult, StudyResult } from '../../src/study/types.js';
 import type { ReportInput } from '../../src/report/index.js';
 
 export interface GridOptions {
@@ -206,20 +206,20 @@ export function demoModel(strings: string = ''): Model {
       { kind: 'pressure', where: { kind: 'opening', id: s('vent') }, pressure: 2, keyPath: 'loads[2]' },
     ],
     mesh: { size: 10, order: 2, local: [] },
-    study: { measure: 'von-mises', levels: 5, ratio: 2, spots: 'auto', readouts: { distance: 0.5 } },
+    study: { measure: 'von-mises', levels: 5, ratio: 2, sites: 'auto', readouts: { distance: 0.5 } },
     sourceMap: {},
   };
 }
 
 /** Levels from exact laws so that tests can compare fitted lines with the data. */
-export function singularLevels(q: number, h0: number, n: number, c = 150): SpotResult['levels'] {
+export function singularLevels(q: number, h0: number, n: number, c = 150): SiteResult['levels'] {
   return Array.from({ length: n }, (_, k) => {
     const h = h0 / 2 ** k;
     return { h, dofs: Math.round(4000 * 1.7 ** k), peak: c * h ** -q, peakAt: [200, 150] as Point, atDistance: 118 + k * 0.01 };
   });
 }
 
-export function convergingLevels(value: number, p: number, h0: number, n: number): SpotResult['levels'] {
+export function convergingLevels(value: number, p: number, h0: number, n: number): SiteResult['levels'] {
   return Array.from({ length: n }, (_, k) => {
     const h = h0 / 2 ** k;
     return { h, dofs: Math.round(4000 * 1.7 ** k), peak: value - 0.8 * h ** p, peakAt: [100, 120] as Point };
@@ -228,7 +228,7 @@ export function convergingLevels(value: number, p: number, h0: number, n: number
 
 export function demoStudy(strings: string = ''): StudyResult {
   const s = (base: string) => (strings ? `${base} ${strings}` : base);
-  const spots: SpotResult[] = [
+  const sites: SiteResult[] = [
     {
       id: s('S1'),
       at: [200, 150],
@@ -272,11 +272,11 @@ export function demoStudy(strings: string = ''): StudyResult {
     mesh: { nodes: 1000, elements: 450, order: 2, minAngleDeg: 45 },
     solution: { dofs: 2000, maxDisplacement: 0.41, reactionSum: [0, 7500], appliedSum: [0, -7500] },
     measure: 'von-mises',
-    spots,
+    sites,
   };
 }
 
-/** The demo report input: L-shaped LST plate, corner field, three spots, three checks. */
+/** The demo report input: L-shaped LST plate, corner field, three sites, three checks. */
 const plate = { nx: 40, ny: 30, width: 400, height: 300, order: 2 as const, lShape: true };
 
 export function demoReportInput(hostile = ''): ReportInput {

@@ -13,13 +13,13 @@ describe('reportHtml', () => {
   it('is one well-formed page whose pictures are all well-formed SVG', () => {
     expect(checkXml(html).errors).toEqual([]);
     const svgs = svgFragments(html);
-    expect(svgs.length).toBe(1 + 2 * input.study.spots.length); // main contour, per spot a plot and an inset
+    expect(svgs.length).toBe(1 + 2 * input.study.sites.length); // main contour, per site a plot and an inset
     for (const s of svgs) expect(checkXml(s).errors).toEqual([]);
   });
 
-  it('has the sections an engineer reads: model, mesh, picture, verdicts, spots, verification, caution', () => {
-    for (const id of ['model', 'mesh', 'picture', 'verdicts', 'spots', 'verification']) expect(html).toContain(`<section id="${id}">`);
-    for (const s of input.study.spots) expect(html).toContain(`<section class="spot" id="spot-${s.id}">`);
+  it('has the sections an engineer reads: model, mesh, picture, verdicts, sites, verification, caution', () => {
+    for (const id of ['model', 'mesh', 'picture', 'verdicts', 'sites', 'verification']) expect(html).toContain(`<section id="${id}">`);
+    for (const s of input.study.sites) expect(html).toContain(`<section class="site" id="site-${s.id}">`);
     expect(html.match(/<svg [^>]*class="convergence-plot"/g)?.length).toBe(3);
     expect(html.match(/class="contour contour-inset"/g)?.length).toBe(3);
     expect(html.match(/class="contour contour-main"/g)?.length).toBe(1);
@@ -55,7 +55,7 @@ describe('reportHtml', () => {
     const shown = stripControl(HOSTILE);
     const h1 = /<h1>([^<]*)<\/h1>/.exec(bad)?.[1] ?? '';
     expect(unescape(h1)).toBe(`Skid bracket web with a re-entrant notch ${shown}`);
-    // title, file, units, opening id, spot ids, reasons, advice and check names all reach the page as text
+    // title, file, units, opening id, site ids, reasons, advice and check names all reach the page as text
     const text = unescape(bad);
     for (const piece of [
       `models/skid-bracket.yaml ${shown}`, `opening “vent ${shown}”`, `S1 ${shown}`, `MPa ${shown}`,
@@ -87,19 +87,19 @@ describe('report size for a 1 000 000-DOF model', () => {
     console.log(`report of ${2 * (mesh.xy.length / 2)} DOFs: ${(bytes / 1e6).toFixed(2)} MB`);
     expect(bytes).toBeLessThan(15e6);
     expect(html).toContain('regular resampling');
-    for (const s of study.spots) expect(html).toContain(`id="spot-${s.id}"`);
+    for (const s of study.sites) expect(html).toContain(`id="site-${s.id}"`);
   });
 });
 
 describe('reportHtml for a single solve', () => {
   it('leaves out verdicts and points to the study instead', () => {
     const input = demoReportInput();
-    input.study.spots = [];
+    input.study.sites = [];
     const html = reportHtml({ ...input, mode: 'solve' });
     expect(checkXml(html).errors).toEqual([]);
     expect(html).toContain('single solve');
     expect(html).toContain('<code>peakwise study</code>');
-    expect(html).not.toContain('class="spot"');
+    expect(html).not.toContain('class="site"');
     expect(html).toContain('class="contour contour-main"');
   });
 });

@@ -4,7 +4,7 @@ import { checkXml } from './xml.js';
 import { demoStudy } from './fixtures.js';
 
 const study = demoStudy();
-const [singular, converging, undecided] = study.spots;
+const [singular, converging, undecided] = study.sites;
 
 function circles(svg: string): [number, number][] {
   return [...svg.matchAll(/<circle class="level-point" cx="([^"]+)" cy="([^"]+)"/g)].map((m) => [+m[1], +m[2]]);
@@ -17,10 +17,10 @@ function pathPoints(svg: string, cls: string): [number, number][] {
 
 describe('convergencePlotSvg', () => {
   it('is well-formed for every verdict', () => {
-    for (const s of study.spots) expect(checkXml(convergencePlotSvg(s, { units: 'MPa', lengthUnit: 'mm' })).errors).toEqual([]);
+    for (const s of study.sites) expect(checkXml(convergencePlotSvg(s, { units: 'MPa', lengthUnit: 'mm' })).errors).toEqual([]);
   });
 
-  it('labels the fitted slope of a singular spot with the study exponent to 2 decimals', () => {
+  it('labels the fitted slope of a singular site with the study exponent to 2 decimals', () => {
     const svg = convergencePlotSvg(singular, { units: 'MPa', lengthUnit: 'mm' });
     const label = /class="slope-label" data-value="([^"]+)"[^>]*>([^<]*)</.exec(svg);
     expect(label?.[1]).toBe(singular.growth.exponent.toFixed(2));
@@ -29,7 +29,7 @@ describe('convergencePlotSvg', () => {
     expect(svg).toContain('class="theory-line"');
   });
 
-  it('labels a converging spot with its observed order and draws the extrapolation band', () => {
+  it('labels a converging site with its observed order and draws the extrapolation band', () => {
     const svg = convergencePlotSvg(converging, { units: 'MPa' });
     const label = /class="slope-label" data-value="([^"]+)"/.exec(svg);
     expect(label?.[1]).toBe(converging.estimate.observedOrder.toFixed(2));
@@ -37,7 +37,7 @@ describe('convergencePlotSvg', () => {
     expect(svg).toContain('extrapolated 182.4 ± 0.9 MPa');
   });
 
-  it('labels an undecided spot with its current growth exponent', () => {
+  it('labels an undecided site with its current growth exponent', () => {
     const svg = convergencePlotSvg(undecided, { units: 'MPa' });
     expect(/data-value="([^"]+)"/.exec(svg.slice(svg.indexOf('slope-label')))?.[1]).toBe('0.70');
   });
@@ -69,7 +69,7 @@ describe('convergencePlotSvg', () => {
     expect(Math.abs(fit[fit.length - 1][1] - pts[4][1])).toBeLessThan(1);
   });
 
-  it('copes with a spot without levels', () => {
+  it('copes with a site without levels', () => {
     const svg = convergencePlotSvg({ ...singular, levels: [] }, { units: 'MPa' });
     expect(checkXml(svg).errors).toEqual([]);
     expect(svg).toContain('No refinement levels');

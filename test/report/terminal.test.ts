@@ -9,7 +9,7 @@ describe('studyTable', () => {
   const study = demoStudy();
   const plain = studyTable(study, { color: false });
 
-  it('lists each spot with its verdict in plain words, its value and readout', () => {
+  it('lists each site with its verdict in plain words, its value and readout', () => {
     const lines = plain.split('\n');
     const s1 = lines.find((l) => l.startsWith('S1 '));
     const s2 = lines.find((l) => l.startsWith('S2 '));
@@ -29,8 +29,8 @@ describe('studyTable', () => {
   });
 
   it('aligns columns: the verdict column starts at the same place on every row', () => {
-    const rows = plain.split('\n').filter((l) => /^(spot|S\d) /.test(l));
-    const at = rows.map((r) => r.indexOf(r.startsWith('spot') ? 'verdict' : r.match(/converging|singular|undecided/)![0]));
+    const rows = plain.split('\n').filter((l) => /^(site|S\d) /.test(l));
+    const at = rows.map((r) => r.indexOf(r.startsWith('site') ? 'verdict' : r.match(/converging|singular|undecided/)![0]));
     expect(new Set(at).size).toBe(1);
   });
 
@@ -90,10 +90,10 @@ describe('solveSummary', () => {
 });
 
 describe('feature labels', () => {
-  const spot = (feature: Record<string, unknown>) => ({ feature } as unknown as Parameters<typeof featureLabel>[0]);
+  const site = (feature: Record<string, unknown>) => ({ feature } as unknown as Parameters<typeof featureLabel>[0]);
   it('a free corner gives its angle; a corner at the end of a support also names its faces', () => {
-    expect(featureLabel(spot({ kind: 'corner', interiorAngleDeg: 270, radius: 0, faceConditions: ['free', 'free'] }))).toBe('corner 270°');
-    expect(featureLabel(spot({ kind: 'corner', interiorAngleDeg: 90, radius: 0, faceConditions: ['clamped', 'free'] }))).toBe('corner 90°, faces clamped/free');
-    expect(featureLabel(spot({ kind: 'fillet', interiorAngleDeg: 0, radius: 8 }))).toBe('fillet r 8');
+    expect(featureLabel(site({ kind: 'corner', interiorAngleDeg: 270, radius: 0, faceConditions: ['free', 'free'] }))).toBe('corner 270°');
+    expect(featureLabel(site({ kind: 'corner', interiorAngleDeg: 90, radius: 0, faceConditions: ['clamped', 'free'] }))).toBe('corner 90°, faces clamped/free');
+    expect(featureLabel(site({ kind: 'fillet', interiorAngleDeg: 0, radius: 8 }))).toBe('fillet r 8');
   });
 });

@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import { parseModel } from '../../src/model/index.js';
-import { runStudy, type SpotResult, type StudyResult } from '../../src/study/index.js';
+import { runStudy, type SiteResult, type StudyResult } from '../../src/study/index.js';
 import { howlandKtg, inglisKt } from '../../src/reference/index.js';
 
 // FE acceptance of issue 5. Lean on purpose: LST (order 2), small base meshes, 4–5 levels.
@@ -11,9 +11,9 @@ thickness: 1
 state: plane-stress
 `;
 const study = (text: string, levels: number) => runStudy(parseModel(head + text, 'test.yaml'), { levels });
-const spotAt = (r: StudyResult, x: number, y: number): SpotResult => {
-  const s = r.spots.find((p) => Math.hypot(p.at[0] - x, p.at[1] - y) < 1e-6);
-  if (!s) throw new Error(`no spot at (${x}, ${y}); spots: ${r.spots.map((p) => `${p.id} ${p.at}`).join(', ')}`);
+const siteAt = (r: StudyResult, x: number, y: number): SiteResult => {
+  const s = r.sites.find((p) => Math.hypot(p.at[0] - x, p.at[1] - y) < 1e-6);
+  if (!s) throw new Error(`no site at (${x}, ${y}); sites: ${r.sites.map((p) => `${p.id} ${p.at}`).join(', ')}`);
   return s;
 };
 
@@ -32,7 +32,7 @@ mesh: { size: 0.25, order: 2 }
 describe('L-shaped plate, re-entrant 270° corner (Williams 1952: λ = 0.544484, q = 0.455516)', () => {
   it('sharp corner → singular, q within ±0.05 of 0.4555; reproducible', () => {
     const r = study(lPlate('[1, 1]'), 5);
-    const s = spotAt(r, 1, 1);
+    const s = siteAt(r, 1, 1);
     expect(s.feature.kind).toBe('corner');
     expect(s.feature.interiorAngleDeg).toBeCloseTo(270, 9);
     expect(s.verdict).toBe('singular');
@@ -43,16 +43,16 @@ describe('L-shaped plate, re-entrant 270° corner (Williams 1952: λ = 0.544484,
     const n = s.levels.length;
     const pm = s.levels.map((l) => l.atDistance!);
     expect(Math.abs(pm[n - 1] / pm[n - 2] - 1)).toBeLessThan(Math.abs(s.levels[n - 1].peak / s.levels[n - 2].peak - 1));
-    // the roller on y = 0 meets free edges at 90° (mirror of a 180° free wedge): no singular spot there
-    expect(r.spots.filter((p) => p.verdict === 'singular').map((p) => p.id)).toEqual([s.id]);
+    // the roller on y = 0 meets free edges at 90° (mirror of a 180° free wedge): no singular site there
+    expect(r.sites.filter((p) => p.verdict === 'singular').map((p) => p.id)).toEqual([s.id]);
     const again = study(lPlate('[1, 1]'), 5);
     const strip = (x: StudyResult) => JSON.stringify({ ...x, timings: undefined });
     expect(strip(again)).toBe(strip(r));
   });
   it('filleted corner (r = 0.1) → converging, and the GCI band shrinks with levels', () => {
     const r = study(lPlate('{ at: [1, 1], round: 0.1 }'), 5);
-    const s = r.spots.find((p) => p.feature.kind === 'fillet');
-    expect(s, JSON.stringify(r.spots.map((p) => [p.id, p.at, p.feature.kind]))).toBeDefined();
+    const s = r.sites.find((p) => p.feature.kind === 'fillet');
+    expect(s, JSON.stringify(r.sites.map((p) => [p.id, p.at, p.feature.kind]))).toBeDefined();
     expect(s!.verdict).toBe('converging');
     expect(s!.feature.radius).toBeCloseTo(0.1, 9);
     expect(s!.growth.theory).toBe(0);
@@ -74,7 +74,7 @@ loads:
   - { where: { y: 2 }, traction: [0, 1] }
 mesh: { size: 0.25, order: 2 }
 `, 5);
-    const s = spotAt(r, 0.5, 0);
+    const s = siteAt(r, 0.5, 0);
     expect(s.feature.kind).toBe('support-edge');
     expect(s.growth.theory).toBeCloseTo(0.5, 6);
     expect(s.verdict).toBe('singular');
@@ -97,15 +97,15 @@ loads:
   - { where: { y: -60 }, traction: [0, -1] }
 mesh: { size: 3, order: 2 }
 `, 4);
-    const s = spotAt(r, 1, 0);
+    const s = siteAt(r, 1, 0);
     expect(s.feature.kind).toBe('opening');
     expect(s.verdict).toBe('converging');
     const howland = howlandKtg(0.1); // 3.03 [from memory]
     expect(Math.abs(s.estimate.value / howland - 1)).toBeLessThan(0.005);
     // reference notes item 2 [computed]: K_tg = 3.036 with GCI 4e−4; the two bands must overlap
     expect(Math.abs(s.estimate.value - 3.036)).toBeLessThanOrEqual(s.estimate.uncertainty + 4e-4 * 3.036);
-    // no point support made a spot: the loads balance, reactions vanish (design §5)
-    expect(r.spots.some((p) => p.feature.kind === 'point-support')).toBe(false);
+    // no point support made a site: the loads balance, reactions vanish (design §5)
+    expect(r.sites.some((p) => p.feature.kind === 'point-support')).toBe(false);
   });
 });
 
@@ -124,7 +124,7 @@ loads:
   - { where: { y: -60 }, traction: [0, -1] }
 mesh: { size: 4, order: 2 }
 `, 5);
-    const s = spotAt(r, 1, 0);
+    const s = siteAt(r, 1, 0);
     expect(s.verdict).toBe('converging');
     expect(Math.abs(s.estimate.value / inglisKt(1, 1 / 3) - 1)).toBeLessThan(0.015);
   });
@@ -143,13 +143,13 @@ loads:
   - { where: { point: [2, 1] }, force: [0, -100] }
 mesh: { size: 0.25, order: 2 }
 `, 5);
-    const load = spotAt(r, 2, 1);
+    const load = siteAt(r, 2, 1);
     expect(load.feature.kind).toBe('point-load');
     expect(load.verdict).toBe('singular');
     expect(load.reason).toMatch(/^concentrated load/);
     expect(Math.abs(load.growth.exponent - 1)).toBeLessThan(0.15);
     for (const [x, y] of [[0, 0], [4, 0]]) {
-      const s = spotAt(r, x, y);
+      const s = siteAt(r, x, y);
       expect(s.feature.kind).toBe('point-support');
       expect(s.verdict).toBe('singular');
       expect(s.reason).toMatch(/^point support/);

@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { threeLevelFit, observedOrderVariableRatio, logLogSlope, incrementExponent, judgeSpot } from '../../src/study/index.js';
+import { threeLevelFit, observedOrderVariableRatio, logLogSlope, incrementExponent, judgeSite } from '../../src/study/index.js';
 
 const rel = (a: number, b: number) => Math.abs(a / b - 1);
 
@@ -48,15 +48,15 @@ describe('log–log and increment exponents', () => {
 describe('verdict rules (docs/study.md)', () => {
   const h = [1, 0.5, 0.25, 0.125, 0.0625];
   it('synthetic singular sequence h^−0.4555 + regular part → singular with q = 0.4555', () => {
-    const v = judgeSpot(h, h.map((x) => 1.5 + x ** -0.455516), 2, 2, 0.455516, 're-entrant corner 270°');
+    const v = judgeSite(h, h.map((x) => 1.5 + x ** -0.455516), 2, 2, 0.455516, 're-entrant corner 270°');
     expect(v.verdict).toBe('singular');
     expect(v.growth.exponent).toBeCloseTo(0.455516, 9);
     expect(v.reason).toContain('as theory predicts');
-    // no value is offered for a singular spot (no fake Kt): its peak is not a stress
+    // no value is offered for a singular site (no fake Kt): its peak is not a stress
     expect(Number.isNaN(v.estimate.value)).toBe(true);
   });
   it('converging sequence f = 3 + 0.2 h² → converging to 3 with p = 2, exact extrapolation', () => {
-    const v = judgeSpot(h, h.map((x) => 3 + 0.2 * x * x), 2, 2, 0);
+    const v = judgeSite(h, h.map((x) => 3 + 0.2 * x * x), 2, 2, 0);
     expect(v.verdict).toBe('converging');
     expect(v.estimate.value).toBeCloseTo(3, 12);
     expect(v.estimate.observedOrder).toBeCloseTo(2, 10);
@@ -66,24 +66,24 @@ describe('verdict rules (docs/study.md)', () => {
     for (let k = 1; k < v.history.length; k++) expect(v.history[k].uncertainty).toBeLessThan(v.history[k - 1].uncertainty);
   });
   it('converging where theory predicts a singularity: says so', () => {
-    const v = judgeSpot(h, h.map((x) => 3 + 0.2 * x * x), 2, 2, 0.4555, 're-entrant corner 270°');
+    const v = judgeSite(h, h.map((x) => 3 + 0.2 * x * x), 2, 2, 0.4555, 're-entrant corner 270°');
     expect(v.verdict).toBe('converging');
     expect(v.reason).toContain('theory predicts a singularity');
   });
   it('singular with a different exponent than theory: says they disagree', () => {
-    const v = judgeSpot(h, h.map((x) => x ** -0.25), 2, 2, 0.5, 'crack tip');
+    const v = judgeSite(h, h.map((x) => x ** -0.25), 2, 2, 0.5, 'crack tip');
     expect(v.verdict).toBe('singular');
     expect(v.reason).toContain('disagrees');
   });
   it('oscillating sequence → undecided, reason "oscillating"', () => {
-    const v = judgeSpot(h, [3.1, 2.9, 3.08, 2.93, 3.06], 2, 2, 0);
+    const v = judgeSite(h, [3.1, 2.9, 3.08, 2.93, 3.06], 2, 2, 0);
     expect(v.verdict).toBe('undecided');
     expect(v.reason).toMatch(/^oscillating/);
     expect(v.advice).toBeTruthy();
   });
   it('shrinking oscillation within 1 % → converging, value mid-range, band 1.25 × half range (Stern et al. 2001)', () => {
     // finest three: 691.91, 691.34 (R = ε21/ε32 = (691.34 − 691.91)/(691.91 − 690.44) = −0.39)
-    const v = judgeSpot(h, [673.87, 687.53, 690.44, 691.91, 691.34], 2, 2, 0);
+    const v = judgeSite(h, [673.87, 687.53, 690.44, 691.91, 691.34], 2, 2, 0);
     expect(v.verdict).toBe('converging');
     expect(v.estimate.value).toBeCloseTo(0.5 * (691.91 + 690.44), 10);
     expect(v.estimate.uncertainty).toBeCloseTo(1.25 * 0.5 * (691.91 - 690.44), 10);
@@ -91,7 +91,7 @@ describe('verdict rules (docs/study.md)', () => {
   });
   it('swings that do not shrink but stay within 1 % → converging with the band from their range; no observed order', () => {
     // finest three 125.36, 126.15, 125.22: R = (125.22 − 126.15)/(126.15 − 125.36) = −1.18
-    const v = judgeSpot(h, [110.46, 124.09, 125.36, 126.15, 125.22], 2, 1, 0);
+    const v = judgeSite(h, [110.46, 124.09, 125.36, 126.15, 125.22], 2, 1, 0);
     expect(v.verdict).toBe('converging');
     expect(v.estimate.value).toBeCloseTo(0.5 * (126.15 + 125.22), 10);
     expect(v.estimate.uncertainty).toBeCloseTo(1.25 * 0.5 * (126.15 - 125.22), 10);
@@ -99,25 +99,25 @@ describe('verdict rules (docs/study.md)', () => {
     expect(v.reason).toContain('not yet shrinking');
   });
   it('the same oscillation where theory predicts a singularity stays undecided', () => {
-    const v = judgeSpot(h, [673.87, 687.53, 690.44, 691.91, 691.34], 2, 2, 0.4555, 're-entrant corner 270°');
+    const v = judgeSite(h, [673.87, 687.53, 690.44, 691.91, 691.34], 2, 2, 0.4555, 're-entrant corner 270°');
     expect(v.verdict).toBe('undecided');
   });
   it('three rising levels where theory predicts a bounded stress → undecided, not singular', () => {
     const h3 = [1, 0.5, 0.25];
     const rising = h3.map((x) => 1.5 + x ** -0.455516);
-    const v = judgeSpot(h3, rising, 2, 2, 0);
+    const v = judgeSite(h3, rising, 2, 2, 0);
     expect(v.verdict).toBe('undecided');
     expect(v.reason).toContain('theory predicts a bounded stress');
     // the same three levels at a 270° corner (Williams 1952: q = 0.4555) are read as singular
-    expect(judgeSpot(h3, rising, 2, 2, 0.455516, 're-entrant corner 270°').verdict).toBe('singular');
+    expect(judgeSite(h3, rising, 2, 2, 0.455516, 're-entrant corner 270°').verdict).toBe('singular');
   });
   it('two levels → undecided, too few levels', () => {
-    const v = judgeSpot([1, 0.5], [3, 3.1], 2, 2, 0);
+    const v = judgeSite([1, 0.5], [3, 3.1], 2, 2, 0);
     expect(v.verdict).toBe('undecided');
     expect(v.reason).toContain('too few levels');
   });
   it('very slow convergence (p = 0.3) → undecided, not yet asymptotic', () => {
-    const v = judgeSpot(h, h.map((x) => 3 - x ** 0.3), 2, 2, 0);
+    const v = judgeSite(h, h.map((x) => 3 - x ** 0.3), 2, 2, 0);
     expect(v.verdict).toBe('undecided');
     expect(v.reason).toContain('not yet asymptotic');
   });

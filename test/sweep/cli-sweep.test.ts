@@ -29,8 +29,8 @@ function pointFiles(dir: string): string[] {
 
 interface SweepJson {
   reused: number;
-  families: { id: string; featureClass: string; at: [number, number]; members: { point: number; spot: number }[] }[];
-  points: { params: Record<string, number>; reused: boolean; spots: { id: string; at: [number, number]; feature: string; verdict: string; estimate: { value: number }; growth: { exponent: number } }[] }[];
+  families: { id: string; featureClass: string; at: [number, number]; members: { point: number; site: number }[] }[];
+  points: { params: Record<string, number>; reused: boolean; sites: { id: string; at: [number, number]; feature: string; verdict: string; estimate: { value: number }; growth: { exponent: number } }[] }[];
 }
 
 // four radii at 4 levels keep this under ~15 s on two cores; r = 4 is left out because at 4 levels
@@ -52,13 +52,13 @@ describe('peakwise sweep over the L-bracket corner radius', () => {
     expect(corner).toHaveLength(1);
     const members = corner[0].members;
     expect(members).toHaveLength(4); // the fillet at every r > 0 continues the sharp corner
-    const spots = members.map((m) => first.points[m.point].spots[m.spot]);
-    expect(spots.map((s) => s.feature)).toEqual(['corner', 'fillet', 'fillet', 'fillet']);
-    expect(spots.map((s) => s.verdict)).toEqual(['singular', 'converging', 'converging', 'converging']);
+    const sites = members.map((m) => first.points[m.point].sites[m.site]);
+    expect(sites.map((s) => s.feature)).toEqual(['corner', 'fillet', 'fillet', 'fillet']);
+    expect(sites.map((s) => s.verdict)).toEqual(['singular', 'converging', 'converging', 'converging']);
     // Williams (1952), 270° wedge with free faces, mode I: λ = 0.5445, so peak ∝ h^-(1-λ) = h^-0.4555;
     // tolerance 0.05 for a fit over 4 levels (docs/study.md)
-    expect(Math.abs(spots[0].growth.exponent - 0.4555)).toBeLessThan(0.05);
-    const values = spots.slice(1).map((s) => s.estimate.value);
+    expect(Math.abs(sites[0].growth.exponent - 0.4555)).toBeLessThan(0.05);
+    const values = sites.slice(1).map((s) => s.estimate.value);
     // a larger fillet radius lowers the concentration (Peterson's charts: Kt falls as r/d grows)
     for (let i = 1; i < values.length; i++) expect(values[i]).toBeLessThan(values[i - 1]);
     // files
@@ -80,7 +80,7 @@ describe('peakwise sweep over the L-bracket corner radius', () => {
     expect(r.stdout).toContain('reused 3 of 4 points');
     const again = JSON.parse(readFileSync(join(dir, 'sweep.json'), 'utf8')) as SweepJson;
     // same inputs, same deterministic study: the recomputed point matches the first run exactly
-    expect(again.points.map((p) => p.spots.map((s) => s.estimate.value))).toEqual(first.points.map((p) => p.spots.map((s) => s.estimate.value)));
+    expect(again.points.map((p) => p.sites.map((s) => s.estimate.value))).toEqual(first.points.map((p) => p.sites.map((s) => s.estimate.value)));
     expect(pointFiles(dir)).toHaveLength(4);
   });
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { cartesian, expandRange, parseVary, matchSpots, sweepCsv, roundTicks, featureClass, tickLabel } from '../../src/sweep/index.js';
-import type { SpotResult, StudyResult } from '../../src/study/types.js';
+import { cartesian, expandRange, parseVary, matchSites, sweepCsv, roundTicks, featureClass, tickLabel } from '../../src/sweep/index.js';
+import type { SiteResult, StudyResult } from '../../src/study/types.js';
 import { PeakwiseError } from '../../src/errors.js';
 
 describe('--vary values', () => {
@@ -9,14 +9,14 @@ describe('--vary values', () => {
     expect(parseVary('r=0,2,4,8')).toEqual({ name: 'r', values: [0, 2, 4, 8] });
   });
   it('reads a range with the end included and no float drift (0.1 is not exact in binary)', () => {
-    expect(parseVary('t=0:0.1:0.7').values).toEqual([0, 0.1, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7]);
-    expect(parseVary('r=0:2:20').values).toHaveLength(11);
-    expect(parseVary('r=20:-5:0').values).toEqual([20, 15, 10, 5, 0]);
+    expect(parseVary('t=0..0.7 by 0.1').values).toEqual([0, 0.1, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7]);
+    expect(parseVary('r=0..20 by 2').values).toHaveLength(11);
+    expect(parseVary('r=20..0 by -5').values).toEqual([20, 15, 10, 5, 0]);
     // an end the walk does not land on is not passed
-    expect(parseVary('r=0:3:10').values).toEqual([0, 3, 6, 9]);
+    expect(parseVary('r=0..10 by 3').values).toEqual([0, 3, 6, 9]);
   });
   it('mixes lists and ranges', () => {
-    expect(parseVary('r=0,1:1:3,8').values).toEqual([0, 1, 2, 3, 8]);
+    expect(parseVary('r=0,1..3 by 1,8').values).toEqual([0, 1, 2, 3, 8]);
   });
   it('range count matches (end - start)/step + 1 for exact decimal steps', () => {
     fc.assert(
@@ -30,9 +30,13 @@ describe('--vary values', () => {
     );
   });
   it('refuses malformed values with usage errors', () => {
-    for (const bad of ['r', 'r=', '=1,2', 'r=1,,2', 'r=a', 'r=0:0:5', 'r=0:1:-5', 'r=0:1', 'r=1,1', 'r=0:0.0001:100']) {
+    for (const bad of ['r', 'r=', '=1,2', 'r=1,,2', 'r=a', 'r=0..5 by 0', 'r=0..-5 by 1', 'r=0..1', 'r=0..1 by', 'r=1,1', 'r=0..100 by 0.0001']) {
       expect(() => parseVary(bad), bad).toThrow(PeakwiseError);
     }
+  });
+  it('the old start:step:end form is refused with the new spelling in the message', () => {
+    expect(() => parseVary('r=0:2:20')).toThrow(/old start:step:end form; write "0\.\.20 by 2"/);
+    expect(() => parseVary('r=1,0:1')).toThrow(/start\.\.end by step/);
   });
   it('cartesian product: first axis slowest, size is the product of the lengths', () => {
     const p = cartesian([{ name: 'a', values: [1, 2] }, { name: 'b', values: [10, 20, 30] }]);
@@ -53,7 +57,7 @@ describe('--vary values', () => {
   });
 });
 
-function spot(id: string, kind: SpotResult['feature']['kind'], at: [number, number], verdict: SpotResult['verdict'], value: number, radius = 0): SpotResult {
+function site(id: string, kind: SiteResult['feature']['kind'], at: [number, number], verdict: SiteResult['verdict'], value: number, radius = 0): SiteResult {
   return {
     id, at, verdict, reason: '', levels: [],
     feature: { kind, interiorAngleDeg: kind === 'corner' ? 270 : 0, radius, description: '' },
@@ -62,49 +66,49 @@ function spot(id: string, kind: SpotResult['feature']['kind'], at: [number, numb
     readouts: {},
   };
 }
-function study(spots: SpotResult[]): StudyResult {
+function study(sites: SiteResult[]): StudyResult {
   return {
     tool: 'peakwise', version: '0.1.0', model: { title: 't', file: 'f' }, units: { length: 'mm', force: 'N', stress: 'MPa' },
     mesh: { nodes: 0, elements: 0, order: 2, minAngleDeg: 0 }, solution: { dofs: 0, maxDisplacement: 0, reactionSum: [0, 0], appliedSum: [0, 0] },
-    measure: 'von-mises', spots,
+    measure: 'von-mises', sites,
   };
 }
 
-describe('spot families', () => {
+describe('site families', () => {
   it('a fillet continues the sharp corner it rounds, even when the ids are renumbered', () => {
     const points = [
-      { scale: 170, study: study([spot('S1', 'edge', [0, 60], 'converging', 143), spot('S2', 'corner', [40, 40], 'singular', 1300)]) },
-      // the fillet spot moved 4 along the arc and the study numbered it first
-      { scale: 170, study: study([spot('S1', 'fillet', [41, 44], 'converging', 300, 8), spot('S2', 'edge', [0, 65], 'converging', 142)]) },
+      { scale: 170, study: study([site('S1', 'edge', [0, 60], 'converging', 143), site('S2', 'corner', [40, 40], 'singular', 1300)]) },
+      // the fillet site moved 4 along the arc and the study numbered it first
+      { scale: 170, study: study([site('S1', 'fillet', [41, 44], 'converging', 300, 8), site('S2', 'edge', [0, 65], 'converging', 142)]) },
     ];
-    const fam = matchSpots(points);
+    const fam = matchSites(points);
     expect(fam).toHaveLength(2);
     const corner = fam.find((f) => f.featureClass === 'corner')!;
     expect(corner.members.map((m) => m.id)).toEqual(['S2', 'S1']);
     expect(featureClass('fillet')).toBe('corner');
   });
-  it('different feature classes never merge, and a far spot starts a new family', () => {
+  it('different feature classes never merge, and a far site starts a new family', () => {
     const points = [
-      { scale: 100, study: study([spot('S1', 'corner', [0, 0], 'singular', 10)]) },
-      { scale: 100, study: study([spot('S1', 'point-load', [0, 0], 'singular', 10), spot('S2', 'corner', [50, 50], 'singular', 10)]) },
+      { scale: 100, study: study([site('S1', 'corner', [0, 0], 'singular', 10)]) },
+      { scale: 100, study: study([site('S1', 'point-load', [0, 0], 'singular', 10), site('S2', 'corner', [50, 50], 'singular', 10)]) },
     ];
-    expect(matchSpots(points)).toHaveLength(3);
+    expect(matchSites(points)).toHaveLength(3);
   });
-  it('two spots of one point never share a family; the nearer one joins', () => {
+  it('two sites of one point never share a family; the nearer one joins', () => {
     const points = [
-      { scale: 100, study: study([spot('S1', 'edge', [0, 0], 'converging', 1)]) },
-      { scale: 100, study: study([spot('S1', 'edge', [3, 0], 'converging', 2), spot('S2', 'edge', [1, 0], 'converging', 3)]) },
+      { scale: 100, study: study([site('S1', 'edge', [0, 0], 'converging', 1)]) },
+      { scale: 100, study: study([site('S1', 'edge', [3, 0], 'converging', 2), site('S2', 'edge', [1, 0], 'converging', 3)]) },
     ];
-    const fam = matchSpots(points);
+    const fam = matchSites(points);
     expect(fam).toHaveLength(2);
     expect(fam[0].members.map((m) => m.id)).toEqual(['S1', 'S2']);
   });
-  it('sweep.csv has the parameters, then ten columns per family, empty where a family has no spot', () => {
+  it('sweep.csv has the parameters, then ten columns per family, empty where a family has no site', () => {
     const points = [
-      { index: 0, params: { r: 0 }, key: 'a', reused: false, seconds: 0, scale: 100, study: study([spot('S1', 'corner', [0, 0], 'singular', 10)]) },
-      { index: 1, params: { r: 2 }, key: 'b', reused: false, seconds: 0, scale: 100, study: study([spot('S1', 'fillet', [1, 1], 'converging', 5, 2), spot('S2', 'edge', [60, 0], 'converging', 3)]) },
+      { index: 0, params: { r: 0 }, key: 'a', reused: false, seconds: 0, scale: 100, study: study([site('S1', 'corner', [0, 0], 'singular', 10)]) },
+      { index: 1, params: { r: 2 }, key: 'b', reused: false, seconds: 0, scale: 100, study: study([site('S1', 'fillet', [1, 1], 'converging', 5, 2), site('S2', 'edge', [60, 0], 'converging', 3)]) },
     ];
-    const csv = sweepCsv({ axes: [{ name: 'r', values: [0, 2] }], points, families: matchSpots(points) });
+    const csv = sweepCsv({ axes: [{ name: 'r', values: [0, 2] }], points, families: matchSites(points) });
     const rows = csv.trimEnd().split('\r\n').map((l) => l.split(','));
     expect(rows[0]).toHaveLength(1 + 2 * 10);
     expect(rows[0].slice(0, 3)).toEqual(['"r"', '"F1_id"', '"F1_x"']);

@@ -1,31 +1,31 @@
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { appliedResultant, bearingLoad, selectBoundary } from '../../src/fem/index.js';
+import { appliedResultant, pinForceLoad, selectBoundary } from '../../src/fem/index.js';
 import { buildGeometry } from '../../src/geometry/index.js';
 import { meshPlate, sizeFieldFromSettings } from '../../src/mesh/index.js';
 import { parseModel } from '../../src/model/index.js';
 import { solveModel } from './issue9-helpers.js';
 
 /*
- * Pin bearing (issue 9): cosine pressure over the half of the hole facing the force, scaled so
+ * Pin force (issue 9): cosine pressure over the half of the hole facing the force, scaled so
  * that the nodal forces sum to the given force (common practice for pin-loaded lugs). The sum
  * is exact by construction, so the check is round-off: 1e-9 relative.
  */
-const lugFile = fileURLToPath(new URL('../../models/lug-bearing.yaml', import.meta.url));
+const lugFile = fileURLToPath(new URL('../../models/hoist-lug.yaml', import.meta.url));
 
-describe('bearing load on a pin hole', () => {
-  const model = parseModel(readFileSync(lugFile, 'utf8'), 'lug-bearing.yaml');
+describe('pin force on a pin hole', () => {
+  const model = parseModel(readFileSync(lugFile, 'utf8'), 'hoist-lug.yaml');
   const load = model.fieldLoads?.[0];
   const F = 24000, tilt = (20 * Math.PI) / 180;
 
   it('the resultant of the nodal forces equals the given force to 1e-9', () => {
-    expect(load?.kind).toBe('bearing');
+    expect(load?.kind).toBe('pinForce');
     for (const order of [1, 2] as const) {
       const geometry = buildGeometry(model.plate);
       const mesh = meshPlate(geometry, { sizeAt: sizeFieldFromSettings(geometry, { size: 8, local: [] }), order });
       const { edges } = selectBoundary(mesh, geometry, { kind: 'opening', id: 'pin' }, 'loads[0].where');
-      const [fx, fy] = appliedResultant(bearingLoad(mesh, edges, model.thickness, [F * Math.sin(tilt), F * Math.cos(tilt)]));
+      const [fx, fy] = appliedResultant(pinForceLoad(mesh, edges, model.thickness, [F * Math.sin(tilt), F * Math.cos(tilt)]));
       expect(Math.abs(fx - F * Math.sin(tilt)) / F).toBeLessThan(1e-9);
       expect(Math.abs(fy - F * Math.cos(tilt)) / F).toBeLessThan(1e-9);
     }
@@ -35,7 +35,7 @@ describe('bearing load on a pin hole', () => {
     const geometry = buildGeometry(model.plate);
     const mesh = meshPlate(geometry, { sizeAt: sizeFieldFromSettings(geometry, model.mesh), order: 2 });
     const { nodes } = selectBoundary(mesh, geometry, { kind: 'opening', id: 'pin' }, 'loads[0].where');
-    const f = bearingLoad(mesh, selectBoundary(mesh, geometry, { kind: 'opening', id: 'pin' }, '').edges, 12, [0, F]);
+    const f = pinForceLoad(mesh, selectBoundary(mesh, geometry, { kind: 'opening', id: 'pin' }, '').edges, 12, [0, F]);
     const cy = 110 - 45 + 5;
     for (const n of nodes) {
       const dy = mesh.xy[2 * n + 1] - cy;

@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { parseModel } from '../../src/model/index.js';
 import { mesh, recover, solve } from '../../src/index.js';
-import { comparePath, ellipseEdgeStress, openingPath, parsePathSpec, pathCsv, resolveCompare, samplePath } from '../../src/sweep/path.js';
+import { compareCut, ellipseEdgeStress, openingCut, parseCutSpec, cutCsv, resolveCompare, sampleCut } from '../../src/sweep/cut.js';
 import { PeakwiseError } from '../../src/errors.js';
-import { writePathOutputs } from '../../src/cli/path.js';
+import { writeCutOutputs } from '../../src/cli/cut.js';
 import { mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -30,10 +30,10 @@ mesh:
 
 describe('path specifications', () => {
   it('reads lines, sample counts and openings', () => {
-    expect(parsePathSpec('0,0:10,5')).toEqual({ kind: 'line', from: [0, 0], to: [10, 5], samples: 101 });
-    expect(parsePathSpec('0,0:10,5:11')).toMatchObject({ samples: 11 });
-    expect(parsePathSpec('opening:pin')).toEqual({ kind: 'opening', id: 'pin' });
-    for (const bad of ['0,0', '0,0:0,0', '0,0:1,1:1', '0,0:1,x', 'opening:', '0,0:1,1:2.5']) expect(() => parsePathSpec(bad), bad).toThrow(PeakwiseError);
+    expect(parseCutSpec('0,0:10,5')).toEqual({ kind: 'line', from: [0, 0], to: [10, 5], samples: 101 });
+    expect(parseCutSpec('0,0:10,5:11')).toMatchObject({ samples: 11 });
+    expect(parseCutSpec('opening:pin')).toEqual({ kind: 'opening', id: 'pin' });
+    for (const bad of ['0,0', '0,0:0,0', '0,0:1,1:1', '0,0:1,x', 'opening:', '0,0:1,1:2.5']) expect(() => parseCutSpec(bad), bad).toThrow(PeakwiseError);
   });
 });
 
@@ -52,7 +52,7 @@ describe('stress along paths of a plate with a small hole', () => {
   const model = parseModel(MODEL, 'sign.yaml');
   const r = recover(solve(mesh(model)));
   it('around the hole: tangential stress against Kirsch, peak 3S at the sides', () => {
-    const t = comparePath(openingPath(r.mesh, r.geometry, r.field, 'cable'), resolveCompare({ kind: 'kirsch', remote: 100, opening: 'cable' }, model));
+    const t = compareCut(openingCut(r.mesh, r.geometry, r.field, 'cable'), resolveCompare({ kind: 'kirsch', remote: 100, opening: 'cable' }, model));
     const peak = Math.max(...t.samples.map((p) => p.tangential));
     // Kirsch (1898): 3S = 300 at θ = 90° in an infinite plate; the finite width d/W = 0.1 raises it
     // (Heywood 1952: K_tn = 2 + (1 − d/W)³, K_tg = K_tn/(1 − d/W) = 3.032): 1.5 % for Heywood's fit
@@ -64,7 +64,7 @@ describe('stress along paths of a plate with a small hole', () => {
     expect(t.samples[t.samples.length - 1].s).toBeCloseTo(2 * Math.PI * 10, 0);
   });
   it('along the ligament: σxx decays from 3S at the hole towards S, as Kirsch says', () => {
-    const t = comparePath(samplePath(r.mesh, r.field, [200, 110], [200, 200], 46), resolveCompare({ kind: 'kirsch', remote: 100 }, model));
+    const t = compareCut(sampleCut(r.mesh, r.field, [200, 110], [200, 200], 46), resolveCompare({ kind: 'kirsch', remote: 100 }, model));
     expect(t.samples).toHaveLength(46);
     expect(t.samples[45].s).toBeCloseTo(90, 12);
     const ref = t.extra.ref_sxx;
@@ -72,18 +72,18 @@ describe('stress along paths of a plate with a small hole', () => {
     expect(ref[0]).toBeCloseTo(300, 9);
     // within 3 hole radii the FE value follows Kirsch to 4 % of S (finite width adds ~1 %)
     for (let k = 0; k <= 10; k++) expect(Math.abs(t.samples[k].sxx - ref[k])).toBeLessThan(4);
-    const csv = pathCsv(t).split('\r\n');
+    const csv = cutCsv(t).split('\r\n');
     expect(csv[0]).toContain('"von_mises","tresca","tangential","ref_sxx"');
     expect(csv).toHaveLength(48);
   });
   it('a path through the hole gives empty cells there, not zeros', () => {
-    const t = samplePath(r.mesh, r.field, [150, 100], [250, 100], 11);
+    const t = sampleCut(r.mesh, r.field, [150, 100], [250, 100], 11);
     expect(Number.isNaN(t.samples[5].vonMises)).toBe(true);
     expect(Number.isFinite(t.samples[0].vonMises)).toBe(true);
-    expect(pathCsv(t).split('\r\n')[6].split(',')[9]).toBe('');
+    expect(cutCsv(t).split('\r\n')[6].split(',')[9]).toBe('');
   });
   it('names the openings when the id is wrong', () => {
-    expect(() => openingPath(r.mesh, r.geometry, r.field, 'pin')).toThrow(/cable/);
+    expect(() => openingCut(r.mesh, r.geometry, r.field, 'pin')).toThrow(/cable/);
   });
 });
 
@@ -107,13 +107,13 @@ mesh:
   size: 3
 `;
 
-describe('path.csv through the CLI helper, against Lamé', () => {
+describe('cut.csv through the CLI helper, against Lamé', () => {
   const model = parseModel(RING, 'ring.yaml');
   const r = recover(solve(mesh(model)));
   it('radial line: von Mises follows Lamé (1852) within 1 % of the bore hoop stress', () => {
     const dir = mkdtempSync(join(tmpdir(), 'peakwise-path-'));
-    const out = writePathOutputs(dir, { path: '20,0:50,0:31', compare: 'lame' }, { model, mesh: r.mesh, geometry: r.geometry, field: r.field });
-    expect(out?.file).toBe(join(dir, 'path.csv'));
+    const out = writeCutOutputs(dir, { cut: '20,0:50,0:31', compare: 'lame' }, { model, mesh: r.mesh, geometry: r.geometry, field: r.field });
+    expect(out?.file).toBe(join(dir, 'cut.csv'));
     expect(out?.plot.series.map((x) => x.reference === true)).toEqual([false, true]);
     const rows = readFileSync(out!.file, 'utf8').trimEnd().split('\r\n');
     const head = rows[0].split(',').map((h) => h.replace(/"/g, ''));
@@ -126,12 +126,12 @@ describe('path.csv through the CLI helper, against Lamé', () => {
     for (const d of diff) expect(Math.abs(d)).toBeLessThan(0.01 * hoopBore);
   });
   it('around the bore: tangential stress is the Lamé hoop stress all round', () => {
-    const t = comparePath(openingPath(r.mesh, r.geometry, r.field, 'bore'), resolveCompare({ kind: 'lame', opening: 'bore' }, model));
+    const t = compareCut(openingCut(r.mesh, r.geometry, r.field, 'bore'), resolveCompare({ kind: 'lame', opening: 'bore' }, model));
     // 1.5 % on the edge: recovered stresses are least accurate at boundary nodes (Zienkiewicz & Zhu 1992)
     for (const d of t.extra.diff_tangential) expect(Math.abs(d)).toBeLessThan(0.015 * 41.43);
   });
-  it('without --path nothing is written; --compare inglis on a line is refused', () => {
-    expect(writePathOutputs('/nonexistent', {}, { model, mesh: r.mesh, geometry: r.geometry, field: r.field })).toBeUndefined();
-    expect(() => writePathOutputs('/tmp', { path: '0,0:1,1', compare: 'inglis' }, { model, mesh: r.mesh, geometry: r.geometry, field: r.field })).toThrow(PeakwiseError);
+  it('without --cut nothing is written; --compare inglis on a line is refused', () => {
+    expect(writeCutOutputs('/nonexistent', {}, { model, mesh: r.mesh, geometry: r.geometry, field: r.field })).toBeUndefined();
+    expect(() => writeCutOutputs('/tmp', { cut: '0,0:1,1', compare: 'inglis' }, { model, mesh: r.mesh, geometry: r.geometry, field: r.field })).toThrow(PeakwiseError);
   });
 });

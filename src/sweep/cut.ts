@@ -1,7 +1,7 @@
 /**
  * Path readout: the recovered stress sampled along a straight line or around an opening's edge,
  * with its invariants, and optionally a closed-form solution beside it (Kirsch, Lamé, Inglis).
- * Pure functions on the mesh and the nodal field; the CLI writes the table as path.csv.
+ * Pure functions on the mesh and the nodal field; the CLI writes the table as cut.csv.
  */
 import { PeakwiseError } from '../errors.js';
 import type { Mesh } from '../mesh/types.js';
@@ -12,11 +12,11 @@ import { boundaryTangentialStress, buildPointLocator, principal, stressAt, tresc
 import { kirschCartesian, lameRing } from '../reference/index.js';
 import { csvNumber, csvText } from '../report/index.js';
 
-/** Samples on a line path when `:n` is not given. */
+/** Samples on a line cut when `:n` is not given. */
 export const DEFAULT_PATH_SAMPLES = 101;
-export const MAX_PATH_SAMPLES = 100000;
+export const MAX_CUT_SAMPLES = 100000;
 
-export type PathSpec =
+export type CutSpec =
   | { kind: 'line'; from: Point; to: Point; samples: number }
   | { kind: 'opening'; id: string };
 
@@ -25,35 +25,35 @@ function usage(message: string): PeakwiseError {
 }
 
 /** `x1,y1:x2,y2[:n]` or `opening:<id>`. */
-export function parsePathSpec(text: string): PathSpec {
+export function parseCutSpec(text: string): CutSpec {
   const t = text.trim();
   if (t.startsWith('opening:')) {
     const id = t.slice('opening:'.length).trim();
-    if (id === '') throw usage('--path opening:<id> needs the id of an opening');
+    if (id === '') throw usage('--cut opening:<id> needs the id of an opening');
     return { kind: 'opening', id };
   }
   const parts = t.split(':');
-  if (parts.length < 2 || parts.length > 3) throw usage(`--path "${text}": expected x1,y1:x2,y2[:n] or opening:<id>`);
+  if (parts.length < 2 || parts.length > 3) throw usage(`--cut "${text}": expected x1,y1:x2,y2[:n] or opening:<id>`);
   const point = (p: string): Point => {
     const xy = p.split(',').map((v) => (v.trim() === '' ? NaN : Number(v)));
-    if (xy.length !== 2 || !xy.every(Number.isFinite)) throw usage(`--path "${text}": "${p}" is not a point x,y`);
+    if (xy.length !== 2 || !xy.every(Number.isFinite)) throw usage(`--cut "${text}": "${p}" is not a point x,y`);
     return [xy[0], xy[1]];
   };
   const from = point(parts[0]);
   const to = point(parts[1]);
-  if (from[0] === to[0] && from[1] === to[1]) throw usage(`--path "${text}": the two ends are the same point`);
+  if (from[0] === to[0] && from[1] === to[1]) throw usage(`--cut "${text}": the two ends are the same point`);
   let samples = DEFAULT_PATH_SAMPLES;
   if (parts.length === 3) {
     samples = Number(parts[2]);
-    if (!(Number.isInteger(samples) && samples >= 2 && samples <= MAX_PATH_SAMPLES)) {
-      throw usage(`--path "${text}": the sample count must be an integer from 2 to ${MAX_PATH_SAMPLES}, got "${parts[2]}"`);
+    if (!(Number.isInteger(samples) && samples >= 2 && samples <= MAX_CUT_SAMPLES)) {
+      throw usage(`--cut "${text}": the sample count must be an integer from 2 to ${MAX_CUT_SAMPLES}, got "${parts[2]}"`);
     }
   }
   return { kind: 'line', from, to, samples };
 }
 
-/** One stress sample of a path; stresses are NaN where the point is outside the plate. */
-export interface PathSample {
+/** One stress sample of a cut; stresses are NaN where the point is outside the plate. */
+export interface CutSample {
   s: number;
   x: number;
   y: number;
@@ -65,18 +65,18 @@ export interface PathSample {
   s2: number;
   vonMises: number;
   tresca: number;
-  /** tangential normal stress on a boundary path; NaN on a line path */
+  /** tangential normal stress on a boundary cut; NaN on a line cut */
   tangential: number;
 }
 
-export interface PathTable {
+export interface CutTable {
   kind: 'line' | 'opening';
-  samples: PathSample[];
+  samples: CutSample[];
   /** closed-form columns (name → values, one per sample), e.g. ref_tangential, diff_tangential */
   extra: Record<string, number[]>;
 }
 
-function sample(s: number, x: number, y: number, st: { sxx: number; syy: number; sxy: number; szz: number } | null, tangential = NaN): PathSample {
+function sample(s: number, x: number, y: number, st: { sxx: number; syy: number; sxy: number; szz: number } | null, tangential = NaN): CutSample {
   if (!st) return { s, x, y, sxx: NaN, syy: NaN, sxy: NaN, szz: NaN, s1: NaN, s2: NaN, vonMises: NaN, tresca: NaN, tangential };
   const p = principal(st.sxx, st.syy, st.sxy);
   return {
@@ -86,10 +86,10 @@ function sample(s: number, x: number, y: number, st: { sxx: number; syy: number;
 }
 
 /** `samples` equally spaced points from `from` to `to` (both included), interpolated in the element that holds each. */
-export function samplePath(mesh: Mesh, field: Pick<NodalStress, 'stress' | 'szz'>, from: Point, to: Point, samples = DEFAULT_PATH_SAMPLES): PathTable {
+export function sampleCut(mesh: Mesh, field: Pick<NodalStress, 'stress' | 'szz'>, from: Point, to: Point, samples = DEFAULT_PATH_SAMPLES): CutTable {
   const locator = buildPointLocator(mesh);
   const L = Math.hypot(to[0] - from[0], to[1] - from[1]);
-  const out: PathSample[] = [];
+  const out: CutSample[] = [];
   for (let k = 0; k < samples; k++) {
     const t = k / (samples - 1);
     const x = from[0] + t * (to[0] - from[0]);
@@ -103,14 +103,14 @@ export function samplePath(mesh: Mesh, field: Pick<NodalStress, 'stress' | 'szz'
  * Around an opening's edge: the boundary nodes in travel order (mid-side nodes included for
  * LST), their recovered stress and the tangential stress along the exact edge curve.
  */
-export function openingPath(mesh: Mesh, geometry: PlateGeometry, field: Pick<NodalStress, 'stress' | 'szz'>, id: string): PathTable {
+export function openingCut(mesh: Mesh, geometry: PlateGeometry, field: Pick<NodalStress, 'stress' | 'szz'>, id: string): CutTable {
   const loop = geometry.loops.find((l) => l.id === id && l.hole);
   if (!loop) {
     const have = geometry.loops.filter((l) => l.hole).map((l) => l.id);
-    throw usage(`--path opening:${id}: no opening "${id}"${have.length ? ` (the model has ${have.join(', ')})` : ' (the model has no openings)'}`);
+    throw usage(`--cut opening:${id}: no opening "${id}"${have.length ? ` (the model has ${have.join(', ')})` : ' (the model has no openings)'}`);
   }
   const b = boundaryTangentialStress(mesh, geometry, field, id);
-  const out: PathSample[] = [];
+  const out: CutSample[] = [];
   for (let k = 0; k < b.s.length; k++) {
     const n = b.node[k];
     const st = { sxx: field.stress[3 * n], syy: field.stress[3 * n + 1], sxy: field.stress[3 * n + 2], szz: field.szz[n] };
@@ -119,8 +119,8 @@ export function openingPath(mesh: Mesh, geometry: PlateGeometry, field: Pick<Nod
   return { kind: 'opening', samples: out, extra: {} };
 }
 
-/** Closed forms a path can be compared with, and the constants each needs. */
-export type PathCompare =
+/** Closed forms a cut can be compared with, and the constants each needs. */
+export type CutCompare =
   | { kind: 'kirsch'; center: Point; radius: number; remote: number; angleDeg: number }
   | { kind: 'lame'; center: Point; inner: number; outer: number; innerPressure: number; outerPressure: number; E: number; nu: number; state: PlaneState }
   | { kind: 'inglis'; center: Point; a: number; b: number; axisDeg: number; remote: number; angleDeg: number };
@@ -137,7 +137,7 @@ function polarToCartesian(sr: number, st: number, srt: number, theta: number): {
 }
 
 /** Kirsch field with the remote tension turned by `angleDeg` from x: rotate in, evaluate, rotate back. */
-function kirschTurned(c: Extract<PathCompare, { kind: 'kirsch' }>, x: number, y: number): { sxx: number; syy: number; sxy: number } {
+function kirschTurned(c: Extract<CutCompare, { kind: 'kirsch' }>, x: number, y: number): { sxx: number; syy: number; sxy: number } {
   const b = (c.angleDeg * Math.PI) / 180;
   const cb = Math.cos(b);
   const sb = Math.sin(b);
@@ -169,7 +169,7 @@ export function ellipseEdgeStress(S: number, a: number, b: number, betaRad: numb
 }
 
 /** Adds ref_* and diff_* (peakwise − reference) columns for the chosen closed form. */
-export function comparePath(table: PathTable, c: PathCompare): PathTable {
+export function compareCut(table: CutTable, c: CutCompare): CutTable {
   const n = table.samples.length;
   const cols: Record<string, number[]> = {};
   const put = (name: string, k: number, v: number) => { (cols[name] ??= new Array<number>(n).fill(NaN))[k] = v; };
@@ -213,11 +213,11 @@ export function comparePath(table: PathTable, c: PathCompare): PathTable {
   return { ...table, extra: { ...table.extra, ...cols } };
 }
 
-/** path.csv columns before the closed-form ones. */
+/** cut.csv columns before the closed-form ones. */
 export const PATH_COLUMNS = ['s', 'x', 'y', 'sxx', 'syy', 'sxy', 'szz', 's1', 's2', 'von_mises', 'tresca', 'tangential'] as const;
 
-/** path.csv text (RFC 4180, CRLF, empty cells where a value is undefined). */
-export function pathCsv(table: PathTable): string {
+/** cut.csv text (RFC 4180, CRLF, empty cells where a value is undefined). */
+export function cutCsv(table: CutTable): string {
   const extra = Object.keys(table.extra);
   const rows = [[...PATH_COLUMNS, ...extra].map(csvText).join(',')];
   table.samples.forEach((p, k) => {
@@ -241,7 +241,7 @@ export interface CompareInputs {
   center?: Point;
   innerPressure?: number;
   outerPressure?: number;
-  /** the opening of an opening path */
+  /** the opening of an opening cut */
   opening?: string;
 }
 
@@ -252,11 +252,11 @@ function need(v: number | undefined, option: string, kind: string): number {
 
 /**
  * Fill the constants of a comparison from the options and the model: the hole's centre and radius
- * from a circular opening (the path's, else the only circle), Lamé's outer radius from a circular
+ * from a circular opening (the cut's, else the only circle), Lamé's outer radius from a circular
  * outline, Lamé's pressures from the model's pressure loads on that opening and on the outline,
  * the ellipse's semi-axes and axis angle from an elliptical opening.
  */
-export function resolveCompare(input: CompareInputs, model: Pick<Model, 'plate' | 'material' | 'state' | 'loads'>): PathCompare {
+export function resolveCompare(input: CompareInputs, model: Pick<Model, 'plate' | 'material' | 'state' | 'loads'>): CutCompare {
   const kind = input.kind;
   const openings = model.plate.openings;
   const pick = (shape: 'circle' | 'ellipse') => {
@@ -292,7 +292,7 @@ export function resolveCompare(input: CompareInputs, model: Pick<Model, 'plate' 
   }
   if (kind === 'inglis') {
     const e = pick('ellipse') as Extract<Model['plate']['outline'], { kind: 'ellipse' }> | undefined;
-    if (!e) throw usage('--compare inglis needs an elliptical opening (give it with --path opening:<id>)');
+    if (!e) throw usage('--compare inglis needs an elliptical opening (give it with --cut opening:<id>)');
     return { kind, center: input.center ?? e.center, a: e.a, b: e.b, axisDeg: e.angleDeg, remote: need(input.remote, '--remote <S>', kind), angleDeg: input.angleDeg ?? 0 };
   }
   throw usage(`--compare must be kirsch, lame or inglis, got "${kind}"`);

@@ -4,15 +4,15 @@ import type { Mesh, SizeField } from '../mesh/types.js';
 import type { Model, Point } from '../model/types.js';
 import type { Solution } from '../fem/types.js';
 import { selectBoundary } from '../fem/index.js';
-import type { FaceCondition, SpotFeature } from './types.js';
+import type { FaceCondition, SiteFeature } from './types.js';
 import { wedgeTheory } from './wedge-theory.js';
 import { boundaryEdgesAt, edgeDirection, nearestVertex, vertexNeighbours, wedgeAt } from './mesh-tools.js';
 
-/** A hot spot before refinement: where, what, and what theory expects there. */
-export interface SpotCandidate {
+/** A site before refinement: where, what, and what theory expects there. */
+export interface SiteCandidate {
   at: Point;
   node: number;
-  feature: SpotFeature;
+  feature: SiteFeature;
   /** predicted growth exponent q (0: none) and the words behind it */
   theory: number;
   theoryWhy: string;
@@ -22,13 +22,13 @@ export interface SpotCandidate {
   direction?: Point;
   /** measure at the node on the first mesh */
   firstPeak: number;
-  /** why the spot was picked */
+  /** why the site was picked */
   origin: 'feature' | 'maximum' | 'listed';
 }
 
-/** Rules of the hot-spot search (docs/study.md). */
-export const SPOT_RULES = {
-  /** a local maximum is a hot spot when ≥ this × the median of the measure over the vertex nodes */
+/** Rules of the site search (docs/study.md). */
+export const SITE_RULES = {
+  /** a local maximum is a site when ≥ this × the median of the measure over the vertex nodes */
   thresholdOverMedian: 1.3,
   /** maxima closer than this many local element sizes merge (the stronger one stays) */
   mergeSizes: 3,
@@ -96,19 +96,19 @@ function median(v: Float64Array, n: number): number {
 const fmtAngle = (a: number) => `${Math.round(a * 10) / 10}°`;
 
 /**
- * The hot spots of a first solve (issue 5 §1–2): every feature theory flags as singular (sharp corners with
+ * The sites of a first solve (issue 5 §1–2): every feature theory flags as singular (sharp corners with
  * λ < 1 for their face conditions, supported-edge ends that do work, point loads, point supports that carry
  * force), then the local maxima of the recovered measure above 1.3 × its median over the vertex nodes, merged
- * within 3 local element sizes. Or the model's `study.spots` points. Sorted by x, then y.
+ * within 3 local element sizes. Or the model's `study.sites` points. Sorted by x, then y.
  */
-export function findSpots(ctx: Ctx): SpotCandidate[] {
+export function findSites(ctx: Ctx): SiteCandidate[] {
   const { model, geom, mesh, measure } = ctx;
   const { nu, state } = { nu: model.material.nu, state: model.state };
   const tol = 1e-6 * geom.scale;
   const bits = edgeSupportBits(ctx);
   const fTotal = totalForce(ctx.solution);
-  const carries = (p: Point, radius: number) => reactionNear(ctx, p, radius) > SPOT_RULES.forceFraction * fTotal;
-  const features: SpotCandidate[] = [];
+  const carries = (p: Point, radius: number) => reactionNear(ctx, p, radius) > SITE_RULES.forceFraction * fTotal;
+  const features: SiteCandidate[] = [];
   const cornerNodes = new Set<number>();
 
   // boundary wedge at a node from its mesh edges: angle, bisector, face conditions
@@ -130,9 +130,9 @@ export function findSpots(ctx: Ctx): SpotCandidate[] {
     const w = wedgeOfNode(node);
     const bothPlain = f.every((c) => c === 'free' || c === 'clamped');
     const facesWord = bothPlain
-      ? (f[0] === f[1] ? (f[0] === 'free' ? 'free-free' : 'clamped-clamped') : 'free-clamped') as SpotFeature['faces']
+      ? (f[0] === f[1] ? (f[0] === 'free' ? 'free-free' : 'clamped-clamped') : 'free-clamped') as SiteFeature['faces']
       : undefined;
-    const feature: SpotFeature = {
+    const feature: SiteFeature = {
       kind, interiorAngleDeg: angleDeg, radius: 0, faceConditions: f, lambda: th.lambda,
       ...(facesWord ? { faces: facesWord } : {}),
       description: kind === 'corner'
@@ -176,12 +176,12 @@ export function findSpots(ctx: Ctx): SpotCandidate[] {
   }
 
   // (3) point loads and (4) point supports that carry force
-  const pointSpot = (p: Point, kind: 'point-load' | 'point-support', why: string) => {
+  const pointSite = (p: Point, kind: 'point-load' | 'point-support', why: string) => {
     const { node } = nearestVertex(mesh, p);
     const at: Point = [mesh.xy[2 * node], mesh.xy[2 * node + 1]];
     const w = wedgeOfNode(node);
     const prev = features.findIndex((f) => f.node === node);
-    const cand: SpotCandidate = {
+    const cand: SiteCandidate = {
       at, node, theory: 1, theoryWhy: why, direction: w?.bisector, firstPeak: measure[node], origin: 'feature',
       feature: { kind, interiorAngleDeg: w?.angleDeg ?? 0, radius: 0, description: why },
     };
@@ -189,17 +189,17 @@ export function findSpots(ctx: Ctx): SpotCandidate[] {
     else features.push(cand);
   };
   for (const l of model.loads) {
-    if (l.kind === 'force' && l.where.kind === 'point' && Math.hypot(l.force[0], l.force[1]) > 0) pointSpot(l.where.at, 'point-load', 'concentrated load');
+    if (l.kind === 'force' && l.where.kind === 'point' && Math.hypot(l.force[0], l.force[1]) > 0) pointSite(l.where.at, 'point-load', 'concentrated load');
   }
   for (const sp of model.supports) {
     if (sp.where.kind !== 'point') continue;
     const { node } = nearestVertex(mesh, sp.where.at);
     // only the components this support fixes (a line support through the same node carries the others)
     const r = Math.hypot(sp.fix.x ? ctx.solution.reaction[2 * node] : 0, sp.fix.y ? ctx.solution.reaction[2 * node + 1] : 0);
-    if (r > SPOT_RULES.forceFraction * fTotal) pointSpot(sp.where.at, 'point-support', 'point support');
+    if (r > SITE_RULES.forceFraction * fTotal) pointSite(sp.where.at, 'point-support', 'point support');
   }
 
-  const classify = (node: number): Omit<SpotCandidate, 'origin'> => {
+  const classify = (node: number): Omit<SiteCandidate, 'origin'> => {
     const at: Point = [mesh.xy[2 * node], mesh.xy[2 * node + 1]];
     const w = wedgeOfNode(node);
     if (!w) {
@@ -208,7 +208,7 @@ export function findSpots(ctx: Ctx): SpotCandidate[] {
     // prefer a curved piece at the node (a symmetry cut through a hole edge makes a corner, not a notch)
     const pieces = w.pieces.map((id) => geom.pieces[id]);
     const curved = pieces.find((p) => p.role !== 'edge');
-    let feature: SpotFeature;
+    let feature: SiteFeature;
     if (curved) {
       let radius = curved.radius;
       if (curved.curve.kind === 'ellipse-arc') radius = curveCurvatureRadius(curved.curve, closestOnCurve(curved.curve, at).t);
@@ -225,19 +225,19 @@ export function findSpots(ctx: Ctx): SpotCandidate[] {
     return { at, node, theory: 0, theoryWhy: '', firstPeak: measure[node], feature, direction: w.bisector };
   };
 
-  let spots: SpotCandidate[];
-  if (model.study.spots !== 'auto') {
-    spots = model.study.spots.map((p) => {
+  let sites: SiteCandidate[];
+  if (model.study.sites !== 'auto') {
+    sites = model.study.sites.map((p) => {
       const { node } = nearestVertex(mesh, p);
       const h = ctx.baseSize(p[0], p[1]);
       const f = features.find((c) => Math.hypot(c.at[0] - mesh.xy[2 * node], c.at[1] - mesh.xy[2 * node + 1]) <= 0.5 * h);
       return f ? { ...f, origin: 'listed' as const } : { ...classify(node), origin: 'listed' as const };
     });
   } else {
-    spots = [...features];
+    sites = [...features];
     const nV = mesh.nVertices;
     const med = median(measure, nV);
-    const threshold = SPOT_RULES.thresholdOverMedian * med;
+    const threshold = SITE_RULES.thresholdOverMedian * med;
     const { ptr, adj } = vertexNeighbours(mesh);
     const maxima: number[] = [];
     for (let n = 0; n < nV; n++) {
@@ -250,12 +250,12 @@ export function findSpots(ctx: Ctx): SpotCandidate[] {
     maxima.sort((a, b) => measure[b] - measure[a] || a - b);
     for (const n of maxima) {
       const x = mesh.xy[2 * n], y = mesh.xy[2 * n + 1];
-      const r = SPOT_RULES.mergeSizes * ctx.baseSize(x, y);
-      if (spots.some((sp) => Math.hypot(sp.at[0] - x, sp.at[1] - y) < r)) continue;
-      spots.push({ ...classify(n), origin: 'maximum' });
+      const r = SITE_RULES.mergeSizes * ctx.baseSize(x, y);
+      if (sites.some((sp) => Math.hypot(sp.at[0] - x, sp.at[1] - y) < r)) continue;
+      sites.push({ ...classify(n), origin: 'maximum' });
     }
   }
   const key = (v: number) => Math.round(v / tol);
-  spots.sort((a, b) => key(a.at[0]) - key(b.at[0]) || key(a.at[1]) - key(b.at[1]));
-  return spots;
+  sites.sort((a, b) => key(a.at[0]) - key(b.at[0]) || key(a.at[1]) - key(b.at[1]));
+  return sites;
 }

@@ -3,7 +3,7 @@ import type { Mesh } from '../mesh/types.js';
 import { edgeTractionLoad } from './loads.js';
 
 /**
- * Pin bearing on a hole (issue 9), the usual idealisation of a pin-loaded lug (common practice,
+ * Pin force on a hole (issue 9), the usual idealisation of a pin-loaded lug (common practice,
  * no single source): the pin presses on the half of the hole facing the force with a cosine
  * distribution p(θ) = p₀ cos(θ − θ_F) for |θ − θ_F| ≤ 90°, zero elsewhere, θ measured at the
  * hole's centroid and θ_F the direction of the force F the pin applies to the plate.
@@ -14,7 +14,7 @@ import { edgeTractionLoad } from './loads.js';
  * (to round-off) whatever the mesh — the discrete chords of a coarse hole would otherwise lose a
  * few per cent. For a circle of radius a, p₀ = 2|F|/(π a t) in the limit.
  */
-export function bearingLoad(
+export function pinForceLoad(
   mesh: Pick<Mesh, 'xy' | 'boundaryEdges' | 'edgeStride'>,
   edges: ArrayLike<number>,
   thickness: number,
@@ -23,7 +23,7 @@ export function bearingLoad(
   out: Float64Array = new Float64Array(mesh.xy.length),
 ): Float64Array {
   const F = Math.hypot(force[0], force[1]);
-  if (!(F > 0)) throw new FemError('a bearing force needs a direction; got [0, 0]', keyPath);
+  if (!(F > 0)) throw new FemError('a pin force needs a direction; got [0, 0]', keyPath);
   const [cx, cy] = edgeCentroid(mesh, edges);
   const ux = force[0] / F;
   const uy = force[1] / F;
@@ -43,7 +43,7 @@ export function bearingLoad(
   }
   const R = Math.hypot(Rx, Ry);
   if (!(R > 1e-12 * thickness * Math.sqrt(edgeLengthSquared(mesh, edges)))) {
-    throw new FemError('the bearing pressure on this opening sums to no force (is the opening a closed hole?)', keyPath);
+    throw new FemError('the pin pressure on this opening sums to no force (is the opening a closed hole?)', keyPath);
   }
   // rotation taking R onto F, and scale |F|/|R|: the complex factor F/R
   const k = F / R;

@@ -1,8 +1,8 @@
 /**
- * `--path` for solve and study: the recovered stress along a line or an opening's edge, written to
- * `<out>/path.csv`, with `--compare kirsch|lame|inglis` adding closed-form columns and the difference.
- * The command wiring calls `registerPathOptions(cmd)` when it builds the command and
- * `writePathOutputs(...)` once it has the mesh and the recovered field.
+ * `--cut` for solve and study: the recovered stress along a line or an opening's edge, written to
+ * `<out>/cut.csv`, with `--compare kirsch|lame|inglis` adding closed-form columns and the difference.
+ * The command wiring calls `registerCutOptions(cmd)` when it builds the command and
+ * `writeCutOutputs(...)` once it has the mesh and the recovered field.
  */
 import { join } from 'node:path';
 import { Option, type Command } from 'commander';
@@ -11,13 +11,13 @@ import type { Model, Point } from '../model/types.js';
 import type { Mesh } from '../mesh/types.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { NodalStress } from '../recovery/types.js';
-import { comparePath, openingPath, parsePathSpec, pathCsv, resolveCompare, samplePath, type PathTable } from '../sweep/path.js';
+import { compareCut, openingCut, parseCutSpec, cutCsv, resolveCompare, sampleCut, type CutTable } from '../sweep/cut.js';
 import { writeFileAtomic } from './io.js';
-import { capitalise, type PathPlotInput, type PathSeries } from '../report/index.js';
+import { capitalise, type CutPlotInput, type CutSeries } from '../report/index.js';
 import { stressUnit } from '../model/index.js';
 
-export interface PathCliOptions {
-  path?: string;
+export interface CutCliOptions {
+  cut?: string;
   compare?: string;
   remote?: string;
   loadAngle?: string;
@@ -28,11 +28,11 @@ export interface PathCliOptions {
   outerPressure?: string;
 }
 
-/** Adds --path and the comparison options to a command. */
-export function registerPathOptions(cmd: Command): Command {
+/** Adds --cut and the comparison options to a command. */
+export function registerCutOptions(cmd: Command): Command {
   return cmd
-    .option('--path <spec>', 'stress along a line x1,y1:x2,y2[:n] (n samples, default 101) or around opening:<id>; writes path.csv')
-    .addOption(new Option('--compare <form>', 'add a closed-form solution to path.csv').choices(['kirsch', 'lame', 'inglis']))
+    .option('--cut <spec>', 'stress along a line x1,y1:x2,y2[:n] (n samples, default 101) or around opening:<id>; writes cut.csv')
+    .addOption(new Option('--compare <form>', 'add a closed-form solution to cut.csv').choices(['kirsch', 'lame', 'inglis']))
     .option('--remote <S>', 'remote tension for --compare kirsch|inglis')
     .option('--load-angle <deg>', 'direction of the remote tension from the x axis, degrees (default 0)')
     .option('--radius <a>', 'hole radius (kirsch) or inner radius (lame); default: the circular opening')
@@ -56,13 +56,13 @@ function point(text: string | undefined, option: string): Point | undefined {
   return [xy[0], xy[1]];
 }
 
-/** Check the path options before any solving, so a typo fails fast. */
-export function checkPathOptions(opts: PathCliOptions): void {
-  if (opts.path === undefined) {
-    if (opts.compare !== undefined) throw new PeakwiseError('usage', '--compare needs --path');
+/** Check the cut options before any solving, so a typo fails fast. */
+export function checkCutOptions(opts: CutCliOptions): void {
+  if (opts.cut === undefined) {
+    if (opts.compare !== undefined) throw new PeakwiseError('usage', '--compare needs --cut');
     return;
   }
-  parsePathSpec(opts.path);
+  parseCutSpec(opts.cut);
   num(opts.remote, '--remote');
   num(opts.loadAngle, '--load-angle');
   num(opts.radius, '--radius');
@@ -72,13 +72,13 @@ export function checkPathOptions(opts: PathCliOptions): void {
   point(opts.centre, '--centre');
 }
 
-/** The path table for the options, or undefined without --path. Pure apart from reading options. */
-export function pathTable(opts: PathCliOptions, input: { model: Model; mesh: Mesh; geometry: PlateGeometry; field: NodalStress }): PathTable | undefined {
-  if (opts.path === undefined) return undefined;
-  const spec = parsePathSpec(opts.path);
+/** The cut table for the options, or undefined without --cut. Pure apart from reading options. */
+export function cutTable(opts: CutCliOptions, input: { model: Model; mesh: Mesh; geometry: PlateGeometry; field: NodalStress }): CutTable | undefined {
+  if (opts.cut === undefined) return undefined;
+  const spec = parseCutSpec(opts.cut);
   let table = spec.kind === 'line'
-    ? samplePath(input.mesh, input.field, spec.from, spec.to, spec.samples)
-    : openingPath(input.mesh, input.geometry, input.field, spec.id);
+    ? sampleCut(input.mesh, input.field, spec.from, spec.to, spec.samples)
+    : openingCut(input.mesh, input.geometry, input.field, spec.id);
   if (opts.compare !== undefined) {
     const c = resolveCompare({
       kind: opts.compare,
@@ -91,41 +91,41 @@ export function pathTable(opts: PathCliOptions, input: { model: Model; mesh: Mes
       outerPressure: num(opts.outerPressure, '--outer-pressure'),
       opening: spec.kind === 'opening' ? spec.id : undefined,
     }, input.model);
-    if (c.kind === 'inglis' && spec.kind !== 'opening') throw new PeakwiseError('usage', '--compare inglis gives the stress on the hole edge only: use --path opening:<id>');
-    table = comparePath(table, c);
+    if (c.kind === 'inglis' && spec.kind !== 'opening') throw new PeakwiseError('usage', '--compare inglis gives the stress on the hole edge only: use --cut opening:<id>');
+    table = compareCut(table, c);
   }
   return table;
 }
 
 /**
- * Writes `<outDir>/path.csv` when --path was given; returns its path and the curves for the
- * report's path plot (undefined without --path). `protect` lists input files that must never be
+ * Writes `<outDir>/cut.csv` when --cut was given; returns its path and the curves for the
+ * report's cut plot (undefined without --cut). `protect` lists input files that must never be
  * overwritten (the model file).
  */
-export function writePathOutputs(
+export function writeCutOutputs(
   outDir: string,
-  opts: PathCliOptions,
+  opts: CutCliOptions,
   input: { model: Model; mesh: Mesh; geometry: PlateGeometry; field: NodalStress },
   protect: string[] = [],
-): { file: string; plot: PathPlotInput } | undefined {
-  const table = pathTable(opts, input);
+): { file: string; plot: CutPlotInput } | undefined {
+  const table = cutTable(opts, input);
   if (!table) return undefined;
-  const file = join(outDir, 'path.csv');
-  writeFileAtomic(file, pathCsv(table), protect);
-  return { file, plot: pathPlotOf(table, opts, input.model) };
+  const file = join(outDir, 'cut.csv');
+  writeFileAtomic(file, cutCsv(table), protect);
+  return { file, plot: cutPlotOf(table, opts, input.model) };
 }
 
 /** The report's plot: tangential stress around an opening, von Mises along a line; references dashed. */
-export function pathPlotOf(table: PathTable, opts: PathCliOptions, model: Model): PathPlotInput {
+export function cutPlotOf(table: CutTable, opts: CutCliOptions, model: Model): CutPlotInput {
   const S = stressUnit(model.units);
   const onEdge = table.kind === 'opening';
   const fe = table.samples.map((p) => (onEdge ? p.tangential : p.vonMises));
   const ref = table.extra[onEdge ? 'ref_tangential' : 'ref_von_mises'];
   const what = onEdge ? 'tangential stress' : 'von Mises stress';
-  const series: PathSeries[] = [{ label: `peakwise ${what}`, values: fe }];
+  const series: CutSeries[] = [{ label: `peakwise ${what}`, values: fe }];
   if (ref) series.push({ label: `${opts.compare ?? 'closed form'} ${what}`, values: ref, reference: true });
   return {
-    title: `${capitalise(what)} along ${opts.path ?? 'the path'}`,
+    title: `${capitalise(what)} along ${opts.cut ?? 'the cut'}`,
     s: table.samples.map((p) => p.s),
     series,
     xLabel: `arc length s (${model.units.length})`,
