@@ -5,6 +5,7 @@
  * has a worked example.
  */
 import { readFileSync } from 'node:fs';
+import { dirname, isAbsolute, join } from 'node:path';
 import { PeakwiseError } from './errors.js';
 import type { Model } from './model/types.js';
 import type { Mesh } from './mesh/types.js';
@@ -57,7 +58,8 @@ export { sampleCut, openingCut, cutCsv, parseCutSpec, type CutSample, type CutSp
 
 /**
  * Read and parse a model file (this one does file I/O; `parseModel(text, file)` is the pure form).
- * `options.params` overrides parameters of the file, as a sweep does.
+ * `options.params` overrides parameters of the file, as a sweep does; files the model imports
+ * (SVG or point outlines, displacement tables) are read relative to it, as the CLI reads them.
  */
 export function loadModel(file: string, options: ParseOptions = {}): Model {
   let text: string;
@@ -66,7 +68,9 @@ export function loadModel(file: string, options: ParseOptions = {}): Model {
   } catch (e) {
     throw new PeakwiseError('io', `${file}: cannot be read (${(e as NodeJS.ErrnoException).code ?? 'error'})`);
   }
-  return parseModel(text, file, options);
+  // files the model refers to (outlines, displacement tables) sit beside it, as for the CLI
+  const readFile = (path: string): string => readFileSync(isAbsolute(path) ? path : join(dirname(file), path), 'utf8');
+  return parseModel(text, file, { readFile, ...options });
 }
 
 /** Overrides of the model's mesh settings, and the limits of the solve. */

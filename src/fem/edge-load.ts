@@ -3,20 +3,11 @@
  * Gauss–Legendre quadrature along each edge's own map. Every edge load kind (traction, pressure,
  * far-field stress, pin force) is built on it; the dispatcher over the model's loads is loads.ts.
  */
+import { GAUSS_LEGENDRE_3, GAUSS_LEGENDRE_5 } from '../element/index.js';
 import type { Mesh } from '../mesh/types.js';
 
 /** traction vector (force per unit area) at a boundary point with outward unit normal (nx, ny) */
 export type TractionField = (x: number, y: number, nx: number, ny: number) => readonly [number, number];
-
-// Gauss–Legendre points and weights on [−1, 1] (Abramowitz & Stegun 1964, Table 25.4)
-const GL3_S = [-Math.sqrt(3 / 5), 0, Math.sqrt(3 / 5)];
-const GL3_W = [5 / 9, 8 / 9, 5 / 9];
-const GL5_S = [
-  -0.906179845938664, -0.5384693101056831, 0, 0.5384693101056831, 0.906179845938664,
-];
-const GL5_W = [
-  0.23692688505618908, 0.47862867049936647, 0.5688888888888889, 0.47862867049936647, 0.23692688505618908,
-];
 
 /**
  * Consistent equivalent nodal forces of a traction field on boundary edges (whole thickness):
@@ -36,8 +27,7 @@ export function edgeTractionLoad(
 ): Float64Array {
   const { xy, boundaryEdges } = mesh;
   const stride = mesh.edgeStride;
-  const S = stride === 2 ? GL3_S : GL5_S;
-  const W = stride === 2 ? GL3_W : GL5_W;
+  const { s: S, w: W } = stride === 2 ? GAUSS_LEGENDRE_3 : GAUSS_LEGENDRE_5;
   for (let k = 0; k < edges.length; k++) {
     const e = edges[k];
     const a = boundaryEdges[stride * e];

@@ -1,6 +1,8 @@
 export type { ElasticSection, GaussStresses, Solution } from './types.js';
 export { elasticityMatrix, outOfPlaneStress } from './elasticity.js';
-export { TRI3_ETA, TRI3_W, TRI3_XI, cstGradients, gatherElementXY, lstGradients, lstParametricDerivatives, lstShape } from './shape.js';
+export { cstGradients, gatherElementXY, lstGradients } from './shape.js';
+// the reference element's shape functions, for callers that reached them through fem
+export { lstParametricDerivatives, lstShape } from '../element/index.js';
 export { elementStiffnessCst, elementStiffnessLst } from './elements.js';
 export { gaussStresses } from './stresses.js';
 export { assembleStiffness, csrMultiply, stiffnessPattern, type StiffnessPattern } from './assembly.js';

@@ -52,4 +52,12 @@ describe('one pipeline', () => {
       if (stageOf(e.from) === 'pipeline') expect(downstream.has(stageOf(e.to)), `${e.from} → ${e.to}`).toBe(false);
     }
   });
+
+  it('the reference element (src/element) is a leaf: it imports nothing else of src/, so mesh, fem and recovery can all use it', () => {
+    const out = edges.filter((e) => stageOf(e.from) === 'element' && stageOf(e.to) !== 'element');
+    expect(out).toEqual([]);
+    for (const user of ['mesh/quality.ts', 'mesh/validate.ts', 'fem/elements.ts', 'fem/edge-load.ts', 'recovery/estimate.ts']) {
+      expect(edges.some((e) => e.from === user && stageOf(e.to) === 'element'), user).toBe(true);
+    }
+  });
 });

@@ -47,7 +47,8 @@ describe('through check (a case built in code, solved by check/pipeline.ts)', ()
     expect(Math.abs(peak / (3 * S) - 1)).toBeLessThan(0.015);
     // a uniform stress state is self-equilibrated: the supports carry (almost) nothing, against
     // the S·2R·t = 40 the outline carries across any diameter
-    expect(Math.hypot(...s.solution.reactionSum)).toBeLessThan(1e-9 * 2 * R * S);
+    // (measured 5e-13: round-off of the nodal sums)
+    expect(Math.hypot(...s.solution.reactionSum)).toBeLessThan(1e-11 * 2 * R * S);
   });
 
   it('a pin force arrives whole: the nodal forces sum to the force and the supports return it (statics, to round-off)', () => {
