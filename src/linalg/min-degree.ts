@@ -10,7 +10,7 @@
  *
  *   1. pivot p = a variable of least approximate external degree;
  *   2. L_p = (A_p ∪ ⋃_{e ∈ E_p} L_e) \ {p}; the elements of E_p are absorbed into p;
- *   3. |L_e \ L_p| for every element e next to a variable of L_p, in one pass over their E lists;
+ *   3. |L_e \ L_p| for every element e next to a variable of L_p (done while L_p is formed);
  *   4. each i ∈ L_p: E_i loses the absorbed elements and gains p, A_i loses the variables of L_p
  *      (now reached through p); an element with L_e ⊆ L_p is absorbed too (aggressive
  *      absorption); a variable left with E_i = {p}, A_i = ∅ is eliminated together with p
@@ -42,13 +42,15 @@ const MERGED = 3;
 const DENSE = 4;
 
 const NONE = -1;
+/** `tag` of a vertex that is no longer a variable: above every stamp, so scans skip it */
+const GONE = 0x7fffffff;
 
 /**
  * Quotient graph and the working arrays of one ordering. All lists live in `store`: vertex v
  * owns store[start[v] … start[v] + length[v]); a variable's first `elementCount[v]` entries are
  * elements, the rest variables; an element's entries are variables. Entries of vertices that
- * left (merged, absorbed) stay in lists until the list is next rewritten; every scan checks
- * `state`.
+ * left (merged, absorbed) stay in lists until the list is next rewritten; scans skip them
+ * (elements by `state`, variables by `tag`).
  */
 interface QuotientGraph {
   readonly n: number;
@@ -67,30 +69,49 @@ interface QuotientGraph {
   readonly degree: Int32Array;
   /** |A_i| + Σ |L_e \ L_p| of the variables of the current L_p (step 4) */
   readonly partialDegree: Int32Array;
-  /** |L_e \ L_p| of the elements met in the current step (valid where tag = the step's stamp) */
+  /**
+   * Per element e, side by side (one memory fetch): [2e] = stamp of the step that last met e,
+   * [2e + 1] = |L_e \ L_p| in that step
+   */
   readonly outside: Int32Array;
-  /** assembly tree: merged variable → the vertex it joined; element → pivot that absorbed it */
+  /** assembly tree: parent[e] = the pivot whose element absorbed element e (NONE for a root) */
   readonly parent: Int32Array;
-  /** stamp marks (L_p membership, elements seen, list comparison) */
+  /**
+   * Vertices eliminated together: a linked list from each principal variable (later its pivot)
+   * through the variables merged or mass-eliminated into it, with its tail for O(1) joins
+   */
+  readonly memberNext: Int32Array;
+  readonly memberTail: Int32Array;
+  /**
+   * Variable v is in the current L_p when tag[v] = the step's stamp; GONE once v is no longer a
+   * variable. So one test, tag[v] ≥ stamp, skips both in every scan of the current step.
+   */
   readonly tag: Int32Array;
+  /** stamp marks for comparing two lists (steps 5 and the initial twins) */
+  readonly listMark: Int32Array;
   stamp: number;
-  /** supervariable hash table over the variables of L_p (size a power of two) */
+  /** hash table of the initial twin search (size a power of two), and its chains */
   readonly hashHead: Int32Array;
   readonly hashNext: Int32Array;
+  /** hash of each L_p member's list (step 4), and the members sorted by it (step 5) */
   readonly hashOf: Int32Array;
-  /** summed weight of the variables not yet eliminated (dense ones excluded) */
+  readonly candidates: Int32Array;
+  /** summed weight, and count, of the principal variables not yet eliminated (dense excluded) */
   weightLeft: number;
+  variablesLeft: number;
   /** where the current pivot's list L_p sits in store, its entry count, and its members' tag */
   pivotStart: number;
   pivotLength: number;
   pivotStamp: number;
+  /** |L_p| as formed (step 2); merges keep it, mass elimination takes its share off */
+  pivotWeight: number;
 }
 
 /** Variables bucketed by approximate degree, doubly linked, for the minimum-degree pick. */
 interface DegreeBuckets {
   readonly head: Int32Array;
-  readonly next: Int32Array;
-  readonly prev: Int32Array;
+  /** [2i] = next and [2i + 1] = previous variable in i's bucket, side by side (one fetch) */
+  readonly link: Int32Array;
   minDegree: number;
 }
 
@@ -121,8 +142,8 @@ export function amdOrder(
   if (n === 0) return new Int32Array(0);
   const q = quotientGraphOf(n, adjPtr, adjIdx, weights, options.symmetricPattern ?? false);
   withholdDense(q);
-  mergeInitialTwins(q);
-  const buckets = initialDegrees(q);
+  degreesAndTwins(q);
+  const buckets = degreeBuckets(q);
   while (q.weightLeft > 0) {
     const p = takeMinDegree(q, buckets);
     eliminatePivot(q, buckets, p);
@@ -130,11 +151,12 @@ export function amdOrder(
   return assemblyPostorder(q);
 }
 
-/** One pivot step (steps 2–5 of the file header), each in its own function. */
+/** One pivot step (steps 2–5 of the file header). */
 function eliminatePivot(q: QuotientGraph, buckets: DegreeBuckets, p: number): void {
-  reserveStore(q, pivotListBound(q, p));
-  formPivotElement(q, buckets, p);
-  measureOutsideParts(q);
+  // L_p has at most one entry per variable left; only when that much room is lacking is the
+  // exact bound worth its pass
+  if (q.storeEnd + q.variablesLeft > q.store.length) reserveStore(q, pivotListBound(q, p));
+  formPivotElement(q, p);
   const massWeight = updateVariableLists(q, p);
   mergeIndistinguishable(q);
   finishPivot(q, buckets, p, massWeight);
@@ -171,46 +193,68 @@ function quotientGraphOf(
   symmetricPattern: boolean,
 ): QuotientGraph {
   const nnz = adjPtr[n];
-  const listEntries = symmetricPattern ? nnz : 2 * nnz;
   // elbow room (common practice): element lists are appended; garbage collection reclaims space
-  const store = new Int32Array(listEntries + (nnz >> 2) + 2 * n + 16);
-  const start = new Int32Array(n);
-  const length = new Int32Array(n);
+  const capacity = (symmetricPattern ? nnz : 2 * nnz) + (nnz >> 2) + 2 * n + 16;
+  const q = emptyQuotientGraph(n, capacity, weights);
   if (symmetricPattern) {
-    store.set(adjIdx.subarray(0, nnz));
-    for (let i = 0; i < n; i++) { start[i] = adjPtr[i]; length[i] = adjPtr[i + 1] - adjPtr[i]; }
+    q.store.set(adjIdx.subarray(0, nnz));
+    const { start, length } = q;
+    for (let i = 0; i < n; i++) {
+      start[i] = adjPtr[i];
+      length[i] = adjPtr[i + 1] - adjPtr[i];
+    }
   } else {
-    symmetricLists(n, adjPtr, adjIdx, store, start, length);
+    symmetricLists(n, adjPtr, adjIdx, q.store, q.start, q.length);
   }
-  const w = start[n - 1] + length[n - 1];
-  const weight = weights ? weights.slice() : new Int32Array(n).fill(1);
+  q.storeEnd = q.start[n - 1] + q.length[n - 1];
   let total = 0;
-  for (let i = 0; i < n; i++) total += weight[i];
+  for (let i = 0; i < n; i++) total += q.weight[i];
   if (total > 0x3fffffff) throw new RangeError(`amdOrder: total vertex weight ${total} exceeds 2^30`);
+  q.weightLeft = total;
+  return q;
+}
+
+/**
+ * Every array of the ordering, allocated at once (a function without loops: V8 then never
+ * meets an allocation without feedback in code it optimised while inside a loop).
+ */
+function emptyQuotientGraph(n: number, capacity: number, weights: Int32Array | undefined): QuotientGraph {
   return {
     n,
-    store,
-    storeEnd: w,
-    start,
-    length,
+    store: new Int32Array(capacity),
+    storeEnd: 0,
+    start: new Int32Array(n),
+    length: new Int32Array(n),
     elementCount: new Int32Array(n),
     state: new Uint8Array(n), // all VARIABLE
-    weight,
+    weight: weights ? weights.slice() : new Int32Array(n).fill(1),
     elementWeight: new Int32Array(n),
     degree: new Int32Array(n),
     partialDegree: new Int32Array(n),
-    outside: new Int32Array(n),
+    outside: new Int32Array(2 * n),
     parent: new Int32Array(n).fill(NONE),
+    memberNext: new Int32Array(n).fill(NONE),
+    memberTail: identity(n),
     tag: new Int32Array(n),
+    listMark: new Int32Array(n),
     stamp: 0,
     hashHead: new Int32Array(hashSize(n)).fill(NONE),
     hashNext: new Int32Array(n),
     hashOf: new Int32Array(n),
-    weightLeft: total,
+    candidates: new Int32Array(n),
+    weightLeft: 0,
+    variablesLeft: n,
     pivotStart: 0,
     pivotLength: 0,
     pivotStamp: 0,
+    pivotWeight: 0,
   };
+}
+
+function identity(n: number): Int32Array {
+  const a = new Int32Array(n);
+  for (let i = 0; i < n; i++) a[i] = i;
+  return a;
 }
 
 /** Lists of A + Aᵀ without self loops or repeats: row i of A merged with row i of Aᵀ. */
@@ -246,10 +290,13 @@ function hashSize(n: number): number {
   return size;
 }
 
-/** A fresh mark value for `tag` (tags older than it read as unmarked). */
+/** A fresh mark value for `tag`, `listMark` and `outside` (older marks read as unmarked). */
 function newStamp(q: QuotientGraph): number {
   if (q.stamp >= 0x3fffffff) {
-    q.tag.fill(0);
+    const tag = q.tag;
+    for (let v = 0; v < q.n; v++) if (tag[v] !== GONE) tag[v] = 0;
+    q.listMark.fill(0);
+    q.outside.fill(0);
     q.stamp = 0;
   }
   return ++q.stamp;
@@ -264,91 +311,105 @@ function withholdDense(q: QuotientGraph): void {
   for (let i = 0; i < q.n; i++) {
     if (q.length[i] > limit) {
       q.state[i] = DENSE;
+      q.tag[i] = GONE;
       q.weightLeft -= q.weight[i];
+      q.variablesLeft--;
     }
   }
 }
 
 /**
- * Merge vertices with equal closed neighbourhoods (Adj(i) ∪ {i} = Adj(j) ∪ {j}) before the
- * first pivot: the step-5 test on the input graph. A duplicated vertex then costs nothing and
- * orders as one vertex of the summed weight would.
+ * Degrees of the input graph (weights of the neighbours), and vertices with equal closed
+ * neighbourhoods (Adj(i) ∪ {i} = Adj(j) ∪ {j}) merged before the first pivot: the step-5 test
+ * on the input graph. A duplicated vertex then costs nothing and orders as one vertex of the
+ * summed weight would. Merging j into i leaves every other vertex's degree as it was (it loses
+ * j and i gains j's weight) and takes j's weight off i's own degree.
  */
-function mergeInitialTwins(q: QuotientGraph): void {
-  const { n, store, start, length, state, weight, parent, tag, hashHead, hashNext } = q;
+function degreesAndTwins(q: QuotientGraph): void {
+  const { store, start, length, state, weight, degree, hashHead, hashNext } = q;
   const mask = hashHead.length - 1;
-  for (let i = n - 1; i >= 0; i--) {
+  for (let i = q.n - 1; i >= 0; i--) {
     if (state[i] !== VARIABLE) continue;
     let h = i;
-    for (let p = start[i], end = p + length[i]; p < end; p++) h = (h + store[p]) | 0;
+    let d = 0;
+    for (let p = start[i], end = p + length[i]; p < end; p++) {
+      const j = store[p];
+      h = (h + j) | 0;
+      if (state[j] === VARIABLE) d += weight[j];
+    }
+    degree[i] = d;
     const bucket = h & mask;
     hashNext[i] = hashHead[bucket];
     hashHead[bucket] = i;
   }
   for (let bucket = 0; bucket <= mask; bucket++) {
-    let i = hashHead[bucket];
-    if (i === NONE) continue;
+    const first = hashHead[bucket];
+    if (first === NONE) continue;
     hashHead[bucket] = NONE;
-    for (; i !== NONE; i = hashNext[i]) {
-      if (state[i] !== VARIABLE) continue;
-      let marked = false;
-      let s = 0;
-      for (let j = hashNext[i]; j !== NONE; j = hashNext[j]) {
-        if (state[j] !== VARIABLE || length[j] !== length[i]) continue;
-        if (!marked) {
-          s = newStamp(q);
-          tag[i] = s;
-          for (let p = start[i], end = p + length[i]; p < end; p++) tag[store[p]] = s;
-          marked = true;
-        }
-        if (tag[j] !== s) continue;
-        let same = true;
-        for (let p = start[j], end = p + length[j]; p < end && same; p++) same = tag[store[p]] === s;
-        if (!same) continue;
-        weight[i] += weight[j];
-        state[j] = MERGED;
-        parent[j] = i;
+    if (hashNext[first] !== NONE) mergeTwinsOfBucket(q, first);
+  }
+}
+
+/** Compare the closed neighbourhoods of one hash bucket's vertices pairwise; merge the equal. */
+function mergeTwinsOfBucket(q: QuotientGraph, first: number): void {
+  const { store, start, length, state, weight, degree, tag, listMark, hashNext } = q;
+  for (let i = first; i !== NONE; i = hashNext[i]) {
+    if (state[i] !== VARIABLE) continue;
+    let s = 0;
+    for (let j = hashNext[i]; j !== NONE; j = hashNext[j]) {
+      if (state[j] !== VARIABLE || length[j] !== length[i]) continue;
+      if (s === 0) {
+        s = newStamp(q);
+        listMark[i] = s;
+        for (let p = start[i], end = p + length[i]; p < end; p++) listMark[store[p]] = s;
       }
+      if (listMark[j] !== s) continue;
+      let same = true;
+      for (let p = start[j], end = p + length[j]; p < end && same; p++) same = listMark[store[p]] === s;
+      if (!same) continue;
+      degree[i] -= weight[j];
+      weight[i] += weight[j];
+      joinMembers(q, i, j);
+      state[j] = MERGED;
+      tag[j] = GONE;
+      q.variablesLeft--;
     }
   }
 }
 
-/** Degrees of the input graph (weights of the neighbours) and the degree buckets. */
-function initialDegrees(q: QuotientGraph): DegreeBuckets {
-  const { n, store, start, length, state, weight, degree } = q;
+/** Append j's members to i's (they will be eliminated together). */
+function joinMembers(q: QuotientGraph, i: number, j: number): void {
+  q.memberNext[q.memberTail[i]] = j;
+  q.memberTail[i] = q.memberTail[j];
+}
+
+/** The degree buckets holding every variable. */
+function degreeBuckets(q: QuotientGraph): DegreeBuckets {
+  const { n, state, degree } = q;
   const buckets: DegreeBuckets = {
     head: new Int32Array(q.weightLeft + 1).fill(NONE),
-    next: new Int32Array(n),
-    prev: new Int32Array(n),
+    link: new Int32Array(2 * n),
     minDegree: q.weightLeft,
   };
-  for (let i = 0; i < n; i++) {
-    if (state[i] !== VARIABLE) continue;
-    let d = 0;
-    for (let p = start[i], end = p + length[i]; p < end; p++) {
-      const j = store[p];
-      if (state[j] === VARIABLE) d += weight[j];
-    }
-    degree[i] = d;
-    addToBucket(buckets, i, d);
-  }
+  for (let i = 0; i < n; i++) if (state[i] === VARIABLE) addToBucket(buckets, i, degree[i]);
   return buckets;
 }
 
 function addToBucket(b: DegreeBuckets, i: number, d: number): void {
   const first = b.head[d];
-  b.next[i] = first;
-  b.prev[i] = NONE;
-  if (first !== NONE) b.prev[first] = i;
+  b.link[2 * i] = first;
+  b.link[2 * i + 1] = NONE;
+  if (first !== NONE) b.link[2 * first + 1] = i;
   b.head[d] = i;
   if (d < b.minDegree) b.minDegree = d;
 }
 
 function removeFromBucket(b: DegreeBuckets, i: number, d: number): void {
-  const before = b.prev[i], after = b.next[i];
+  const link = b.link;
+  const after = link[2 * i], before = link[2 * i + 1];
   if (before === NONE) b.head[d] = after;
-  else b.next[before] = after;
-  if (after !== NONE) b.prev[after] = before;
+  else link[2 * before] = after;
+  if (after !== NONE) link[2 * after + 1] = before;
 }
 
 /** Step 1: a variable of least approximate degree (the last one bucketed at that degree). */
@@ -402,38 +463,46 @@ function reserveStore(q: QuotientGraph, needed: number): void {
 }
 
 /**
- * Step 2: the new element's list L_p at the end of store, built from the elements of E_p
- * (absorbed into p on the way) and the variables of A_p. Its members leave their degree
- * buckets until step 4 has their new degree. Members are tagged with the step's stamp.
+ * Steps 2 and 3: the new element's list L_p at the end of store, built from the elements of
+ * E_p (absorbed into p on the way) and the variables of A_p; its members are tagged with the
+ * step's stamp (they stay in their degree buckets until finishPivot knows their new degree).
+ * As each member i joins, |L_e \ L_p| of the elements e of E_i is brought up to date (step 3):
+ * the first time e is met this step it starts from |L_e|, and each member met takes its weight
+ * off.
  */
-function formPivotElement(q: QuotientGraph, buckets: DegreeBuckets, p: number): void {
-  const { store, start, length, elementCount, state, weight, degree, parent, tag } = q;
+function formPivotElement(q: QuotientGraph, p: number): void {
+  const { store, start, length, elementCount, state, weight, parent, tag } = q;
   const inPivot = newStamp(q);
   state[p] = ELEMENT;
-  tag[p] = inPivot;
+  tag[p] = GONE;
+  q.variablesLeft--;
   const listStart = q.storeEnd;
   let w = listStart;
+  let formedWeight = 0;
   const pStart = start[p], pElements = elementCount[p], pEnd = pStart + length[p];
   for (let t = pStart; t < pStart + pElements; t++) {
     const e = store[t];
     if (state[e] !== ELEMENT) continue;
     for (let u = start[e], end = u + length[e]; u < end; u++) {
       const i = store[u];
-      if (state[i] !== VARIABLE || tag[i] === inPivot) continue;
+      if (tag[i] >= inPivot) continue; // in L_p already, or no longer a variable
       tag[i] = inPivot;
       store[w++] = i;
-      removeFromBucket(buckets, i, degree[i]);
+      formedWeight += weight[i];
+      takeOffOutside(q, i, inPivot);
     }
     state[e] = ABSORBED;
     parent[e] = p;
   }
   for (let t = pStart + pElements; t < pEnd; t++) {
     const i = store[t];
-    if (state[i] !== VARIABLE || tag[i] === inPivot) continue;
+    if (tag[i] >= inPivot) continue;
     tag[i] = inPivot;
     store[w++] = i;
-    removeFromBucket(buckets, i, degree[i]);
+    formedWeight += weight[i];
+    takeOffOutside(q, i, inPivot);
   }
+  q.pivotWeight = formedWeight;
   q.pivotStart = listStart;
   q.pivotLength = w - listStart;
   q.pivotStamp = inPivot;
@@ -444,25 +513,21 @@ function formPivotElement(q: QuotientGraph, buckets: DegreeBuckets, p: number): 
 }
 
 /**
- * Step 3: |L_e \ L_p| for every element e adjacent to a variable of L_p. Starting from |L_e|,
- * each variable of L_p met in e's list takes its weight off; elements are tagged with a stamp
- * one above L_p's (variables and elements are different vertices, so the tags do not clash).
+ * Step 3 for one new member i of L_p: every element e of E_i loses i's weight from
+ * |L_e \ L_p| (the step's stamp beside the value tells it from a stale one). Elements of E_p
+ * met here are about to be absorbed; their values are never read.
  */
-function measureOutsideParts(q: QuotientGraph): void {
-  const { store, start, elementCount, state, weight, elementWeight, outside, tag } = q;
-  const seenHere = newStamp(q);
-  for (let t = q.pivotStart, end = t + q.pivotLength; t < end; t++) {
-    const i = store[t];
-    const wi = weight[i];
-    for (let u = start[i], uEnd = u + elementCount[i]; u < uEnd; u++) {
-      const e = store[u];
-      if (state[e] !== ELEMENT) continue;
-      if (tag[e] !== seenHere) {
-        tag[e] = seenHere;
-        outside[e] = elementWeight[e] - wi;
-      } else {
-        outside[e] -= wi;
-      }
+function takeOffOutside(q: QuotientGraph, i: number, stamp: number): void {
+  const { store, start, elementCount, state, weight, elementWeight, outside } = q;
+  const wi = weight[i];
+  for (let u = start[i], end = u + elementCount[i]; u < end; u++) {
+    const e = store[u];
+    if (state[e] !== ELEMENT) continue;
+    if (outside[2 * e] !== stamp) {
+      outside[2 * e] = stamp;
+      outside[2 * e + 1] = elementWeight[e] - wi;
+    } else {
+      outside[2 * e + 1] -= wi;
     }
   }
 }
@@ -470,16 +535,16 @@ function measureOutsideParts(q: QuotientGraph): void {
 /**
  * Step 4 for each variable of L_p: rewrite its list in place as p, the elements that remain,
  * the variable neighbours outside L_p; absorb the elements with nothing outside L_p; sum the
- * partial degree |A_i| + Σ |L_e \ L_p|; hash the list for step 5. A variable whose list comes
- * out empty (only p's element is left) is eliminated with p. Returns the weight so eliminated.
+ * partial degree |A_i| + Σ |L_e \ L_p|; hash the list (sum of its entries) for step 5. A
+ * variable whose list comes out empty (only p's element is left) is eliminated with p.
+ * Returns the weight so eliminated.
  *
  * Every member of L_p loses at least one entry (p itself from A_i, or an element absorbed into
  * p from E_i), so p fits. It is written in front without a shift by holding each kept entry
  * back one slot: the write position then never passes the read position.
  */
 function updateVariableLists(q: QuotientGraph, p: number): number {
-  const { store, start, length, elementCount, state, weight, partialDegree, outside, parent, tag, hashHead, hashNext, hashOf } = q;
-  const mask = hashHead.length - 1;
+  const { store, start, length, elementCount, state, weight, partialDegree, outside, parent, tag, hashOf } = q;
   const inPivot = q.pivotStamp;
   let massWeight = 0;
   for (let t = q.pivotStart, end = t + q.pivotLength; t < end; t++) {
@@ -492,7 +557,7 @@ function updateVariableLists(q: QuotientGraph, p: number): number {
     for (let u = from; u < elementsEnd; u++) {
       const e = store[u];
       if (state[e] !== ELEMENT) continue;
-      const ext = outside[e];
+      const ext = outside[2 * e + 1];
       if (ext === 0) {
         // aggressive absorption: L_e ⊆ L_p, so p's element covers e's
         state[e] = ABSORBED;
@@ -507,7 +572,7 @@ function updateVariableLists(q: QuotientGraph, p: number): number {
     const elementsKept = w - from; // entries written so far = p and all kept elements but the held one
     for (let u = elementsEnd; u < to; u++) {
       const j = store[u];
-      if (state[j] !== VARIABLE || tag[j] === inPivot) continue;
+      if (tag[j] >= inPivot) continue; // reached through p now, or no longer a variable
       store[w++] = held;
       held = j;
       sum += weight[j];
@@ -517,7 +582,9 @@ function updateVariableLists(q: QuotientGraph, p: number): number {
     if (kept === 0) {
       // mass elimination: i is adjacent to p's element only
       state[i] = MERGED;
-      parent[i] = p;
+      tag[i] = GONE;
+      joinMembers(q, p, i);
+      q.variablesLeft--;
       massWeight += weight[i];
       continue;
     }
@@ -527,132 +594,180 @@ function updateVariableLists(q: QuotientGraph, p: number): number {
     length[i] = kept + 1;
     elementCount[i] = elementsKept + 1;
     partialDegree[i] = sum;
-    const bucket = h & mask;
-    hashOf[i] = bucket;
-    hashNext[i] = hashHead[bucket];
-    hashHead[bucket] = i;
+    hashOf[i] = h;
   }
   return massWeight;
 }
 
 /**
  * Step 5: variables of L_p whose lists hold the same elements and variables are
- * indistinguishable (they will be eliminated together); the later ones of a hash bucket merge
- * into the first. Lists are compared by tagging one and checking the other's entries; lists
- * have no repeats, so equal lengths and all entries tagged mean equal sets.
+ * indistinguishable (they will be eliminated together). The candidates are sorted by their
+ * list hash; within a run of equal hashes, later ones that match merge into the first. Lists
+ * are compared by marking one and checking the other's entries; lists have no repeats, so
+ * equal lengths and all entries marked mean equal sets.
  */
 function mergeIndistinguishable(q: QuotientGraph): void {
-  const { store, start, length, elementCount, state, weight, parent, tag, hashHead, hashNext, hashOf } = q;
+  const { store, state, hashOf, candidates } = q;
+  let count = 0;
   for (let t = q.pivotStart, end = t + q.pivotLength; t < end; t++) {
-    const first = store[t];
-    if (state[first] !== VARIABLE) continue;
-    const bucket = hashOf[first];
-    if (hashHead[bucket] === NONE) continue; // bucket already done
-    let i = hashHead[bucket];
-    hashHead[bucket] = NONE;
-    for (; i !== NONE; i = hashNext[i]) {
-      if (state[i] !== VARIABLE) continue;
-      let s = 0;
-      for (let j = hashNext[i]; j !== NONE; j = hashNext[j]) {
-        if (state[j] !== VARIABLE || length[j] !== length[i] || elementCount[j] !== elementCount[i]) continue;
-        if (s === 0) {
-          s = newStamp(q);
-          for (let u = start[i], uEnd = u + length[i]; u < uEnd; u++) tag[store[u]] = s;
-        }
-        let same = true;
-        for (let u = start[j], uEnd = u + length[j]; u < uEnd && same; u++) same = tag[store[u]] === s;
-        if (!same) continue;
-        weight[i] += weight[j];
-        state[j] = MERGED;
-        parent[j] = i;
+    const i = store[t];
+    if (state[i] === VARIABLE) candidates[count++] = i;
+  }
+  if (count < 2) return;
+  sortByHash(candidates, count, hashOf);
+  for (let a = 0; a < count; ) {
+    let b = a + 1;
+    while (b < count && hashOf[candidates[b]] === hashOf[candidates[a]]) b++;
+    if (b - a > 1) mergeRun(q, a, b);
+    a = b;
+  }
+}
+
+/** Sort list[0…count) by key (insertion sort for the usual few entries). */
+function sortByHash(list: Int32Array, count: number, key: Int32Array): void {
+  if (count > 32) {
+    list.subarray(0, count).sort((x, y) => (key[x] < key[y] ? -1 : key[x] > key[y] ? 1 : x - y));
+    return;
+  }
+  for (let t = 1; t < count; t++) {
+    const v = list[t], k = key[v];
+    let u = t - 1;
+    while (u >= 0 && key[list[u]] > k) {
+      list[u + 1] = list[u];
+      u--;
+    }
+    list[u + 1] = v;
+  }
+}
+
+/** Pairwise comparison within candidates[a…b) (equal hashes); merge the equal lists. */
+function mergeRun(q: QuotientGraph, a: number, b: number): void {
+  const { store, start, length, elementCount, state, weight, tag, listMark, candidates } = q;
+  for (let x = a; x < b; x++) {
+    const i = candidates[x];
+    if (state[i] !== VARIABLE) continue;
+    let s = 0;
+    for (let y = x + 1; y < b; y++) {
+      const j = candidates[y];
+      if (state[j] !== VARIABLE || length[j] !== length[i] || elementCount[j] !== elementCount[i]) continue;
+      if (s === 0) {
+        s = newStamp(q);
+        for (let u = start[i], uEnd = u + length[i]; u < uEnd; u++) listMark[store[u]] = s;
       }
+      let same = true;
+      for (let u = start[j], uEnd = u + length[j]; u < uEnd && same; u++) same = listMark[store[u]] === s;
+      if (!same) continue;
+      weight[i] += weight[j];
+      joinMembers(q, i, j);
+      state[j] = MERGED;
+      tag[j] = GONE;
+      q.variablesLeft--;
     }
   }
 }
 
 /**
- * Close the step: L_p keeps its surviving supervariables, |L_p| is summed, each member gets
- * its new degree bound (step 4's formula) and goes back into its bucket.
+ * Close the step: L_p keeps its surviving supervariables; |L_p| is the weight it was formed
+ * with less the mass-eliminated weight (merges keep it); each member gets its new degree bound
+ * (step 4's formula) and moves to that bucket if it changed; variables merged or eliminated
+ * with p in this step leave theirs.
  */
 function finishPivot(q: QuotientGraph, buckets: DegreeBuckets, p: number, massWeight: number): void {
   const { store, state, weight, elementWeight, degree, partialDegree } = q;
-  const from = q.pivotStart;
-  let w = from;
-  let pivotWeight = 0;
-  for (let t = from, end = from + q.pivotLength; t < end; t++) {
-    const i = store[t];
-    if (state[i] !== VARIABLE) continue;
-    store[w++] = i;
-    pivotWeight += weight[i];
-  }
-  q.length[p] = w - from;
-  q.storeEnd = w;
+  const pivotWeight = q.pivotWeight - massWeight;
   elementWeight[p] = pivotWeight;
   q.weightLeft -= weight[p] + massWeight;
   const left = q.weightLeft;
-  for (let t = from; t < w; t++) {
+  const from = q.pivotStart;
+  let w = from;
+  for (let t = from, end = from + q.pivotLength; t < end; t++) {
     const i = store[t];
+    if (state[i] !== VARIABLE) {
+      removeFromBucket(buckets, i, degree[i]); // merged or eliminated with p in this step
+      continue;
+    }
+    store[w++] = i;
     const wi = weight[i];
     const external = pivotWeight - wi;
     let d = degree[i] + external;
     const bound = partialDegree[i] + external;
     if (bound < d) d = bound;
     if (left - wi < d) d = left - wi;
-    degree[i] = d;
-    addToBucket(buckets, i, d);
+    if (d !== degree[i]) {
+      removeFromBucket(buckets, i, degree[i]);
+      degree[i] = d;
+      addToBucket(buckets, i, d);
+    }
   }
+  q.length[p] = w - from;
+  q.storeEnd = w;
 }
 
 /**
  * Elimination order: depth-first postorder of the assembly tree (children before parents,
- * each subtree contiguous), every pivot followed by the variables merged into it (directly or
- * through a chain of merges), then the withheld dense vertices.
+ * each subtree contiguous, children in ascending vertex order), every pivot followed by the
+ * variables merged into it, then the withheld dense vertices. (One loop per function: V8
+ * compiles a long function loop by loop and kept deoptimising a single-function version.)
  */
 function assemblyPostorder(q: QuotientGraph): Int32Array {
-  const { n, state, parent } = q;
-  const isPivot = (v: number) => state[v] === ELEMENT || state[v] === ABSORBED;
-  // members: each merged variable hangs on the pivot its chain of merges ends at
-  const memberHead = new Int32Array(n).fill(NONE);
-  const memberNext = new Int32Array(n);
-  const pivotOf = new Int32Array(n).fill(NONE);
-  for (let v = 0; v < n; v++) {
-    if (state[v] !== MERGED) continue;
-    let r = v;
-    while (!isPivot(r) && pivotOf[r] === NONE) r = parent[r];
-    const pivot = isPivot(r) ? r : pivotOf[r];
-    for (let u = v; u !== r; u = parent[u]) pivotOf[u] = pivot; // path compression
-    memberNext[v] = memberHead[pivot];
-    memberHead[pivot] = v;
-  }
-  // children of each pivot, in ascending vertex order
+  const n = q.n;
   const childHead = new Int32Array(n).fill(NONE);
   const childNext = new Int32Array(n);
-  for (let v = n - 1; v >= 0; v--) {
-    if (!isPivot(v) || parent[v] === NONE) continue;
-    childNext[v] = childHead[parent[v]];
-    childHead[parent[v]] = v;
-  }
   const perm = new Int32Array(n);
   const stack = new Int32Array(n);
+  childLists(q.parent, childHead, childNext);
   let k = 0;
   for (let root = 0; root < n; root++) {
-    if (!isPivot(root) || parent[root] !== NONE) continue;
-    let top = 0;
-    stack[0] = root;
-    while (top >= 0) {
-      const e = stack[top];
-      const child = childHead[e];
-      if (child !== NONE) {
-        childHead[e] = childNext[child];
-        stack[++top] = child;
-        continue;
-      }
-      top--;
-      perm[k++] = e;
-      for (let m = memberHead[e]; m !== NONE; m = memberNext[m]) perm[k++] = m;
-    }
+    if (isRootPivot(q, root)) k = emitSubtree(q, root, childHead, childNext, stack, perm, k);
   }
-  for (let v = 0; v < n; v++) if (state[v] === DENSE) perm[k++] = v;
+  k = emitDense(q.state, perm, k);
   if (k !== n) throw new Error(`amdOrder: internal error, ordered ${k} of ${n} vertices`);
   return perm;
+}
+
+/** Children of each pivot in the assembly tree, in ascending order, as linked lists. */
+function childLists(parent: Int32Array, childHead: Int32Array, childNext: Int32Array): void {
+  for (let v = parent.length - 1; v >= 0; v--) {
+    const up = parent[v];
+    if (up === NONE) continue;
+    childNext[v] = childHead[up];
+    childHead[up] = v;
+  }
+}
+
+function isRootPivot(q: QuotientGraph, v: number): boolean {
+  const s = q.state[v];
+  return (s === ELEMENT || s === ABSORBED) && q.parent[v] === NONE;
+}
+
+/** Postorder of the subtree of `root` into perm from position k, members after each pivot. */
+function emitSubtree(
+  q: QuotientGraph,
+  root: number,
+  childHead: Int32Array,
+  childNext: Int32Array,
+  stack: Int32Array,
+  perm: Int32Array,
+  k: number,
+): number {
+  const memberNext = q.memberNext;
+  let top = 0;
+  stack[0] = root;
+  while (top >= 0) {
+    const e = stack[top];
+    const child = childHead[e];
+    if (child !== NONE) {
+      childHead[e] = childNext[child];
+      stack[++top] = child;
+      continue;
+    }
+    top--;
+    for (let m = e; m !== NONE; m = memberNext[m]) perm[k++] = m;
+  }
+  return k;
+}
+
+function emitDense(state: Uint8Array, perm: Int32Array, k: number): number {
+  for (let v = 0; v < state.length; v++) if (state[v] === DENSE) perm[k++] = v;
+  return k;
 }
