@@ -93,9 +93,13 @@ interface QuotientGraph {
   /** hash table of the initial twin search (size a power of two), and its chains */
   readonly hashHead: Int32Array;
   readonly hashNext: Int32Array;
-  /** hash of each L_p member's list (step 4), and the members sorted by it (step 5) */
-  readonly hashOf: Int32Array;
+  /**
+   * Supervariable candidates of the current step: the members of L_p left after step 4 and the
+   * hashes of their lists, side by side in two arrays (sorted together in step 5)
+   */
   readonly candidates: Int32Array;
+  readonly candidateHash: Int32Array;
+  candidateCount: number;
   /** summed weight, and count, of the principal variables not yet eliminated (dense excluded) */
   weightLeft: number;
   variablesLeft: number;
@@ -240,8 +244,9 @@ function emptyQuotientGraph(n: number, capacity: number, weights: Int32Array | u
     stamp: 0,
     hashHead: new Int32Array(hashSize(n)).fill(NONE),
     hashNext: new Int32Array(n),
-    hashOf: new Int32Array(n),
     candidates: new Int32Array(n),
+    candidateHash: new Int32Array(n),
+    candidateCount: 0,
     weightLeft: 0,
     variablesLeft: n,
     pivotStart: 0,
@@ -544,9 +549,10 @@ function takeOffOutside(q: QuotientGraph, i: number, stamp: number): void {
  * back one slot: the write position then never passes the read position.
  */
 function updateVariableLists(q: QuotientGraph, p: number): number {
-  const { store, start, length, elementCount, state, weight, partialDegree, outside, parent, tag, hashOf } = q;
+  const { store, start, length, elementCount, state, weight, partialDegree, outside, parent, tag, candidates, candidateHash } = q;
   const inPivot = q.pivotStamp;
   let massWeight = 0;
+  let count = 0;
   for (let t = q.pivotStart, end = t + q.pivotLength; t < end; t++) {
     const i = store[t];
     const from = start[i], to = from + length[i], elementsEnd = from + elementCount[i];
@@ -594,8 +600,10 @@ function updateVariableLists(q: QuotientGraph, p: number): number {
     length[i] = kept + 1;
     elementCount[i] = elementsKept + 1;
     partialDegree[i] = sum;
-    hashOf[i] = h;
+    candidates[count] = i;
+    candidateHash[count++] = h;
   }
+  q.candidateCount = count;
   return massWeight;
 }
 
@@ -607,36 +615,37 @@ function updateVariableLists(q: QuotientGraph, p: number): number {
  * equal lengths and all entries marked mean equal sets.
  */
 function mergeIndistinguishable(q: QuotientGraph): void {
-  const { store, state, hashOf, candidates } = q;
-  let count = 0;
-  for (let t = q.pivotStart, end = t + q.pivotLength; t < end; t++) {
-    const i = store[t];
-    if (state[i] === VARIABLE) candidates[count++] = i;
-  }
+  const { candidates, candidateHash } = q;
+  const count = q.candidateCount;
   if (count < 2) return;
-  sortByHash(candidates, count, hashOf);
+  sortByHash(candidates, candidateHash, count);
   for (let a = 0; a < count; ) {
     let b = a + 1;
-    while (b < count && hashOf[candidates[b]] === hashOf[candidates[a]]) b++;
+    while (b < count && candidateHash[b] === candidateHash[a]) b++;
     if (b - a > 1) mergeRun(q, a, b);
     a = b;
   }
 }
 
-/** Sort list[0…count) by key (insertion sort for the usual few entries). */
-function sortByHash(list: Int32Array, count: number, key: Int32Array): void {
+/** Sort ids[0…count) and keys[0…count) together by key (insertion sort for the usual few). */
+function sortByHash(ids: Int32Array, keys: Int32Array, count: number): void {
   if (count > 32) {
-    list.subarray(0, count).sort((x, y) => (key[x] < key[y] ? -1 : key[x] > key[y] ? 1 : x - y));
+    const order = Array.from({ length: count }, (_, t) => t).sort((x, y) => keys[x] - keys[y] || x - y);
+    const sortedIds = order.map((t) => ids[t]), sortedKeys = order.map((t) => keys[t]);
+    ids.set(sortedIds);
+    keys.set(sortedKeys);
     return;
   }
   for (let t = 1; t < count; t++) {
-    const v = list[t], k = key[v];
+    const id = ids[t], key = keys[t];
     let u = t - 1;
-    while (u >= 0 && key[list[u]] > k) {
-      list[u + 1] = list[u];
+    while (u >= 0 && keys[u] > key) {
+      ids[u + 1] = ids[u];
+      keys[u + 1] = keys[u];
       u--;
     }
-    list[u + 1] = v;
+    ids[u + 1] = id;
+    keys[u + 1] = key;
   }
 }
 
