@@ -18,4 +18,5 @@ export {
   type ClosestPoint,
   type BBox,
 } from './curves.js';
+export { buildBoxGrid, gridCell, forEachNearBox, type BoxGrid } from './box-grid.js';
 export { pieceAtPoint, pointInMaterial, loopWinding, loopPolyline, type PieceHit } from './query.js';
