@@ -202,9 +202,12 @@ export function crossingSegments(b: BoundaryPoints): number[] {
     maxY = Math.max(maxY, xy[2 * a + 1], xy[2 * c + 1]);
     sumLen += Math.hypot(xy[2 * c] - xy[2 * a], xy[2 * c + 1] - xy[2 * a + 1]);
   }
-  const cell = Math.max((2 * sumLen) / ns, 1e-300);
-  const nx = Math.min(2048, Math.max(1, Math.ceil((maxX - minX) / cell)));
-  const ny = Math.min(2048, Math.max(1, Math.ceil((maxY - minY) / cell)));
+  // cells about two segment lengths wide; the cap is on the cell count, not on each side, so a
+  // long thin plate keeps its buckets small
+  let cell = Math.max((2 * sumLen) / ns, 1e-300);
+  while (Math.ceil((maxX - minX) / cell) * Math.ceil((maxY - minY) / cell) > 1 << 22) cell *= 2;
+  const nx = Math.max(1, Math.ceil((maxX - minX) / cell));
+  const ny = Math.max(1, Math.ceil((maxY - minY) / cell));
   const cw = (maxX - minX) / nx || 1;
   const ch = (maxY - minY) / ny || 1;
   const buckets = new Map<number, number[]>();

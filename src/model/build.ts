@@ -379,11 +379,16 @@ export function boundingBox(shape: Shape): { minX: number; minY: number; width: 
     case 'rect':
       return { minX: shape.center[0] - shape.width / 2, minY: shape.center[1] - shape.height / 2, width: shape.width, height: shape.height };
     case 'polygon': {
-      const xs = shape.vertices.map((v) => v.at[0]);
-      const ys = shape.vertices.map((v) => v.at[1]);
-      const minX = Math.min(...xs);
-      const minY = Math.min(...ys);
-      return { minX, minY, width: Math.max(...xs) - minX, height: Math.max(...ys) - minY };
+      // a loop, not Math.min(...xs): an imported outline can have more points than the call
+      // stack takes arguments
+      let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+      for (const v of shape.vertices) {
+        if (v.at[0] < minX) minX = v.at[0];
+        if (v.at[0] > maxX) maxX = v.at[0];
+        if (v.at[1] < minY) minY = v.at[1];
+        if (v.at[1] > maxY) maxY = v.at[1];
+      }
+      return { minX, minY, width: maxX - minX, height: maxY - minY };
     }
   }
 }

@@ -35,9 +35,10 @@ export const FUNCTIONS: Readonly<Record<string, Fn>> = {
   acos: { arity: 1, apply: ([x]) => Math.acos(x) },
   atan: { arity: 1, apply: ([x]) => Math.atan(x) },
   atan2: { arity: 2, apply: ([y, x]) => Math.atan2(y, x) },
-  hypot: { arity: 'many', apply: (args) => Math.hypot(...args) },
-  min: { arity: 'many', apply: (args) => Math.min(...args) },
-  max: { arity: 'many', apply: (args) => Math.max(...args) },
+  // folded pairwise, never spread: an argument list has no bound but the file's length
+  hypot: { arity: 'many', apply: (args) => args.reduce((a, b) => Math.hypot(a, b), 0) },
+  min: { arity: 'many', apply: (args) => args.reduce((a, b) => Math.min(a, b), Infinity) },
+  max: { arity: 'many', apply: (args) => args.reduce((a, b) => Math.max(a, b), -Infinity) },
   abs: { arity: 1, apply: ([x]) => Math.abs(x) },
 };
 
