@@ -11,11 +11,17 @@ export type ErrorStage = 'model' | 'geometry' | 'mesh' | 'fem' | 'solve' | 'stud
 export class PeakwiseError extends Error {
   readonly stage: ErrorStage;
   readonly keyPath: string | undefined;
-  constructor(stage: ErrorStage, message: string, keyPath?: string) {
+  /**
+   * Other key paths the message names (the earlier of two conflicting entries); the CLI adds
+   * their lines so the user finds both.
+   */
+  readonly related: readonly string[];
+  constructor(stage: ErrorStage, message: string, keyPath?: string, related: readonly string[] = []) {
     super(message);
     this.name = 'PeakwiseError';
     this.stage = stage;
     this.keyPath = keyPath;
+    this.related = related;
   }
 }
 
@@ -50,8 +56,8 @@ export class MeshError extends PeakwiseError {
 
 /** Loads, supports and selectors that do not fit the mesh (a selector matching nothing). */
 export class FemError extends PeakwiseError {
-  constructor(message: string, keyPath?: string) {
-    super('fem', message, keyPath);
+  constructor(message: string, keyPath?: string, related?: readonly string[]) {
+    super('fem', message, keyPath, related);
     this.name = 'FemError';
   }
 }

@@ -31,6 +31,11 @@ export function describeError(e: PeakwiseError, file: string | undefined, model:
   let message = e.message;
   // stages sometimes start their message with the key path too; say it once
   if (e.keyPath && message.startsWith(`${e.keyPath}: `)) message = message.slice(e.keyPath.length + 2);
+  // the other entry of a conflict: its line too, so both can be found
+  for (const other of e.related ?? []) {
+    const pos = model ? nearestPosition(model, other) : undefined;
+    if (pos) message += ` (${other} is at line ${pos.line})`;
+  }
   const head = [where, key].filter((s) => s.length > 0).join(' ');
   return plain(`${head.length > 0 ? head + (key ? '' : ': ') : ''}${message}`);
 }

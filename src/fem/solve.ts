@@ -12,10 +12,10 @@ import {
 import type { Csr } from '../linalg/types.js';
 import type { Mesh } from '../mesh/types.js';
 import type { AnyLoad, Support } from '../model/types.js';
-import { prescribedFromSupports } from './prescribe.js';
+import { supportConstraints } from './prescribe.js';
 import { assembleStiffness, csrMultiply, stiffnessPattern, type StiffnessPattern } from './assembly.js';
 import { appliedResultant, loadVector } from './loads.js';
-import { checkRigidRestraint, supportedDofs } from './supports.js';
+import { checkRigidRestraint } from './supports.js';
 import type { ElasticSection, Solution } from './types.js';
 import { validateSolverMesh, validateSection } from './validate.js';
 import { RESIDUAL_LIMIT, checkResidual, factorBytes, memoryLimitError } from './health.js';
@@ -64,13 +64,9 @@ export function solvePlate(input: PlateProblem): Solution {
 
   // supports first: a model that cannot be held fails before the costly assembly
   const t0 = now();
-  const fixed = supportedDofs(mesh, geometry, input.supports);
-  const uFixed = new Float64Array(nDof);
-  // supports with `displace` first, so that explicit `prescribed` entries win
-  for (const p of prescribedFromSupports(mesh, geometry, input.supports)) {
-    fixed[p.dof] = 1;
-    uFixed[p.dof] = p.value;
-  }
+  // fixes and displacements of the supports; two supports holding one dof at different
+  // values are an error (supportConstraints), explicit `prescribed` entries then win
+  const { fixed, value: uFixed } = supportConstraints(mesh, geometry, input.supports);
   for (const [k, p] of (input.prescribed ?? []).entries()) {
     if (!(Number.isInteger(p.dof) && p.dof >= 0 && p.dof < nDof)) {
       throw new FemError(`prescribed[${k}].dof = ${p.dof} is not a dof of the mesh (0 … ${nDof - 1})`, `prescribed[${k}]`);

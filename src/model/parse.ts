@@ -58,6 +58,8 @@ export function formatModelError(e: PeakwiseError, file: string, model?: Pick<Mo
   if (e instanceof ModelError && e.line !== undefined) pos = { line: e.line, col: e.col ?? 1 };
   else if (model && e.keyPath !== undefined) pos = locate(model, e.keyPath);
   const place = pos ? `${file}:${pos.line}:${pos.col}` : file;
-  const message = e.message.replace(/\s*[\r\n]+\s*/g, ' ');
+  let message = e.message.replace(/\s*[\r\n]+\s*/g, ' ');
+  // the other entry of a conflict (two supports on one dof): its line too
+  if (model) for (const other of e.related ?? []) message += ` (${other} is at line ${locate(model, other).line})`;
   return e.keyPath ? `${place} ${e.keyPath}: ${message}` : `${place}: ${message}`;
 }
