@@ -4,6 +4,7 @@
  * (paths as written in the model, relative to the model file's folder).
  */
 import type { PathPiece, Point, PolygonVertex, Shape } from './types.js';
+import { quote } from './text.js';
 import { CsvError, pickColumns, readCsv } from './csv.js';
 import { SvgError, findSvgPath, flattenSegments, parseSvgPath, segmentsExtent } from './svg.js';
 
@@ -72,7 +73,7 @@ export function svgShape(readFile: ReadFile | undefined, req: SvgRequest): Shape
     const extent = segmentsExtent(segs);
     const tol = req.chordTolerance ?? (extent > 0 ? extent / 1000 : 1);
     const pieces = flattenSegments(segs, tol);
-    if (pieces.length < 2) throw new SvgError(`${req.file}: path '${req.path}' encloses no area (${pieces.length} piece)`);
+    if (pieces.length < 2) throw new SvgError(`${req.file}: path ${quote(req.path)} encloses no area (${pieces.length} piece)`);
     return { kind: 'polygon', vertices: sketch(pieces), pieces, source: `${req.file}#${req.path}` };
   });
 }
