@@ -25,6 +25,8 @@ export interface RefineOptions {
   maxVertices: number;
   /** a triangle is oversized when its longest edge exceeds sizeFactor · h(centroid) */
   sizeFactor: number;
+  /** added to coordinates in messages (the geometry is about this point, see PlateGeometry.local) */
+  origin?: readonly [number, number];
 }
 
 export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions): void {
@@ -137,7 +139,8 @@ export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions)
     const h = sizeFactor * sizeAt((ax + bx + cx) / 3, (ay + by + cy) / 3);
     if (lmax > h * h) return true;
     if (!(h > 0)) {
-      throw new MeshError(`size field gave ${h / sizeFactor} at (${(ax + bx + cx) / 3}, ${(ay + by + cy) / 3}); sizes must be positive numbers`, 'mesh.size');
+      const [ox, oy] = opts.origin ?? [0, 0];
+      throw new MeshError(`size field gave ${h / sizeFactor} at (${(ax + bx + cx) / 3 + ox}, ${(ay + by + cy) / 3 + oy}); sizes must be positive numbers`, 'mesh.size');
     }
     const area2 = (bx - ax) * (cy - ay) - (by - ay) * (cx - ax);
     const lmin = Math.min(la, lb, lc);

@@ -32,6 +32,12 @@ export function sizeFieldFromSettings(geom: PlateGeometry, settings: SizeSetting
     throw new MeshError(`mesh.size must be a positive number, got ${settings.size}`, 'mesh.size');
   }
   if (!(grading > 0)) throw new MeshError(`size grading must be > 0, got ${grading}`);
+  if (geom.local) {
+    // built about the plate's centre, like the geometry the mesher meshes (see PlateGeometry.local)
+    const o = geom.local.origin;
+    const local = settings.local.map((l) => ({ ...l, near: [l.near[0] - o[0], l.near[1] - o[1]] as Point }));
+    return framed(sizeFieldFromSettings(geom.local.geometry, { size: settings.size, local }, grading), o);
+  }
   const h0 = settings.size;
   const g = grading;
   // disks: cx, cy, radius, size
@@ -170,6 +176,8 @@ function angleWithin(ang: number, start: number, sweep: number): boolean {
 /** min(base, hNear + grading·|x − p|): a size field refined toward the point p */
 export function gradedToward(base: SizeField, p: readonly [number, number] | Point, hNear: number, grading = 0.25): SizeField {
   if (!(hNear > 0)) throw new MeshError(`size near a refinement point must be > 0, got ${hNear}`);
+  const frame = FRAMES.get(base);
+  if (frame) return framed(gradedToward(frame.field, [p[0] - frame.origin[0], p[1] - frame.origin[1]], hNear, grading), frame.origin);
   const px = p[0];
   const py = p[1];
   return (x: number, y: number): number => {
@@ -177,4 +185,25 @@ export function gradedToward(base: SizeField, p: readonly [number, number] | Poi
     const hb = base(x, y);
     return hp < hb ? hp : hb;
   };
+}
+
+/**
+ * Size fields that have a twin about a plate's centre (PlateGeometry.local): the mesher evaluates
+ * the twin at its local coordinates, so the mesh is the same wherever the plate sits.
+ */
+const FRAMES = new WeakMap<SizeField, { origin: Point; field: SizeField }>();
+
+function framed(field: SizeField, origin: Point): SizeField {
+  const [ox, oy] = origin;
+  const outer: SizeField = (x, y) => field(x - ox, y - oy);
+  FRAMES.set(outer, { origin, field });
+  return outer;
+}
+
+/** `sizeAt` in coordinates about `origin`: its registered twin when it has one, else a shifted call. */
+export function sizeFieldAbout(sizeAt: SizeField, origin: Point): SizeField {
+  const frame = FRAMES.get(sizeAt);
+  if (frame && frame.origin[0] === origin[0] && frame.origin[1] === origin[1]) return frame.field;
+  const [ox, oy] = origin;
+  return (x, y) => sizeAt(x + ox, y + oy);
 }

@@ -400,11 +400,14 @@ export function shapeArea(shape: Shape): number {
     case 'ellipse': return Math.PI * shape.a * shape.b;
     case 'rect': return shape.width * shape.height;
     case 'polygon': {
+      // about the first vertex: the products of coordinates far from 0 would cancel
       let twice = 0;
       const v = shape.vertices;
-      for (let i = 0; i < v.length; i++) {
-        const [x0, y0] = v[i].at;
-        const [x1, y1] = v[(i + 1) % v.length].at;
+      if (v.length === 0) return 0;
+      const [ox, oy] = v[0].at;
+      for (let i = 1; i + 1 < v.length; i++) {
+        const x0 = v[i].at[0] - ox, y0 = v[i].at[1] - oy;
+        const x1 = v[i + 1].at[0] - ox, y1 = v[i + 1].at[1] - oy;
         twice += x0 * y1 - x1 * y0;
       }
       return Math.abs(twice) / 2;
