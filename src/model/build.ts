@@ -15,7 +15,7 @@ import type {
 } from './types.js';
 import { ImportError, MM_PER_UNIT, displacementRows, pointsShape, svgShape, type ReadFile } from './imports.js';
 import { parseExpression, namesIn, CONSTANTS } from './expr.js';
-import { DEFAULT_UNITS, PLAUSIBLE_E_MPA, stressToMPa, stressUnit } from './units.js';
+import { DEFAULT_UNITS, PLAUSIBLE_E_MPA, PLAUSIBLE_THICKNESS_MM, lengthToMm, stressToMPa, stressUnit } from './units.js';
 
 /** Largest number accepted anywhere: beyond it the value is a slip, not a plate. */
 export const MAX_MAGNITUDE = 1e15;
@@ -230,6 +230,18 @@ export function buildModel(
     }
   }
   const thickness = b.length(raw.thickness, 'thickness', 'plate thickness');
+  const mmPer = lengthToMm(units.length);
+  if (mmPer !== undefined) {
+    const tMm = thickness * mmPer;
+    const [lo, hi] = PLAUSIBLE_THICKNESS_MM;
+    if (tMm < lo || tMm > hi) {
+      b.warnings.push({
+        keyPath: 'thickness',
+        message: `thickness ${formatNumber(thickness)} ${units.length} is ${formatNumber(tMm)} mm, outside the usual range of plates (${lo} mm to ${hi / 1000} m); `
+          + `check that it is in ${units.length}, the model's length unit`,
+      });
+    }
+  }
 
   const outline: Shape = Array.isArray(raw.plate.outline)
     ? { kind: 'polygon', vertices: raw.plate.outline.map((v, i) => b.vertex(v, joinPath('plate.outline', i))) }
@@ -329,6 +341,17 @@ export function buildModel(
         : b.length(s.readouts.distance, 'study.readouts.distance', 'readout distance'),
     },
   };
+  // a readout point farther from its site than the plate is across lies outside the plate for
+  // every site; it would be dropped without a word
+  const across = Math.hypot(box.width, box.height);
+  if (study.readouts.distance !== undefined && Number.isFinite(across) && across > 0 && study.readouts.distance >= across) {
+    b.fail(
+      `readout distance ${formatNumber(study.readouts.distance)} ${units.length} is larger than the plate `
+        + `(${formatNumber(box.width)} × ${formatNumber(box.height)} ${units.length}, ${formatNumber(across)} ${units.length} across); `
+        + 'a readout point that far from a site lies outside it for every site',
+      'study.readouts.distance',
+    );
+  }
 
   const model: Model = {
     title: raw.title?.trim() || defaultTitle(file),
