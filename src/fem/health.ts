@@ -27,6 +27,40 @@ export function checkResidual(residual: number, limit = RESIDUAL_LIMIT): void {
   }
 }
 
+/**
+ * When a factorisation breaks down or the residual is too large, a section value can be the
+ * cause rather than the supports: plane strain near ν = 0.5, whose bulk stiffness
+ * E/(3(1 − 2ν)) outgrows the shear stiffness E/(2(1 + ν)) by more than double precision resolves,
+ * or an E × thickness so far out of scale that the stiffness entries under- or overflow (doubles
+ * hold full precision between about 2.2e-308 and 1.8e308). Returns the error naming that key, or
+ * undefined when the section looks sound.
+ */
+export function sectionCulprit(section: Pick<ElasticSection, 'E' | 'nu' | 'thickness' | 'state'>): SolveError | undefined {
+  const { E, nu, thickness, state } = section;
+  if (state === 'plane-strain' && 1 - 2 * nu < 1e-6) {
+    const ratio = (2 * (1 + nu)) / (3 * (1 - 2 * nu));
+    return new SolveError(
+      `nu = ${nu} in plane strain makes the material almost incompressible: its bulk stiffness is ${ratio.toExponential(1).replace('e+', 'e')} times `
+        + 'its shear stiffness, more than the solver resolves in double precision; use nu ≤ 0.4999 (or plane stress), '
+        + 'the supports are not the cause',
+      'material.nu',
+    );
+  }
+  const stiffness = E * thickness;
+  if (!(stiffness > 1e-280 && stiffness < 1e280)) {
+    // blame the value further from 1 on a log scale
+    const byThickness = Math.abs(Math.log10(thickness)) >= Math.abs(Math.log10(E));
+    const [key, what, value] = byThickness ? ['thickness', 'thickness', thickness] : ['material.E', 'E', E];
+    return new SolveError(
+      `${what} = ${value} makes the stiffness E × thickness = ${stiffness.toExponential(2).replace('e+', 'e')}, `
+        + `too ${stiffness <= 1e-280 ? 'small' : 'large'} for double precision (full precision lies between about 1e-308 and 1e308); `
+        + `give ${what} in the model's units (the supports are not the cause)`,
+      key,
+    );
+  }
+  return undefined;
+}
+
 /** measured ratio of real to integrated triangle counts (see estimateMeshSize) */
 const CALIBRATION = 1.12;
 

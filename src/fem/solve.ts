@@ -18,7 +18,7 @@ import { appliedResultant, loadVector } from './loads.js';
 import { checkRigidRestraint } from './supports.js';
 import type { ElasticSection, Solution } from './types.js';
 import { validateSolverMesh, validateSection } from './validate.js';
-import { RESIDUAL_LIMIT, checkResidual, factorBytes, memoryLimitError } from './health.js';
+import { RESIDUAL_LIMIT, checkResidual, factorBytes, memoryLimitError, sectionCulprit } from './health.js';
 
 /** A prescribed displacement: dof 2n is u_x of node n, 2n + 1 is u_y. */
 export interface PrescribedDisplacement {
@@ -114,7 +114,7 @@ export function solvePlate(input: PlateProblem): Solution {
     try {
       factor = factorize(Kff, symbolic);
     } catch (err) {
-      if (err instanceof NotPositiveDefiniteError) throw notHeldError(mesh, free, err.dof);
+      if (err instanceof NotPositiveDefiniteError) throw sectionCulprit(section) ?? notHeldError(mesh, free, err.dof);
       throw err;
     }
     nnzL = factor.nnzL;
@@ -122,7 +122,12 @@ export function solvePlate(input: PlateProblem): Solution {
     const uFree = solveFactor(factor, b);
     for (let k = 0; k < nFree; k++) u[free[k]] = uFree[k];
     residual = residualNorm(Kff, uFree, b);
-    checkResidual(residual, input.residualLimit ?? RESIDUAL_LIMIT);
+    const limit = input.residualLimit ?? RESIDUAL_LIMIT;
+    if (!(residual <= limit)) {
+      const culprit = sectionCulprit(section);
+      if (culprit) throw culprit;
+    }
+    checkResidual(residual, limit);
   }
   const reaction = new Float64Array(nDof);
   for (let k = 0; k < fixedRows.rows.length; k++) {
