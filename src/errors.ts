@@ -48,9 +48,15 @@ export class GeometryError extends PeakwiseError {
 
 /** The mesher cannot produce a valid mesh (e.g. size far too small, hostile geometry). */
 export class MeshError extends PeakwiseError {
-  constructor(message: string, keyPath?: string) {
+  /**
+   * The model point the message is about (a required point outside the plate), when it has no
+   * key path of its own: the CLI finds the load, support or site that put it there.
+   */
+  readonly at: readonly [number, number] | undefined;
+  constructor(message: string, keyPath?: string, at?: readonly [number, number]) {
     super('mesh', message, keyPath);
     this.name = 'MeshError';
+    this.at = at;
   }
 }
 

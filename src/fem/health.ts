@@ -124,11 +124,27 @@ export function estimateMeshSize(geometry: PlateGeometry, sizeAt: SizeField, ord
   return { triangles: Math.round(triangles), nodes: Math.round(nodes), dofs: Math.round(2 * nodes), exceeded };
 }
 
-/** The message for a model above the dof cap, with the size that would fit. */
-export function dofLimitError(estimatedDofs: number, maxDofs: number, size: number, how: 'estimated' | 'more-than' | 'counted'): SolveError {
+/**
+ * The message for a model above the dof cap, with the size that would fit. Given the plate's
+ * narrow side, a size that would leave fewer than MIN_ELEMENTS_ACROSS elements across it is not
+ * offered: a long narrow strip cannot be coarsened into the cap.
+ */
+export function dofLimitError(
+  estimatedDofs: number, maxDofs: number, size: number, how: 'estimated' | 'more-than' | 'counted', plate?: { narrow: number; lengthUnit?: string },
+): SolveError {
   // dofs grow like h⁻² for a uniform field, so the base size must grow by √(ratio)
   const factor = Math.sqrt(estimatedDofs / maxDofs);
   const suggested = size * factor * 1.1;
+  if (plate && how !== 'more-than' && suggested > plate.narrow / MIN_ELEMENTS_ACROSS) {
+    const L = plate.lengthUnit ? ` ${plate.lengthUnit}` : '';
+    return new SolveError(
+      `the model would have ${how === 'estimated' ? 'about ' : ''}${fmtCount(estimatedDofs)} degrees of freedom, above --max-dofs ${fmtCount(maxDofs)}; `
+        + `a mesh.size that fits (about ${fmtLen(suggested)}${L}) would leave fewer than ${MIN_ELEMENTS_ACROSS} elements across the plate's `
+        + `${fmtLen(plate.narrow)}${L} narrow side, so coarsening cannot help: model a shorter length (the rest carried as a load), `
+        + 'use larger sizes only away from the details (mesh.local), or raise --max-dofs',
+      'mesh.size',
+    );
+  }
   return new SolveError(
     `the model would have ${how === 'estimated' ? 'about ' : how === 'more-than' ? 'more than ' : ''}${fmtCount(estimatedDofs)} degrees of freedom` +
       `${how === 'counted' ? ' (counted on the mesh)' : ' (estimated from the plate area and the element sizes, before meshing)'}, above --max-dofs ${fmtCount(maxDofs)}; ` +
@@ -230,13 +246,20 @@ export function healthWarnings(input: HealthInput): string[] {
   const w = geometry.bbox.maxX - geometry.bbox.minX;
   const h = geometry.bbox.maxY - geometry.bbox.minY;
   const narrow = Math.min(w, h), long = Math.max(w, h);
-  if (narrow / size < MIN_ELEMENTS_ACROSS) {
+  if (long / narrow > MAX_ELEMENTS_ALONG / MIN_ELEMENTS_ACROSS && (narrow / size < MIN_ELEMENTS_ACROSS || long / size > MAX_ELEMENTS_ALONG)) {
+    // no uniform size meets both rules: advising a smaller (or larger) mesh.size would only
+    // trade one warning for the other
+    out.push(
+      `the plate is ${fmtLen(long)} ${L} long and ${fmtLen(narrow)} ${L} across (${fmtCount(Math.round(long / narrow))} to 1): no single mesh.size gives `
+        + `${MIN_ELEMENTS_ACROSS} elements across and at most ${fmtCount(MAX_ELEMENTS_ALONG)} along it; keep mesh.size at or below ${fmtLen(narrow / MIN_ELEMENTS_ACROSS)} ${L} `
+        + 'near the details that matter (mesh.local) and larger elsewhere, or model a shorter length with the rest carried as a load',
+    );
+  } else if (narrow / size < MIN_ELEMENTS_ACROSS) {
     out.push(
       `the plate is ${fmtLen(narrow)} ${L} across but mesh.size is ${fmtLen(size)} ${L}: fewer than ${MIN_ELEMENTS_ACROSS} elements across its narrow side, ` +
         'so bending and stress gradients across it are poorly resolved; use a smaller mesh.size',
     );
-  }
-  if (long / size > MAX_ELEMENTS_ALONG) {
+  } else if (long / size > MAX_ELEMENTS_ALONG) {
     out.push(
       `the plate is ${fmtLen(long)} ${L} long and mesh.size is ${fmtLen(size)} ${L}: more than ${fmtCount(MAX_ELEMENTS_ALONG)} elements along it; ` +
         'a uniform size this small wastes degrees of freedom and digits — use a larger mesh.size with mesh.local refinement',

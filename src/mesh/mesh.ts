@@ -86,7 +86,8 @@ function meshAbout(geom: PlateGeometry, opts: MeshOptions, minAngleDeg: number, 
 }
 
 function insertRequired(m: TriMesh, x: number, y: number, tol: number, origin: readonly [number, number]): void {
-  const at = `(${x + origin[0]}, ${y + origin[1]})`;
+  const point: [number, number] = [x + origin[0], y + origin[1]];
+  const at = `(${Number(point[0].toPrecision(12))}, ${Number(point[1].toPrecision(12))})`;
   for (let v = 0; v < m.nV; v++) {
     if (Math.hypot(m.xy[2 * v] - x, m.xy[2 * v + 1] - y) <= tol) return;
   }
@@ -95,11 +96,11 @@ function insertRequired(m: TriMesh, x: number, y: number, tol: number, origin: r
     const a = m.tri[3 * t], b = m.tri[3 * t + 1], c = m.tri[3 * t + 2];
     if (m.orientP(a, b, x, y) >= 0 && m.orientP(b, c, x, y) >= 0 && m.orientP(c, a, x, y) >= 0) found = t;
   }
-  if (found < 0) throw new MeshError(`required point ${at} lies outside the plate (not inside the outline, or inside an opening)`);
+  if (found < 0) throw new MeshError(`required point ${at} lies outside the plate (not inside the outline, or inside an opening)`, undefined, point);
   const p = m.addVertex(x, y, V_FREE, 0);
   if (m.insertVertex(p, found, -1, false) === INSERT_REJECTED) {
     m.popVertex();
-    throw new MeshError(`required point ${at} could not be inserted (too close to the boundary?)`);
+    throw new MeshError(`required point ${at} could not be inserted (too close to the boundary?)`, undefined, point);
   }
 }
 

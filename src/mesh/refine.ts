@@ -54,7 +54,18 @@ export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions)
     return m.encroachesEdge(e, m.xy[2 * w], m.xy[2 * w + 1]);
   };
 
+  // the boundary points (the outline's own edges, arcs at the chord rule) and required points:
+  // a larger mesh.size does not thin them
+  const boundaryVertices = m.nV;
   const checkVertexCap = (): void => {
+    if (m.nV >= maxVertices && boundaryVertices > 0.5 * maxVertices) {
+      throw new MeshError(
+        `mesh would need more than ${maxVertices} vertices, and the plate boundary alone takes ${boundaryVertices} of them `
+          + '(every point of the outline and openings, and arcs at 0.2 rad per segment), which no mesh.size reduces; '
+          + 'simplify the outline (fewer points, or arcs instead of many short edges)',
+        'plate.outline',
+      );
+    }
     if (m.nV >= maxVertices) {
       throw new MeshError(
         `mesh would need more than ${maxVertices} vertices (plate of size ${geom.scale.toPrecision(4)}, ` +
