@@ -29,6 +29,12 @@ export const MAX_ESTIMATED_TRIANGLES = 2e7;
 /** Area of an equilateral triangle of edge h is √3/4·h² (used for element estimates). */
 const EQUILATERAL = Math.sqrt(3) / 4;
 
+/**
+ * Largest refinement ratio between study levels: the same limit as `--ratio` and the study
+ * itself (each level multiplies the element count near a site by about ratio²).
+ */
+export const MAX_STUDY_RATIO = 4;
+
 export const DEFAULT_STUDY: Readonly<Omit<StudySettings, 'readouts'>> = {
   measure: 'von-mises', levels: 6, ratio: 2, sites: 'auto',
 };
@@ -330,7 +336,7 @@ export function buildModel(
       test: (v) => Number.isInteger(v) && v >= 2 && v <= 12, text: 'must be a whole number from 2 to 12',
     }),
     ratio: s?.ratio === undefined ? DEFAULT_STUDY.ratio : b.num(s.ratio, 'study.ratio', 'refinement ratio', {
-      test: (v) => v > 1 && v <= 10, text: 'must be > 1 (size shrinks by this factor per level) and at most 10',
+      test: (v) => v > 1 && v <= MAX_STUDY_RATIO, text: `must be > 1 (size shrinks by this factor per level) and at most ${MAX_STUDY_RATIO}`,
     }),
     sites: s?.sites === undefined || s.sites === 'auto'
       ? 'auto'
