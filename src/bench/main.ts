@@ -1,9 +1,10 @@
 /**
  * `npm run bench`: speed and memory figures for this machine (never in tests).
  *
- *   node dist/bench/main.js [--quick] [--skip mesh,solver,pipeline,study,rates]
+ *   node dist/bench/main.js [--quick] [--skip mesh,holes,solver,pipeline,study,rates]
  *
  * 1. mesh      quality mesh of a multi-opening plate (~200 000 triangles) against plain delaunator
+ *    holes     perforated plate, 400 and 1 600 holes: time ratio (src/bench/holes.ts)
  * 2. solver    sparse Cholesky on clamped-rectangle stiffness matrices (anchor table sizes),
  *              with the anchor library's figures on the same matrices when /tmp/cholmod_mtx exists
  * 3. pipeline  square plate with a central hole, LST, ~50k / 200k / 1M dofs: assemble, order,
@@ -15,6 +16,7 @@
 import { readFileSync, readdirSync, existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { benchMesh } from './mesh.js';
+import { benchHoles } from './holes.js';
 import { benchSolver, runAnchor, writeMatrixMarket } from './solver.js';
 import { L_SECTION, lProblem, lSolve, lTrueError, logSlope, type LField } from './lshape.js';
 import { lShapeMesh } from './lshape-mesh.js';
@@ -134,6 +136,7 @@ async function main(): Promise<void> {
     heading('mesher');
     await benchMesh(quick ? 6 : undefined);
   }
+  if (!skip.has('holes')) { heading('mesher: many openings (perforated plate)'); benchHoles(quick); }
   if (!skip.has('solver')) {
     heading('sparse Cholesky (clamped rectangle, CST, anchor sizes)');
     await benchSolver({ max: quick ? 60_000 : 1_000_000 });

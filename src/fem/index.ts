@@ -15,4 +15,4 @@ export { validateSolverMesh, validateSection } from './validate.js';
 export { solvePlate, type PlateProblem, type PrescribedDisplacement } from './solve.js';
 export { farFieldStressLoad } from './farfield.js';
 export { pinForceLoad } from './pin-force.js';
-export { prescribedFromSupports, interpolateTable, TABLE_TOLERANCE_RELATIVE, type PrescribedValue } from './prescribe.js';
+export { prescribedFromSupports, supportConstraints, interpolateTable, TABLE_TOLERANCE_RELATIVE, type PrescribedValue, type SupportConstraints } from './prescribe.js';

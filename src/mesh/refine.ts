@@ -25,6 +25,8 @@ export interface RefineOptions {
   maxVertices: number;
   /** a triangle is oversized when its longest edge exceeds sizeFactor · h(centroid) */
   sizeFactor: number;
+  /** added to coordinates in messages (the geometry is about this point, see PlateGeometry.local) */
+  origin?: readonly [number, number];
 }
 
 /** What a triangle needs (`triangleCure`): nothing, a Steiner point, or (≥ 0) a split of boundary half-edge e. */
@@ -51,6 +53,10 @@ class Refinement {
   private readonly B2: number;
   private readonly tinyLen: number;
   private readonly np: number;
+  /** vertices before refinement (boundary and required points), which no mesh.size thins */
+  private readonly boundaryVertices: number;
+  /** added to coordinates in messages */
+  private readonly origin: readonly [number, number];
   /** pieces meeting at a sharp corner → that corner's position */
   private readonly acutePair = new Map<number, readonly [number, number]>();
   private readonly segQ = new IntQueue(1024);
@@ -67,6 +73,8 @@ class Refinement {
     this.B2 = this.B * this.B;
     this.tinyLen = 1e-9 * geom.scale;
     this.np = geom.pieces.length;
+    this.boundaryVertices = m.nV;
+    this.origin = opts.origin ?? [0, 0];
     for (const c of geom.corners) {
       if (c.interiorAngleDeg < 60) {
         this.acutePair.set(c.pieceIn * this.np + c.pieceOut, c.at);
@@ -115,7 +123,17 @@ class Refinement {
   }
 
   private checkVertexCap(): void {
-    const { m, maxVertices } = this;
+    const { m, maxVertices, boundaryVertices } = this;
+    // the boundary points (the outline's own edges, arcs at the chord rule) and required points:
+    // a larger mesh.size does not thin them
+    if (m.nV >= maxVertices && boundaryVertices > 0.5 * maxVertices) {
+      throw new MeshError(
+        `mesh would need more than ${maxVertices} vertices, and the plate boundary alone takes ${boundaryVertices} of them `
+          + '(every point of the outline and openings, and arcs at 0.2 rad per segment), which no mesh.size reduces; '
+          + 'simplify the outline (fewer points, or arcs instead of many short edges)',
+        'plate.outline',
+      );
+    }
     if (m.nV >= maxVertices) {
       throw new MeshError(
         `mesh would need more than ${maxVertices} vertices (plate of size ${this.geom.scale.toPrecision(4)}, ` +
@@ -208,7 +226,8 @@ class Refinement {
     const h = this.sizeFactor * this.sizeAt((ax + bx + cx) / 3, (ay + by + cy) / 3);
     if (lmax > h * h) return STEINER;
     if (!(h > 0)) {
-      throw new MeshError(`size field gave ${h / this.sizeFactor} at (${(ax + bx + cx) / 3}, ${(ay + by + cy) / 3}); sizes must be positive numbers`, 'mesh.size');
+      const [ox, oy] = this.origin;
+      throw new MeshError(`size field gave ${h / this.sizeFactor} at (${(ax + bx + cx) / 3 + ox}, ${(ay + by + cy) / 3 + oy}); sizes must be positive numbers`, 'mesh.size');
     }
     const area2 = (bx - ax) * (cy - ay) - (by - ay) * (cx - ax);
     const lmin = Math.min(la, lb, lc);

@@ -15,7 +15,7 @@ import type {
 } from './types.js';
 import { ImportError, MM_PER_UNIT, displacementRows, pointsShape, svgShape, type ReadFile } from './imports.js';
 import { parseExpression, namesIn, CONSTANTS } from './expr.js';
-import { DEFAULT_UNITS, PLAUSIBLE_E_MPA, stressToMPa, stressUnit } from './units.js';
+import { DEFAULT_UNITS, PLAUSIBLE_E_MPA, PLAUSIBLE_THICKNESS_MM, lengthToMm, stressToMPa, stressUnit } from './units.js';
 import { levelsRule, ratioRule } from './study-rules.js';
 
 /** Largest number accepted anywhere: beyond it the value is a slip, not a plate. */
@@ -233,6 +233,18 @@ export function buildModel(
     }
   }
   const thickness = b.length(raw.thickness, 'thickness', 'plate thickness');
+  const mmPer = lengthToMm(units.length);
+  if (mmPer !== undefined) {
+    const tMm = thickness * mmPer;
+    const [lo, hi] = PLAUSIBLE_THICKNESS_MM;
+    if (tMm < lo || tMm > hi) {
+      b.warnings.push({
+        keyPath: 'thickness',
+        message: `thickness ${formatNumber(thickness)} ${units.length} is ${formatNumber(tMm)} mm, outside the usual range of plates (${lo} mm to ${hi / 1000} m); `
+          + `check that it is in ${units.length}, the model's length unit`,
+      });
+    }
+  }
 
   const outline: Shape = Array.isArray(raw.plate.outline)
     ? { kind: 'polygon', vertices: raw.plate.outline.map((v, i) => b.vertex(v, joinPath('plate.outline', i))) }
@@ -327,6 +339,17 @@ export function buildModel(
         : b.length(s.readouts.distance, 'study.readouts.distance', 'readout distance'),
     },
   };
+  // a readout point farther from its site than the plate is across lies outside the plate for
+  // every site; it would be dropped without a word
+  const across = Math.hypot(box.width, box.height);
+  if (study.readouts.distance !== undefined && Number.isFinite(across) && across > 0 && study.readouts.distance >= across) {
+    b.fail(
+      `readout distance ${formatNumber(study.readouts.distance)} ${units.length} is larger than the plate `
+        + `(${formatNumber(box.width)} × ${formatNumber(box.height)} ${units.length}, ${formatNumber(across)} ${units.length} across); `
+        + 'a readout point that far from a site lies outside it for every site',
+      'study.readouts.distance',
+    );
+  }
 
   const model: Model = {
     title: raw.title?.trim() || defaultTitle(file),
@@ -376,11 +399,16 @@ export function boundingBox(shape: Shape): { minX: number; minY: number; width: 
     case 'rect':
       return { minX: shape.center[0] - shape.width / 2, minY: shape.center[1] - shape.height / 2, width: shape.width, height: shape.height };
     case 'polygon': {
-      const xs = shape.vertices.map((v) => v.at[0]);
-      const ys = shape.vertices.map((v) => v.at[1]);
-      const minX = Math.min(...xs);
-      const minY = Math.min(...ys);
-      return { minX, minY, width: Math.max(...xs) - minX, height: Math.max(...ys) - minY };
+      // a loop, not Math.min(...xs): an imported outline can have more points than the call
+      // stack takes arguments
+      let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+      for (const v of shape.vertices) {
+        if (v.at[0] < minX) minX = v.at[0];
+        if (v.at[0] > maxX) maxX = v.at[0];
+        if (v.at[1] < minY) minY = v.at[1];
+        if (v.at[1] > maxY) maxY = v.at[1];
+      }
+      return { minX, minY, width: maxX - minX, height: maxY - minY };
     }
   }
 }
@@ -392,11 +420,14 @@ export function shapeArea(shape: Shape): number {
     case 'ellipse': return Math.PI * shape.a * shape.b;
     case 'rect': return shape.width * shape.height;
     case 'polygon': {
+      // about the first vertex: the products of coordinates far from 0 would cancel
       let twice = 0;
       const v = shape.vertices;
-      for (let i = 0; i < v.length; i++) {
-        const [x0, y0] = v[i].at;
-        const [x1, y1] = v[(i + 1) % v.length].at;
+      if (v.length === 0) return 0;
+      const [ox, oy] = v[0].at;
+      for (let i = 1; i + 1 < v.length; i++) {
+        const x0 = v[i].at[0] - ox, y0 = v[i].at[1] - oy;
+        const x1 = v[i + 1].at[0] - ox, y1 = v[i + 1].at[1] - oy;
         twice += x0 * y1 - x1 * y0;
       }
       return Math.abs(twice) / 2;

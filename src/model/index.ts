@@ -1,6 +1,6 @@
 /** Model stage: model file text → evaluated, validated Model (design.md §3). */
 export type * from './types.js';
-export { parseModel, locate, formatModelError, type ParseOptions } from './parse.js';
+export { parseModel, locate, formatModelError, pointKeyPath, type ParseOptions } from './parse.js';
 export { stressUnit, stressToMPa, DEFAULT_UNITS, type UnitLabels } from './units.js';
 export {
   evaluateExpression, parseExpression, evaluateTree, namesIn, ExpressionError, FUNCTIONS, CONSTANTS, RESERVED_NAMES,
