@@ -1,5 +1,4 @@
-import { readFileSync } from 'node:fs';
-import { dirname, isAbsolute, join } from 'node:path';
+import { join } from 'node:path';
 import pc from 'picocolors';
 import { PeakwiseError } from '../errors.js';
 import type { Model } from '../model/types.js';
@@ -21,7 +20,10 @@ import { csrSubmatrix, matrixMarketChunks, vectorToMatrixMarket } from '../linal
 import { stressUnit } from '../model/index.js';
 import { VERSION } from '../version.js';
 import { checkCutOptions, writeCutOutputs, type CutCliOptions } from './cut.js';
-import { modelName, prepareOutDir, readModelText, writeFileAtomic } from './io.js';
+import { modelName, readModelText, writeFileAtomic } from './io.js';
+import { inputFile, inputsOfRun, modelInputReader, noteInput } from './inputs.js';
+import { checkTargetFile, openOutputSet } from './output-set.js';
+import { DEFAULT_MAX_DOFS, parseMaxDofs } from './options.js';
 import { plain, nearestPosition } from './report-error.js';
 import { totalmem } from 'node:os';
 import { dofLimitError, estimateMeshSize, healthWarnings } from '../fem/health.js';
@@ -86,17 +88,20 @@ export function emitWarnings(warnings: readonly string[], opts: CommonOptions): 
 
 /** Cap on dofs from --max-dofs (default 2 000 000). */
 export function maxDofsOf(opts: { maxDofs?: string }): number {
-  return opts.maxDofs !== undefined ? Math.floor(positiveNumber(opts.maxDofs, '--max-dofs')) : 2_000_000;
+  return opts.maxDofs !== undefined ? parseMaxDofs(opts.maxDofs) : DEFAULT_MAX_DOFS;
 }
 
 /** Read, parse and apply the command-line overrides. */
 export function loadModel(ctx: CliContext, file: string, opts: CommonOptions, params?: Record<string, number>): Model {
   ctx.file = file;
   const text = readModelText(file);
-  // files the model refers to (outlines, displacement tables) sit beside it
-  const readFile = (path: string): string => readFileSync(isAbsolute(path) ? path : join(dirname(file), path), 'utf8');
+  // files the model refers to (outlines, displacement tables) sit beside it; every file read is
+  // an input of the run: never an output target, part of the run id
+  noteInput(inputFile(file, 'model file', text));
+  const { readFile } = modelInputReader(file);
   const model = parseModel(text, file, params ? { params, readFile } : { readFile });
   ctx.model = model;
+  refuseOutputsOntoInputs(opts);
   if (opts.order !== undefined) model.mesh.order = opts.order === '1' ? 1 : 2;
   if (opts.size !== undefined) model.mesh.size = positiveNumber(opts.size, '--size');
   return model;
@@ -111,8 +116,29 @@ export function requiredPointsOf(model: Model): [number, number][] {
   return pts.filter((p, i) => pts.findIndex((q) => q[0] === p[0] && q[1] === p[1]) === i);
 }
 
-export function outDirFor(file: string, opts: CommonOptions): string {
-  return prepareOutDir(opts.out ?? join('out', modelName(file)), file);
+/**
+ * Open the run's result folder (src/cli/output-set.ts): folder rules on real paths, the folder
+ * made, its lock taken; writes into it then become files of one stamped result set.
+ */
+export function outDirFor(file: string, opts: CommonOptions, command: string): string {
+  const outDir = opts.out ?? join('out', modelName(file));
+  openOutputSet({
+    outDir,
+    modelFile: file,
+    inputs: inputsOfRun(),
+    identity: { command, model: file, inputs: inputsOfRun(), options: opts as Record<string, unknown> },
+    notice: (line) => emitWarnings([line], opts),
+  });
+  return outDir;
+}
+
+/** Explicit output files (--svg, --export-matrix, --export-load) are checked against the inputs before any work. */
+function refuseOutputsOntoInputs(opts: CommonOptions): void {
+  const o = opts as Record<string, unknown>;
+  for (const [key, option] of [['svg', '--svg'], ['exportMatrix', '--export-matrix'], ['exportLoad', '--export-load']] as const) {
+    const target = o[key];
+    if (typeof target === 'string') checkTargetFile(target, `${option} ${target}`);
+  }
 }
 
 export async function runMesh(ctx: CliContext, file: string, opts: CommonOptions & { svg?: string }): Promise<void> {
@@ -192,7 +218,7 @@ export function nodalMax(mesh: Mesh, values: Float64Array): { value: number; at:
 export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions): Promise<void> {
   checkCutOptions(opts);
   const model = loadModel(ctx, file, opts);
-  const outDir = outDirFor(file, opts);
+  const outDir = outDirFor(file, opts, 'solve');
   const section = sectionOf(model);
   const geometry = buildGeometry(model.plate);
   const sizeAt0 = sizeFieldFromSettings(geometry, model.mesh);
@@ -217,12 +243,13 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
       {
         targetPercent: target,
         maxDofs,
+        shouldStop: stopRequested,
         onCycle: (c: AdaptiveCycle) => say(`  cycle ${c.cycle}: ${c.dofs} dofs, error ${c.errorPercent.toFixed(2)} %, max ${fmt(c.max)}`),
       },
     );
     ({ mesh, solution, gauss, field, estimate, cycles, stoppedBy } = result);
     meshS = (performance.now() - t0) / 1000 - sumTimings(solution);
-    if (stoppedBy !== 'target') {
+    if (stoppedBy !== 'target' && stoppedBy !== 'stopped') {
       process.stderr.write(
         `peakwise: warning: adaptive loop stopped by the ${stoppedBy === 'dofs' ? `dof cap (--max-dofs ${maxDofs})` : 'cycle limit'} at error ${estimate.errorPercent.toFixed(2)} % (target ${target} %)\n`,
       );
@@ -278,6 +305,11 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
 
   const warnings = [...modelWarnings(model, file), ...healthWarnings({ section, geometry, mesh, size: model.mesh.size, lengthUnit: model.units.length })];
   emitWarnings(warnings, opts);
+  if (stoppedBy === 'stopped' && cycles) {
+    const last = cycles[cycles.length - 1];
+    process.stderr.write(`peakwise: interrupted: cycle ${last.cycle} (${last.dofs} dofs, error ${last.errorPercent.toFixed(2)} %) is written to ${outDir} (run.json has "interrupted": true)\n`);
+    throw new StudyInterrupted();
+  }
   const stressUnitLabel = stressUnit(model.units);
   const timings = { meshS, assembleS: solution.timings.assembleS, orderS: solution.timings.orderS, factorS: solution.timings.factorS, solveS: solution.timings.solveS, recoverS };
   if (opts.json) {
@@ -374,7 +406,7 @@ export interface StudyCliOptions extends CommonOptions, CutCliOptions {
 export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOptions): Promise<void> {
   checkCutOptions(opts);
   const model = loadModel(ctx, file, opts);
-  const outDir = outDirFor(file, opts);
+  const outDir = outDirFor(file, opts, 'study');
   const levels = opts.levels !== undefined ? Number(opts.levels) : undefined;
   const ratio = opts.ratio !== undefined ? Number(opts.ratio) : undefined;
   if (levels !== undefined && !(Number.isInteger(levels) && levels >= 2 && levels <= 12)) throw new PeakwiseError('usage', `--levels must be an integer from 2 to 12, got "${opts.levels}"`);

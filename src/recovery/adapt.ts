@@ -52,6 +52,8 @@ export interface AdaptiveOptions {
    * false: the first field stays an upper bound, which keeps its curve resolution and local sizes)
    */
   allowCoarsening?: boolean;
+  /** asked after every finished cycle: true ends the loop on that cycle ('stopped', e.g. Ctrl-C) */
+  shouldStop?: () => boolean;
 }
 
 export interface AdaptiveCycle {
@@ -82,7 +84,7 @@ export interface AdaptiveResult {
   gauss: GaussStresses;
   field: NodalStress;
   estimate: ErrorEstimate;
-  stoppedBy: 'target' | 'dofs' | 'cycles';
+  stoppedBy: 'target' | 'dofs' | 'cycles' | 'stopped';
 }
 
 /** h of an equilateral triangle with the element's area: the size the mesher's sizeAt means */
@@ -223,6 +225,7 @@ export function adaptiveSolve(input: AdaptiveInput, opts: AdaptiveOptions): Adap
       }
     }
     opts.onCycle?.(cycle, last);
+    if (!stoppedBy && opts.shouldStop?.()) stoppedBy = 'stopped';
     if (stoppedBy) return { ...last, cycles, stoppedBy };
   }
 }
