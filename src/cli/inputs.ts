@@ -102,10 +102,10 @@ export function inputAt(target: string, inputs: readonly InputFile[] = runInputs
 /**
  * Refuse to write `target` when it is one of the inputs. `what` names the target in the message
  * (an option such as `--svg`, or the file name). Extra paths (e.g. the model file when it has
- * not been noted) can be passed in `alsoProtect`.
+ * not been noted) can be passed in `alsoProtect`, extra records in `alsoInputs`.
  */
-export function refuseInputTarget(target: string, what: string, alsoProtect: readonly string[] = []): void {
-  const extra: InputFile[] = [];
+export function refuseInputTarget(target: string, what: string, alsoProtect: readonly string[] = [], alsoInputs: readonly InputFile[] = []): void {
+  const extra: InputFile[] = [...alsoInputs];
   for (const p of [...alsoProtect, VERIFICATION_RECORD]) {
     try {
       const real = realpathSync(p);

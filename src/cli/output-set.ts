@@ -298,7 +298,7 @@ export function checkOutFolder(outDir: string, inputs: readonly InputFile[], mod
     if (e instanceof PeakwiseError) throw e;
   }
   // a result name in the folder that leads to an input (a link): refused now, not after the work
-  for (const name of [...RESULT_NAMES, MANIFEST_NAME, LOCK_NAME]) refuseInputTarget(join(real, name), `--out ${outDir}: ${name}`);
+  for (const name of [...RESULT_NAMES, MANIFEST_NAME, LOCK_NAME]) refuseInputTarget(join(real, name), `--out ${outDir}: ${name}`, [], inputs);
   return real;
 }
 

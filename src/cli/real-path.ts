@@ -105,6 +105,8 @@ export interface FolderLimits {
   deadlineMs?: number;
   /** the creating call, replaceable for tests (default fs.mkdirSync) */
   mkdir?: (path: string) => void;
+  /** the clock, replaceable for tests (default Date.now) */
+  now?: () => number;
 }
 
 /**
@@ -115,7 +117,8 @@ export interface FolderLimits {
  */
 export function makeFolders(path: string, what: string, limits: FolderLimits = {}): string[] {
   const maxLevels = limits.maxLevels ?? 32;
-  const deadline = Date.now() + (limits.deadlineMs ?? 10_000);
+  const now = limits.now ?? Date.now;
+  const deadline = now() + (limits.deadlineMs ?? 10_000);
   const mkdir = limits.mkdir ?? ((p: string) => mkdirSync(p));
   const real = realPathOf(path);
   const pseudo = pseudoFileSystemReason(real);
@@ -133,7 +136,7 @@ export function makeFolders(path: string, what: string, limits: FolderLimits = {
   const created: string[] = [];
   let at = start;
   for (const part of rest) {
-    if (Date.now() > deadline) {
+    if (now() > deadline) {
       removeEmptyFolders(created);
       throw new PeakwiseError('io', `${what}: creating the folder took longer than ${Math.round((limits.deadlineMs ?? 10_000) / 1000)} s; is the file system responding?`);
     }
@@ -146,6 +149,10 @@ export function makeFolders(path: string, what: string, limits: FolderLimits = {
       if (code === 'EEXIST' && isFolder(at)) continue; // made by someone else meanwhile
       removeEmptyFolders(created);
       throw new PeakwiseError('io', `${what}: cannot create the folder ${at}: ${errnoWords(code)}`);
+    }
+    if (!isFolder(at)) {
+      removeEmptyFolders(created);
+      throw new PeakwiseError('io', `${what}: cannot create the folder ${at}: it is not there after creating it (is this a file system for files?)`);
     }
   }
   return created;
