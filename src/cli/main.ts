@@ -9,6 +9,7 @@ import { describeError } from './report-error.js';
 import { registerCutOptions } from './cut.js';
 import { runMesh, runSolve, runStudy, setStopFlag, StudyInterrupted, type CliContext } from './commands.js';
 import { Worker, isMainThread, parentPort, workerData } from 'node:worker_threads';
+import { writeSync } from 'node:fs';
 import { VERSION } from '../version.js';
 import { registerSweep } from './sweep.js';
 import { registerCheck } from './check.js';
@@ -163,6 +164,27 @@ function runInWorker(argv: string[], graceful: boolean): void {
   });
 }
 
+/**
+ * A worker's stderr is a message port to the main thread that passes a chunk on only when the
+ * worker is idle: during a long synchronous solve, the adaptive cycle lines and the progress bar
+ * would all arrive at the end. Written straight to the process's stderr (fd 2) they show as they
+ * happen.
+ */
+function writeStderrDirectly(): void {
+  const direct = (chunk: string | Uint8Array, encoding?: BufferEncoding | ((e?: Error | null) => void), done?: (e?: Error | null) => void): boolean => {
+    const cb = typeof encoding === 'function' ? encoding : done;
+    try {
+      if (typeof chunk === 'string') writeSync(2, chunk);
+      else writeSync(2, chunk);
+      cb?.(null);
+    } catch (e) {
+      cb?.(e as Error);
+    }
+    return true;
+  };
+  process.stderr.write = direct as typeof process.stderr.write;
+}
+
 if (isMainThread) {
   // `peakwise … | head` closes the pipe early: that is not an error
   process.stdout.on('error', (e: NodeJS.ErrnoException) => {
@@ -191,5 +213,6 @@ if (isMainThread) {
     Object.defineProperty(process.stderr, 'isTTY', { value: true });
     if (data.columns) Object.defineProperty(process.stderr, 'columns', { value: data.columns });
   }
+  writeStderrDirectly();
   main(process.argv).then((code) => parentPort?.postMessage(code));
 }
