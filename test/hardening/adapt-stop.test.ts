@@ -4,18 +4,18 @@
  * 130) is in output-safety.test.ts.
  */
 import { describe, expect, it } from 'vitest';
-import { adaptiveSolve, type AdaptiveCycleResult } from '../../src/recovery/adapt.js';
-import { L_SECTION, lConstraints, lGeometry, lTractions } from '../recovery/lshape-setup.js';
+import { adaptiveSolve, type AdaptiveCycleResult } from '../../src/pipeline/index.js';
+import { lProblem } from '../recovery/lshape-setup.js';
 
-const input = { geometry: lGeometry(), section: L_SECTION, supports: [], loads: [], order: 1 as const, sizeAt0: () => 0.3, extraLoad: lTractions, prescribed: lConstraints };
+const input = lProblem(1, 0.3);
 
 describe('adaptive loop stop requests', () => {
   it('a stop after cycle 1 returns exactly the result of cycle 1 of the uninterrupted loop', () => {
     const full: AdaptiveCycleResult[] = [];
-    const whole = adaptiveSolve(input, { targetPercent: 0.01, maxCycles: 3, maxDofs: 6000, onCycle: (_c, r) => full.push(r) });
+    const whole = adaptiveSolve(input, { targetPercent: 0.01, maxCycles: 3, onCycle: (_c, r) => full.push(r) }, { maxDofs: 6000 });
     expect(whole.cycles.length).toBe(3);
     let asked = 0;
-    const stopped = adaptiveSolve(input, { targetPercent: 0.01, maxCycles: 3, maxDofs: 6000, shouldStop: () => ++asked >= 2 });
+    const stopped = adaptiveSolve(input, { targetPercent: 0.01, maxCycles: 3, shouldStop: () => ++asked >= 2 }, { maxDofs: 6000 });
     expect(stopped.stoppedBy).toBe('stopped');
     expect(stopped.cycles.length).toBe(2);
     expect(asked).toBe(2); // asked once per finished cycle, never before the first one
