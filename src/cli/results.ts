@@ -5,7 +5,9 @@
 import type { Command } from 'commander';
 import { statSync } from 'node:fs';
 import { PeakwiseError } from '../errors.js';
+import { join } from 'node:path';
 import { describeFolder, inspectFolder } from './output-set.js';
+import { LOCK_NAME, lockOwnerState, readLock } from './lock.js';
 import { plain } from './report-error.js';
 
 export function runResults(folder: string, opts: { json?: boolean }): void {
@@ -17,6 +19,8 @@ export function runResults(folder: string, opts: { json?: boolean }): void {
   }
   const state = inspectFolder(folder);
   const { complete, lines } = describeFolder(folder, state);
+  const lock = readLock(join(folder, LOCK_NAME));
+  if (lock && lockOwnerState(lock) !== 'dead') lines.push(`  a run is writing into this folder now (${lock.command}, pid ${lock.pid}, started ${lock.started})`);
   if (opts.json) process.stdout.write(JSON.stringify({ folder, ...state }, null, 2) + '\n');
   else process.stdout.write(lines.map(plain).join('\n') + '\n');
   if (!complete) process.exitCode = 1;

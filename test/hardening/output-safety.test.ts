@@ -184,7 +184,8 @@ describe('class 3: a result set is one unit', () => {
     first.stderr.resume();
     const exited = new Promise<number | null>((r) => first.on('exit', (c) => r(c)));
     for (let i = 0; i < 600 && !existsSync(join(out, 'run.lock')); i++) await new Promise((r) => setTimeout(r, 50));
-    const second = await run(['solve', 'models/l-bracket-sharp.yaml', '--out', out]);
+    const [second, busy] = await Promise.all([run(['solve', 'models/l-bracket-sharp.yaml', '--out', out]), run(['results', out])]);
+    expect(busy.stdout).toContain(`a run is writing into this folder now (study, pid ${first.pid}, started `);
     expect(second.code).toBe(1);
     expect(second.stderr).toContain(`--out ${out}: another peakwise run (study, pid ${first.pid}, started `);
     expect(second.stderr).not.toMatch(STACK);
