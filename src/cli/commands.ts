@@ -77,21 +77,22 @@ function solveAdaptive(problem: Problem, limits: Required<SolveLimits>, targetTe
   const t0 = performance.now();
   const result = adaptiveSolve(problem, {
     targetPercent: target,
+    shouldStop: stopRequested,
     onCycle: (c: AdaptiveCycle) => say(`  cycle ${c.cycle}: ${c.dofs} dofs, error ${c.errorPercent.toFixed(2)} %, max ${fmt(c.max)}`),
   }, limits);
   const t = result.solution.timings;
   const meshS = (performance.now() - t0) / 1000 - (t.assembleS + t.orderS + t.factorS + t.solveS);
-  if (result.stoppedBy !== 'target') {
+  if (result.stoppedBy !== 'target' && result.stoppedBy !== 'stopped') {
     const why = result.stoppedBy === 'dofs' ? `dof cap (--max-dofs ${limits.maxDofs})` : result.stoppedBy === 'memory' ? 'factor memory cap' : 'cycle limit';
     process.stderr.write(`peakwise: warning: adaptive loop stopped by the ${why} at error ${result.estimate.errorPercent.toFixed(2)} % (target ${target} %)\n`);
   }
-  return { level: result, estimate: result.estimate, meshS, cycles: result.cycles };
+  return { level: result, estimate: result.estimate, meshS, cycles: result.cycles, ...(result.stoppedBy === 'stopped' ? { stopped: true } : {}) };
 }
 
 export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions): Promise<void> {
   checkCutOptions(opts);
   const model = loadModel(ctx, file, opts);
-  const outDir = outDirFor(file, opts);
+  const outDir = outDirFor(file, opts, 'solve');
   const limits = limitsOf(opts);
   const problem = problemOf(model);
   const run = opts.adapt !== undefined ? solveAdaptive(problem, limits, opts.adapt, opts) : solveOnce(problem, limits);
@@ -110,6 +111,11 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
     writeFileAtomic(join(outDir, 'report.html'), html, protect);
   }
   emitWarnings(record.warnings, opts);
+  if (run.stopped && run.cycles) {
+    const last = run.cycles[run.cycles.length - 1];
+    process.stderr.write(`peakwise: interrupted: cycle ${last.cycle} (${last.dofs} dofs, error ${last.errorPercent.toFixed(2)} %) is written to ${outDir} (run.json has "interrupted": true)\n`);
+    throw new StudyInterrupted();
+  }
   process.stdout.write(opts.json ? JSON.stringify(record, null, 2) + '\n' : solveText(record, solution, outDir, useColor(opts)));
 }
 
@@ -143,7 +149,7 @@ function studyWithProgress(model: Parameters<typeof runStudyStage>[0], opts: Stu
 export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOptions): Promise<void> {
   checkCutOptions(opts);
   const model = loadModel(ctx, file, opts);
-  const outDir = outDirFor(file, opts);
+  const outDir = outDirFor(file, opts, 'study');
   const { study, base } = studyWithProgress(model, opts);
   const warnings = modelWarnings(model, file);
   if (base) {

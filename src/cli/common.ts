@@ -3,15 +3,17 @@
  * the stop flag, warnings, reading the model with the command-line overrides, the limits of the
  * options, and the field columns written to field.csv.
  */
-import { readFileSync } from 'node:fs';
-import { dirname, isAbsolute, join } from 'node:path';
+import { join } from 'node:path';
 import { PeakwiseError } from '../errors.js';
 import type { Model } from '../model/types.js';
 import { levelsRule, parseModel, ratioRule } from '../model/index.js';
 import type { NodalStress } from '../recovery/types.js';
 import { nodalMeasure } from '../recovery/index.js';
 import { defaultLimits, type SolveLimits } from '../pipeline/index.js';
-import { modelName, prepareOutDir, readModelText } from './io.js';
+import { modelName, readModelText } from './io.js';
+import { inputFile, inputsOfRun, modelInputReader, noteInput } from './inputs.js';
+import { checkTargetFile, openOutputSet } from './output-set.js';
+import { parseMaxDofs } from './options.js';
 import { nearestPosition, plain } from './report-error.js';
 
 /** What the error printer needs to know about the run so far. */
@@ -90,24 +92,49 @@ export function emitWarnings(warnings: readonly string[], opts: CommonOptions): 
  * one factor, the residual limit. One object, handed whole to solve, adapt, study and sweep.
  */
 export function limitsOf(opts: { maxDofs?: string }): Required<SolveLimits> {
-  return defaultLimits(opts.maxDofs !== undefined ? Math.floor(positiveNumber(opts.maxDofs, '--max-dofs')) : undefined);
+  return defaultLimits(opts.maxDofs !== undefined ? parseMaxDofs(opts.maxDofs) : undefined);
 }
 
 /** Read, parse and apply the command-line overrides. */
 export function loadModel(ctx: CliContext, file: string, opts: CommonOptions, params?: Record<string, number>): Model {
   ctx.file = file;
   const text = readModelText(file);
-  // files the model refers to (outlines, displacement tables) sit beside it
-  const readFile = (path: string): string => readFileSync(isAbsolute(path) ? path : join(dirname(file), path), 'utf8');
+  // files the model refers to (outlines, displacement tables) sit beside it; every file read is
+  // an input of the run: never an output target, part of the run id (src/cli/inputs.ts)
+  noteInput(inputFile(file, 'model file', text));
+  const { readFile } = modelInputReader(file);
   const model = parseModel(text, file, params ? { params, readFile } : { readFile });
   ctx.model = model;
+  refuseOutputsOntoInputs(opts);
   if (opts.order !== undefined) model.mesh.order = opts.order === '1' ? 1 : 2;
   if (opts.size !== undefined) model.mesh.size = positiveNumber(opts.size, '--size');
   return model;
 }
 
-export function outDirFor(file: string, opts: CommonOptions): string {
-  return prepareOutDir(opts.out ?? join('out', modelName(file)), file);
+/**
+ * Open the run's result folder (src/cli/output-set.ts): folder rules on real paths, the folder
+ * made, its lock taken; writes into it then become files of one stamped result set, completed by
+ * run.json when the command ends (main.ts).
+ */
+export function outDirFor(file: string, opts: CommonOptions, command: string): string {
+  const outDir = opts.out ?? join('out', modelName(file));
+  openOutputSet({
+    outDir,
+    modelFile: file,
+    inputs: inputsOfRun(),
+    identity: { command, model: file, inputs: inputsOfRun(), options: opts as Record<string, unknown> },
+    notice: (line) => emitWarnings([line], opts),
+  });
+  return outDir;
+}
+
+/** Explicit output files (--svg, --export-matrix, --export-load) are checked against the inputs before any work. */
+function refuseOutputsOntoInputs(opts: CommonOptions): void {
+  const o = opts as Record<string, unknown>;
+  for (const [key, option] of [['svg', '--svg'], ['exportMatrix', '--export-matrix'], ['exportLoad', '--export-load']] as const) {
+    const target = o[key];
+    if (typeof target === 'string') checkTargetFile(target, `${option} ${target}`);
+  }
 }
 
 /** field.csv columns of a recovered field: σxx, σyy, τxy, σzz in plane strain, von Mises. */

@@ -25,6 +25,8 @@ export interface SolveRun {
   /** seconds of meshing (all cycles of an adaptive run) */
   meshS: number;
   cycles?: AdaptiveCycle[];
+  /** the adaptive loop ended on a stop request (Ctrl-C): the last finished cycle */
+  stopped?: boolean;
 }
 
 /** What `peakwise solve --json` prints. */

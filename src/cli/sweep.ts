@@ -19,6 +19,7 @@ import {
 import type { SiteResult } from '../study/types.js';
 import { StudyInterrupted, levelsOption, limitsOf, outDirFor, ratioOption, useColor, type CliContext, type CommonOptions } from './common.js';
 import { readModelText, writeFileAtomic } from './io.js';
+import { inputFile, noteInput } from './inputs.js';
 import { plain } from './report-error.js';
 
 export interface SweepCliOptions extends CommonOptions {
@@ -109,6 +110,7 @@ export function sweepSummary(sweep: SweepResult, units: { stress: string; length
 export async function runSweepCommand(ctx: CliContext, file: string, opts: SweepCliOptions): Promise<void> {
   ctx.file = file;
   const text = readModelText(file);
+  noteInput(inputFile(file, 'model file', text));
   const axes = opts.vary.map(parseVary);
   if (axes.length === 0) throw new PeakwiseError('usage', 'sweep needs at least one --vary name=values, e.g. --vary r=0,2,4');
   const jobs = intOption(opts.jobs, '--jobs', 1, 256);
@@ -126,7 +128,7 @@ export async function runSweepCommand(ctx: CliContext, file: string, opts: Sweep
   // the model as written, for error positions and units (each point re-parses with its params)
   const model = parseModel(text, file);
   ctx.model = model;
-  const outDir = outDirFor(file, opts);
+  const outDir = outDirFor(file, opts, 'sweep');
   const protect = [file];
   const bar = progressBar(opts, 'points');
   let sweep: SweepResult;

@@ -34,6 +34,8 @@ export interface AdaptiveOptions {
    * false: the first field stays an upper bound, which keeps its curve resolution and local sizes)
    */
   allowCoarsening?: boolean;
+  /** asked after every finished cycle: true ends the loop on that cycle ('stopped', e.g. Ctrl-C) */
+  shouldStop?: () => boolean;
 }
 
 export interface AdaptiveCycle {
@@ -56,7 +58,7 @@ export interface AdaptiveCycleResult extends SolvedLevel {
 export interface AdaptiveResult extends AdaptiveCycleResult {
   cycles: AdaptiveCycle[];
   /** 'dofs': the next mesh would pass the dof cap; 'memory': its factor the memory cap */
-  stoppedBy: 'target' | 'dofs' | 'memory' | 'cycles';
+  stoppedBy: 'target' | 'dofs' | 'memory' | 'cycles' | 'stopped';
 }
 
 /**
@@ -144,6 +146,7 @@ export function adaptiveSolve(problem: Problem, opts: AdaptiveOptions, limits: S
       }
     }
     opts.onCycle?.(cycle, last);
+    if (!stoppedBy && opts.shouldStop?.()) stoppedBy = 'stopped';
     if (stoppedBy) return { ...last, cycles, stoppedBy };
   }
 }
