@@ -79,7 +79,7 @@ function ladderBand(peak: readonly number[], r: number, formalOrder: 1 | 2, fit:
     const why = b.good ? '' : b.fit.form === 'free' ? ' (scatter large against the data range)' : Number.isFinite(b.observedOrder) && b.observedOrder > formalOrder ? `, order capped at the element's ${formalOrder}` : ', order outside the range';
     const observedOrder = b.observedOrder > BAND_RULES.orderSearch[0] * 1.0001 && b.observedOrder < BAND_RULES.orderSearch[1] * 0.9999 ? b.observedOrder : NaN;
     return {
-      value: b.value,
+      value: b.good && b.fit.form === 'free' ? b.value : peak[n - 1],
       discretisation: b.components.discretisation,
       scatter: b.components.scatter,
       observedOrder,
