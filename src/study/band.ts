@@ -45,7 +45,7 @@ export interface LevelFit {
 }
 
 export interface BandEstimate {
-  /** centre of the band: φ₀ of the selected fit */
+  /** φ₀ of the selected fit (judgeSite centres the band on it when the free fit is good, else on φ₁) */
   value: number;
   /** half-width U: the band value ± U must contain the exact value */
   halfWidth: number;
@@ -79,10 +79,11 @@ export const BAND_RULES = {
   /** finest levels entering the fits */
   window: 4,
   /**
-   * The far-field term: the finest level solved again with the background size field multiplied by
-   * `coarsening`; the change Δ of the peak gives the far-field error of the ladder, which keeps the
-   * background size, by two-grid Richardson with the formal order, Δ/(c^p_f − 1), times Roache's (1998)
-   * two-grid safety factor `safety`.
+   * The far-field term: the finest level solved again with everything outside the sites' refined
+   * cores (background and graded transition, the same on every level) coarsened by `coarsening`
+   * (far-field.ts); the change Δ of the peak gives the error of the ladder's own outer mesh by
+   * two-grid Richardson with the formal order, Δ/(c^p_f − 1), times Roache's (1998) two-grid safety
+   * factor `safety`.
    */
   farField: { coarsening: 2, safety: 3 },
 } as const;
@@ -260,10 +261,10 @@ export function ecaHoekstraBand(hAll: readonly number[], fAll: readonly number[]
 }
 
 /**
- * Far-field half-width from the change of the finest peak when only the background size is
- * multiplied by c = BAND_RULES.farField.coarsening: F_s |Δ| / (c^p_f − 1), Richardson's two-grid error
- * of the finer (the ladder's own) background with the formal order p_f, F_s = 3 for a two-grid
- * estimate with an assumed order (Roache 1998).
+ * Far-field half-width from the change Δ of the finest peak when the mesh outside the refined cores is
+ * coarsened by c = BAND_RULES.farField.coarsening: F_s |Δ| / (c^p_f − 1), Richardson's two-grid error
+ * of the finer (the ladder's own) outer mesh with the formal order p_f, F_s = 3 for a two-grid estimate
+ * with an assumed order (Roache 1998).
  */
 export function farFieldHalfWidth(shift: number, formalOrder: number): number {
   const { coarsening, safety } = BAND_RULES.farField;

@@ -143,7 +143,7 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const required: Point[] = [];
   for (const s of model.supports) if (s.where.kind === 'point') required.push(s.where.at);
   for (const l of model.loads) if (l.where.kind === 'point') required.push(l.where.at);
-  // the last solve refines nothing: it coarsens the background for the far-field term
+  // one more solve after the ladder: the outer mesh coarsened, for the far-field term
   const total = 2 + levels;
   const progress = (done: number, label: string) => opts.onProgress?.(done, total, label);
 

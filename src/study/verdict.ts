@@ -110,7 +110,7 @@ function ladderBand(peak: readonly number[], r: number, formalOrder: 1 | 2, fit:
  * `order` is the element order (1 or 2), which is also the formal order of its stresses; `theory` the
  * predicted growth exponent q_th = 1 − λ (0: none); `theoryWhy` names what theory sees ("concentrated
  * load", "re-entrant corner 270°", …). `farFieldShift` is the change of the finest peak when the
- * background size is coarsened by BAND_RULES.farField.coarsening (run.ts solves it); absent: not assessed.
+ * mesh outside the refined cores is coarsened by BAND_RULES.farField.coarsening (run.ts solves it); absent: not assessed.
  */
 export function judgeSite(
   h: readonly number[], peak: readonly number[], r: number, order: 1 | 2, theory: number, theoryWhy = '', farFieldShift?: number,
@@ -185,7 +185,7 @@ export function judgeSite(
   const converged = (how: string): SiteVerdict => {
     const b = ladderBand(peak, r, order, fit, ls);
     const ff = Number.isFinite(farField) ? farField : 0;
-    const farWords = Number.isFinite(farField) ? `; far field ± ${farField.toPrecision(2)} (background size ×${BAND_RULES.farField.coarsening})` : '; far field not assessed';
+    const farWords = Number.isFinite(farField) ? `; far field ± ${farField.toPrecision(2)} (outer mesh coarsened ${BAND_RULES.farField.coarsening}×)` : '; far field not assessed';
     return {
       verdict: 'converging',
       reason: `${how}; ${b.how}${farWords}` + (growthTheory > 0 ? `; but${theorySays}: the rise may not have started at these sizes` : ''),
