@@ -249,7 +249,8 @@ export function ecaHoekstraBand(hAll: readonly number[], fAll: readonly number[]
     value: fit.limit,
     halfWidth: discretisation + scatter,
     components: { discretisation, scatter },
-    observedOrder: p,
+    // a flat ladder has no order
+    observedOrder: range === 0 ? NaN : p,
     orderUsed: fit.orders,
     safetyFactor,
     fit,

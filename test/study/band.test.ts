@@ -70,6 +70,13 @@ describe('the band (Eça & Hoekstra 2014; Roache 1998 safety factors; docs/study
     expect(b.floored).toBe(true);
     expect(b.halfWidth).toBeCloseTo(f[3] - f[5], 12);
   });
+  it('a flat ladder (a uniform stress) is settled with a zero band and no order', () => {
+    const v = judgeSite(ladder(5), [5, 5, 5, 5, 5], 2, 2, 0);
+    expect(v.verdict).toBe('converging');
+    expect(v.estimate.value).toBe(5);
+    expect(v.estimate.uncertainty).toBe(0);
+    expect(Number.isNaN(v.estimate.observedOrder)).toBe(true);
+  });
   it('refuses fewer than four levels (three use the documented fallback in judgeSite)', () => {
     expect(() => ecaHoekstraBand([1, 0.5, 0.25], [1, 2, 3], 2)).toThrow(/≥ 4 levels/);
   });
