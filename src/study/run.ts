@@ -13,6 +13,8 @@ import type { LevelResult, SiteResult, StudyResult } from './types.js';
 import { findSites, type SiteCandidate } from './sites.js';
 import { levelSizeField, probeLevel, rosettePoints, NEIGHBOURHOOD_SIZES, type SiteProbe } from './ladder.js';
 import { judgeSite } from './verdict.js';
+import { BAND_RULES } from './band.js';
+import { coarsenedOuterField } from './far-field.js';
 import { boundaryEdgesAt } from './mesh-tools.js';
 import { nsifUnits } from './readouts.js';
 
@@ -100,7 +102,8 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const { geometry: geom, section } = problem;
   const base = baseSizeField(problem);
   const limits: SolveLimits = opts.limits ?? {};
-  const total = 1 + levels;
+  // one more solve after the ladder: the outer mesh coarsened, for the far-field term
+  const total = 2 + levels;
   const progress = (done: number, label: string) => opts.onProgress?.(done, total, label);
 
   progress(0, 'first solve');
@@ -140,8 +143,28 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
     progress(2 + k, `level ${k + 1} of ${levels}`);
   }
 
+  // far-field term (docs/study.md, "Far field"): the finest level again with everything outside the sites'
+  // refined cores coarsened; the change of each peak is what the unrefined mesh, the same on every level,
+  // contributes. Only solved when some site converges (the term belongs to converging bands alone).
+  let farShift: number[] = [];
+  const kLast = (perSite[0]?.length ?? 0) - 1;
+  const anyConverging = cands.some((c, i) => judgeSite(perSite[i].map((l) => l.h), perSite[i].map((l) => l.peak), ratio, order, c.theory).verdict === 'converging');
+  if (!interrupted && !stopped && kLast >= 2 && anyConverging && !opts.shouldStop?.()) {
+    try {
+      const hk = h0.map((h) => h / Math.pow(ratio, kLast));
+      const seeds = cands.flatMap((c, i) => rosettePoints(c, hk[i], straight[i]).filter((p) => seedFits(geom, p, hk[i], c.at)));
+      const field = coarsenedOuterField(base, cands, h0, ratio, kLast, BAND_RULES.farField.coarsening);
+      const s = solveAt(problem, field, order, limits, { points: [...sitePoints, ...seeds] });
+      const locator = buildPointLocator(s.mesh);
+      farShift = probes.map((p, i) => probeLevel(s.mesh, s.field, s.nodal, s.gauss, section, measure, p, perSite[i][kLast].h, s.solution.dofs, locator).peak - perSite[i][kLast].peak);
+    } catch (e) {
+      if (!isPeakwiseError(e)) throw e;
+    }
+    progress(2 + levels, 'far field');
+  }
+
   const stress = stressUnit(model.units);
-  const sites: SiteResult[] = cands.map((c, i) => toSiteResult(`S${i + 1}`, c, perSite[i], ratio, order, d, stress, model.units.length, stopped));
+  const sites: SiteResult[] = cands.map((c, i) => toSiteResult(`S${i + 1}`, c, perSite[i], ratio, order, d, stress, model.units.length, stopped, farShift[i]));
   const q = meshQuality(first.mesh);
   return {
     tool: 'peakwise',
@@ -164,8 +187,9 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
 
 function toSiteResult(
   id: string, c: SiteCandidate, levels: LevelResult[], ratio: number, order: 1 | 2, d: number, stress: string, length: string, stopped: string,
+  farShift?: number,
 ): SiteResult {
-  const v = judgeSite(levels.map((l) => l.h), levels.map((l) => l.peak), ratio, order, c.theory, c.theoryWhy);
+  const v = judgeSite(levels.map((l) => l.h), levels.map((l) => l.peak), ratio, order, c.theory, c.theoryWhy, farShift);
   const last = levels[levels.length - 1];
   const readouts: SiteResult['readouts'] = {};
   if (last) {
