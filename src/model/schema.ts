@@ -271,7 +271,7 @@ export const ModelFileSchema = mapping(
     title: z.string({ error: expected('a title (text)') }).optional(),
     units: mapping({ length: Label.optional(), force: Label.optional() }, 'units { length, force }').optional(),
     params: z.record(z.string(), NumberLike, { error: expected('a mapping of names to numbers') }).optional(),
-    material: mapping({ E: NumberLike, nu: NumberLike }, 'a material { E, nu }'),
+    material: mapping({ E: NumberLike, nu: NumberLike, yield: NumberLike.optional() }, 'a material { E, nu, yield }'),
     thickness: NumberLike,
     state: word(STATES).optional(),
     plate: mapping(

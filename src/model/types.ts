@@ -135,6 +135,11 @@ export interface StudySettings {
 export interface Material {
   E: number;
   nu: number;
+  /**
+   * yield stress of the material (stress units), when given: a converged value above it is
+   * flagged (the linear-elastic result then expects local yielding)
+   */
+  yield?: number;
 }
 
 export type PlaneState = 'plane-stress' | 'plane-strain';

@@ -15,6 +15,7 @@ import { levelSizeField, probeLevel, rosettePoints, NEIGHBOURHOOD_SIZES, type Si
 import { judgeSite } from './verdict.js';
 import { boundaryEdgesAt } from './mesh-tools.js';
 import { nsifUnits } from './readouts.js';
+import { reportedSites } from './reported.js';
 import { dofLimitError, estimateMeshSize } from '../fem/health.js';
 
 export interface StudyOptions {
@@ -183,7 +184,7 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   }
 
   const stress = stressUnit(model.units);
-  const sites: SiteResult[] = cands.map((c, i) => toSiteResult(`S${i + 1}`, c, perSite[i], ratio, order, d, stress, model.units.length, stopped));
+  const sites: SiteResult[] = reportedSites(cands.map((c, i) => toSiteResult(`S${i + 1}`, c, perSite[i], ratio, order, d, stress, model.units.length, stopped)), { scale: geom.scale, yieldStress: model.material.yield });
   const q = meshQuality(first.mesh);
   return {
     tool: 'peakwise',
@@ -198,6 +199,7 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
       appliedSum: first.solution.appliedSum,
     },
     measure,
+    ...(model.material.yield !== undefined ? { yieldStress: model.material.yield } : {}),
     sites,
     timings: { totalS: (performance.now() - t0) / 1000 },
     ...(interrupted ? { interrupted: true } : {}),
