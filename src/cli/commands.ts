@@ -257,7 +257,7 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
   const columns: Record<string, Float64Array> = { sxx, syy, sxy };
   if (model.state === 'plane-strain') columns.szz = field.szz;
   columns.von_mises = vm;
-  writeFileAtomic(join(outDir, 'field.csv'), fieldCsv(mesh, solution.u, columns), [file]);
+  writeFileAtomic(join(outDir, 'field.csv'), fieldCsv(mesh, solution.u, columns, { length: model.units.length, stress: stressUnit(model.units) }), [file]);
   const cut = writeCutOutputs(outDir, opts, { model, mesh, geometry, field }, [file]);
   if (cut && !opts.json && !opts.quiet) process.stderr.write(`peakwise: stresses along the cut written to ${cut.file}\n`);
   if (opts.exportMatrix || opts.exportLoad) exportSystem(model, mesh, geometry, section, solution, opts, file);
@@ -321,6 +321,7 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
           timings: { mesh: meshS, assemble: timings.assembleS, order: timings.orderS, factor: timings.factorS, solve: timings.solveS, recover: recoverS },
           errorPercent: estimate.errorPercent,
           residual: solution.residual,
+          singularCheck: { model, geometry, mesh },
           loadScale: solution.load.reduce((a, f) => a + Math.abs(f), 0),
           extraRows: [['max Gauss point', `von Mises ${fmt(gp.value)} ${stressUnitLabel} at (${fmt(gp.at[0])}, ${fmt(gp.at[1])}) ${model.units.length}`]],
         },
@@ -442,7 +443,7 @@ function writeStudyOutputs(model: Model, study: StudyResult, base: BaseSolve | u
     const columns: Record<string, Float64Array> = { sxx, syy, sxy };
     if (model.state === 'plane-strain') columns.szz = field.szz;
     columns.von_mises = nodalMeasure(field, 'von-mises');
-    writeFileAtomic(join(outDir, 'field.csv'), fieldCsv(mesh, solution.u, columns), protect);
+    writeFileAtomic(join(outDir, 'field.csv'), fieldCsv(mesh, solution.u, columns, { length: model.units.length, stress: study.units.stress }), protect);
     writeFileAtomic(join(outDir, 'report.html'), reportHtml({ model, study, mesh, geometry: base.geometry, field: base.nodal, u: solution.u, checks: recordedChecks(), ...(cut ? { cut } : {}) }), protect);
   }
 }

@@ -10,8 +10,10 @@ import { contourSvg } from './contour.js';
 import { plotCss } from './css.js';
 import { convergencePlotSvg, cutPlotSvg, type CutPlotInput } from './plot.js';
 import { escapeXml, formatFixed, formatNumber, safeId } from './text.js';
+import { singularMaxWarning } from './singular-max.js';
 import {
-  CAUTION, capitalise, describeLoad, describeSupport, featureLabel, materialLine, siteReadout, siteValue, siteWhere,
+  BAND_LABEL, CAUTION, READOUTS_LEGEND, SITE_DETECTION, aboveYieldNote, bandText, capitalise, describeLoad, describeSupport,
+  featureLabel, materialLine, nsifText, siteAdvice, siteReadout, siteValue, siteWhere,
 } from './words.js';
 
 export interface ReportCheck {
@@ -19,6 +21,10 @@ export interface ReportCheck {
   pass: boolean;
   /** optional one-line detail, e.g. "Kt 3.003 vs 3 (Kirsch 1898)" */
   detail?: string;
+  /** what the reference value is: a published result, or an independent FE computation of our own */
+  referenceKind?: 'published' | 'independent-fe';
+  /** set when the result is a recorded run (docs/verification.json), not one made for this report */
+  recorded?: { date: string; version: string };
 }
 
 export interface ReportInput {
@@ -170,6 +176,15 @@ function pageContext(input: ReportInput): PageContext {
   };
 }
 
+/** A solve page whose maximum sits at a point theory flags as singular says so (as `peakwise solve` does). */
+function solveMaxWarning(ctx: PageContext): string | undefined {
+  const { mesh, geometry, field } = ctx.input;
+  let node = -1;
+  for (let n = 0; n < field.length; n++) if (Number.isFinite(field[n]) && (node < 0 || field[n] > field[node])) node = n;
+  if (node < 0) return undefined;
+  return singularMaxWarning({ model: ctx.model, geometry, mesh, at: [mesh.xy[2 * node], mesh.xy[2 * node + 1]], measure: ctx.measure });
+}
+
 function pageHeader(ctx: PageContext, title: string): string {
   const { study, measure, S, solveOnly } = ctx;
   const counts = (['converging', 'singular', 'undecided'] as const)
@@ -178,12 +193,13 @@ function pageHeader(ctx: PageContext, title: string): string {
   const lede = solveOnly
     ? `One solve; measure: ${measure} in ${S}.`
     : `${study.sites.length} site${study.sites.length === 1 ? '' : 's'} (${counts}); measure: ${measure} in ${S}.`;
-  const warnings = study.warnings ?? [];
+  const singular = solveOnly ? solveMaxWarning(ctx) : undefined;
+  const warnings = [...(study.warnings ?? []), ...(singular ? [singular] : [])];
   return `<header>
 <p class="tool">peakwise ${escapeXml(study.version)} · ${solveOnly ? 'single solve' : 'convergence study'}</p>
 <h1>${title}</h1>
 <p class="lede">${escapeXml(lede)}</p>
-<p class="caution" role="note">${escapeXml(CAUTION)}</p>
+${solveOnly ? '' : `<p class="detection">${escapeXml(SITE_DETECTION)}</p>\n`}<p class="caution" role="note">${escapeXml(CAUTION)}</p>
 ${warnings.length > 0 ? `<ul class="warnings">${warnings.map((w) => `<li>Warning: ${escapeXml(w)}</li>`).join('')}</ul>` : ''}
 </header>`;
 }
@@ -250,6 +266,13 @@ function pictureSection(ctx: PageContext): string {
 <figure class="figure">${main}</figure></section>`;
 }
 
+/** What each verdict means, under the verdict table. */
+const VERDICTS_LEGEND =
+  'Converging: the peak settles to a finite value of the linear-elastic model, shown with its discretisation band (the estimated error of the mesh alone, ' +
+  'not of the model, the loads or the material); compare it with what the applicable code asks for. ' +
+  'Singular: the peak keeps growing like h^−q as elements shrink; it is a property of the idealised model, not a stress, so use the readouts. ' +
+  'Undecided: the levels do not yet tell.';
+
 function verdictsSection(ctx: PageContext): string {
   const { study, L, S, units, sectionIds } = ctx;
   const verdictRows = study.sites
@@ -261,18 +284,23 @@ function verdictsSection(ctx: PageContext): string {
     )
     .join('');
   return `<section id="verdicts"><h2>Verdicts</h2>
-<table class="verdicts"><thead><tr><th>site</th><th>where</th><th>feature</th><th>verdict</th><th>value</th><th>readout</th></tr></thead><tbody>${verdictRows || '<tr><td colspan="6">No sites were found.</td></tr>'}</tbody></table>
-<p class="legend-text">Converging: the peak settles to a finite value (shown with its extrapolation uncertainty); design for it. Singular: the peak keeps growing like h<sup>−q</sup> as elements shrink; it is a property of the idealised model, not a stress, so use the readouts. Undecided: the levels do not yet tell.</p>
+<table class="verdicts"><thead><tr><th>site</th><th>where</th><th>feature</th><th>verdict</th><th>value ± ${BAND_LABEL}</th><th>readouts</th></tr></thead><tbody>${verdictRows || '<tr><td colspan="6">No sites were found.</td></tr>'}</tbody></table>
+<p class="legend-text">${escapeXml(VERDICTS_LEGEND)}</p>
+<p class="legend-text">${escapeXml(READOUTS_LEGEND)}</p>
 </section>`;
 }
 
-/** The facts table of one site: its value or growth, then every readout. */
-function siteFacts(s: SiteResult, L: string, S: string): string {
+/** The facts table of one site: its value or growth, then every readout with its distance. */
+function siteFacts(s: SiteResult, ctx: PageContext): string {
+  const { L, S, units, study } = ctx;
   const r = s.readouts;
+  const len = (v: number | undefined) => (v !== undefined ? `${formatNumber(v)} ${L}` : 'the readout distance');
   const readouts: string[] = [];
   if (s.verdict === 'converging') {
-    readouts.push(row('Converged value', escapeXml(`${formatNumber(s.estimate.value, 5)} ± ${formatNumber(s.estimate.uncertainty, 2)} ${S}`)));
+    readouts.push(row(`Converged value ± ${BAND_LABEL}`, escapeXml(bandText(s.estimate.value, s.estimate.uncertainty, S))));
     if (Number.isFinite(s.estimate.observedOrder)) readouts.push(row('Observed order', escapeXml(formatFixed(s.estimate.observedOrder, 2))));
+    const y = aboveYieldNote(s, study.yieldStress, S);
+    if (y) readouts.push(row('Yield', `<span class="above-yield">${escapeXml(capitalise(y))}.</span>`));
   } else {
     readouts.push(
       row(
@@ -281,17 +309,13 @@ function siteFacts(s: SiteResult, L: string, S: string): string {
       ),
     );
   }
-  if (r.atDistance !== undefined) {
-    readouts.push(row(`Stress at ${r.distance !== undefined ? formatNumber(r.distance) + ' ' + L : 'the readout distance'}`, escapeXml(`${formatNumber(r.atDistance, 5)} ${S}`)));
-  }
-  if (r.average !== undefined) readouts.push(row('Mean over the readout disk', escapeXml(`${formatNumber(r.average, 5)} ${S}`)));
-  const line = r as { lineAverage?: number; lineLength?: number };
-  if (line.lineAverage !== undefined) {
-    readouts.push(row(`Mean along the bisector${line.lineLength !== undefined ? ` over ${formatNumber(line.lineLength)} ${L}` : ''}`, escapeXml(`${formatNumber(line.lineAverage, 5)} ${S}`)));
-  }
-  if (r.nsif !== undefined) readouts.push(row('Notch stress intensity', escapeXml(`${formatNumber(r.nsif, 5)} ${r.nsifUnits ?? ''}`)));
+  if (r.atDistance !== undefined) readouts.push(row(`Point: stress at r = ${len(r.distance)} along the inward bisector`, escapeXml(`${formatNumber(r.atDistance, 5)} ${S}`)));
+  if (r.lineAverage !== undefined) readouts.push(row(`Line: mean along the bisector over r = 0–${len(r.lineLength)}`, escapeXml(`${formatNumber(r.lineAverage, 5)} ${S}`)));
+  if (r.average !== undefined) readouts.push(row(`Area: mean over the disk r ≤ ${len(r.distance)}`, escapeXml(`${formatNumber(r.average, 5)} ${S}`)));
+  const k = nsifText(s, units);
+  if (k) readouts.push(row('K_I: notch stress intensity of the opening mode (Gross & Mendelson 1972)', escapeXml(k)));
   if (s.verdict === 'singular') {
-    readouts.push(row('Note', 'The peak grows without bound as the mesh is refined: do not read it as a stress. Use the measures above.'));
+    readouts.push(row('Note', 'The peak grows without bound as the mesh is refined: do not read it as a stress. The point, line and area measures and K_I above are measures of the linear-elastic field; use the one the applicable code or assessment method asks for, at the distance it prescribes.'));
   }
   return `<table class="facts">${readouts.join('')}</table>`;
 }
@@ -304,7 +328,7 @@ function levelsTable(s: SiteResult, L: string, S: string): string {
         `<td>${escapeXml(formatNumber(l.peak, 6))}</td><td>${l.atDistance !== undefined ? escapeXml(formatNumber(l.atDistance, 5)) : '—'}</td></tr>`,
     )
     .join('');
-  return `<details open="open"><summary>Refinement levels</summary><table class="levels"><thead><tr><th>level</th><th>h (${escapeXml(L)})</th><th>dofs</th><th>peak (${escapeXml(S)})</th><th>at distance (${escapeXml(S)})</th></tr></thead><tbody>${levelsRows}</tbody></table></details>`;
+  return `<details open="open"><summary>Refinement levels</summary><table class="levels"><thead><tr><th>level</th><th>h (${escapeXml(L)})</th><th>dofs</th><th>peak (${escapeXml(S)})</th><th>point at r = ${escapeXml(s.readouts.distance !== undefined ? `${formatNumber(s.readouts.distance)} ${L}` : 'd')} (${escapeXml(S)})</th></tr></thead><tbody>${levelsRows}</tbody></table></details>`;
 }
 
 /** The close-up contour around one site; the triangle budget is shared among the sites. */
@@ -337,8 +361,8 @@ function siteSection(ctx: PageContext, s: SiteResult, i: number): string {
     `<h3>${escapeXml(s.id)} <span class="where">at ${escapeXml(siteWhere(s, L))}</span> ${verdictBadge(s.verdict)}</h3>` +
     `<p class="feature">${escapeXml(capitalise(s.feature.description || featureLabel(s)))}</p>` +
     `<p class="why"><b>Why:</b> ${escapeXml(s.reason)}</p>` +
-    (s.advice ? `<p class="advice"><b>Next step:</b> ${escapeXml(s.advice)}</p>` : '') +
-    siteFacts(s, L, S) +
+    (siteAdvice(s) ? `<p class="advice"><b>Next step:</b> ${escapeXml(siteAdvice(s) ?? '')}</p>` : '') +
+    siteFacts(s, ctx) +
     `<div class="site-figures"><figure class="plot">${convergencePlotSvg(s, { units: S, lengthUnit: L, measure })}</figure>` +
     `<figure class="inset">${siteInset(ctx, s, i)}</figure></div>` +
     levelsTable(s, L, S) +
@@ -361,13 +385,22 @@ function cutSection(cut: CutPlotInput | undefined): string {
 
 function verificationSection(checks: ReportCheck[]): string {
   const passed = checks.filter((c) => c.pass).length;
+  const fe = checks.filter((c) => c.referenceKind === 'independent-fe').length;
+  const rec = checks.find((c) => c.recorded)?.recorded;
+  const kinds = checks.some((c) => c.referenceKind)
+    ? ` — ${checks.length - fe} against published results (closed forms, Williams' eigenvalues, a handbook fit), ${fe} against reference values of an independent FE computation made for this project`
+    : '';
+  const when = rec
+    ? `These are the results recorded on ${escapeXml(rec.date)} with peakwise ${escapeXml(rec.version)} (docs/verification.json), not a run made for this report: ${passed} of ${checks.length} checks passed${escapeXml(kinds)}. <code>peakwise check</code> repeats them on this machine.`
+    : `${passed} of ${checks.length} checks passed in the run that made this report${escapeXml(kinds)}.`;
   const body =
     checks.length === 0
-      ? '<p>No verification results came with this report. <code>peakwise check</code> runs the closed-form cases.</p>'
-      : `<p>${passed} of ${checks.length} closed-form checks pass in this build.</p><ul class="checks">${checks
+      ? '<p>No verification record came with this report. <code>peakwise check</code> runs the verification cases.</p>'
+      : `<p>${when}</p><ul class="checks">${checks
           .map(
             (c) =>
               `<li class="${c.pass ? 'pass' : 'fail'}"><span class="mark">${c.pass ? '✓' : '✗'}</span>${escapeXml(c.name)}` +
+              `${c.referenceKind === 'independent-fe' ? ' <small>(FE reference value)</small>' : ''}` +
               `${c.detail ? ` <small>${escapeXml(c.detail)}</small>` : ''}</li>`,
           )
           .join('')}</ul>`;

@@ -74,7 +74,8 @@ describe('solve through the binary', () => {
     const F = Math.hypot(j.solution.appliedSum[0], j.solution.appliedSum[1]);
     expect(Math.hypot(j.solution.reactionSum[0] + j.solution.appliedSum[0], j.solution.reactionSum[1] + j.solution.appliedSum[1])).toBeLessThan(1e-9 * F);
     const header = readFileSync(join(out, 'field.csv'), 'utf8').split('\r\n')[0]; // RFC 4180 line ends
-    expect(header).toBe('"node","x","y","ux","uy","sxx","syy","sxy","von_mises"');
+    // units in the header, stresses named as recovered nodal values (issue 17)
+    expect(header).toBe('"node","x_mm","y_mm","ux_mm","uy_mm","sxx_recovered_MPa","syy_recovered_MPa","sxy_recovered_MPa","von_mises_recovered_MPa"');
   });
 
   it('--adapt stops at the dof cap with a warning line, exit 0, and no solved mesh above the cap', async () => {
