@@ -44,7 +44,7 @@ export {
   type PointLocator, type PointStress, type BoundaryStress, type AdaptiveOptions, type AdaptiveResult,
 } from './recovery/index.js';
 export { runStudy, findSites, williamsRoots, wedgeTheory, type StudyOptions, type BaseSolve } from './study/index.js';
-export { studyTable, sitesCsv, fieldCsv, reportHtml, meshSvg, contourSvg, convergencePlotSvg, CAUTION } from './report/index.js';
+export { studyTable, sitesCsv, fieldCsv, reportHtml, meshSvg, contourSvg, convergencePlotSvg, CAUTION, bandText, formatBand } from './report/index.js';
 export { kirschPolar, kirschCartesian, lameRing, inglisKt } from './reference/index.js';
 export {
   runSweep, parseVary, expandRange, cartesian, matchSites, sweepCsv, sweepHtml, pointKey,

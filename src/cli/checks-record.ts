@@ -10,7 +10,7 @@ interface RecordedCase {
 }
 
 /**
- * The verification strip of a report: the closed-form checks as last recorded for this version
+ * The verification strip of a report: the verification checks as last recorded for this version
  * in docs/verification.json (written with docs/verification.md by `node dist/check/generate-doc.js`).
  * Each row carries its figures to 6 significant digits, what they are, and when and by which
  * version they were recorded. A record of another version, or none, gives an empty strip — the

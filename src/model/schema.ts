@@ -1,5 +1,5 @@
 /**
- * The shape of a model file before evaluation (design.md §3, version 1), as zod schemas.
+ * The shape of a model file before evaluation (docs/model-format.md, version 1), as zod schemas.
  * Numbers may still be expressions here; value rules (thickness > 0, …) come after the
  * expressions are evaluated, in build.ts. Every schema carries its own message so that the
  * translation in issues.ts can print them as they are.

@@ -376,7 +376,7 @@ function sitesSection(ctx: PageContext): string {
 
 /** One solve: no verdicts, a pointer to the study instead. */
 function solveOnlySection(): string {
-  return `<section id="verdicts"><h2>Sites</h2><p>This page shows one solve. It does not say which peaks are real stress concentrations and which are singularities of the idealised model: <code>peakwise study</code> refines every site and gives that verdict.</p></section>`;
+  return `<section id="verdicts"><h2>Sites</h2><p>This page shows one solve. It does not say which peaks are real stress concentrations and which are singularities of the idealised model: <code>peakwise study</code> finds the sites (theory features, stress maxima above 1.3 × the median, or listed points), refines each and gives that verdict.</p></section>`;
 }
 
 function cutSection(cut: CutPlotInput | undefined): string {

@@ -129,7 +129,7 @@ describe('demo models', () => {
 });
 
 describe('defaults and shape', () => {
-  it('fills every default of design §3', () => {
+  it('fills every default of docs/model-format.md', () => {
     const m = parseModel(minimal, 'models/plain-strip.yaml');
     expect(m.title).toBe('plain-strip');
     expect(m.file).toBe('models/plain-strip.yaml');
@@ -160,7 +160,7 @@ describe('defaults and shape', () => {
     expect(m.mesh.order).toBe(1);
   });
 
-  it('reads every key of design §3, with expressions in place of numbers', () => {
+  it('reads every key of docs/model-format.md, with expressions in place of numbers', () => {
     const text = `
 title: Access opening in a test panel
 units: { length: mm, force: N }

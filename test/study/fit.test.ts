@@ -3,7 +3,7 @@ import { threeLevelFit, observedOrderVariableRatio, logLogSlope, incrementExpone
 
 const rel = (a: number, b: number) => Math.abs(a / b - 1);
 
-describe('Richardson + GCI arithmetic (Roache 1998; worked example of reference notes item 10)', () => {
+describe('Richardson + GCI arithmetic (Roache 1998; a worked example by hand)', () => {
   it('0.97050, 0.96854, 0.96178, r = 2 → p = 1.786170, f_ext = 0.971300, GCI₁₂ = 0.1031 %, GCI₂₃ = 0.3562 %, ratio 1.0020', () => {
     const f = threeLevelFit(0.9705, 0.96854, 0.96178, 2);
     expect(rel(f.p, 1.78617)).toBeLessThan(1e-6);
