@@ -7,7 +7,7 @@ import { parseModel } from '../model/index.js';
 import { buildGeometry } from '../geometry/index.js';
 import { meshPlate, meshQuality, sizeFieldFromSettings } from '../mesh/index.js';
 import { type CutPlotInput, fieldCsv, measureName, meshSvg, reportHtml, solveSummary, sitesCsv, studyTable } from '../report/index.js';
-import { runStudy as runStudyStage, type BaseSolve } from '../study/index.js';
+import { roundToScale, runStudy as runStudyStage, type BaseSolve } from '../study/index.js';
 import type { StudyResult } from '../study/types.js';
 import { progressBar } from './progress.js';
 import { recordedChecks } from './checks-record.js';
@@ -281,6 +281,7 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
   const stressUnitLabel = stressUnit(model.units);
   const timings = { meshS, assembleS: solution.timings.assembleS, orderS: solution.timings.orderS, factorS: solution.timings.factorS, solveS: solution.timings.solveS, recoverS };
   if (opts.json) {
+    const at = (p: readonly number[]) => p.map((v) => roundToScale(v, geometry.scale)); // no binary tails (issue 17)
     const out: Record<string, unknown> = {
       tool: 'peakwise',
       version: VERSION,
@@ -290,14 +291,14 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
       solution: {
         dofs: solution.dofs,
         maxDisplacement: solution.maxDisplacement,
-        maxDisplacementAt: solution.maxDisplacementAt,
+        maxDisplacementAt: at(solution.maxDisplacementAt),
         reactionSum: solution.reactionSum,
         appliedSum: solution.appliedSum,
         residual: solution.residual,
         maxGaussVonMises: gp.value,
-        maxGaussVonMisesAt: gp.at,
+        maxGaussVonMisesAt: at(gp.at),
       },
-      stress: { measure, max: peak.value, at: peak.at, errorPercent: estimate.errorPercent },
+      stress: { measure, max: peak.value, at: at(peak.at), errorPercent: estimate.errorPercent },
       timings,
       factor: { nnzL: solution.nnzL },
       warnings,

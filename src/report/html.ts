@@ -396,7 +396,7 @@ function verificationSection(checks: ReportCheck[]): string {
   const body =
     checks.length === 0
       ? '<p>No verification record came with this report. <code>peakwise check</code> runs the verification cases.</p>'
-      : `<p>${when}</p><ul class="checks">${checks
+      : `<p>${when}${rec ? ' Each case is a model built in code in dimensionless consistent units, so its figures are ratios or numbers in those units, as the quantity in brackets says.' : ''}</p><ul class="checks">${checks
           .map(
             (c) =>
               `<li class="${c.pass ? 'pass' : 'fail'}"><span class="mark">${c.pass ? '✓' : '✗'}</span>${escapeXml(c.name)}` +
