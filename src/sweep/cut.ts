@@ -1,5 +1,5 @@
 /**
- * Path readout: the recovered stress sampled along a straight line or around an opening's edge,
+ * Cut readout: the recovered stress sampled along a straight line or around an opening's edge,
  * with its invariants, and optionally a closed-form solution beside it (Kirsch, Lamé, Inglis).
  * Pure functions on the mesh and the nodal field; the CLI writes the table as cut.csv.
  */
