@@ -8,8 +8,8 @@ import { progressBar } from './progress.js';
 import { CHECK_CASES, checksHtml, checksJson, checksTable, runChecks, type CheckResult } from '../check/index.js';
 import { PeakwiseError } from '../errors.js';
 import { VERSION } from '../version.js';
-import type { CliContext } from './commands.js';
-import { useColor } from './commands.js';
+import type { CliContext } from './common.js';
+import { useColor } from './common.js';
 import { writeFileAtomic } from './io.js';
 
 export interface CheckCliOptions {

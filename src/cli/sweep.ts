@@ -17,12 +17,13 @@ import {
   type PointCache, type PointOutcome, type SweepResult, type SweepStudyOptions,
 } from '../sweep/index.js';
 import type { SiteResult } from '../study/types.js';
-import { StudyInterrupted, outDirFor, useColor, type CliContext, type CommonOptions } from './commands.js';
+import { StudyInterrupted, levelsOption, limitsOf, outDirFor, ratioOption, useColor, type CliContext, type CommonOptions } from './common.js';
 import { readModelText, writeFileAtomic } from './io.js';
 import { plain } from './report-error.js';
 
 export interface SweepCliOptions extends CommonOptions {
   vary: string[];
+  maxDofs?: string;
   jobs?: string;
   levels?: string;
   ratio?: string;
@@ -112,13 +113,10 @@ export async function runSweepCommand(ctx: CliContext, file: string, opts: Sweep
   if (axes.length === 0) throw new PeakwiseError('usage', 'sweep needs at least one --vary name=values, e.g. --vary r=0,2,4');
   const jobs = intOption(opts.jobs, '--jobs', 1, 256);
   const options: SweepStudyOptions = {};
-  const levels = intOption(opts.levels, '--levels', 2, 12);
+  const levels = levelsOption(opts.levels);
   if (levels !== undefined) options.levels = levels;
-  if (opts.ratio !== undefined) {
-    const ratio = Number(opts.ratio);
-    if (!(ratio > 1 && ratio <= 4)) throw new PeakwiseError('usage', `--ratio must be a number above 1 and at most 4, got "${opts.ratio}"`);
-    options.ratio = ratio;
-  }
+  const ratio = ratioOption(opts.ratio);
+  if (ratio !== undefined) options.ratio = ratio;
   if (opts.order !== undefined) options.order = opts.order === '1' ? 1 : 2;
   if (opts.size !== undefined) {
     const size = Number(opts.size);
@@ -144,6 +142,7 @@ export async function runSweepCommand(ctx: CliContext, file: string, opts: Sweep
   try {
     sweep = await runSweep(text, file, axes, {
       ...options,
+      limits: limitsOf(opts),
       ...(jobs !== undefined ? { jobs } : {}),
       cache: pointFolderCache(join(outDir, 'points'), protect),
       onProgress: (done, total, left) => bar.update(done, total, `${duration(left)} left`),
@@ -203,6 +202,7 @@ export function registerSweep(program: Command, ctx: CliContext): void {
     .option('--jobs <n>', 'worker threads (default: one per core)')
     .option('--levels <n>', 'refinement levels per site (overrides study.levels)')
     .option('--ratio <r>', 'element size ratio between levels (overrides study.ratio)')
+    .option('--max-dofs <n>', 'cap on degrees of freedom per solve', '2000000')
     .option('--out <dir>', 'output folder (default out/<model-name>)')
     .option('--json', 'print the machine-readable result on stdout')
     .addOption(new Option('--order <n>', 'element order: 1 = 3-node, 2 = 6-node triangles').choices(['1', '2']))

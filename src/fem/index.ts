@@ -5,15 +5,9 @@ export { elementStiffnessCst, elementStiffnessLst } from './elements.js';
 export { gaussStresses } from './stresses.js';
 export { assembleStiffness, csrMultiply, stiffnessPattern, type StiffnessPattern } from './assembly.js';
 export { SELECTOR_TOLERANCE, describeSelector, selectBoundary, type Selection } from './selectors.js';
-export {
-  appliedResultant,
-  bodyForceLoad,
-  edgeTractionLoad,
-  loadVector,
-  pressureLoad,
-  type BodyForceField,
-  type TractionField,
-} from './loads.js';
+export { appliedResultant, loadVector } from './loads.js';
+export { edgeTractionLoad, pressureLoad, type TractionField } from './edge-load.js';
+export { bodyForceLoad, type BodyForceField } from './body-load.js';
 export { checkRigidRestraint, supportedDofs } from './supports.js';
 export { validateSolverMesh, validateSection } from './validate.js';
 export { solvePlate, type PlateProblem, type PrescribedDisplacement } from './solve.js';
