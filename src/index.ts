@@ -126,7 +126,7 @@ export function study(model: Model, opts: StudyOptions = {}): StudyResult {
 /**
  * The study repeated over parameter values, on worker threads (from the built package; pass
  * `jobs: 0` to stay in this thread). `vary` is `{ r: [0, 2, 4] }`, a list of axes, or `--vary`
- * strings such as `'r=0:2:20'`. Returns every point's study and the site families.
+ * strings such as `'r=0..20 by 2'`. Returns every point's study and the site families.
  */
 export function sweep(modelText: string, file: string, vary: Record<string, number[]> | VaryAxis[] | string[], opts: SweepOptions = {}): Promise<SweepResult> {
   let axes: VaryAxis[];
