@@ -19,3 +19,4 @@ export { wedgeTheory, theoryExponent, type WedgeTheory } from './wedge-theory.js
 export { findSites, SITE_RULES, type SiteCandidate } from './sites.js';
 export { levelSizeField, probeLevel, LADDER_GRADING, NEIGHBOURHOOD_SIZES, type SiteProbe } from './ladder.js';
 export { runStudy, DEFAULT_READOUT_FRACTION, type StudyOptions, type BaseSolve } from './run.js';
+export { reportedSites, roundToScale, isAboveYield } from './reported.js';

@@ -17,6 +17,7 @@ import { BAND_RULES } from './band.js';
 import { coarsenedOuterField } from './far-field.js';
 import { boundaryEdgesAt } from './mesh-tools.js';
 import { nsifUnits } from './readouts.js';
+import { reportedSites } from './reported.js';
 
 export interface StudyOptions {
   levels?: number;
@@ -164,7 +165,7 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   }
 
   const stress = stressUnit(model.units);
-  const sites: SiteResult[] = cands.map((c, i) => toSiteResult(`S${i + 1}`, c, perSite[i], ratio, order, d, stress, model.units.length, stopped, farShift[i]));
+  const sites: SiteResult[] = reportedSites(cands.map((c, i) => toSiteResult(`S${i + 1}`, c, perSite[i], ratio, order, d, stress, model.units.length, stopped, farShift[i])), { scale: geom.scale, yieldStress: model.material.yield });
   const q = meshQuality(first.mesh);
   return {
     tool: 'peakwise',
@@ -179,6 +180,7 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
       appliedSum: first.solution.appliedSum,
     },
     measure,
+    ...(model.material.yield !== undefined ? { yieldStress: model.material.yield } : {}),
     sites,
     timings: { totalS: (performance.now() - t0) / 1000 },
     ...(interrupted ? { interrupted: true } : {}),
