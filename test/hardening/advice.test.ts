@@ -34,9 +34,10 @@ describe('a required point outside the plate names the entry that asked for it',
       caught = e;
     }
     expect(caught).toBeInstanceOf(MeshError);
-    // the first required point the mesher meets: the load (listed before the supports)
+    // the first required point the mesher meets: the point support inside the bore (the pipeline
+    // lists supports, then loads, then sites)
     expect(formatModelError(caught as MeshError, 'lug.yaml', model)).toBe(
-      'lug.yaml:10:23 loads[0].where.point: required point (120, 500) lies outside the plate (not inside the outline, or inside an opening)',
+      'lug.yaml:8:23 supports[1].where.point: required point (30, 25) lies outside the plate (not inside the outline, or inside an opening)',
     );
   });
 });
