@@ -68,17 +68,28 @@ function turnCurve(c: Curve, k: number): Curve {
 function materialLocator(geom: PlateGeometry): (p: Point) => number {
   const cached = LOCATORS.get(geom);
   if (cached) return cached;
-  const n = geom.pieces.length;
+  const locate = windingLocator(geom.pieces.map((piece) => piece.curve));
+  LOCATORS.set(geom, locate);
+  return locate;
+}
+
+/**
+ * The winding number about p of closed chains of curves (one or more loops), as
+ * `windingNumber` gives it, through a bucket grid of the curves: only those along the shortest
+ * axis ray from p are visited.
+ */
+export function windingLocator(all: readonly Curve[]): (p: Point) => number {
+  const n = all.length;
   const boxes = new Float64Array(4 * n);
-  geom.pieces.forEach((piece, i) => {
-    const b = curveBBox(piece.curve);
+  all.forEach((c, i) => {
+    const b = curveBBox(c);
     boxes.set([b.minX, b.minY, b.maxX, b.maxY], 4 * i);
   });
   const grid = buildBoxGrid(boxes);
-  const turned: Curve[][] = [0, 1, 2, 3].map((k) => geom.pieces.map((piece) => turnCurve(piece.curve, k)));
+  const turned: Curve[][] = [0, 1, 2, 3].map((k) => all.map((c) => turnCurve(c, k)));
   const stamp = new Int32Array(n);
   let visit = 0;
-  const one: Curve[] = [geom.pieces[0]?.curve];
+  const one: Curve[] = [all[0]];
   const locate = (p: Point): number => {
     visit++;
     const { nx, ny, cw, ch } = grid;
@@ -115,7 +126,6 @@ function materialLocator(geom: PlateGeometry): (p: Point) => number {
     // the turned frame reverses no orientation (rotations), so the count is the same integer
     return w;
   };
-  LOCATORS.set(geom, locate);
   return locate;
 }
 
