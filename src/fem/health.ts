@@ -124,6 +124,15 @@ export function estimateMeshSize(geometry: PlateGeometry, sizeAt: SizeField, ord
   return { triangles: Math.round(triangles), nodes: Math.round(nodes), dofs: Math.round(2 * nodes), exceeded };
 }
 
+/** A solve refused before the work because it would pass a limit: `limit` says which one. */
+export class LimitError extends SolveError {
+  readonly limit: 'dofs' | 'memory';
+  constructor(limit: 'dofs' | 'memory', message: string, keyPath?: string) {
+    super(message, keyPath);
+    this.limit = limit;
+  }
+}
+
 /**
  * The message for a model above the dof cap, with the size that would fit. Given the plate's
  * narrow side, a size that would leave fewer than MIN_ELEMENTS_ACROSS elements across it is not
@@ -131,13 +140,14 @@ export function estimateMeshSize(geometry: PlateGeometry, sizeAt: SizeField, ord
  */
 export function dofLimitError(
   estimatedDofs: number, maxDofs: number, size: number, how: 'estimated' | 'more-than' | 'counted', plate?: { narrow: number; lengthUnit?: string },
-): SolveError {
+): LimitError {
   // dofs grow like h⁻² for a uniform field, so the base size must grow by √(ratio)
   const factor = Math.sqrt(estimatedDofs / maxDofs);
   const suggested = size * factor * 1.1;
   if (plate && how !== 'more-than' && suggested > plate.narrow / MIN_ELEMENTS_ACROSS) {
     const L = plate.lengthUnit ? ` ${plate.lengthUnit}` : '';
-    return new SolveError(
+    return new LimitError(
+      'dofs',
       `the model would have ${how === 'estimated' ? 'about ' : ''}${fmtCount(estimatedDofs)} degrees of freedom, above --max-dofs ${fmtCount(maxDofs)}; `
         + `a mesh.size that fits (about ${fmtLen(suggested)}${L}) would leave fewer than ${MIN_ELEMENTS_ACROSS} elements across the plate's `
         + `${fmtLen(plate.narrow)}${L} narrow side, so coarsening cannot help: model a shorter length (the rest carried as a load), `
@@ -145,7 +155,8 @@ export function dofLimitError(
       'mesh.size',
     );
   }
-  return new SolveError(
+  return new LimitError(
+    'dofs',
     `the model would have ${how === 'estimated' ? 'about ' : how === 'more-than' ? 'more than ' : ''}${fmtCount(estimatedDofs)} degrees of freedom` +
       `${how === 'counted' ? ' (counted on the mesh)' : ' (estimated from the plate area and the element sizes, before meshing)'}, above --max-dofs ${fmtCount(maxDofs)}; ` +
       `coarsen it: ${how === 'more-than' ? `a larger mesh.size than ${fmtLen(size)}` : `mesh.size ${fmtLen(size)} → about ${fmtLen(suggested)}`} (or --size), larger mesh.local sizes, or a lower mesh.order; or raise --max-dofs`,
@@ -162,8 +173,9 @@ export function factorBytes(nnzStored: number): number {
   return nnzStored * 8 * 1.25;
 }
 
-export function memoryLimitError(bytes: number, limit: number, dofs: number): SolveError {
-  return new SolveError(
+export function memoryLimitError(bytes: number, limit: number, dofs: number): LimitError {
+  return new LimitError(
+    'memory',
     `factorising ${fmtCount(dofs)} degrees of freedom needs about ${fmtBytes(bytes)} of memory, above the ${fmtBytes(limit)} allowed; ` +
       `coarsen the mesh (a larger mesh.size or --size, larger mesh.local sizes, or mesh.order 1)`,
     'mesh.size',

@@ -11,7 +11,7 @@ import {
 } from '../linalg/index.js';
 import type { Csr } from '../linalg/types.js';
 import type { Mesh } from '../mesh/types.js';
-import type { AnyLoad, Support } from '../model/types.js';
+import type { Load, Support } from '../model/types.js';
 import { supportConstraints } from './prescribe.js';
 import { assembleStiffness, csrMultiply, stiffnessPattern, type StiffnessPattern } from './assembly.js';
 import { appliedResultant, loadVector } from './loads.js';
@@ -31,8 +31,8 @@ export interface PlateProblem {
   geometry: Pick<PlateGeometry, 'pieces' | 'loops' | 'scale'>;
   section: ElasticSection;
   supports: readonly Support[];
-  /** the model's loads, including its far-field stress and pin forces (`Model.fieldLoads`) */
-  loads: readonly AnyLoad[];
+  /** the model's loads, every kind (`Model.loads`) */
+  loads: readonly Load[];
   /**
    * Non-zero (or zero) displacements imposed at single dofs, eliminated like supports.
    * A dof both supported and prescribed takes the prescribed value.

@@ -10,12 +10,13 @@ import { nearest } from './issues.js';
 import type { ModelFile, RawPoint, RawVertex } from './schema.js';
 import { didYouMean, formatNumber, quote } from './text.js';
 import type {
-  DisplacementValue, FieldLoad, Load, LocalSize, Model, ModelWarning, Opening, Point, PolygonVertex, PrescribedMotion, Selector, Shape,
+  DisplacementValue, Load, LocalSize, Model, ModelWarning, Opening, Point, PolygonVertex, PrescribedMotion, Selector, Shape,
   SourcePosition, StudySettings, Support,
 } from './types.js';
 import { ImportError, MM_PER_UNIT, displacementRows, pointsShape, svgShape, type ReadFile } from './imports.js';
 import { parseExpression, namesIn, CONSTANTS } from './expr.js';
 import { DEFAULT_UNITS, PLAUSIBLE_E_MPA, PLAUSIBLE_THICKNESS_MM, lengthToMm, stressToMPa, stressUnit } from './units.js';
+import { levelsRule, ratioRule } from './study-rules.js';
 
 /** Largest number accepted anywhere: beyond it the value is a slip, not a plate. */
 export const MAX_MAGNITUDE = 1e15;
@@ -29,12 +30,6 @@ export const MAX_ESTIMATED_TRIANGLES = 2e7;
 /** Area of an equilateral triangle of edge h is √3/4·h² (used for element estimates). */
 const EQUILATERAL = Math.sqrt(3) / 4;
 
-/**
- * Largest refinement ratio between study levels: the same limit as `--ratio` and the study
- * itself (each level multiplies the element count near a site by about ratio²).
- */
-export const MAX_STUDY_RATIO = 4;
-
 export const DEFAULT_STUDY: Readonly<Omit<StudySettings, 'readouts'>> = {
   measure: 'von-mises', levels: 6, ratio: 2, sites: 'auto',
 };
@@ -46,6 +41,8 @@ interface Rule {
 const POSITIVE: Rule = { test: (v) => v > 0, text: 'must be > 0' };
 const NON_NEGATIVE: Rule = { test: (v) => v >= 0, text: 'must be >= 0 (0 = sharp)' };
 const ANY: Rule = { test: () => true, text: '' };
+/** a rule of study-rules.ts (shared with the CLI and the study) as a loader rule */
+const studyRule = (rule: (v: number) => string | undefined): Rule => ({ test: (v) => rule(v) === undefined, text: rule(NaN) ?? '' });
 
 export class Builder {
   readonly warnings: ModelWarning[] = [];
@@ -279,7 +276,6 @@ export function buildModel(
     b.fail('expected at least one load (or a support that prescribes a displacement with displace:)', 'loads');
   }
   const loads: Load[] = [];
-  const fieldLoads: FieldLoad[] = [];
   raw.loads.forEach((l, i) => {
     const keyPath = joinPath('loads', i);
     const where = b.selector(l.where, joinPath(keyPath, 'where'), ids);
@@ -291,7 +287,7 @@ export function buildModel(
       const g = l.gradient;
       const gp = joinPath(keyPath, 'gradient');
       const grad = (k: 'sxx' | 'syy' | 'sxy'): Point => (g?.[k] === undefined ? [0, 0] : b.point(g[k]!, joinPath(gp, k)));
-      fieldLoads.push({
+      loads.push({
         kind: 'stress',
         where,
         stress: [b.num(l.stress[0], joinPath(p, 0), 'sxx'), b.num(l.stress[1], joinPath(p, 1), 'syy'), b.num(l.stress[2], joinPath(p, 2), 'sxy')],
@@ -302,7 +298,7 @@ export function buildModel(
     } else {
       const force = b.point(l.pinForce!, joinPath(keyPath, 'pinForce'));
       if (force[0] === 0 && force[1] === 0) b.fail('a pin force of [0, 0] has no direction; give the pin force [Fx, Fy]', joinPath(keyPath, 'pinForce'));
-      fieldLoads.push({ kind: 'pinForce', where: where as Selector & { kind: 'opening' }, force, keyPath });
+      loads.push({ kind: 'pinForce', where: where as Selector & { kind: 'opening' }, force, keyPath });
     }
   });
 
@@ -332,12 +328,8 @@ export function buildModel(
   const s = raw.study;
   const study: StudySettings = {
     measure: s?.measure ?? DEFAULT_STUDY.measure,
-    levels: s?.levels === undefined ? DEFAULT_STUDY.levels : b.num(s.levels, 'study.levels', 'refinement levels', {
-      test: (v) => Number.isInteger(v) && v >= 2 && v <= 12, text: 'must be a whole number from 2 to 12',
-    }),
-    ratio: s?.ratio === undefined ? DEFAULT_STUDY.ratio : b.num(s.ratio, 'study.ratio', 'refinement ratio', {
-      test: (v) => v > 1 && v <= MAX_STUDY_RATIO, text: `must be > 1 (size shrinks by this factor per level) and at most ${MAX_STUDY_RATIO}`,
-    }),
+    levels: s?.levels === undefined ? DEFAULT_STUDY.levels : b.num(s.levels, 'study.levels', 'refinement levels', studyRule(levelsRule)),
+    ratio: s?.ratio === undefined ? DEFAULT_STUDY.ratio : b.num(s.ratio, 'study.ratio', 'refinement ratio', studyRule(ratioRule)),
     sites: s?.sites === undefined || s.sites === 'auto'
       ? 'auto'
       : s.sites.map((p, i) => b.point(p, joinPath('study.sites', i))),
@@ -370,7 +362,6 @@ export function buildModel(
     plate: { outline, openings },
     supports,
     loads,
-    ...(fieldLoads.length > 0 ? { fieldLoads } : {}),
     mesh: { size, order, local },
     study,
     sourceMap: valueAt,

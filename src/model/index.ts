@@ -8,5 +8,6 @@ export {
 } from './expr.js';
 export { formatPath, parsePath, joinPath, type PathSegment } from './keypath.js';
 export { closest, editDistance, didYouMean } from './text.js';
-export { boundingBox, shapeArea, MAX_ESTIMATED_TRIANGLES, MAX_MAGNITUDE, MAX_STUDY_RATIO, DEFAULT_STUDY } from './build.js';
+export { boundingBox, shapeArea, MAX_ESTIMATED_TRIANGLES, MAX_MAGNITUDE, DEFAULT_STUDY } from './build.js';
 export { MAX_ALIAS_COUNT, MAX_MODEL_CHARS } from './source.js';
+export { STUDY_LEVELS, STUDY_RATIO, levelsRule, ratioRule } from './study-rules.js';
