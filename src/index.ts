@@ -16,7 +16,7 @@ import type { SweepResult, VaryAxis } from './sweep/types.js';
 import { parseModel, type ParseOptions } from './model/index.js';
 import { buildGeometry } from './geometry/index.js';
 import { meshPlate, sizeFieldFromSettings } from './mesh/index.js';
-import { gaussStresses, solvePlate } from './fem/index.js';
+import { gaussStresses, selectorVertices, solvePlate } from './fem/index.js';
 import { estimateError, nodalMeasure, recoverSpr } from './recovery/index.js';
 import { runStudy, type StudyOptions } from './study/index.js';
 import { parseVary, runSweep, type SweepOptions } from './sweep/index.js';
@@ -36,7 +36,7 @@ export type * from './sweep/types.js';
 export { parseModel, formatModelError, stressUnit, type ParseOptions } from './model/index.js';
 export { buildGeometry, pointInMaterial } from './geometry/index.js';
 export { meshPlate, meshQuality, validateMesh, sizeFieldFromSettings } from './mesh/index.js';
-export { solvePlate, gaussStresses, assembleStiffness, appliedResultant, type PlateProblem } from './fem/index.js';
+export { solvePlate, gaussStresses, assembleStiffness, appliedResultant, selectorVertices, type PlateProblem } from './fem/index.js';
 export { analyze, factorize, solveFactor, solveSpd, residualNorm, toMatrixMarket } from './linalg/index.js';
 export {
   recoverSpr, recoverAverage, estimateError, nodalMeasure, measureValue, principal, vonMises, tresca,
@@ -66,12 +66,9 @@ export function loadModel(file: string, options: ParseOptions = {}): Model {
   return parseModel(text, file, options);
 }
 
-/** Points that must be mesh nodes: concentrated loads and point supports. */
-function requiredPoints(model: Model): Point[] {
-  const pts: Point[] = [];
-  for (const l of model.loads) if (l.where.kind === 'point') pts.push(l.where.at);
-  for (const s of model.supports) if (s.where.kind === 'point') pts.push(s.where.at);
-  return pts;
+/** Points that must be mesh nodes: what point selectors mean and where line selectors end (selectorVertices). */
+function requiredPoints(model: Model, geometry: PlateGeometry): Point[] {
+  return selectorVertices(model, geometry);
 }
 
 export interface Meshed {
@@ -84,7 +81,7 @@ export interface Meshed {
 export function mesh(model: Model, opts: { size?: number; order?: 1 | 2 } = {}): Meshed {
   const geometry = buildGeometry(model.plate);
   const sizeAt = sizeFieldFromSettings(geometry, { ...model.mesh, size: opts.size ?? model.mesh.size });
-  const m = meshPlate(geometry, { sizeAt, order: opts.order ?? model.mesh.order, requiredPoints: requiredPoints(model) });
+  const m = meshPlate(geometry, { sizeAt, order: opts.order ?? model.mesh.order, requiredPoints: requiredPoints(model, geometry) });
   return { model, geometry, mesh: m };
 }
 

@@ -15,7 +15,7 @@ import type { Mesh } from '../mesh/types.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { ElasticSection, GaussStresses, Solution } from '../fem/types.js';
 import type { ErrorEstimate, NodalStress } from '../recovery/types.js';
-import { assembleStiffness, gaussStresses, solvePlate, supportedDofs } from '../fem/index.js';
+import { assembleStiffness, gaussStresses, selectorVertices, solvePlate, supportedDofs } from '../fem/index.js';
 import { adaptiveSolve, estimateError, nodalMeasure, recoverSpr, vonMises, type AdaptiveCycle } from '../recovery/index.js';
 import { csrSubmatrix, matrixMarketChunks, vectorToMatrixMarket } from '../linalg/index.js';
 import { stressUnit } from '../model/index.js';
@@ -102,13 +102,9 @@ export function loadModel(ctx: CliContext, file: string, opts: CommonOptions, pa
   return model;
 }
 
-/** Points that must be mesh nodes: concentrated loads and point supports. */
-export function requiredPointsOf(model: Model): [number, number][] {
-  const pts: [number, number][] = [];
-  for (const l of model.loads) if (l.where.kind === 'point') pts.push(l.where.at);
-  for (const s of model.supports) if (s.where.kind === 'point') pts.push(s.where.at);
-  // a load and a support on one point: the mesher wants each point once
-  return pts.filter((p, i) => pts.findIndex((q) => q[0] === p[0] && q[1] === p[1]) === i);
+/** Points that must be mesh nodes: what point selectors mean and where line selectors end (each once). */
+export function requiredPointsOf(model: Model, geometry: PlateGeometry): [number, number][] {
+  return selectorVertices(model, geometry);
 }
 
 export function outDirFor(file: string, opts: CommonOptions): string {
@@ -120,7 +116,7 @@ export async function runMesh(ctx: CliContext, file: string, opts: CommonOptions
   const geometry = buildGeometry(model.plate);
   const sizeAt = sizeFieldFromSettings(geometry, model.mesh);
   const t0 = performance.now();
-  const mesh = meshPlate(geometry, { sizeAt, order: model.mesh.order, requiredPoints: requiredPointsOf(model) });
+  const mesh = meshPlate(geometry, { sizeAt, order: model.mesh.order, requiredPoints: requiredPointsOf(model, geometry) });
   const meshS = (performance.now() - t0) / 1000;
   const q = meshQuality(mesh);
   if (opts.svg) writeFileAtomic(opts.svg, meshSvg(mesh, geometry, { title: model.title }), [file]);
@@ -196,7 +192,7 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
   const section = sectionOf(model);
   const geometry = buildGeometry(model.plate);
   const sizeAt0 = sizeFieldFromSettings(geometry, model.mesh);
-  const requiredPoints = requiredPointsOf(model);
+  const requiredPoints = requiredPointsOf(model, geometry);
   const measure = model.study.measure;
   const maxDofs = maxDofsOf(opts);
   const color = useColor(opts);

@@ -4,7 +4,10 @@ export { TRI3_ETA, TRI3_W, TRI3_XI, cstGradients, gatherElementXY, lstGradients,
 export { elementStiffnessCst, elementStiffnessLst } from './elements.js';
 export { gaussStresses } from './stresses.js';
 export { assembleStiffness, csrMultiply, stiffnessPattern, type StiffnessPattern } from './assembly.js';
-export { SELECTOR_TOLERANCE, describeSelector, selectBoundary, type Selection } from './selectors.js';
+export {
+  SELECTOR_TOLERANCE, describeSelector, selectBoundary, nearestBoundaryPoint, pieceNearest, type Selection, type BoundaryPointHit,
+} from './selectors.js';
+export { selectorVertices, verticesOfSelector } from './required-points.js';
 export {
   appliedResultant,
   bodyForceLoad,

@@ -1,7 +1,8 @@
 import { FemError } from '../errors.js';
+import { closestOnCurve, curveEnd, curveStart } from '../geometry/index.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { Mesh } from '../mesh/types.js';
-import type { Selector } from '../model/types.js';
+import type { Point, Selector } from '../model/types.js';
 
 /** relative tolerance of selectors: a node matches a line or point within this · geometry scale */
 export const SELECTOR_TOLERANCE = 1e-6;
@@ -32,7 +33,61 @@ export function describeSelector(selector: Selector): string {
       return '{ outline: true }';
     case 'point':
       return `{ point: [${fmt(selector.at[0])}, ${fmt(selector.at[1])}] }`;
+    case 'piece':
+      return `{ piece: [${fmt(selector.at[0])}, ${fmt(selector.at[1])}] }`;
   }
+}
+
+/** A point of the boundary: where, on which piece (PlateGeometry.pieces index) at which parameter, how far from the query. */
+export interface BoundaryPointHit {
+  point: Point;
+  piece: number;
+  t: number;
+  distance: number;
+}
+
+/**
+ * The boundary point nearest p over every piece of the geometry (the target of a point selector, design §3).
+ * A point within SELECTOR_TOLERANCE · scale of a piece end is that end exactly (the junction is a mesh vertex
+ * already; a vertex a hair's breadth from it would only spoil the mesh). Ties go to the lower piece id.
+ */
+export function nearestBoundaryPoint(geom: Pick<PlateGeometry, 'pieces' | 'scale'>, p: Point): BoundaryPointHit {
+  const tol = SELECTOR_TOLERANCE * geom.scale;
+  let best: BoundaryPointHit = { point: [p[0], p[1]], piece: -1, t: 0, distance: Infinity };
+  for (const piece of geom.pieces) {
+    const c = closestOnCurve(piece.curve, p);
+    if (c.distance < best.distance) best = { point: c.point, piece: piece.id, t: c.t, distance: c.distance };
+  }
+  if (best.piece < 0) return best;
+  const curve = geom.pieces[best.piece].curve;
+  for (const [end, t] of [[curveStart(curve), 0], [curveEnd(curve), 1]] as const) {
+    if (Math.hypot(end[0] - best.point[0], end[1] - best.point[1]) <= tol) {
+      return { point: [end[0], end[1]], piece: best.piece, t, distance: Math.hypot(end[0] - p[0], end[1] - p[1]) };
+    }
+  }
+  return best;
+}
+
+/**
+ * The boundary piece a `{ piece: [x, y] }` selector means: the one nearest the point. A point about as near
+ * to two pieces (within the selector tolerance: a corner, a junction) is ambiguous and a FemError naming keyPath.
+ */
+export function pieceNearest(geom: Pick<PlateGeometry, 'pieces' | 'scale'>, p: Point, keyPath: string): number {
+  const tol = SELECTOR_TOLERANCE * geom.scale;
+  const d = geom.pieces.map((piece) => closestOnCurve(piece.curve, p).distance);
+  let best = -1;
+  for (let i = 0; i < d.length; i++) if (best < 0 || d[i] < d[best]) best = i;
+  if (best < 0) throw new FemError('the geometry has no boundary pieces', keyPath);
+  const rival = d.findIndex((v, i) => i !== best && v <= d[best] + tol);
+  if (rival >= 0) {
+    const name = (i: number) => `${geom.pieces[i].keyPath} (${geom.pieces[i].role})`;
+    throw new FemError(
+      `{ piece: [${fmt(p[0])}, ${fmt(p[1])}] } is as near to ${name(Math.min(best, rival))} as to ${name(Math.max(best, rival))}; `
+        + 'give a point on (or nearer to) the one piece you mean, away from its ends',
+      keyPath,
+    );
+  }
+  return best;
 }
 
 /** distance from (px, py) to the segment a–b */
@@ -62,8 +117,10 @@ function nodesOfEdges(mesh: Pick<Mesh, 'boundaryEdges' | 'edgeStride'>, edges: I
 /**
  * The boundary edges and nodes a selector picks (design §3). Lines (`x`, `y`, `segment`)
  * take every boundary edge whose nodes all lie on them within SELECTOR_TOLERANCE · geom.scale;
- * `opening` and `outline` take every edge of that loop; `point` takes the nearest node, which
- * must lie within the tolerance (the mesher places required points as nodes).
+ * `opening` and `outline` take every edge of that loop; `piece` every edge of the boundary piece nearest
+ * its point; `point` the boundary vertex at the boundary point nearest to it (nearestBoundaryPoint), which
+ * must lie within the tolerance — `selectorVertices` gives the mesher those points as required vertices,
+ * for forces and supports alike, so an interior node is never picked.
  * A selector that matches nothing is a FemError naming keyPath.
  */
 export function selectBoundary(
@@ -78,26 +135,35 @@ export function selectBoundary(
   const nEdges = boundaryEdges.length / stride;
 
   if (selector.kind === 'point') {
-    const [px, py] = selector.at;
+    const target = geom.pieces.length > 0 ? nearestBoundaryPoint(geom, selector.at).point : selector.at;
+    const [px, py] = target;
     let best = -1;
     let bestD = Infinity;
-    for (let n = 0; n < xy.length / 2; n++) {
-      const d = Math.hypot(xy[2 * n] - px, xy[2 * n + 1] - py);
-      if (d < bestD) {
-        bestD = d;
-        best = n;
+    // boundary vertices only (the two ends of each boundary edge)
+    for (let e = 0; e < nEdges; e++) {
+      for (let j = 0; j < 2; j++) {
+        const n = boundaryEdges[stride * e + j];
+        const d = Math.hypot(xy[2 * n] - px, xy[2 * n + 1] - py);
+        if (d < bestD || (d === bestD && n < best)) {
+          bestD = d;
+          best = n;
+        }
       }
     }
     if (best < 0 || bestD > tol) {
-      const near = best < 0 ? 'the mesh has no nodes' : `nearest is node ${best} at (${fmt(xy[2 * best])}, ${fmt(xy[2 * best + 1])}) at distance ${fmt(bestD)}`;
-      throw new FemError(`no node at point (${fmt(px)}, ${fmt(py)}); ${near} (tolerance ${fmt(tol)})`, keyPath);
+      const near = best < 0 ? 'the mesh has no boundary nodes' : `nearest boundary node is ${best} at (${fmt(xy[2 * best])}, ${fmt(xy[2 * best + 1])}) at distance ${fmt(bestD)}`;
+      const moved = px !== selector.at[0] || py !== selector.at[1] ? `, the boundary point nearest to (${fmt(selector.at[0])}, ${fmt(selector.at[1])})` : '';
+      throw new FemError(`no node at point (${fmt(px)}, ${fmt(py)})${moved}; ${near} (tolerance ${fmt(tol)}; mesh with selectorVertices as required points)`, keyPath);
     }
     return { edges: new Int32Array(0), nodes: Int32Array.of(best) };
   }
 
   const picked = new Int32Array(nEdges);
   let count = 0;
-  if (selector.kind === 'opening' || selector.kind === 'outline') {
+  if (selector.kind === 'piece') {
+    const piece = pieceNearest(geom, selector.at, keyPath);
+    for (let e = 0; e < nEdges; e++) if (mesh.boundaryPiece[e] === piece) picked[count++] = e;
+  } else if (selector.kind === 'opening' || selector.kind === 'outline') {
     const loopId = selector.kind === 'outline' ? 'outline' : selector.id;
     const loop = geom.loops.find((l) => l.id === loopId && (selector.kind === 'outline' ? !l.hole : true));
     if (!loop) {

@@ -5,17 +5,24 @@ import type { Point, StressMeasure } from '../model/types.js';
 import { buildPointLocator, measureValue, stressAt, type PointLocator } from '../recovery/index.js';
 import type { LevelResult } from './types.js';
 import type { SiteCandidate } from './sites.js';
-import { notchStressIntensity, sampledAverage } from './readouts.js';
+import { sampledAverage } from './readouts.js';
+import { reciprocalIntensity, type IntensityNorm, type IntensitySetup } from './stress-intensity.js';
 
 /** Grading of the refinement cone around each site: size grows by this much per unit distance. */
 export const LADDER_GRADING = 0.25;
 /** The peak neighbourhood: this many level-0 element sizes around the site (fixed in physical size). */
 export const NEIGHBOURHOOD_SIZES = 2;
 
-/** Size field of level k: every site's cone h₀/ratio^k + g·|x − site| under the base field (one mesh for all sites). */
-export function levelSizeField(base: SizeField, sites: readonly SiteCandidate[], h0: readonly number[], ratio: number, k: number): SizeField {
-  const px = sites.map((s) => s.at[0]), py = sites.map((s) => s.at[1]);
-  const hk = h0.map((h) => h / Math.pow(ratio, k));
+/**
+ * Size field of level k: every site's cone h₀/ratio^k + g·|x − site| under the base field (one mesh for all
+ * sites). A flat peak (a plateau) has a cone at each of its points, so the whole plateau is refined alike.
+ */
+export function levelSizeField(base: SizeField, sites: readonly Pick<SiteCandidate, 'at' | 'plateau'>[], h0: readonly number[], ratio: number, k: number): SizeField {
+  const px: number[] = [], py: number[] = [], hk: number[] = [];
+  sites.forEach((s, i) => {
+    const h = h0[i] / Math.pow(ratio, k);
+    for (const p of [s.at, ...(s.plateau?.points ?? [])]) { px.push(p[0]); py.push(p[1]); hk.push(h); }
+  });
   return (x: number, y: number) => {
     let h = base(x, y);
     for (let i = 0; i < px.length; i++) {
@@ -35,7 +42,7 @@ export function levelSizeField(base: SizeField, sites: readonly SiteCandidate[],
  * and that noise swamps the increments the fit relies on.
  */
 export function rosettePoints(site: SiteCandidate, h: number, straightFaces: [boolean, boolean]): Point[] {
-  const dir = site.direction;
+  const dir = site.bisector ?? site.direction;
   if (!dir || site.theory <= 0) return [];
   const alpha = ((site.feature.interiorAngleDeg > 0 ? site.feature.interiorAngleDeg : 180) * Math.PI) / 180;
   // dOut is the bisector turned back by α/2
@@ -58,17 +65,26 @@ export interface SiteProbe {
   radius: number;
   /** readout distance d along `site.direction` */
   distance: number;
+  /** how d was chosen, for the result ("0.05 × shorter face 20") */
+  distanceRule?: string;
+  /** material critical distance L (Taylor 2007): point method at L/2, line method over 2L */
+  criticalDistance?: number;
+  /** stress intensity by the reciprocal work integral (stress-intensity.ts), where the site has one */
+  intensity?: IntensitySetup & { norm: IntensityNorm };
 }
 
 /**
  * Record one level for one site: the peak of the nodal measure over all nodes within `radius` of the site,
  * the measure at distance d along the readout direction (point method), the mean along it over
- * 0 ≤ r ≤ 4d (line method: point at L/2 and line over 2L, Taylor 2007), the Gauss-point area mean over the
- * disk r ≤ d, and the notch stress intensity fitted on the opening stress over 3h ≤ r ≤ max(d, 8h).
+ * 0 ≤ r ≤ 4d (line method: point at L/2 and line over 2L, Taylor 2007, with L = 2d), the Gauss-point area
+ * mean over the disk r ≤ d, with a critical distance L the point and line methods at L/2 and over 2L, and
+ * the stress intensity by the reciprocal work integral (from the displacements u) when the annulus of its
+ * domain is at least two element sizes h from the apex (NaN on coarser levels).
  */
 export function probeLevel(
   mesh: Mesh, field: NodalStress, nodal: Float64Array, gauss: GaussStresses, section: ElasticSection,
   measure: StressMeasure, probe: SiteProbe, h: number, dofs: number, locator: PointLocator = buildPointLocator(mesh),
+  u?: Float64Array,
 ): LevelResult {
   const { site, radius, distance: d } = probe;
   const [sx, sy] = site.at;
@@ -84,31 +100,30 @@ export function probeLevel(
       const p = stressAt(mesh, field, sx + r * dir[0], sy + r * dir[1], locator);
       return p ? measureValue(measure, p.sxx, p.syy, p.sxy, p.szz) : NaN;
     };
+    // mean along the direction over 0 ≤ r ≤ length, trapezoidal over 97 samples (most of them in the material)
+    const lineMean = (length: number): number => {
+      const rs: number[] = [], vs: number[] = [];
+      const N = 96;
+      for (let i = 0; i <= N; i++) {
+        const r = (length * i) / N;
+        const v = at(Math.max(r, 1e-9 * length));
+        if (Number.isFinite(v)) { rs.push(r); vs.push(v); }
+      }
+      return rs.length > N / 2 ? sampledAverage(rs, vs) : NaN;
+    };
     const pm = at(d);
     if (Number.isFinite(pm)) out.atDistance = pm;
-    const rs: number[] = [], vs: number[] = [];
-    const N = 96;
-    for (let i = 0; i <= N; i++) {
-      const r = (4 * d * i) / N;
-      const v = at(Math.max(r, 1e-9 * d));
-      if (Number.isFinite(v)) { rs.push(r); vs.push(v); }
-    }
-    if (rs.length > N / 2) out.lineAverage = sampledAverage(rs, vs);
-    if (site.lambdaOpening !== undefined && site.lambdaOpening < 1) {
-      // opening stress: the normal stress across the bisector, n = bisector turned by 90°
-      const nx = -dir[1], ny = dir[0];
-      const r0 = 3 * h, r1 = Math.max(d, 8 * h);
-      const rr: number[] = [], ss: number[] = [];
-      for (let i = 0; i < 8; i++) {
-        const r = r0 * Math.pow(r1 / r0, i / 7);
-        const p = stressAt(mesh, field, sx + r * dir[0], sy + r * dir[1], locator);
-        if (!p) continue;
-        rr.push(r);
-        ss.push(p.sxx * nx * nx + 2 * p.sxy * nx * ny + p.syy * ny * ny);
-      }
-      if (rr.length >= 3) out.nsif = notchStressIntensity(rr, ss, site.lambdaOpening).K;
+    const lm = lineMean(4 * d);
+    if (Number.isFinite(lm)) out.lineAverage = lm;
+    const L = probe.criticalDistance;
+    if (L !== undefined) {
+      const p = at(L / 2), l = lineMean(2 * L);
+      if (Number.isFinite(p)) out.pointMethod = p;
+      if (Number.isFinite(l)) out.lineMethod = l;
     }
   }
+  const K = probe.intensity;
+  if (K && u && K.innerRadius >= 2 * h) out.nsif = reciprocalIntensity(mesh, u, section, K, K.norm);
   // area mean over the disk r ≤ d (Gauss points of the raw element stresses)
   let sw = 0, sv = 0;
   const plainStrain = section.state === 'plane-strain';

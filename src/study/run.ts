@@ -4,17 +4,18 @@ import { meshPlate, meshQuality, sizeFieldFromSettings } from '../mesh/index.js'
 import type { Mesh, SizeField } from '../mesh/types.js';
 import type { Model, Point, StressMeasure } from '../model/types.js';
 import { stressUnit } from '../model/index.js';
-import { gaussStresses, solvePlate } from '../fem/index.js';
+import { gaussStresses, selectorVertices, solvePlate } from '../fem/index.js';
 import type { ElasticSection, Solution } from '../fem/types.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { NodalStress } from '../recovery/types.js';
 import { buildPointLocator, nodalMeasure, recoverSpr } from '../recovery/index.js';
 import type { LevelResult, SiteResult, StudyResult } from './types.js';
-import { findSites, type SiteCandidate } from './sites.js';
+import { findSites, listedSitePoints, type SiteCandidate } from './sites.js';
 import { levelSizeField, probeLevel, rosettePoints, NEIGHBOURHOOD_SIZES, type SiteProbe } from './ladder.js';
 import { judgeSite } from './verdict.js';
 import { boundaryEdgesAt } from './mesh-tools.js';
 import { nsifUnits } from './readouts.js';
+import { intensityNorm } from './stress-intensity.js';
 import { dofLimitError, estimateMeshSize } from '../fem/health.js';
 
 export interface StudyOptions {
@@ -51,8 +52,8 @@ export interface BaseSolve {
   nodal: Float64Array;
 }
 
-/** Default readout distance: 1 % of the plate's bounding-box diagonal (docs/study.md). */
-export const DEFAULT_READOUT_FRACTION = 0.01;
+/** Default readout distance: this fraction of each site's feature length (docs/study.md, "Readout distance"). */
+export const DEFAULT_READOUT_FRACTION = 0.05;
 
 const VERSION = '0.1.0';
 
@@ -137,10 +138,10 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const geom = buildGeometry(model.plate);
   const section: ElasticSection = { E: model.material.E, nu: model.material.nu, state: model.state, thickness: model.thickness };
   const base = sizeFieldFromSettings(geom, { size, local: model.mesh.local });
-  // point selectors need a node exactly on their point
-  const required: Point[] = [];
-  for (const s of model.supports) if (s.where.kind === 'point') required.push(s.where.at);
-  for (const l of model.loads) if (l.where.kind === 'point') required.push(l.where.at);
+  // selector ends and point-selector targets, and the listed sites, are vertices of every mesh
+  const selectorPts = selectorVertices(model, geom);
+  const listed = listedSitePoints(model, geom, selectorPts);
+  const required: Point[] = [...selectorPts, ...listed];
   const total = 1 + levels;
   const progress = (done: number, label: string) => opts.onProgress?.(done, total, label);
 
@@ -149,8 +150,7 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const first = solveOn(model, geom, section, base, order, dedupe(required, 1e-9 * geom.scale), measure, limits);
   opts.onBase?.({ mesh: first.mesh, geometry: geom, solution: first.solution, field: first.field, nodal: first.nodal });
   progress(1, 'sites');
-  const cands = findSites({ model, geom, mesh: first.mesh, solution: first.solution, measure: first.nodal, baseSize: base });
-  const d = model.study.readouts.distance ?? DEFAULT_READOUT_FRACTION * geom.scale;
+  const cands = findSites({ model, geom, mesh: first.mesh, solution: first.solution, measure: first.nodal, baseSize: base, listed });
   const h0 = cands.map((c) => base(c.at[0], c.at[1]));
   const probes: SiteProbe[] = cands.map((site, i) => {
     let radius = NEIGHBOURHOOD_SIZES * h0[i];
@@ -158,13 +158,14 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
     for (let j = 0; j < cands.length; j++) {
       if (j !== i) radius = Math.min(radius, 0.5 * Math.hypot(cands[j].at[0] - site.at[0], cands[j].at[1] - site.at[1]));
     }
-    return { site, radius, distance: d };
+    return siteProbe(site, radius, model, section);
   });
   const sitePoints = cands.map((c) => c.at);
   const straight = cands.map((c) => straightFacesAt(first.mesh, geom, c.node));
   const perSite: LevelResult[][] = cands.map(() => []);
   let stopped = '';
   let interrupted = false;
+  let finest: Solved | undefined;
   for (let k = 0; k < levels && cands.length > 0; k++) {
     if (opts.shouldStop?.()) { interrupted = true; stopped = `interrupted after ${k} level${k === 1 ? '' : 's'}`; break; }
     let s: Solved;
@@ -177,13 +178,17 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
     }
     const locator = buildPointLocator(s.mesh);
     probes.forEach((p, i) => {
-      perSite[i].push(probeLevel(s.mesh, s.field, s.nodal, s.gauss, section, measure, p, h0[i] / Math.pow(ratio, k), s.solution.dofs, locator));
+      perSite[i].push(probeLevel(s.mesh, s.field, s.nodal, s.gauss, section, measure, p, h0[i] / Math.pow(ratio, k), s.solution.dofs, locator, s.solution.u));
     });
     progress(2 + k, `level ${k + 1} of ${levels}`);
+    if (k === levels - 1) finest = s;
   }
 
   const stress = stressUnit(model.units);
-  const sites: SiteResult[] = cands.map((c, i) => toSiteResult(`S${i + 1}`, c, perSite[i], ratio, order, d, stress, model.units.length, stopped));
+  const sites: SiteResult[] = cands.map((c, i) => {
+    const r = toSiteResult(`S${i + 1}`, c, perSite[i], ratio, order, probes[i], stress, model.units.length, stopped);
+    return finest ? withPlateauExtent(r, c, finest.mesh, finest.nodal) : r;
+  });
   const q = meshQuality(first.mesh);
   return {
     tool: 'peakwise',
@@ -205,24 +210,40 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
 }
 
 function toSiteResult(
-  id: string, c: SiteCandidate, levels: LevelResult[], ratio: number, order: 1 | 2, d: number, stress: string, length: string, stopped: string,
+  id: string, c: SiteCandidate, levels: LevelResult[], ratio: number, order: 1 | 2, probe: SiteProbe, stress: string, length: string, stopped: string,
 ): SiteResult {
   const v = judgeSite(levels.map((l) => l.h), levels.map((l) => l.peak), ratio, order, c.theory, c.theoryWhy);
   const last = levels[levels.length - 1];
+  const d = probe.distance;
   const readouts: SiteResult['readouts'] = {};
   if (last) {
-    if (last.atDistance !== undefined) { readouts.atDistance = last.atDistance; readouts.distance = d; }
-    if (last.average !== undefined) { readouts.average = last.average; readouts.distance = d; }
+    if (last.atDistance !== undefined || last.average !== undefined) {
+      readouts.distance = d;
+      readouts.distanceRule = probe.distanceRule;
+      if (last.atDistance !== undefined) readouts.atDistance = last.atDistance;
+      if (last.average !== undefined) readouts.average = last.average;
+    }
     if (last.lineAverage !== undefined) { readouts.lineAverage = last.lineAverage; readouts.lineLength = 4 * d; }
-    if (last.nsif !== undefined && c.lambdaOpening !== undefined) {
-      readouts.nsif = last.nsif;
-      readouts.nsifUnits = nsifUnits(stress, length, c.lambdaOpening);
+    if (probe.criticalDistance !== undefined && (last.pointMethod !== undefined || last.lineMethod !== undefined)) {
+      readouts.criticalDistance = probe.criticalDistance;
+      if (last.pointMethod !== undefined) readouts.pointMethod = last.pointMethod;
+      if (last.lineMethod !== undefined) readouts.lineMethod = last.lineMethod;
+    }
+    const K = intensityBand(levels, ratio, order);
+    if (K && probe.intensity) {
+      readouts.nsif = K.value;
+      readouts.nsifUncertainty = K.uncertainty;
+      readouts.nsifUnits = nsifUnits(stress, length, probe.intensity.lambda);
+      readouts.nsifRadii = [probe.intensity.innerRadius, probe.intensity.outerRadius];
     }
   }
   const why = c.feature.kind === 'point-load' || c.feature.kind === 'point-support' ? `${c.theoryWhy}: ` : '';
+  // a peak found as a maximum of the first mesh sits where the finest level puts it (a feature or a listed
+  // point stays exactly where it is)
+  const at: Point = c.origin === 'maximum' && last ? [last.peakAt[0], last.peakAt[1]] : c.at;
   return {
     id,
-    at: c.at,
+    at,
     feature: c.feature,
     levels,
     verdict: v.verdict,
@@ -234,4 +255,88 @@ function toSiteResult(
     history: v.history.map(({ finest, value, uncertainty, observedOrder }) => ({ finest, value, uncertainty, observedOrder })),
     ...(c.direction ? { direction: c.direction } : {}),
   };
+}
+
+/**
+ * The probe of one site: readout distance (study.readouts.distance, else DEFAULT_READOUT_FRACTION × the
+ * feature length), the critical distance, and the stress intensity's annulus R₁ = ℓ/4 ≤ r ≤ R₂ = ℓ/2 (ℓ the
+ * feature length: the faces are free of other features and no other site is inside) with the
+ * eigenfunction's normalisation.
+ */
+function siteProbe(site: SiteCandidate, radius: number, model: Model, section: ElasticSection): SiteProbe {
+  const fixed = model.study.readouts.distance;
+  const distance = fixed ?? DEFAULT_READOUT_FRACTION * site.featureLength;
+  const distanceRule = fixed !== undefined ? 'study.readouts.distance' : `${DEFAULT_READOUT_FRACTION} × ${site.featureLengthWhy}`;
+  const probe: SiteProbe = { site, radius, distance, distanceRule };
+  const L = model.study.readouts.critical?.length;
+  if (L !== undefined) probe.criticalDistance = L;
+  if (site.intensity) {
+    const { alphaDeg, lambda, mirrorFactor, bisector } = site.intensity;
+    probe.intensity = {
+      apex: site.at, bisector, alphaDeg, lambda, mirrorFactor,
+      innerRadius: 0.25 * site.featureLength, outerRadius: 0.5 * site.featureLength,
+      norm: intensityNorm(alphaDeg, lambda, section),
+    };
+  }
+  return probe;
+}
+
+/**
+ * Stress intensity over the levels: the same fit and band as a peak (judgeSite with no singularity expected)
+ * on the levels where it was taken, the finest ones in a row, with the floor of issue 12 §1: the half-width is
+ * never below the largest difference among the finest three values (the far field is refined no further
+ * than the base mesh, and no increment of the ladder sees its error). Not converging: the finest value, band NaN.
+ */
+export function intensityBand(levels: readonly Pick<LevelResult, 'h' | 'nsif'>[], ratio: number, order: 1 | 2): { value: number; uncertainty: number } | undefined {
+  let first = levels.length;
+  while (first > 0 && levels[first - 1].nsif !== undefined && Number.isFinite(levels[first - 1].nsif)) first--;
+  const used = levels.slice(first);
+  if (used.length === 0) return undefined;
+  const K = used.map((l) => l.nsif!);
+  const v = judgeSite(used.map((l) => l.h), K, ratio, order, 0);
+  const finestValue = K[K.length - 1];
+  if (v.verdict !== 'converging') return { value: finestValue, uncertainty: NaN };
+  const last3 = K.slice(-3);
+  const spread = Math.max(...last3) - Math.min(...last3);
+  return { value: v.estimate.value, uncertainty: Math.max(v.estimate.uncertainty, spread) };
+}
+
+/**
+ * The extent of a flat peak (issue 12 §8) on the finest mesh: from the node of the finest peak, the boundary
+ * both ways while the nodal measure stays within the site's band (twice the larger of the band and the
+ * finest level's distance from the converged value, so the noise of that mesh does not cut it short).
+ */
+function withPlateauExtent(r: SiteResult, c: SiteCandidate, mesh: Mesh, nodal: Float64Array): SiteResult {
+  if (!c.plateau || r.verdict !== 'converging' || r.levels.length === 0) return r;
+  const last = r.levels[r.levels.length - 1];
+  const tol = 2 * Math.max(r.estimate.uncertainty, Math.abs(last.peak - r.estimate.value));
+  const floor = r.estimate.value - tol;
+  const s = mesh.edgeStride, nE = mesh.boundaryEdges.length / s;
+  const out = new Int32Array(mesh.xy.length / 2).fill(-1), into = new Int32Array(mesh.xy.length / 2).fill(-1);
+  for (let e = 0; e < nE; e++) { out[mesh.boundaryEdges[s * e]] = e; into[mesh.boundaryEdges[s * e + 1]] = e; }
+  let start = -1, bd = Infinity;
+  for (let e = 0; e < nE; e++) {
+    const n = mesh.boundaryEdges[s * e];
+    const dd = Math.hypot(mesh.xy[2 * n] - last.peakAt[0], mesh.xy[2 * n + 1] - last.peakAt[1]);
+    if (dd < bd) { bd = dd; start = n; }
+  }
+  if (start < 0) return r;
+  const ends: number[] = [start, start];
+  let length = 0, closed = false;
+  for (const forward of [true, false]) {
+    let m = start;
+    for (;;) {
+      const e = forward ? out[m] : into[m];
+      if (e < 0) break;
+      const next = mesh.boundaryEdges[s * e + (forward ? 1 : 0)];
+      if (!(nodal[next] >= floor)) break;
+      length += Math.hypot(mesh.xy[2 * next] - mesh.xy[2 * m], mesh.xy[2 * next + 1] - mesh.xy[2 * m + 1]);
+      if (next === start || next === ends[0]) { closed = true; break; }
+      m = next;
+    }
+    if (closed) break;
+    ends[forward ? 0 : 1] = m;
+  }
+  const P = (n: number): Point => [mesh.xy[2 * n], mesh.xy[2 * n + 1]];
+  return { ...r, extent: closed ? { from: P(start), to: P(start), length, closed } : { from: P(ends[1]), to: P(ends[0]), length, closed } };
 }
