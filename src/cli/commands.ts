@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs';
 import { dirname, isAbsolute, join } from 'node:path';
 import pc from 'picocolors';
 import { PeakwiseError } from '../errors.js';
-import type { Model } from '../model/types.js';
+import type { Model, ModelWarning } from '../model/types.js';
 import { parseModel } from '../model/index.js';
 import { buildGeometry } from '../geometry/index.js';
 import { meshPlate, meshQuality, sizeFieldFromSettings } from '../mesh/index.js';
@@ -15,7 +15,7 @@ import type { Mesh } from '../mesh/types.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { ElasticSection, GaussStresses, Solution } from '../fem/types.js';
 import type { ErrorEstimate, NodalStress } from '../recovery/types.js';
-import { assembleStiffness, gaussStresses, selectorVertices, solvePlate, supportedDofs } from '../fem/index.js';
+import { assembleStiffness, gaussStresses, selectorVertices, selectorWarnings, solvePlate, supportedDofs } from '../fem/index.js';
 import { adaptiveSolve, estimateError, nodalMeasure, recoverSpr, vonMises, type AdaptiveCycle } from '../recovery/index.js';
 import { csrSubmatrix, matrixMarketChunks, vectorToMatrixMarket } from '../linalg/index.js';
 import { stressUnit } from '../model/index.js';
@@ -70,9 +70,9 @@ export function defaultFactorBytes(): number {
   return 0.5 * totalmem();
 }
 
-/** Model hints (e.g. E in other units) as `file:line:col key: message`. */
-export function modelWarnings(model: Model, file: string): string[] {
-  return (model.warnings ?? []).map((w) => {
+/** Model hints (e.g. E in other units), and `extra` ones found later (selectorWarnings), as `file:line:col key: message`. */
+export function modelWarnings(model: Model, file: string, extra: readonly ModelWarning[] = []): string[] {
+  return [...(model.warnings ?? []), ...extra].map((w) => {
     const pos = nearestPosition(model, w.keyPath);
     return `${file}${pos ? `:${pos.line}:${pos.col}` : ''} ${w.keyPath}: ${w.message}`;
   });
@@ -272,7 +272,7 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
     writeFileAtomic(join(outDir, 'report.html'), reportHtml({ model, study: oneSolve, mesh, geometry, field: chosen, u: solution.u, mode: 'solve', checks: recordedChecks(), ...(cut ? { cut: cut.plot } : {}) }), [file]);
   }
 
-  const warnings = [...modelWarnings(model, file), ...healthWarnings({ section, geometry, mesh, size: model.mesh.size, lengthUnit: model.units.length })];
+  const warnings = [...modelWarnings(model, file, selectorWarnings(model, geometry)), ...healthWarnings({ section, geometry, mesh, size: model.mesh.size, lengthUnit: model.units.length })];
   emitWarnings(warnings, opts);
   const stressUnitLabel = stressUnit(model.units);
   const timings = { meshS, assembleS: solution.timings.assembleS, orderS: solution.timings.orderS, factorS: solution.timings.factorS, solveS: solution.timings.solveS, recoverS };
@@ -392,7 +392,7 @@ export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOpti
   } finally {
     bar.stop();
   }
-  const warnings = modelWarnings(model, file);
+  const warnings = modelWarnings(model, file, base ? selectorWarnings(model, base.geometry) : []);
   if (base) {
     warnings.push(...healthWarnings({ section: sectionOf(model), geometry: base.geometry, mesh: base.mesh, size: model.mesh.size, lengthUnit: model.units.length }));
   }

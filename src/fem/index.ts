@@ -5,7 +5,8 @@ export { elementStiffnessCst, elementStiffnessLst } from './elements.js';
 export { gaussStresses } from './stresses.js';
 export { assembleStiffness, csrMultiply, stiffnessPattern, type StiffnessPattern } from './assembly.js';
 export {
-  SELECTOR_TOLERANCE, describeSelector, selectBoundary, nearestBoundaryPoint, pieceNearest, type Selection, type BoundaryPointHit,
+  SELECTOR_TOLERANCE, describeSelector, selectBoundary, nearestBoundaryPoint, pieceNearest, outlineFarPieces, farFieldEdges, selectorWarnings,
+  type Selection, type BoundaryPointHit,
 } from './selectors.js';
 export { selectorVertices, verticesOfSelector } from './required-points.js';
 export {

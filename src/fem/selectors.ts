@@ -1,8 +1,8 @@
 import { FemError } from '../errors.js';
-import { closestOnCurve, curveEnd, curveStart } from '../geometry/index.js';
+import { closestOnCurve, curveEnd, curvePoint, curveStart, loopPolyline } from '../geometry/index.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { Mesh } from '../mesh/types.js';
-import type { Point, Selector } from '../model/types.js';
+import type { AnyLoad, ModelWarning, Point, Selector, Support } from '../model/types.js';
 
 /** relative tolerance of selectors: a node matches a line or point within this · geometry scale */
 export const SELECTOR_TOLERANCE = 1e-6;
@@ -200,4 +200,122 @@ export function selectBoundary(
   }
   const edges = picked.slice(0, count);
   return { edges, nodes: nodesOfEdges(mesh, edges) };
+}
+
+/** Convex hull of points, counter-clockwise (A. M. Andrew, "Another efficient algorithm for convex hulls in two dimensions", Inf. Process. Lett. 9 (1979) 216–219). */
+function convexHull(points: readonly Point[]): Point[] {
+  const p = [...points].sort((a, b) => a[0] - b[0] || a[1] - b[1]);
+  if (p.length < 3) return p;
+  const cross = (o: Point, a: Point, b: Point) => (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0]);
+  const lower: Point[] = [], upper: Point[] = [];
+  for (const q of p) {
+    while (lower.length >= 2 && cross(lower[lower.length - 2], lower[lower.length - 1], q) <= 0) lower.pop();
+    lower.push(q);
+  }
+  for (let i = p.length - 1; i >= 0; i--) {
+    const q = p[i];
+    while (upper.length >= 2 && cross(upper[upper.length - 2], upper[upper.length - 1], q) <= 0) upper.pop();
+    upper.push(q);
+  }
+  return lower.slice(0, -1).concat(upper.slice(0, -1));
+}
+
+/**
+ * The outline's far edges (issue 12 §10): the outline pieces that lie on its convex hull. A piece with a point
+ * deeper inside the hull than SELECTOR_TOLERANCE · scale (7 points across it; curves drawn with chords of at
+ * most scale/400) is a notch, slit or crack face, a re-entrant edge or fillet: a far-field stress does not act
+ * there. Convex arcs bulge out of the hull of their chords and count as far edges.
+ */
+export function outlineFarPieces(geom: Pick<PlateGeometry, 'pieces' | 'loops' | 'scale'>): Set<number> {
+  const outline = geom.loops.find((l) => !l.hole);
+  const far = new Set<number>();
+  if (!outline) return far;
+  const hull = convexHull(loopPolyline(geom as PlateGeometry, outline.id, geom.scale / 400));
+  const tol = SELECTOR_TOLERANCE * geom.scale;
+  // depth of p inside the hull: the smallest distance to its edges' lines, ≤ 0 outside
+  const depth = (p: Point) => {
+    let d = Infinity;
+    for (let i = 0; i < hull.length; i++) {
+      const a = hull[i], b = hull[(i + 1) % hull.length];
+      const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
+      if (len === 0) continue;
+      d = Math.min(d, ((b[0] - a[0]) * (p[1] - a[1]) - (b[1] - a[1]) * (p[0] - a[0])) / len);
+    }
+    return d;
+  };
+  for (const id of outline.pieces) {
+    const c = geom.pieces[id].curve;
+    let inside = false;
+    for (let k = 1; k <= 7 && !inside; k++) inside = depth(curvePoint(c, k / 8)) > tol;
+    if (!inside) far.add(id);
+  }
+  return far;
+}
+
+/**
+ * The edges a far-field stress load acts on: on `{ outline: true }`, only the outline's far edges
+ * (outlineFarPieces) — on a notch, slit or crack face the traction σ·n of the uncracked plate would undo the
+ * notch (the plate would carry the uniform state and nothing else); any other selector as it selects.
+ */
+export function farFieldEdges(mesh: Pick<Mesh, 'boundaryPiece'>, geom: Pick<PlateGeometry, 'pieces' | 'loops' | 'scale'>, where: Selector, edges: Int32Array): Int32Array {
+  if (where.kind !== 'outline') return edges;
+  const far = outlineFarPieces(geom);
+  const kept = edges.filter((e) => far.has(mesh.boundaryPiece[e]));
+  return kept.length > 0 ? kept : edges;
+}
+
+/**
+ * Selector warnings that need the geometry (issue 12 §4, §10), with the key they concern: a point selector whose
+ * point is off the boundary (the nearest boundary point is used), and a far-field stress on the outline that
+ * leaves notch, slit or crack faces free — or, selected explicitly, loads them.
+ */
+export function selectorWarnings(
+  model: { supports: readonly Pick<Support, 'where' | 'keyPath'>[]; loads: readonly Pick<AnyLoad, 'where' | 'keyPath' | 'kind'>[]; fieldLoads?: readonly Pick<AnyLoad, 'where' | 'keyPath' | 'kind'>[] },
+  geom: Pick<PlateGeometry, 'pieces' | 'loops' | 'scale'>,
+): ModelWarning[] {
+  const out: ModelWarning[] = [];
+  const tol = SELECTOR_TOLERANCE * geom.scale;
+  const all = [...model.supports.map((s) => ({ ...s, kind: 'support' as const })), ...model.loads, ...(model.fieldLoads ?? [])];
+  for (const item of all) {
+    if (item.where.kind !== 'point') continue;
+    const hit = nearestBoundaryPoint(geom, item.where.at);
+    if (hit.distance > tol) {
+      out.push({
+        keyPath: `${item.keyPath}.where`,
+        message: `the point (${fmt(item.where.at[0])}, ${fmt(item.where.at[1])}) is not on the boundary; the nearest boundary point (${fmt(hit.point[0])}, ${fmt(hit.point[1])}), ${fmt(hit.distance)} away, is used`,
+      });
+    }
+  }
+  let far: Set<number> | undefined;
+  for (const l of model.fieldLoads ?? []) {
+    if (l.kind !== 'stress') continue;
+    far ??= outlineFarPieces(geom);
+    const outline = geom.loops.find((lp) => !lp.hole);
+    const faces = (outline?.pieces ?? []).filter((id) => !far!.has(id));
+    if (faces.length === 0) continue;
+    const names = [...new Set(faces.map((id) => geom.pieces[id].keyPath))].join(', ');
+    if (l.where.kind === 'outline') {
+      out.push({
+        keyPath: l.keyPath,
+        message: `the far-field stress acts on the outline's far edges only: ${faces.length} face${faces.length === 1 ? '' : 's'} inside its convex hull (notch, slit or crack faces: ${names}) stay free; select them explicitly to load them`,
+      });
+    } else if (l.where.kind === 'piece' || l.where.kind === 'segment' || l.where.kind === 'x' || l.where.kind === 'y') {
+      const w = l.where;
+      const onFace = faces.some((id) => {
+        const c = geom.pieces[id].curve;
+        const mid = curvePoint(c, 0.5);
+        if (w.kind === 'piece') return pieceNearest(geom, w.at, l.keyPath) === id;
+        if (w.kind === 'x') return Math.abs(mid[0] - w.value) <= tol && Math.abs(curveStart(c)[0] - w.value) <= tol;
+        if (w.kind === 'y') return Math.abs(mid[1] - w.value) <= tol && Math.abs(curveStart(c)[1] - w.value) <= tol;
+        return distanceToSegment(mid[0], mid[1], w.from[0], w.from[1], w.to[0], w.to[1]) <= tol;
+      });
+      if (onFace) {
+        out.push({
+          keyPath: l.keyPath,
+          message: 'the far-field stress lands on a face inside the outline\'s convex hull (a notch, slit or crack face): that face carries σ·n of the uncracked plate, which cancels the notch; select only the far edges if it should be free',
+        });
+      }
+    }
+  }
+  return out;
 }

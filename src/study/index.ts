@@ -11,6 +11,7 @@ export {
   extrapolateToZero, hotSpotLinear, hotSpotQuadratic, hotSpotTypeB, hotSpotPoints,
 } from './readouts.js';
 export { wedgeTheory, theoryExponent, type WedgeTheory } from './wedge-theory.js';
-export { findSites, SITE_RULES, type SiteCandidate } from './sites.js';
-export { levelSizeField, probeLevel, LADDER_GRADING, NEIGHBOURHOOD_SIZES, type SiteProbe } from './ladder.js';
-export { runStudy, DEFAULT_READOUT_FRACTION, type StudyOptions, type BaseSolve } from './run.js';
+export { findSites, snapSitePoint, listedSitePoints, SITE_RULES, type SiteCandidate } from './sites.js';
+export { levelSizeField, probeLevel, LADDER_GRADING, NEIGHBOURHOOD_SIZES, APEX_SIZES, type SiteProbe } from './ladder.js';
+export { runStudy, intensityBand, DEFAULT_READOUT_FRACTION, type StudyOptions, type BaseSolve } from './run.js';
+export { intensityNorm, reciprocalIntensity, singularTerm, type IntensitySetup, type IntensityNorm } from './stress-intensity.js';

@@ -6,12 +6,14 @@ import { buildPointLocator, measureValue, stressAt, type PointLocator } from '..
 import type { LevelResult } from './types.js';
 import type { SiteCandidate } from './sites.js';
 import { sampledAverage } from './readouts.js';
-import { reciprocalIntensity, type IntensityNorm, type IntensitySetup } from './stress-intensity.js';
+import { reciprocalIntensity, singularTerm, type IntensityNorm, type IntensitySetup } from './stress-intensity.js';
 
 /** Grading of the refinement cone around each site: size grows by this much per unit distance. */
 export const LADDER_GRADING = 0.25;
 /** The peak neighbourhood: this many level-0 element sizes around the site (fixed in physical size). */
 export const NEIGHBOURHOOD_SIZES = 2;
+/** Readouts closer than this many level sizes to a singular apex use the singular term of the level's K. */
+export const APEX_SIZES = 2;
 
 /**
  * Size field of level k: every site's cone h₀/ratio^k + g·|x − site| under the base field (one mesh for all
@@ -94,22 +96,33 @@ export function probeLevel(
     if (nodal[n] > peak || (nodal[n] === peak && n < pn)) { peak = nodal[n]; pn = n; }
   }
   const out: LevelResult = { h, dofs, peak, peakAt: [mesh.xy[2 * pn], mesh.xy[2 * pn + 1]], radius };
+  const K = probe.intensity;
+  if (K && u && K.innerRadius >= 2 * h) out.nsif = reciprocalIntensity(mesh, u, section, K, K.norm);
   const dir = site.direction;
   if (dir) {
+    // within APEX_SIZES·h of a singular apex the elements cannot follow r^(λ−1): the readouts take the
+    // singular term of this level's K there (the unit eigenfunction scaled by K/K₁), the FE field beyond
+    const singular = K && out.nsif !== undefined && Number.isFinite(out.nsif) ? singularTerm(K, out.nsif, section) : undefined;
     const at = (r: number) => {
+      if (singular && r < APEX_SIZES * h) {
+        const p = singular(r);
+        return measureValue(measure, p.sxx, p.syy, p.sxy, section.state === 'plane-strain' ? section.nu * (p.sxx + p.syy) : 0);
+      }
       const p = stressAt(mesh, field, sx + r * dir[0], sy + r * dir[1], locator);
       return p ? measureValue(measure, p.sxx, p.syy, p.sxy, p.szz) : NaN;
     };
-    // mean along the direction over 0 ≤ r ≤ length, trapezoidal over 97 samples (most of them in the material)
+    // mean along the direction over 0 ≤ r ≤ length: trapezoidal in s with r = length·s² (97 samples), which
+    // turns an r^(λ−1) rise at the apex (λ ≥ 1/2) into a bounded integrand 2·length·s·σ(length·s²), so the
+    // mean converges as the levels resolve the apex instead of following the growing apex value
     const lineMean = (length: number): number => {
-      const rs: number[] = [], vs: number[] = [];
+      const ss: number[] = [], gs: number[] = [];
       const N = 96;
       for (let i = 0; i <= N; i++) {
-        const r = (length * i) / N;
-        const v = at(Math.max(r, 1e-9 * length));
-        if (Number.isFinite(v)) { rs.push(r); vs.push(v); }
+        const sv = i / N;
+        const v = at(Math.max(length * sv * sv, 1e-9 * length));
+        if (Number.isFinite(v)) { ss.push(sv); gs.push(2 * sv * v); }
       }
-      return rs.length > N / 2 ? sampledAverage(rs, vs) : NaN;
+      return ss.length > N / 2 ? (sampledAverage(ss, gs) * (ss[ss.length - 1] - ss[0])) : NaN;
     };
     const pm = at(d);
     if (Number.isFinite(pm)) out.atDistance = pm;
@@ -122,8 +135,6 @@ export function probeLevel(
       if (Number.isFinite(l)) out.lineMethod = l;
     }
   }
-  const K = probe.intensity;
-  if (K && u && K.innerRadius >= 2 * h) out.nsif = reciprocalIntensity(mesh, u, section, K, K.norm);
   // area mean over the disk r ≤ d (Gauss points of the raw element stresses)
   let sw = 0, sv = 0;
   const plainStrain = section.state === 'plane-strain';

@@ -4,7 +4,7 @@ import { meshPlate, meshQuality, sizeFieldFromSettings } from '../mesh/index.js'
 import type { Mesh, SizeField } from '../mesh/types.js';
 import type { Model, Point, StressMeasure } from '../model/types.js';
 import { stressUnit } from '../model/index.js';
-import { gaussStresses, selectorVertices, solvePlate } from '../fem/index.js';
+import { gaussStresses, selectorVertices, selectorWarnings, solvePlate } from '../fem/index.js';
 import type { ElasticSection, Solution } from '../fem/types.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { NodalStress } from '../recovery/types.js';
@@ -141,6 +141,7 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   // selector ends and point-selector targets, and the listed sites, are vertices of every mesh
   const selectorPts = selectorVertices(model, geom);
   const listed = listedSitePoints(model, geom, selectorPts);
+  const warnings = selectorWarnings(model, geom);
   const required: Point[] = [...selectorPts, ...listed];
   const total = 1 + levels;
   const progress = (done: number, label: string) => opts.onProgress?.(done, total, label);
@@ -206,6 +207,7 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
     sites,
     timings: { totalS: (performance.now() - t0) / 1000 },
     ...(interrupted ? { interrupted: true } : {}),
+    ...(warnings.length > 0 ? { warnings: warnings.map((w) => `${w.keyPath}: ${w.message}`) } : {}),
   };
 }
 
@@ -303,13 +305,16 @@ export function intensityBand(levels: readonly Pick<LevelResult, 'h' | 'nsif'>[]
 
 /**
  * The extent of a flat peak (issue 12 §8) on the finest mesh: from the node of the finest peak, the boundary
- * both ways while the nodal measure stays within the site's band (twice the larger of the band and the
- * finest level's distance from the converged value, so the noise of that mesh does not cut it short).
+ * both ways while the nodal measure stays within twice the site's band, the band taken at least as wide as
+ * the finest level's distance from the converged value and the spread of the finest three peaks (so the
+ * node-to-node noise of the finest mesh does not cut the plateau short).
  */
 function withPlateauExtent(r: SiteResult, c: SiteCandidate, mesh: Mesh, nodal: Float64Array): SiteResult {
   if (!c.plateau || r.verdict !== 'converging' || r.levels.length === 0) return r;
   const last = r.levels[r.levels.length - 1];
-  const tol = 2 * Math.max(r.estimate.uncertainty, Math.abs(last.peak - r.estimate.value));
+  const peaks = r.levels.slice(-3).map((l) => l.peak);
+  const spread = Math.max(...peaks) - Math.min(...peaks);
+  const tol = 2 * Math.max(r.estimate.uncertainty, Math.abs(last.peak - r.estimate.value), spread);
   const floor = r.estimate.value - tol;
   const s = mesh.edgeStride, nE = mesh.boundaryEdges.length / s;
   const out = new Int32Array(mesh.xy.length / 2).fill(-1), into = new Int32Array(mesh.xy.length / 2).fill(-1);

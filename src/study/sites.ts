@@ -419,8 +419,14 @@ export function findSites(ctx: Ctx): SiteCandidate[] {
       const next = mesh.boundaryEdges[se * e + (forward ? 1 : 0)];
       length += Math.hypot(mesh.xy[2 * next] - mesh.xy[2 * m], mesh.xy[2 * next + 1] - mesh.xy[2 * m + 1]);
       const e2 = forward ? links.out[next] : links.into[next];
-      if (next === start || siteNodes.has(next) || e2 < 0) return length;
-      if (mesh.boundaryPiece[e2] !== mesh.boundaryPiece[e] || bits[e2] !== bits[e]) return length;
+      if (next === start || siteNodes.has(next) || e2 < 0 || bits[e2] !== bits[e]) return length;
+      // the face goes on through a junction of two straight pieces that turns by under 1° (a slender slit's
+      // middle), and ends at any other junction of pieces
+      if (mesh.boundaryPiece[e2] !== mesh.boundaryPiece[e]) {
+        const straight = geom.pieces[mesh.boundaryPiece[e2]].curve.kind === 'line' && geom.pieces[mesh.boundaryPiece[e]].curve.kind === 'line';
+        const d1 = edgeDirection(mesh, e), d2 = edgeDirection(mesh, e2);
+        if (!straight || d1[0] * d2[0] + d1[1] * d2[1] < Math.cos(Math.PI / 180)) return length;
+      }
       m = next;
     }
     return length;

@@ -148,3 +148,16 @@ export function reciprocalIntensity(
   }
   return (setup.mirrorFactor * H * norm.K1) / norm.H1;
 }
+
+/**
+ * The singular term of the site's (mirrored) wedge with stress intensity K at distance r along the bisector:
+ * the unit eigenfunction's stresses (global axes) scaled by K/K₁.
+ */
+export function singularTerm(setup: IntensitySetup & { norm: IntensityNorm }, K: number, section: Pick<ElasticSection, 'E' | 'nu' | 'state'>) {
+  const f = fieldOf(setup.alphaDeg, setup.lambda, (Math.atan2(setup.bisector[1], setup.bisector[0]) * 180) / Math.PI, section);
+  const c = K / setup.norm.K1;
+  return (r: number): { sxx: number; syy: number; sxy: number } => {
+    const p = f(r * setup.bisector[0], r * setup.bisector[1]);
+    return { sxx: c * p.sxx, syy: c * p.syy, sxy: c * p.sxy };
+  };
+}
