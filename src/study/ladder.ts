@@ -12,23 +12,44 @@ import { reciprocalIntensity, singularTerm, type IntensityNorm, type IntensitySe
 export const LADDER_GRADING = 0.25;
 /** The peak neighbourhood: this many level-0 element sizes around the site (fixed in physical size). */
 export const NEIGHBOURHOOD_SIZES = 2;
-/** Readouts closer than this many level sizes to a singular apex use the singular term of the level's K. */
+/** Readouts closer than this many level sizes to a singular apex at a mirror use the singular term of the level's K. */
 export const APEX_SIZES = 2;
+
+/** distance from (x, y) to the segment a–b */
+function segmentDistance(x: number, y: number, ax: number, ay: number, bx: number, by: number): number {
+  const dx = bx - ax, dy = by - ay;
+  const l2 = dx * dx + dy * dy;
+  const t = l2 > 0 ? Math.min(1, Math.max(0, ((x - ax) * dx + (y - ay) * dy) / l2)) : 0;
+  return Math.hypot(x - ax - t * dx, y - ay - t * dy);
+}
 
 /**
  * Size field of level k: every site's cone h₀/ratio^k + g·|x − site| under the base field (one mesh for all
- * sites). A flat peak (a plateau) has a cone at each of its points, so the whole plateau is refined alike.
+ * sites). A flat peak (a plateau) has its cone round the whole polyline through its points, so the plateau
+ * is refined alike along its length.
  */
 export function levelSizeField(base: SizeField, sites: readonly Pick<SiteCandidate, 'at' | 'plateau'>[], h0: readonly number[], ratio: number, k: number): SizeField {
-  const px: number[] = [], py: number[] = [], hk: number[] = [];
+  const px = sites.map((s) => s.at[0]), py = sites.map((s) => s.at[1]);
+  const hk = h0.map((h) => h / Math.pow(ratio, k));
+  // plateau segments: x0, y0, x1, y1, h per segment
+  const seg: number[] = [];
   sites.forEach((s, i) => {
-    const h = h0[i] / Math.pow(ratio, k);
-    for (const p of [s.at, ...(s.plateau?.points ?? [])]) { px.push(p[0]); py.push(p[1]); hk.push(h); }
+    const p = s.plateau?.points;
+    if (!p || p.length < 2) return;
+    const n = s.plateau!.closed ? p.length : p.length - 1;
+    for (let j = 0; j < n; j++) {
+      const a = p[j], b = p[(j + 1) % p.length];
+      seg.push(a[0], a[1], b[0], b[1], hk[i]);
+    }
   });
   return (x: number, y: number) => {
     let h = base(x, y);
     for (let i = 0; i < px.length; i++) {
       const v = hk[i] + LADDER_GRADING * Math.hypot(x - px[i], y - py[i]);
+      if (v < h) h = v;
+    }
+    for (let j = 0; j < seg.length; j += 5) {
+      const v = seg[j + 4] + LADDER_GRADING * segmentDistance(x, y, seg[j], seg[j + 1], seg[j + 2], seg[j + 3]);
       if (v < h) h = v;
     }
     return h;
@@ -100,9 +121,11 @@ export function probeLevel(
   if (K && u && K.innerRadius >= 2 * h) out.nsif = reciprocalIntensity(mesh, u, section, K, K.norm);
   const dir = site.direction;
   if (dir) {
-    // within APEX_SIZES·h of a singular apex the elements cannot follow r^(λ−1): the readouts take the
-    // singular term of this level's K there (the unit eigenfunction scaled by K/K₁), the FE field beyond
-    const singular = K && out.nsif !== undefined && Number.isFinite(out.nsif) ? singularTerm(K, out.nsif, section) : undefined;
+    // within APEX_SIZES·h of a singular apex the elements cannot follow r^(λ−1): at a mirror, where the field
+    // is symmetric and its singular part the opening term alone, the readouts take that term with this
+    // level's K there (the unit eigenfunction scaled by K/K₁), the FE field beyond. Elsewhere an
+    // antisymmetric term may be singular too (a corner beyond 257°, a crack under shear): no substitution.
+    const singular = K && K.mirrorFactor > 1 && out.nsif !== undefined && Number.isFinite(out.nsif) ? singularTerm(K, out.nsif, section) : undefined;
     const at = (r: number) => {
       if (singular && r < APEX_SIZES * h) {
         const p = singular(r);

@@ -41,7 +41,8 @@ export interface SiteCandidate {
   intensity?: { alphaDeg: number; lambda: number; mirrorFactor: number; bisector: Point };
   /**
    * a maximum flat along the boundary on the first mesh (within SITE_RULES.plateauFraction): the boundary
-   * points it spans (all refined at every level) and whether it closes round its loop
+   * nodes it spans, in order along the boundary (the polyline through them is refined like the site itself
+   * at every level), and whether it closes round its loop
    */
   plateau?: { points: Point[]; closed: boolean };
   /** why the site was picked */
@@ -340,7 +341,7 @@ export function findSites(ctx: Ctx): SiteCandidate[] {
   const plateauAt = (n: number): { nodes: number[]; length: number; closed: boolean } | undefined => {
     if (links.out[n] < 0 || links.into[n] < 0) return undefined;
     const floor = (1 - SITE_RULES.plateauFraction) * measure[n];
-    const nodes = [n];
+    const ahead: number[] = [], behind: number[] = [];
     let length = 0, closed = false;
     const step = (m: number, forward: boolean) => {
       const e = forward ? links.out[m] : links.into[m];
@@ -348,18 +349,20 @@ export function findSites(ctx: Ctx): SiteCandidate[] {
     };
     const dist = (a: number, b: number) => Math.hypot(mesh.xy[2 * a] - mesh.xy[2 * b], mesh.xy[2 * a + 1] - mesh.xy[2 * b + 1]);
     for (const forward of [true, false]) {
+      const list = forward ? ahead : behind;
       let m = n;
       for (;;) {
         const next = step(m, forward);
         if (next < 0 || !(measure[next] >= floor)) break;
-        if (next === n || (!forward && nodes.includes(next))) { closed = true; break; }
+        if (next === n || (!forward && ahead.includes(next))) { closed = true; length += dist(m, next); break; }
         length += dist(m, next);
-        nodes.push(next);
+        list.push(next);
         m = next;
       }
       if (closed) break;
     }
-    return { nodes, length, closed };
+    // in order along the boundary
+    return { nodes: [...behind.reverse(), n, ...ahead], length, closed };
   };
 
   let sites: SiteDraft[];

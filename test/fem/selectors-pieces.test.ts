@@ -19,14 +19,14 @@ title: quarter of a thick ring under bore pressure
 plate:
   outline: { svg: ring.svg, path: ring }
 supports:
-  - { where: { x: 0 }, fix: [x] }
-  - { where: { y: 0 }, fix: [y] }
+  - { where: { piece: [0, 1.5] }, fix: [x] }
+  - { where: { piece: [1.5, 0] }, fix: [y] }
 loads:
   - { where: ${where}, pressure: 1 }
 mesh: { size: 0.1, order: 2 }
 `, 'ring.yaml', { readFile: () => ringSvg });
 
-describe('{ piece: [x, y] } selects the whole boundary piece nearest the point (issue 12 §9)', () => {
+describe('{ piece: [x, y] } selects the whole boundary piece nearest the point, for loads and supports (issue 12 §9)', () => {
   // Lamé (1852), Timoshenko & Goodier (1970): a = 1, b = 2, p = 1, E = 1000, ν = 0.3, plane stress:
   // σθ(a) = p(b² + a²)/(b² − a²) = 5/3, u_r(b) = 2pa²b/(E(b² − a²)) = 1.333333e-3 (outer arc unloaded)
   const s = recover(solve(ring('{ piece: [0.7071, 0.7071] }')));

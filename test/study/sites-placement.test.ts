@@ -53,6 +53,10 @@ describe('listed sites (issue 12 §4, §8)', () => {
     expect(onHole.feature.kind).toBe('opening');
     for (const l of onHole.levels) expect(l.peakAt).toEqual([50, 28]);
     expect(r.sites[0].feature.kind).toBe('interior');
+    expect(onHole.readouts.nsif).toBeUndefined();
+    // the readout distance of a hole edge: 0.05 × its radius
+    expect(onHole.readouts.distance).toBeCloseTo(0.05 * 8, 12);
+    expect(onHole.readouts.distanceRule).toBe('0.05 × radius of curvature 8');
   });
 });
 
@@ -78,6 +82,8 @@ mesh: { size: 10, order: 2, local: [ { near: [0, 0], size: 2, radius: 15 } ] }
     expect(Math.abs(Math.hypot(s.at[0], s.at[1]) - 10)).toBeLessThan(1e-9);
     expect(Math.abs(s.estimate.value / (2 * 100 * 100 ** 2 / (100 ** 2 - 10 ** 2)) - 1)).toBeLessThan(1e-3);
     expect(s.extent?.closed).toBe(true);
+    // no singularity: no stress intensity
+    expect(s.readouts.nsif).toBeUndefined();
     // the chords of the finest mesh round the circle: 2π·10 within 0.01 %
     expect(Math.abs(s.extent!.length / (2 * Math.PI * 10) - 1)).toBeLessThan(1e-4);
   });
