@@ -14,8 +14,7 @@ import { findSites, listedSitePoints, type SiteCandidate } from './sites.js';
 import { levelSizeField, probeLevel, rosettePoints, NEIGHBOURHOOD_SIZES, type SiteProbe } from './ladder.js';
 import { judgeSite } from './verdict.js';
 import { boundaryEdgesAt } from './mesh-tools.js';
-import { nsifUnits } from './readouts.js';
-import { intensityNorm } from './stress-intensity.js';
+import { reportedPosition, siteProbe, siteReadouts, withPlateauExtent } from './site-readouts.js';
 import { dofLimitError, estimateMeshSize } from '../fem/health.js';
 
 export interface StudyOptions {
@@ -51,9 +50,6 @@ export interface BaseSolve {
   /** the study measure per node */
   nodal: Float64Array;
 }
-
-/** Default readout distance: this fraction of each site's feature length (docs/study.md, "Readout distance"). */
-export const DEFAULT_READOUT_FRACTION = 0.05;
 
 const VERSION = '0.1.0';
 
@@ -216,36 +212,11 @@ function toSiteResult(
 ): SiteResult {
   const v = judgeSite(levels.map((l) => l.h), levels.map((l) => l.peak), ratio, order, c.theory, c.theoryWhy);
   const last = levels[levels.length - 1];
-  const d = probe.distance;
-  const readouts: SiteResult['readouts'] = {};
-  if (last) {
-    if (last.atDistance !== undefined || last.average !== undefined) {
-      readouts.distance = d;
-      readouts.distanceRule = probe.distanceRule;
-      if (last.atDistance !== undefined) readouts.atDistance = last.atDistance;
-      if (last.average !== undefined) readouts.average = last.average;
-    }
-    if (last.lineAverage !== undefined) { readouts.lineAverage = last.lineAverage; readouts.lineLength = 4 * d; }
-    if (probe.criticalDistance !== undefined && (last.pointMethod !== undefined || last.lineMethod !== undefined)) {
-      readouts.criticalDistance = probe.criticalDistance;
-      if (last.pointMethod !== undefined) readouts.pointMethod = last.pointMethod;
-      if (last.lineMethod !== undefined) readouts.lineMethod = last.lineMethod;
-    }
-    const K = intensityBand(levels, ratio, order);
-    if (K && probe.intensity) {
-      readouts.nsif = K.value;
-      readouts.nsifUncertainty = K.uncertainty;
-      readouts.nsifUnits = nsifUnits(stress, length, probe.intensity.lambda);
-      readouts.nsifRadii = [probe.intensity.innerRadius, probe.intensity.outerRadius];
-    }
-  }
+  const readouts = siteReadouts(levels, probe, ratio, order, stress, length);
   const why = c.feature.kind === 'point-load' || c.feature.kind === 'point-support' ? `${c.theoryWhy}: ` : '';
-  // a peak found as a maximum of the first mesh sits where the finest level puts it (a feature or a listed
-  // point stays exactly where it is)
-  const at: Point = c.origin === 'maximum' && last ? [last.peakAt[0], last.peakAt[1]] : c.at;
   return {
     id,
-    at,
+    at: reportedPosition(c, last),
     feature: c.feature,
     levels,
     verdict: v.verdict,
@@ -259,89 +230,3 @@ function toSiteResult(
   };
 }
 
-/**
- * The probe of one site: readout distance (study.readouts.distance, else DEFAULT_READOUT_FRACTION × the
- * feature length), the critical distance, and the stress intensity's annulus R₁ = ℓ/4 ≤ r ≤ R₂ = ℓ/2 (ℓ the
- * feature length: the faces are free of other features and no other site is inside) with the
- * eigenfunction's normalisation.
- */
-function siteProbe(site: SiteCandidate, radius: number, model: Model, section: ElasticSection): SiteProbe {
-  const fixed = model.study.readouts.distance;
-  const distance = fixed ?? DEFAULT_READOUT_FRACTION * site.featureLength;
-  const distanceRule = fixed !== undefined ? 'study.readouts.distance' : `${DEFAULT_READOUT_FRACTION} × ${site.featureLengthWhy}`;
-  const probe: SiteProbe = { site, radius, distance, distanceRule };
-  const L = model.study.readouts.critical?.length;
-  if (L !== undefined) probe.criticalDistance = L;
-  if (site.intensity) {
-    const { alphaDeg, lambda, mirrorFactor, bisector } = site.intensity;
-    probe.intensity = {
-      apex: site.at, bisector, alphaDeg, lambda, mirrorFactor,
-      innerRadius: 0.25 * site.featureLength, outerRadius: 0.5 * site.featureLength,
-      norm: intensityNorm(alphaDeg, lambda, section),
-    };
-  }
-  return probe;
-}
-
-/**
- * Stress intensity over the levels: the same fit and band as a peak (judgeSite with no singularity expected)
- * on the levels where it was taken, the finest ones in a row, with the floor of issue 12 §1: the half-width is
- * never below the largest difference among the finest three values (the far field is refined no further
- * than the base mesh, and no increment of the ladder sees its error). Not converging: the finest value, band NaN.
- */
-export function intensityBand(levels: readonly Pick<LevelResult, 'h' | 'nsif'>[], ratio: number, order: 1 | 2): { value: number; uncertainty: number } | undefined {
-  let first = levels.length;
-  while (first > 0 && levels[first - 1].nsif !== undefined && Number.isFinite(levels[first - 1].nsif)) first--;
-  const used = levels.slice(first);
-  if (used.length === 0) return undefined;
-  const K = used.map((l) => l.nsif!);
-  const v = judgeSite(used.map((l) => l.h), K, ratio, order, 0);
-  const finestValue = K[K.length - 1];
-  if (v.verdict !== 'converging') return { value: finestValue, uncertainty: NaN };
-  const last3 = K.slice(-3);
-  const spread = Math.max(...last3) - Math.min(...last3);
-  return { value: v.estimate.value, uncertainty: Math.max(v.estimate.uncertainty, spread) };
-}
-
-/**
- * The extent of a flat peak (issue 12 §8) on the finest mesh: from the node of the finest peak, the boundary
- * both ways while the nodal measure stays within twice the site's band, the band taken at least as wide as
- * the finest level's distance from the converged value and the spread of the finest three peaks (so the
- * node-to-node noise of the finest mesh does not cut the plateau short).
- */
-function withPlateauExtent(r: SiteResult, c: SiteCandidate, mesh: Mesh, nodal: Float64Array): SiteResult {
-  if (!c.plateau || r.verdict !== 'converging' || r.levels.length === 0) return r;
-  const last = r.levels[r.levels.length - 1];
-  const peaks = r.levels.slice(-3).map((l) => l.peak);
-  const spread = Math.max(...peaks) - Math.min(...peaks);
-  const tol = 2 * Math.max(r.estimate.uncertainty, Math.abs(last.peak - r.estimate.value), spread);
-  const floor = r.estimate.value - tol;
-  const s = mesh.edgeStride, nE = mesh.boundaryEdges.length / s;
-  const out = new Int32Array(mesh.xy.length / 2).fill(-1), into = new Int32Array(mesh.xy.length / 2).fill(-1);
-  for (let e = 0; e < nE; e++) { out[mesh.boundaryEdges[s * e]] = e; into[mesh.boundaryEdges[s * e + 1]] = e; }
-  let start = -1, bd = Infinity;
-  for (let e = 0; e < nE; e++) {
-    const n = mesh.boundaryEdges[s * e];
-    const dd = Math.hypot(mesh.xy[2 * n] - last.peakAt[0], mesh.xy[2 * n + 1] - last.peakAt[1]);
-    if (dd < bd) { bd = dd; start = n; }
-  }
-  if (start < 0) return r;
-  const ends: number[] = [start, start];
-  let length = 0, closed = false;
-  for (const forward of [true, false]) {
-    let m = start;
-    for (;;) {
-      const e = forward ? out[m] : into[m];
-      if (e < 0) break;
-      const next = mesh.boundaryEdges[s * e + (forward ? 1 : 0)];
-      if (!(nodal[next] >= floor)) break;
-      length += Math.hypot(mesh.xy[2 * next] - mesh.xy[2 * m], mesh.xy[2 * next + 1] - mesh.xy[2 * m + 1]);
-      if (next === start || next === ends[0]) { closed = true; break; }
-      m = next;
-    }
-    if (closed) break;
-    ends[forward ? 0 : 1] = m;
-  }
-  const P = (n: number): Point => [mesh.xy[2 * n], mesh.xy[2 * n + 1]];
-  return { ...r, extent: closed ? { from: P(start), to: P(start), length, closed } : { from: P(ends[1]), to: P(ends[0]), length, closed } };
-}
