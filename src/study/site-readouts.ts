@@ -18,9 +18,9 @@ export const DEFAULT_READOUT_FRACTION = 0.05;
 
 /**
  * The probe of one site: readout distance (study.readouts.distance, else DEFAULT_READOUT_FRACTION × the
- * feature length), the critical distance, and the stress intensity's annulus R₁ = ℓ/4 ≤ r ≤ R₂ = ℓ/2 (ℓ the
- * feature length: the faces are free of other features and no other site is inside) with the
- * eigenfunction's normalisation.
+ * feature length), the critical distance, and the stress intensity's annulus R₁ = ℓ/4 ≤ r ≤ R₂ = ℓ/2, ℓ the
+ * feature length or the clearance to any other boundary if smaller (the faces are free of other features
+ * inside, no other site and no other boundary reaches it), with the eigenfunction's normalisation.
  */
 export function siteProbe(site: SiteCandidate, radius: number, model: Model, section: ElasticSection): SiteProbe {
   const fixed = model.study.readouts.distance;
@@ -31,9 +31,10 @@ export function siteProbe(site: SiteCandidate, radius: number, model: Model, sec
   if (L !== undefined) probe.criticalDistance = L;
   if (site.intensity) {
     const { alphaDeg, lambda, mirrorFactor, bisector } = site.intensity;
+    const l = Math.min(site.featureLength, site.intensity.clearance ?? Infinity);
     probe.intensity = {
       apex: site.at, bisector, alphaDeg, lambda, mirrorFactor,
-      innerRadius: 0.25 * site.featureLength, outerRadius: 0.5 * site.featureLength,
+      innerRadius: 0.25 * l, outerRadius: 0.5 * l,
       norm: intensityNorm(alphaDeg, lambda, section),
     };
   }

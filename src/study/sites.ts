@@ -38,7 +38,11 @@ export interface SiteCandidate {
   /** words for featureLength, e.g. "shorter face 20" */
   featureLengthWhy: string;
   /** the free–free (or mirrored free–free) wedge whose stress intensity is read here (singular corners and crack tips) */
-  intensity?: { alphaDeg: number; lambda: number; mirrorFactor: number; bisector: Point };
+  intensity?: {
+    alphaDeg: number; lambda: number; mirrorFactor: number; bisector: Point;
+    /** distance from the apex to the nearest boundary other than the wedge's two faces */
+    clearance?: number;
+  };
   /**
    * a maximum flat along the boundary on the first mesh (within SITE_RULES.plateauFraction): the boundary
    * nodes it spans, in order along the boundary (the polyline through them is refined like the site itself
@@ -414,11 +418,12 @@ export function findSites(ctx: Ctx): SiteCandidate[] {
   // feature length of each site: walk both ways along the boundary to the next corner, piece end, support
   // end or other site; on a curve at most its radius; never beyond the nearest other site
   const siteNodes = new Set(sites.map((c) => c.node));
-  const walk = (start: number, forward: boolean): number => {
+  const walk = (start: number, forward: boolean, faceEdges?: Set<number>): number => {
     let m = start, length = 0;
     for (let guard = 0; guard < mesh.xy.length; guard++) {
       const e = forward ? links.out[m] : links.into[m];
       if (e < 0) return length;
+      faceEdges?.add(e);
       const next = mesh.boundaryEdges[se * e + (forward ? 1 : 0)];
       length += Math.hypot(mesh.xy[2 * next] - mesh.xy[2 * m], mesh.xy[2 * next + 1] - mesh.xy[2 * m + 1]);
       const e2 = forward ? links.out[next] : links.into[next];
@@ -434,12 +439,29 @@ export function findSites(ctx: Ctx): SiteCandidate[] {
     }
     return length;
   };
+  // distance from p to the nearest boundary edge not in `faces` (chords through the mid-side node)
+  const clearance = (p: Point, faces: Set<number>): number => {
+    let d = Infinity;
+    const seg = (a: number, b: number) => {
+      const ax = mesh.xy[2 * a], ay = mesh.xy[2 * a + 1], dx = mesh.xy[2 * b] - ax, dy = mesh.xy[2 * b + 1] - ay;
+      const l2 = dx * dx + dy * dy;
+      const t = l2 > 0 ? Math.min(1, Math.max(0, ((p[0] - ax) * dx + (p[1] - ay) * dy) / l2)) : 0;
+      d = Math.min(d, Math.hypot(p[0] - ax - t * dx, p[1] - ay - t * dy));
+    };
+    for (let e = 0; e < mesh.boundaryEdges.length / se; e++) {
+      if (faces.has(e)) continue;
+      const a = mesh.boundaryEdges[se * e], b = mesh.boundaryEdges[se * e + 1];
+      if (se === 3) { seg(a, mesh.boundaryEdges[se * e + 2]); seg(mesh.boundaryEdges[se * e + 2], b); } else seg(a, b);
+    }
+    return d;
+  };
   return sites.map((c): SiteCandidate => {
     let length = Infinity, why = '';
     const take = (v: number, w: string) => { if (v < length) { length = v; why = w; } };
     const onBoundary = links.out[c.node] >= 0 && links.into[c.node] >= 0 && Math.hypot(mesh.xy[2 * c.node] - c.at[0], mesh.xy[2 * c.node + 1] - c.at[1]) <= tol;
+    const faces = new Set<number>();
     if (onBoundary) {
-      take(Math.min(walk(c.node, true), walk(c.node, false)), 'shorter face');
+      take(Math.min(walk(c.node, true, faces), walk(c.node, false, faces)), 'shorter face');
       if (c.feature.radius > 0) take(c.feature.radius, 'radius of curvature');
     } else {
       let d = Infinity;
@@ -450,6 +472,8 @@ export function findSites(ctx: Ctx): SiteCandidate[] {
       if (o !== c) take(Math.hypot(o.at[0] - c.at[0], o.at[1] - c.at[1]), 'distance to the next site');
     }
     if (!Number.isFinite(length) || !(length > 0)) { length = ctx.baseSize(c.at[0], c.at[1]); why = 'local element size'; }
-    return { ...c, featureLength: length, featureLengthWhy: `${why} ${Number(length.toPrecision(4))}` };
+    // the stress intensity's annulus must not reach a boundary other than the wedge's own faces
+    const intensity = c.intensity && onBoundary ? { ...c.intensity, clearance: clearance(c.at, faces) } : c.intensity;
+    return { ...c, ...(intensity ? { intensity } : {}), featureLength: length, featureLengthWhy: `${why} ${Number(length.toPrecision(4))}` };
   });
 }
