@@ -11,11 +11,17 @@ export type ErrorStage = 'model' | 'geometry' | 'mesh' | 'fem' | 'solve' | 'stud
 export class PeakwiseError extends Error {
   readonly stage: ErrorStage;
   readonly keyPath: string | undefined;
-  constructor(stage: ErrorStage, message: string, keyPath?: string) {
+  /**
+   * Other key paths the message names (the earlier of two conflicting entries); the CLI adds
+   * their lines so the user finds both.
+   */
+  readonly related: readonly string[];
+  constructor(stage: ErrorStage, message: string, keyPath?: string, related: readonly string[] = []) {
     super(message);
     this.name = 'PeakwiseError';
     this.stage = stage;
     this.keyPath = keyPath;
+    this.related = related;
   }
 }
 
@@ -42,16 +48,22 @@ export class GeometryError extends PeakwiseError {
 
 /** The mesher cannot produce a valid mesh (e.g. size far too small, hostile geometry). */
 export class MeshError extends PeakwiseError {
-  constructor(message: string, keyPath?: string) {
+  /**
+   * The model point the message is about (a required point outside the plate), when it has no
+   * key path of its own: the CLI finds the load, support or site that put it there.
+   */
+  readonly at: readonly [number, number] | undefined;
+  constructor(message: string, keyPath?: string, at?: readonly [number, number]) {
     super('mesh', message, keyPath);
     this.name = 'MeshError';
+    this.at = at;
   }
 }
 
 /** Loads, supports and selectors that do not fit the mesh (a selector matching nothing). */
 export class FemError extends PeakwiseError {
-  constructor(message: string, keyPath?: string) {
-    super('fem', message, keyPath);
+  constructor(message: string, keyPath?: string, related?: readonly string[]) {
+    super('fem', message, keyPath, related);
     this.name = 'FemError';
   }
 }

@@ -5,8 +5,9 @@
  * has a worked example.
  */
 import { readFileSync } from 'node:fs';
+import { dirname, isAbsolute, join } from 'node:path';
 import { PeakwiseError } from './errors.js';
-import type { Model, Point } from './model/types.js';
+import type { Model } from './model/types.js';
 import type { Mesh } from './mesh/types.js';
 import type { PlateGeometry } from './geometry/types.js';
 import type { ElasticSection, GaussStresses, Solution } from './fem/types.js';
@@ -14,10 +15,7 @@ import type { ErrorEstimate, NodalStress } from './recovery/types.js';
 import type { StudyResult } from './study/types.js';
 import type { SweepResult, VaryAxis } from './sweep/types.js';
 import { parseModel, type ParseOptions } from './model/index.js';
-import { buildGeometry } from './geometry/index.js';
-import { meshPlate, sizeFieldFromSettings } from './mesh/index.js';
-import { gaussStresses, selectorVertices, solvePlate } from './fem/index.js';
-import { estimateError, nodalMeasure, recoverSpr } from './recovery/index.js';
+import { baseSizeField, estimateOf, meshAt, problemOf, solveMesh, type Problem, type SolveLimits } from './pipeline/index.js';
 import { runStudy, type StudyOptions } from './study/index.js';
 import { parseVary, runSweep, type SweepOptions } from './sweep/index.js';
 
@@ -36,13 +34,19 @@ export type * from './sweep/types.js';
 export { parseModel, formatModelError, stressUnit, type ParseOptions } from './model/index.js';
 export { buildGeometry, pointInMaterial } from './geometry/index.js';
 export { meshPlate, meshQuality, validateMesh, sizeFieldFromSettings } from './mesh/index.js';
-export { solvePlate, gaussStresses, assembleStiffness, appliedResultant, selectorVertices, type PlateProblem } from './fem/index.js';
+export { solvePlate, gaussStresses, assembleStiffness, appliedResultant, selectorVertices, selectorWarnings, type PlateProblem } from './fem/index.js';
 export { analyze, factorize, solveFactor, solveSpd, residualNorm, toMatrixMarket } from './linalg/index.js';
 export {
   recoverSpr, recoverAverage, estimateError, nodalMeasure, measureValue, principal, vonMises, tresca,
-  buildPointLocator, stressAt, boundaryTangentialStress, adaptiveSolve,
-  type PointLocator, type PointStress, type BoundaryStress, type AdaptiveOptions, type AdaptiveResult,
+  buildPointLocator, stressAt, boundaryTangentialStress,
+  type PointLocator, type PointStress, type BoundaryStress,
 } from './recovery/index.js';
+export {
+  problemOf, sectionOf, baseSizeField, meshAt, solveMesh, solveAt, solveProblem, estimateOf, adaptiveSolve, modelFromParts,
+  checkLimits, defaultLimits, DEFAULT_MAX_DOFS,
+  type Problem, type ProblemOptions, type SolvedLevel, type MeshRequest, type SolveLimits, type ModelParts,
+  type AdaptiveOptions, type AdaptiveCycle, type AdaptiveResult,
+} from './pipeline/index.js';
 export { runStudy, findSites, williamsRoots, wedgeTheory, type StudyOptions, type BaseSolve } from './study/index.js';
 export { studyTable, sitesCsv, fieldCsv, reportHtml, meshSvg, contourSvg, convergencePlotSvg, CAUTION } from './report/index.js';
 export { kirschPolar, kirschCartesian, lameRing, inglisKt } from './reference/index.js';
@@ -54,7 +58,8 @@ export { sampleCut, openingCut, cutCsv, parseCutSpec, type CutSample, type CutSp
 
 /**
  * Read and parse a model file (this one does file I/O; `parseModel(text, file)` is the pure form).
- * `options.params` overrides parameters of the file, as a sweep does.
+ * `options.params` overrides parameters of the file, as a sweep does; files the model imports
+ * (SVG or point outlines, displacement tables) are read relative to it, as the CLI reads them.
  */
 export function loadModel(file: string, options: ParseOptions = {}): Model {
   let text: string;
@@ -63,61 +68,58 @@ export function loadModel(file: string, options: ParseOptions = {}): Model {
   } catch (e) {
     throw new PeakwiseError('io', `${file}: cannot be read (${(e as NodeJS.ErrnoException).code ?? 'error'})`);
   }
-  return parseModel(text, file, options);
+  // files the model refers to (outlines, displacement tables) sit beside it, as for the CLI
+  const readFile = (path: string): string => readFileSync(isAbsolute(path) ? path : join(dirname(file), path), 'utf8');
+  return parseModel(text, file, { readFile, ...options });
 }
 
-/** Points that must be mesh nodes: what point selectors mean and where line selectors end (selectorVertices). */
-function requiredPoints(model: Model, geometry: PlateGeometry): Point[] {
-  return selectorVertices(model, geometry);
+/** Overrides of the model's mesh settings, and the limits of the solve. */
+export interface SolveRequest {
+  size?: number;
+  order?: 1 | 2;
+  limits?: SolveLimits;
 }
 
 export interface Meshed {
   model: Model;
+  /** what the pipeline solves: geometry, section, supports, every load, required points */
+  problem: Problem;
   geometry: PlateGeometry;
   mesh: Mesh;
 }
 
 /** Build the plate geometry and mesh it with the model's size settings (`mesh.size`, `mesh.local`, `mesh.order`). */
-export function mesh(model: Model, opts: { size?: number; order?: 1 | 2 } = {}): Meshed {
-  const geometry = buildGeometry(model.plate);
-  const sizeAt = sizeFieldFromSettings(geometry, { ...model.mesh, size: opts.size ?? model.mesh.size });
-  const m = meshPlate(geometry, { sizeAt, order: opts.order ?? model.mesh.order, requiredPoints: requiredPoints(model, geometry) });
-  return { model, geometry, mesh: m };
+export function mesh(model: Model, opts: SolveRequest = {}): Meshed {
+  const problem = problemOf(model, { ...(opts.size !== undefined ? { size: opts.size } : {}), ...(opts.order !== undefined ? { order: opts.order } : {}) });
+  const m = meshAt(problem, baseSizeField(problem), problem.meshSettings.order, opts.limits);
+  return { model, problem, geometry: problem.geometry, mesh: m };
 }
 
 export interface Solved extends Meshed {
   section: ElasticSection;
   solution: Solution;
-}
-
-/** Mesh (unless given a `mesh()` result) and solve once: displacements, reactions, residual. */
-export function solve(input: Model | Meshed, opts: { size?: number; order?: 1 | 2 } = {}): Solved {
-  const meshed = 'mesh' in input && 'geometry' in input && 'model' in input ? input : mesh(input as Model, opts);
-  const { model } = meshed;
-  const section: ElasticSection = { E: model.material.E, nu: model.material.nu, state: model.state, thickness: model.thickness };
-  const solution = solvePlate({
-    mesh: meshed.mesh, geometry: meshed.geometry, section, supports: model.supports,
-    loads: [...model.loads, ...(model.fieldLoads ?? [])],
-  });
-  return { ...meshed, section, solution };
-}
-
-export interface Recovered extends Solved {
   gauss: GaussStresses;
   /** SPR-recovered nodal stresses */
   field: NodalStress;
-  /** Zienkiewicz–Zhu error estimate of the solve */
-  estimate: ErrorEstimate;
   /** the model's study measure per node (von Mises unless the model says otherwise) */
   nodal: Float64Array;
 }
 
-/** Gauss-point stresses, SPR nodal field, error estimate and the study measure of a solve. */
+/** Mesh (unless given a `mesh()` result), solve once and recover: displacements, reactions, residual, stresses. */
+export function solve(input: Model | Meshed, opts: SolveRequest = {}): Solved {
+  const meshed = 'problem' in input && 'mesh' in input ? input : mesh(input, opts);
+  const { mesh: m, solution, gauss, field, nodal } = solveMesh(meshed.problem, meshed.mesh, opts.limits);
+  return { ...meshed, mesh: m, section: meshed.problem.section, solution, gauss, field, nodal };
+}
+
+export interface Recovered extends Solved {
+  /** Zienkiewicz–Zhu error estimate of the solve */
+  estimate: ErrorEstimate;
+}
+
+/** A solve with its Zienkiewicz–Zhu error estimate. */
 export function recover(solved: Solved): Recovered {
-  const gauss = gaussStresses(solved.mesh, solved.solution.u, solved.section);
-  const field = recoverSpr(solved.mesh, gauss, solved.section);
-  const estimate = estimateError(solved.mesh, gauss, field, solved.section);
-  return { ...solved, gauss, field, estimate, nodal: nodalMeasure(field, solved.model.study.measure) };
+  return { ...solved, estimate: estimateOf(solved.problem, solved) };
 }
 
 /** The convergence study of a model (verdict per site); the same as `peakwise study`. */

@@ -7,12 +7,14 @@
  * energy-norm error is ‖e‖² = 2U − ‖u_h‖² (Galerkin orthogonality: the constraints only remove
  * rigid-body motion).
  */
-import { edgeTractionLoad, gaussStresses, solvePlate } from '../fem/index.js';
+import { edgeTractionLoad } from '../fem/index.js';
 import type { ElasticSection, GaussStresses } from '../fem/types.js';
 import { buildGeometry } from '../geometry/index.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { Mesh } from '../mesh/types.js';
+import type { Plate } from '../model/types.js';
 import { energyNormSq } from '../recovery/index.js';
+import { modelFromParts, problemOf, solveMesh, type Problem } from '../pipeline/index.js';
 
 export const L_SECTION: ElasticSection = { E: 1, nu: 0.3, state: 'plane-stress', thickness: 1 };
 /** reference-values §6 [derived]: exact strain energy of the domain for E = 1, ν = 0.3 */
@@ -24,9 +26,23 @@ export interface LField {
   displacement(x: number, y: number): [number, number];
 }
 
+const L_PLATE: Plate = {
+  outline: { kind: 'polygon', vertices: ([[0, 0], [1, 0], [1, 1], [-1, 1], [-1, -1], [0, -1]] as [number, number][]).map((at) => ({ at, round: 0 })) },
+  openings: [],
+};
+
 export function lGeometry(): PlateGeometry {
-  const pts: [number, number][] = [[0, 0], [1, 0], [1, 1], [-1, 1], [-1, -1], [0, -1]];
-  return buildGeometry({ outline: { kind: 'polygon', vertices: pts.map((at) => ({ at, round: 0 })) }, openings: [] });
+  return buildGeometry(L_PLATE);
+}
+
+/**
+ * The L-plate as a pipeline problem: a model built in code (no supports or loads of its own)
+ * whose per-mesh hooks apply the exact tractions and the three constraints of `field`.
+ */
+export function lProblem(field: LField, order: 1 | 2, size = 0.25): Problem {
+  const { E, nu, state, thickness } = L_SECTION;
+  const model = modelFromParts({ title: 'L-shaped plate, exact mode-I field', plate: L_PLATE, material: { E, nu }, state, thickness, size, order });
+  return problemOf(model, { extraLoad: (mesh) => lTractions(mesh, field), prescribed: (mesh) => lConstraints(mesh, field) });
 }
 
 export function lTractions(mesh: Mesh, field: LField): Float64Array {
@@ -57,9 +73,10 @@ export function lConstraints(mesh: Mesh, field: LField): { dof: number; value: n
   return out;
 }
 
+/** Solve the L-plate on a given mesh (e.g. the uniform ones of lshape-mesh.ts, with their own geometry). */
 export function lSolve(mesh: Mesh, geometry: PlateGeometry, field: LField): { gauss: GaussStresses; dofs: number } {
-  const solution = solvePlate({ mesh, geometry, section: L_SECTION, supports: [], loads: [], prescribed: lConstraints(mesh, field), extraLoad: lTractions(mesh, field) });
-  return { gauss: gaussStresses(mesh, solution.u, L_SECTION), dofs: solution.dofs };
+  const { solution, gauss } = solveMesh({ ...lProblem(field, mesh.order), geometry }, mesh);
+  return { gauss, dofs: solution.dofs };
 }
 
 export function lTrueError(gauss: GaussStresses): number {

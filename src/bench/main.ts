@@ -1,9 +1,10 @@
 /**
  * `npm run bench`: speed and memory figures for this machine (never in tests).
  *
- *   node dist/bench/main.js [--quick] [--skip mesh,solver,pipeline,study,rates]
+ *   node dist/bench/main.js [--quick] [--skip mesh,holes,solver,pipeline,study,rates]
  *
  * 1. mesh      quality mesh of a multi-opening plate (~200 000 triangles) against plain delaunator
+ *    holes     perforated plate, 400 and 1 600 holes: time ratio (src/bench/holes.ts)
  * 2. solver    sparse Cholesky on clamped-rectangle stiffness matrices (anchor table sizes),
  *              with the anchor library's figures on the same matrices when /tmp/cholmod_mtx exists
  * 3. pipeline  square plate with a central hole, LST, ~50k / 200k / 1M dofs: assemble, order,
@@ -15,18 +16,17 @@
 import { readFileSync, readdirSync, existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { benchMesh } from './mesh.js';
+import { benchHoles } from './holes.js';
 import { benchSolver, runAnchor, writeMatrixMarket } from './solver.js';
-import { L_SECTION, lConstraints, lGeometry, lSolve, lTractions, lTrueError, logSlope, type LField } from './lshape.js';
+import { L_SECTION, lProblem, lSolve, lTrueError, logSlope, type LField } from './lshape.js';
 import { lShapeMesh } from './lshape-mesh.js';
-import { buildGeometry } from '../geometry/index.js';
-import { meshPlate, sizeFieldFromSettings } from '../mesh/index.js';
-import { solvePlate, supportedDofs, assembleStiffness } from '../fem/index.js';
+import { supportedDofs, assembleStiffness } from '../fem/index.js';
 import { csrSubmatrix } from '../linalg/index.js';
-import { adaptiveSolve } from '../recovery/index.js';
+import { adaptiveSolve, solveProblem } from '../pipeline/index.js';
+import { holePlateProblem } from './models.js';
 import { parseModel } from '../model/index.js';
 import { runStudy } from '../study/index.js';
 import { lShapeModeIField } from '../reference/index.js';
-import type { Model } from '../model/types.js';
 
 const args = process.argv.slice(2);
 const quick = args.includes('--quick');
@@ -42,25 +42,6 @@ function rssMiB(): number {
   return process.resourceUsage().maxRSS / 1024;
 }
 
-/** Square plate (side 20a) with a central hole of radius a, uniaxial tension, LST. */
-function holePlateModel(size: number): Model {
-  const text = `
-title: bench square plate with a central hole
-material: { E: 210000, nu: 0.3 }
-thickness: 1
-plate:
-  outline: [[0, 0], [200, 0], [200, 200], [0, 200]]
-  openings: [ { id: hole, circle: { center: [100, 100], radius: 10 } } ]
-supports:
-  - { where: { x: 0 }, fix: [x] }
-  - { where: { point: [0, 0] }, fix: [y] }
-loads:
-  - { where: { x: 200 }, traction: [100, 0] }
-mesh: { size: ${size}, order: 2 }
-`;
-  return parseModel(text, 'bench-hole.yaml');
-}
-
 async function benchPipeline(): Promise<void> {
   heading('solve pipeline: square plate with a central hole, LST');
   const targets = quick ? [50_000] : [50_000, 200_000, 1_000_000];
@@ -69,18 +50,14 @@ async function benchPipeline(): Promise<void> {
     // LST on a plate of area A ≈ 4e4: dofs ≈ 2·(2·A/(√3/4·h²)) → h from the target
     const A = 200 * 200 - Math.PI * 100;
     const h = Math.sqrt((4 * A) / ((Math.sqrt(3) / 4) * target));
-    const model = holePlateModel(h);
-    const geometry = buildGeometry(model.plate);
-    const t0 = performance.now();
-    const mesh = meshPlate(geometry, { sizeAt: sizeFieldFromSettings(geometry, model.mesh), order: 2, requiredPoints: [[0, 0]] });
-    const meshS = (performance.now() - t0) / 1000;
-    const section = { E: 210000, nu: 0.3, state: 'plane-stress' as const, thickness: 1 };
-    const s = solvePlate({ mesh, geometry, section, supports: model.supports, loads: model.loads });
+    const problem = holePlateProblem(h);
+    const { mesh, solution: s, timings: { meshS } } = solveProblem(problem);
+    const { geometry, section, supports } = problem;
     rows.push({ dofs: s.dofs, factorS: s.timings.factorS });
     const line = `  ${s.dofs} dofs: mesh ${meshS.toFixed(2)} s, assemble ${s.timings.assembleS.toFixed(2)} s, order ${s.timings.orderS.toFixed(2)} s, factor ${s.timings.factorS.toFixed(2)} s, solve ${s.timings.solveS.toFixed(3)} s, nnz(L) ${(s.nnzL / 1e6).toFixed(2)} M, residual ${s.residual.toExponential(1)}, peak RSS ${rssMiB().toFixed(0)} MiB`;
     process.stdout.write(line + '\n');
     if (existsSync('/tmp/cholmod_mtx')) {
-      const fixed = supportedDofs(mesh, geometry, model.supports);
+      const fixed = supportedDofs(mesh, geometry, supports);
       const keep: number[] = [];
       for (let i = 0; i < fixed.length; i++) if (!fixed[i]) keep.push(i);
       const K = csrSubmatrix(assembleStiffness(mesh, section), Int32Array.from(keep));
@@ -144,8 +121,9 @@ function benchRates(): void {
     const N: number[] = [];
     const err: number[] = [];
     adaptiveSolve(
-      { geometry: lGeometry(), section: L_SECTION, supports: [], loads: [], order, sizeAt0: () => 0.25, extraLoad: (m) => lTractions(m, field), prescribed: (m) => lConstraints(m, field) },
-      { targetPercent: order === 2 ? 0.5 : 3, maxDofs: quick ? 20_000 : 60_000, onCycle: (c, res) => { N.push(c.dofs); err.push(lTrueError(res.gauss)); } },
+      lProblem(field, order, 0.25),
+      { targetPercent: order === 2 ? 0.5 : 3, onCycle: (c, res) => { N.push(c.dofs); err.push(lTrueError(res.gauss)); } },
+      { maxDofs: quick ? 20_000 : 60_000 },
     );
     const r = -logSlope(N.slice(1), err.slice(1));
     process.stdout.write(`  adaptive ${order === 1 ? 'CST' : 'LST'}: dofs ${N.join(' ')} → ‖e‖ ~ N^-${r.toFixed(3)} (optimal p/2 = ${order / 2})\n`);
@@ -158,6 +136,7 @@ async function main(): Promise<void> {
     heading('mesher');
     await benchMesh(quick ? 6 : undefined);
   }
+  if (!skip.has('holes')) { heading('mesher: many openings (perforated plate)'); benchHoles(quick); }
   if (!skip.has('solver')) {
     heading('sparse Cholesky (clamped rectangle, CST, anchor sizes)');
     await benchSolver({ max: quick ? 60_000 : 1_000_000 });

@@ -1,8 +1,9 @@
 /**
  * The built-in verification cases of `peakwise check`. Each case builds its own model in code,
- * runs the product pipeline (mesh → solve → SPR, or the whole convergence study where a verdict or
- * an exponent is the quantity) and compares one number with a closed form. Tolerances follow
- * the project's reference notes ("Suggested test cases"); the reason is given beside each.
+ * runs the product pipeline (mesh → solve → SPR, or the whole convergence study where a verdict,
+ * a band or an exponent is the quantity) and compares one number with a closed form or an
+ * independent computation. Tolerances are a few times the error measured when the case was set
+ * (the reason beside each); rows that run a study must also have the reference inside the band.
  * Meshes are LST (order 2) and modest so the whole suite runs in well under a minute.
  */
 import type { Support } from '../model/types.js';
@@ -14,6 +15,7 @@ import { boundaryTangentialStress, stressAt } from '../recovery/index.js';
 import { runStudy, type SiteResult, type StudyResult } from '../study/index.js';
 import type { PrescribedDisplacement } from '../fem/index.js';
 import { caseModel, nearestNode, nodesWhere, relError, solveModel, type Solved } from './pipeline.js';
+import { EXACT_PLATE_STRESS, exactNeighbourhoodPeak, inglisPlate, kirschPlate, type ExactPlate } from './exact-plates.js';
 import { extrapolateK, feddersenCentreCrackK, tadaCentreCrackK } from './crack.js';
 import type { CheckCase, CheckResult } from './types.js';
 
@@ -43,7 +45,7 @@ function maxOf(a: ArrayLike<number>): number {
  * Finite Elements in Analysis and Design 1 (1985) 3–20: membrane patch 0.24 × 0.12 with four
  * interior nodes, E = 1e6, ν = 0.25, t = 0.001, boundary displacements u = 1e−3 (x + y/2),
  * v = 1e−3 (y + x/2) (test B of Irons' patch test). Exact: σx = σy = 1333.333…, τxy = 400.
- * Pass means round-off: 1e−10 relative (reference notes, suggested case 13).
+ * Pass means round-off: 1e−10 relative.
  */
 function patchCase(order: 1 | 2): CheckResult[] {
   const E = 1e6, nu = 0.25;
@@ -95,7 +97,7 @@ function patchCase(order: 1 | 2): CheckResult[] {
   return [
     result({
       name: `patch test, ${order === 1 ? 'CST' : 'LST'}`,
-      source: 'MacNeal & Harder 1985 (FEAD 1), membrane patch; Irons patch test B',
+      source: 'MacNeal & Harder 1985 (FEAD 1), membrane patch (node coordinates from memory); Irons patch test B',
       quantity: 'σx at the Gauss points; error = largest |σ − σexact|/σx over σx, σy, τxy and interior u, v',
       reference: sx,
       value: worstValue,
@@ -112,9 +114,8 @@ function patchCase(order: 1 | 2): CheckResult[] {
  * G. Kirsch, Z. VDI 42 (1898); Timoshenko & Goodier (1970): hole of radius a in an infinite plate
  * under remote σxx = S, here a square of half-side 5a carrying the exact Cartesian Kirsch
  * tractions on all four edges (so the truncation changes nothing), rigid motion removed by three
- * dofs at two corners (the tractions are self-equilibrated, the reactions vanish).
- * Tolerances (reference notes, suggested case 1): peak 1.5 % for LST with ≥ 16 edges per
- * quarter arc; displacements 0.5 % for LST.
+ * dofs at two corners (the tractions are self-equilibrated, the reactions vanish). The peak itself
+ * is checked by the study rows below (exact displacements, a band that must hold 3S).
  */
 const KIRSCH = { a: 1, half: 5, S: 1, E: 1000, nu: 0.3 };
 
@@ -148,9 +149,8 @@ function kirschCase(): CheckResult[] {
   // about 16 LST edges per quarter of the hole edge
   const s = solveKirsch(2, 0.1);
   const hoop = hoopSamples(s, 'bore');
-  const peak = maxOf(hoop.st);
-  // hoop stress at 0°, 15°, …, 90° (reference notes §1 table): the node nearest each angle,
-  // compared with S(1 − 2 cos 2θ) at that node's own angle; deviation over the peak 3S
+  // hoop stress at 0°, 15°, …, 90°: the node nearest each angle, compared with S(1 − 2 cos 2θ) at
+  // that node's own angle; deviation over the peak 3S
   let worst = -1, worstRef = 0, worstVal = 0;
   for (let deg = 0; deg <= 90; deg += 15) {
     const th = (deg * Math.PI) / 180;
@@ -169,33 +169,33 @@ function kirschCase(): CheckResult[] {
   const wideningRef = (6 * S * a) / E;
   const src = 'Kirsch 1898 (Z. VDI 42); Timoshenko & Goodier 1970';
   return [
-    result({ name: 'Kirsch hole: peak hoop stress', source: `${src}: σθ(a, 90°) = 3S`, quantity: 'max σθ on the hole edge / S', reference: 3 * S, value: peak, error: relError(peak, 3 * S), tolerance: 0.015 }),
+    // measured 0.47 % (one solve, ≈ 16 edges per quarter): 1 % is about twice that
     result({
       name: 'Kirsch hole: hoop stress along the edge',
       source: `${src}: σθ(a, θ) = S(1 − 2 cos 2θ)`,
       quantity: 'σθ at θ = 0°, 15° … 90°, worst angle; error = |σθ − exact| / 3S',
-      reference: worstRef, value: worstVal, error: worst, tolerance: 0.015,
+      reference: worstRef, value: worstVal, error: worst, tolerance: 0.01,
     }),
+    // measured 9.4e−5: 3e−4 is three times that
     result({
       name: 'Kirsch hole: widening along the load',
-      source: `${src}; u_x(a, 0) = 3Sa/E (plane stress, reference notes §1)`,
+      source: `${src}: u_x(a, 0) = 3Sa/E (plane stress)`,
       quantity: 'u_x(a, 0) − u_x(−a, 0)',
-      reference: wideningRef, value: widening, error: relError(widening, wideningRef), tolerance: 0.005,
+      reference: wideningRef, value: widening, error: relError(widening, wideningRef), tolerance: 3e-4,
     }),
   ];
 }
 
 /*
- * The same Kirsch plate with CST elements, about 64 edges per quarter of the hole (h = a/40):
- * suggested case 1 allows 6 % for nodal averages at ≥ 64 edges and expects SPR to roughly halve
- * that, hence 3 % for the SPR peak.
+ * The same Kirsch plate with CST elements, about 64 edges per quarter of the hole (h = a/40).
+ * Measured 0.79 % for the SPR peak: 2 % is two and a half times that.
  */
 function kirschCstCase(): CheckResult[] {
   const s = solveKirsch(1, 0.025);
   const peak = maxOf(hoopSamples(s, 'bore').st);
   const ref = 3 * KIRSCH.S;
   return [
-    result({ name: 'Kirsch hole, CST: peak hoop stress', source: 'Kirsch 1898 (Z. VDI 42): σθ(a, 90°) = 3S', quantity: 'max σθ on the hole edge / S (CST + SPR)', reference: ref, value: peak, error: relError(peak, ref), tolerance: 0.03 }),
+    result({ name: 'Kirsch hole, CST: peak hoop stress', source: 'Kirsch 1898 (Z. VDI 42): σθ(a, 90°) = 3S', quantity: 'max σθ on the hole edge / S (CST + SPR)', reference: ref, value: peak, error: relError(peak, ref), tolerance: 0.02 }),
   ];
 }
 
@@ -203,47 +203,76 @@ function kirschCstCase(): CheckResult[] {
 // Finite-width strip
 
 /*
- * R. C. J. Howland, Phil. Trans. R. Soc. A 229 (1930) 49–86: central hole of diameter d in a strip
- * of width W under tension. Reference: the high-order FE values of the reference notes §2
- * (computed, GCI ≤ 4e−4), which sit 0.2–0.6 % above the values usually quoted from Howland
- * (3.14, 3.36, 4.32 from memory) — the 1 % band (suggested case 2) holds both.
- * W = 1, half-length 3 from the hole centre, uniform end tractions, two point supports that
- * carry no force.
+ * R. C. J. Howland, Phil. Trans. R. Soc. A 229 (1930) 49–86: central hole of diameter d in a strip of
+ * width W under uniform end tension S. Howland's values as usually quoted (3.14, 3.36, 4.32 for
+ * d/W = 0.2, 0.3, 0.5; from memory) have three figures only; the references here are independent FE
+ * computations with biquadratic 9-node quadrilaterals on graded mapped meshes (32, 64 and 128 element
+ * edges on the quarter circle) and Richardson extrapolation:
+ *   d/W = 0.2, 0.3, half-length 3W: 3.153 and 3.374, GCI ≤ 2e−4, printed to three decimals
+ *     (uncertainty taken as 5e−4 rounding + 2e−4 relative);
+ *   d/W = 0.5, half-length 2W: 4.3476 ± 0.0001.
+ * Each row runs the convergence study (W = 20, base size W/10, five levels); every converging site
+ * on the hole edge must have the reference inside its band, and the row's value is the larger one.
  */
-const STRIP_COMPUTED_KTG: Record<string, number> = { '0.2': 3.153, '0.3': 3.374, '0.5': 4.348 };
+const STRIP_REFERENCE: Record<string, { ktg: number; u: number; halfLength: number }> = {
+  '0.2': { ktg: 3.153, u: 5e-4 + 2e-4 * 3.153, halfLength: 3 },
+  '0.3': { ktg: 3.374, u: 5e-4 + 2e-4 * 3.374, halfLength: 3 },
+  '0.5': { ktg: 4.3476, u: 1e-4, halfLength: 2 },
+};
+
+/** The band holds the reference: |value − reference| ≤ half-width + the reference's own uncertainty. */
+const holds = (value: number, halfWidth: number, reference: number, referenceUncertainty: number) =>
+  Math.abs(value - reference) <= halfWidth + referenceUncertainty;
+
+/**
+ * A study row: the converging site `site` (value and band divided by `scale`) against `reference`;
+ * `othersInside` says whether every other converging site checked also holds its exact value.
+ */
+function bandResult(d: {
+  name: string; source: string; quantity: string; reference: number; referenceUncertainty: number; tolerance: number;
+  site: SiteResult | undefined; scale: number; othersInside: boolean;
+}): CheckResult {
+  const conv = d.site?.verdict === 'converging';
+  const value = conv ? d.site!.estimate.value / d.scale : NaN;
+  const halfWidth = conv ? d.site!.estimate.uncertainty / d.scale : NaN;
+  const inside = conv && holds(value, halfWidth, d.reference, d.referenceUncertainty) && d.othersInside;
+  const row = result({
+    name: d.name, source: d.source,
+    quantity: `${d.quantity} (verdict ${d.site ? d.site.verdict : 'missing'})`,
+    reference: d.reference, value, error: relError(value, d.reference), tolerance: d.tolerance,
+  });
+  return { ...row, band: { value, halfWidth, referenceUncertainty: d.referenceUncertainty, inside }, pass: row.pass && inside };
+}
 
 function stripCase(dOverW: number): CheckResult[] {
-  const W = 1, Lh = 3, a = (dOverW * W) / 2;
-  const model = caseModel({
-    title: `strip with a central hole, d/W = ${dOverW}`,
-    plate: {
-      outline: { kind: 'rect', center: [0, 0], width: W, height: 2 * Lh, round: 0 },
-      openings: [{ id: 'hole', shape: { kind: 'circle', center: [0, 0], radius: a }, keyPath: 'plate.openings[0]' }],
-    },
-    material: { E: 1000, nu: 0.3 },
-    supports: [
-      support({ kind: 'point', at: [-W / 2, -Lh] }, true, true, 'supports[0]'),
-      support({ kind: 'point', at: [W / 2, -Lh] }, false, true, 'supports[1]'),
-    ],
-    loads: [
-      { kind: 'traction', where: { kind: 'y', value: Lh }, traction: [0, 1], keyPath: 'loads[0]' },
-      { kind: 'traction', where: { kind: 'y', value: -Lh }, traction: [0, -1], keyPath: 'loads[1]' },
-    ],
-    size: 0.15,
-    // ≈ 24 LST edges per quarter of the hole edge near the peak
-    local: [{ near: [0, 0], size: (Math.PI * a) / 48, radius: 1.2 * a }],
-  });
-  const s = solveModel(model);
-  const ktg = maxOf(hoopSamples(s, 'hole').st) / 1;
-  const ref = STRIP_COMPUTED_KTG[String(dOverW)];
-  return [
-    result({
-      name: `strip hole d/W = ${dOverW}: Ktg`,
-      source: 'Howland 1930 (Phil. Trans. A 229); value: reference notes §2 computed column',
-      quantity: 'max σθ on the hole edge / gross stress',
-      reference: ref, value: ktg, error: relError(ktg, ref), tolerance: 0.01,
-    }),
-  ];
+  const ref = STRIP_REFERENCE[String(dOverW)];
+  const W = 20, Lh = ref.halfLength * W, a = (dOverW * W) / 2;
+  const model = parseModel(STUDY_HEAD + `
+title: strip with a central hole, d/W = ${dOverW}
+plate:
+  outline: { rect: { center: [0, 0], width: ${W}, height: ${2 * Lh} } }
+  openings: [ { id: hole, circle: { center: [0, 0], radius: ${a} } } ]
+supports:
+  - { where: { point: [${-W / 2}, ${-Lh}] }, fix: [x, y] }
+  - { where: { point: [${W / 2}, ${-Lh}] }, fix: [y] }
+loads:
+  - { where: { y: ${Lh} }, traction: [0, 1] }
+  - { where: { y: ${-Lh} }, traction: [0, -1] }
+mesh: { size: ${W / 10}, order: 2 }
+`, `check-strip-${dOverW}.yaml`);
+  const r = runStudy(model, { levels: 5 });
+  // the peaks of the hole edge, at (±a, 0) across the load
+  const edge = [siteAt(r, a, 0), siteAt(r, -a, 0)].filter((p): p is SiteResult => p?.verdict === 'converging');
+  const site = edge.reduce<SiteResult | undefined>((m, p) => (!m || p.estimate.value > m.estimate.value ? p : m), undefined);
+  // measured errors 0.01–0.02 % against the references: 0.1 % is several times that
+  return [bandResult({
+    name: `study: strip hole d/W = ${dOverW}, Ktg`,
+    source: `Howland 1930 (Phil. Trans. A 229; ${{ '0.2': '3.14', '0.3': '3.36', '0.5': '4.32' }[String(dOverW)]} from memory); value: independent FE computation (9-node elements, Richardson extrapolation)`,
+    quantity: `study estimate of the converged von Mises peak / S, half-length ${ref.halfLength}W`,
+    reference: ref.ktg, referenceUncertainty: ref.u, tolerance: 1e-3,
+    site: site ?? siteAt(r, a, 0), scale: 1,
+    othersInside: edge.every((p) => holds(p.estimate.value, p.estimate.uncertainty, ref.ktg, ref.u)),
+  })];
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -251,10 +280,12 @@ function stripCase(dOverW: number): CheckResult[] {
 
 /*
  * C. E. Inglis, Trans. Inst. Naval Architects 55 (1913) 219–241: elliptical hole, semi-axis a
- * across the remote tension S, b along it: Kt = 1 + 2a/b at the ends of a. Plate 40a wide
- * (2a/W = 0.05; the finite width adds about 0.2 %, reference notes §3 computed 7.013) and 120a
- * long. Elements of ρ/8 at the tips (ρ = b²/a), finer than the ρ/4 the 2 % band of suggested
- * case 3 asks for (reference notes §3: tip elements of about ρ/2 were 1–2 % off).
+ * across the remote tension S, b along it: Kt = 1 + 2a/b at the ends of a. The finite plate: 40a
+ * wide (2a/W = 0.05) and 120a long, one solve with elements of ρ/8 at the tips (ρ = b²/a). Its
+ * exact Kt is not Inglis' — the finite width adds about +0.2 % (independent FE computation,
+ * 9-node elements with Richardson extrapolation: 7.013 for a/b = 3) — and the single solve is
+ * about 0.5 % low of that; measured −0.29 % and −0.33 % against 1 + 2a/b, so 1 % (three times).
+ * The exact value is checked by the study rows on the exact-displacement plates below.
  */
 function inglisCase(aOverB: number): CheckResult[] {
   const a = 1, b = a / aOverB, W = 40, H = 120, rho = (b * b) / a;
@@ -286,12 +317,38 @@ function inglisCase(aOverB: number): CheckResult[] {
   const ref = 1 + 2 * aOverB;
   return [
     result({
-      name: `Inglis ellipse a/b = ${aOverB}: Kt`,
+      name: `Inglis ellipse a/b = ${aOverB}, finite plate: Kt`,
       source: 'Inglis 1913 (Trans. INA 55): Kt = 1 + 2a/b',
-      quantity: 'max σθ at the ellipse tip / S (2a/W = 0.05)',
-      reference: ref, value: kt, error: relError(kt, ref), tolerance: 0.02,
+      quantity: 'max σθ at the ellipse tip / S, finite plate 2a/W = 0.05, one solve',
+      reference: ref, value: kt, error: relError(kt, ref), tolerance: 0.01,
     }),
   ];
+}
+
+// ---------------------------------------------------------------------------------------------
+// Studies on plates whose outline carries the exact displacements
+
+/*
+ * Kirsch (1898) and Inglis (1913) plates with the closed form's displacements prescribed on the
+ * whole outline (src/check/exact-plates.ts), so the FE problem's exact solution is the closed form:
+ * the convergence study (five levels) must find the hole's peaks converging and every converging
+ * site's band must hold the closed-form peak of its own neighbourhood. The row shows the largest
+ * site. Measured errors 1e−4 to 2e−4 of the value: tolerance 0.1 %.
+ */
+function exactPlateCase(make: (levels: number) => ExactPlate): CheckResult[] {
+  const plate = make(5);
+  const r = runStudy(plate.model);
+  const conv = r.sites.filter((p) => p.verdict === 'converging');
+  const inside = conv.length > 0 && conv.every((p) =>
+    holds(p.estimate.value, p.estimate.uncertainty, exactNeighbourhoodPeak(plate, p.at, p.levels[0].radius ?? 0), 0));
+  const site = conv.reduce<SiteResult | undefined>((m, p) => (!m || p.estimate.value > m.estimate.value ? p : m), r.sites[0]);
+  return [bandResult({
+    name: `study: ${plate.name}`,
+    source: plate.source,
+    quantity: `study estimate of the converged von Mises peak / S, ${conv.length} converging sites`,
+    reference: plate.kt, referenceUncertainty: 0, tolerance: 1e-3,
+    site, scale: EXACT_PLATE_STRESS, othersInside: inside,
+  })];
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -302,7 +359,7 @@ function inglisCase(aOverB: number): CheckResult[] {
  * E = 1000, ν = 0.3, plane stress. Whole ring, pressure through the model's own load; rigid motion
  * removed by three displacement components the exact field also satisfies (u_y = 0 at (±b, 0),
  * u_x = 0 at (0, b)), a statically determinate set, so the reactions are zero.
- * Tolerances (suggested case 4): u_r 0.2 % and σθ(a) 1 % for LST.
+ * Tolerances a few times the errors measured: u_r 0.010 % → 0.05 %, σθ(a) 0.40 % → 1 %.
  */
 function solveLame(state: 'plane-stress' | 'plane-strain'): Solved {
   const a = 1, b = 2, p = 1, E = 1000, nu = 0.3;
@@ -315,7 +372,7 @@ function solveLame(state: 'plane-stress' | 'plane-strain'): Solved {
     },
     material: { E, nu },
     loads: [{ kind: 'pressure', where: { kind: 'opening', id: 'bore' }, pressure: p, keyPath: 'loads[0]' }],
-    // 10 LST elements through the wall (suggested case 4 asks for ≥ 8)
+    // 10 LST elements through the wall
     size: 0.1,
   });
   return solveModel(model, {
@@ -347,15 +404,15 @@ function lameCase(): CheckResult[] {
   }
   const src = 'Lamé 1852; Timoshenko & Goodier 1970';
   return [
-    result({ name: 'Lamé ring: u_r(a)', source: `${src}: u_r = [(1 − ν)Ar + (1 + ν)B/r]/E`, quantity: 'radial displacement of the bore, worst node', reference: exactA.ur, value: valU, error: worstU, tolerance: 0.002 }),
+    result({ name: 'Lamé ring: u_r(a)', source: `${src}: u_r = [(1 − ν)Ar + (1 + ν)B/r]/E`, quantity: 'radial displacement of the bore, worst node', reference: exactA.ur, value: valU, error: worstU, tolerance: 5e-4 }),
     result({ name: 'Lamé ring: σθ(a)', source: `${src}: σθ = A + B/r²`, quantity: 'hoop stress on the bore, worst node', reference: exactA.st, value: valS, error: worstS, tolerance: 0.01 }),
   ];
 }
 
 /*
- * The same ring in plane strain (reference notes §4 and suggested case 14): u_r(a) = 1.906667e−3 and
- * σz = ν(σr + σθ) = 2νA = 0.2 everywhere — a check of the plane-strain law and of the σz
- * bookkeeping of the recovered field. Bands as for plane stress (0.2 % on u_r, 1 % on σz).
+ * The same ring in plane strain: u_r(a) = 1.906667e−3 and σz = ν(σr + σθ) = 2νA = 0.2 everywhere
+ * (Lamé's field with the plane-strain law) — a check of the plane-strain law and of the σz
+ * bookkeeping of the recovered field. Measured u_r 0.012 % → 0.05 %, σz 0.69 % → 1.5 %.
  */
 function lamePlaneStrainCase(): CheckResult[] {
   const a = 1, b = 2, p = 1, E = 1000, nu = 0.3;
@@ -371,8 +428,8 @@ function lamePlaneStrainCase(): CheckResult[] {
   }
   const src = 'Lamé 1852; Timoshenko & Goodier 1970, plane strain';
   return [
-    result({ name: 'Lamé ring, plane strain: u_r(a)', source: `${src}: u_r = (1 + ν)[(1 − 2ν)Ar + B/r]/E`, quantity: 'radial displacement of the bore, worst node', reference: exactA.ur, value: valU, error: worstU, tolerance: 0.002 }),
-    result({ name: 'Lamé ring, plane strain: σz', source: `${src}: σz = ν(σr + σθ) = 2νA`, quantity: 'out-of-plane stress on the bore (SPR), worst node', reference: exactA.sz, value: valZ, error: worstZ, tolerance: 0.01 }),
+    result({ name: 'Lamé ring, plane strain: u_r(a)', source: `${src}: u_r = (1 + ν)[(1 − 2ν)Ar + B/r]/E`, quantity: 'radial displacement of the bore, worst node', reference: exactA.ur, value: valU, error: worstU, tolerance: 5e-4 }),
+    result({ name: 'Lamé ring, plane strain: σz', source: `${src}: σz = ν(σr + σθ) = 2νA`, quantity: 'out-of-plane stress on the bore (SPR), worst node', reference: exactA.sz, value: valZ, error: worstZ, tolerance: 0.015 }),
   ];
 }
 
@@ -380,11 +437,11 @@ function lamePlaneStrainCase(): CheckResult[] {
 // Cantilever
 
 /*
- * Timoshenko & Goodier, Theory of Elasticity (1970), cantilever with a parabolic end shear; root
- * condition (c) of the reference notes §5 (as in Augarde & Deeks, FEAD 44 (2008)): the exact
- * root displacements prescribed at every root node and the exact parabolic shear on the tip.
+ * Timoshenko & Goodier, Theory of Elasticity (1970), cantilever with a parabolic end shear; the
+ * exact root displacements prescribed at every root node (as in Augarde & Deeks, FEAD 44 (2008);
+ * their printed form from memory) and the exact parabolic shear on the tip.
  * L = 10, D = 1, P = 1, E = 1000, ν = 0.3: δ = 4.0275, σxx(L/2, D/2) = 30.
- * Tolerances (suggested case 5, LST): 0.5 % on δ, 2 % on σxx.
+ * Measured 4.9e−6 on δ → 2e−5; 0.034 % on σxx → 0.1 %.
  */
 function cantileverCase(): CheckResult[] {
   const c: CantileverData = { L: 10, D: 1, t: 1, P: 1, E: 1000, nu: 0.3 };
@@ -411,10 +468,10 @@ function cantileverCase(): CheckResult[] {
   const top = stressAt(s.mesh, s.field, c.L / 2, c.D / 2 - 1e-9);
   const sxx = top ? top.sxx : NaN;
   const sxxRef = cantileverStress(c, c.L / 2, c.D / 2).sxx;
-  const src = 'Timoshenko & Goodier 1970, cantilever with end shear; root case (c), Augarde & Deeks 2008';
+  const src = 'Timoshenko & Goodier 1970, cantilever with end shear; exact root displacements (Augarde & Deeks 2008, printed form from memory)';
   return [
-    result({ name: 'cantilever: tip deflection', source: `${src}: δ = PL³/3EI + (4 + 5ν)PD²L/24EI`, quantity: '−u_y(L, 0)', reference: tipRef, value: tip, error: relError(tip, tipRef), tolerance: 0.005 }),
-    result({ name: 'cantilever: bending stress', source: `${src}: σxx = P(L − x)y/I`, quantity: 'σxx(L/2, D/2) (SPR)', reference: sxxRef, value: sxx, error: relError(sxx, sxxRef), tolerance: 0.02 }),
+    result({ name: 'cantilever: tip deflection', source: `${src}: δ = PL³/3EI + (4 + 5ν)PD²L/24EI`, quantity: '−u_y(L, 0)', reference: tipRef, value: tip, error: relError(tip, tipRef), tolerance: 2e-5 }),
+    result({ name: 'cantilever: bending stress', source: `${src}: σxx = P(L − x)y/I`, quantity: 'σxx(L/2, D/2) (SPR)', reference: sxxRef, value: sxx, error: relError(sxx, sxxRef), tolerance: 1e-3 }),
   ];
 }
 
@@ -448,9 +505,9 @@ function exponentResult(name: string, source: string, site: SiteResult | undefin
 
 /*
  * M. L. Williams, J. Appl. Mech. 19 (1952) 526–528: a free–free 270° corner has λ = 0.544484
- * (mode I), so the peak grows like h^−0.455516. L-shaped plate pulled along one leg, four
- * refinement levels of the study. Band ±0.05 on q: the study stage's acceptance (the reference
- * notes' suggested case 6c allows ±0.1 on λ; our measured deviation is well inside 0.05).
+ * (mode I), so the peak grows like h^−0.455516. L-shaped plate pulled along one leg, five
+ * refinement levels of the study. Measured |q − q_ref| = 0.012: ±0.02. A singular site has no
+ * value band (its peak is not a stress), so the band column reads n/a.
  */
 function williamsCornerCase(): CheckResult[] {
   const model = parseModel(STUDY_HEAD + `
@@ -465,13 +522,12 @@ loads:
 mesh: { size: 0.25, order: 2 }
 `, 'check-l-plate.yaml');
   const r = runStudy(model, { levels: 5 });
-  return [exponentResult('Williams 270° corner: exponent', 'Williams 1952 (J. Appl. Mech. 19), free–free 270°: λ = 0.544484', siteAt(r, 1, 1), 0.455516, 0.05)];
+  return [exponentResult('Williams 270° corner: exponent', 'Williams 1952 (J. Appl. Mech. 19), free–free 270°: λ = 0.544484', siteAt(r, 1, 1), 0.455516, 0.02)];
 }
 
 /*
  * Williams (1952) at 360° (a crack): λ = 1/2, q = 0.5. Edge slit as a half model on its symmetry
- * line: the roller ends at the tip (0.5, 0). Band ±0.06, the study stage's acceptance for the
- * support-edge end, which the study classifies from the roller/free faces.
+ * line: the roller ends at the tip (0.5, 0). Measured |q − 0.5| = 0.0025: ±0.02 like the corner.
  */
 function williamsCrackCase(): CheckResult[] {
   const model = parseModel(STUDY_HEAD + `
@@ -486,14 +542,15 @@ loads:
 mesh: { size: 0.25, order: 2 }
 `, 'check-edge-slit.yaml');
   const r = runStudy(model, { levels: 5 });
-  return [exponentResult('Williams crack tip: exponent', 'Williams 1952 (J. Appl. Mech. 19), 360° crack: λ = 1/2', siteAt(r, 0.5, 0), 0.5, 0.06)];
+  return [exponentResult('Williams crack tip: exponent', 'Williams 1952 (J. Appl. Mech. 19), 360° crack: λ = 1/2', siteAt(r, 0.5, 0), 0.5, 0.02)];
 }
 
 /*
  * The other half of the study's job: a smooth concentration must come out "converging", with the
- * extrapolated peak on the closed form. Strip W = 20, hole d = 2 (d/W = 0.1), half-length 60,
- * four study levels. Reference 3.036, the computed K_tg of the reference notes §2 (Howland 1930
- * quotes 3.03 from memory); 1 % band as for the strip cases.
+ * reference inside its band. Strip W = 20, hole d = 2 (d/W = 0.1), half-length 60, four study
+ * levels. Reference 3.036: independent FE computation (9-node elements on graded mapped meshes,
+ * Richardson extrapolation, GCI 4e−4, printed to three decimals); Howland 1930 quotes 3.03 (from
+ * memory). Measured 0.005 % from 3.036: tolerance 0.1 % (the reference itself is good to 0.06 %).
  */
 function studyHoleCase(): CheckResult[] {
   const model = parseModel(STUDY_HEAD + `
@@ -510,16 +567,16 @@ loads:
 mesh: { size: 3, order: 2 }
 `, 'check-strip-hole.yaml');
   const r = runStudy(model, { levels: 4 });
-  const site = siteAt(r, 1, 0) ?? siteAt(r, -1, 0);
-  const value = site ? site.estimate.value : NaN;
-  const ref = 3.036;
-  const row = result({
+  const ref = 3.036, u = 5e-4 + 4e-4 * ref;
+  const edge = [siteAt(r, 1, 0), siteAt(r, -1, 0)].filter((p): p is SiteResult => p?.verdict === 'converging');
+  return [bandResult({
     name: 'study: strip hole d/W = 0.1, Ktg',
-    source: 'Howland 1930 (Phil. Trans. A 229); value: reference notes §2 computed column',
-    quantity: `study estimate of the converged von Mises peak / S (verdict ${site ? site.verdict : 'missing'})`,
-    reference: ref, value, error: relError(value, ref), tolerance: 0.01,
-  });
-  return [site && site.verdict === 'converging' ? row : { ...row, pass: false }];
+    source: 'Howland 1930 (Phil. Trans. A 229; 3.03 from memory); value: independent FE computation (9-node elements, Richardson extrapolation)',
+    quantity: 'study estimate of the converged von Mises peak / S',
+    reference: ref, referenceUncertainty: u, tolerance: 1e-3,
+    site: siteAt(r, 1, 0) ?? siteAt(r, -1, 0), scale: 1,
+    othersInside: edge.every((p) => holds(p.estimate.value, p.estimate.uncertainty, ref, u)),
+  })];
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -551,12 +608,11 @@ function solveCrackQuarter(a: number): Solved {
  * Centre crack 2a = 0.2 in a strip W = 1 (half-length 1.5), S = 1, plane stress: quarter model with
  * symmetry rollers on x = 0 and on the ligament y = 0, a ≤ x ≤ W/2; the crack face 0 ≤ x < a is free.
  * K_I from the opening of the crack-face nodes by displacement extrapolation (crack.ts) against
- * Tada, Paris & Irwin (2000) p. 2.2 (Feddersen 1966 secant form, with Tada's polynomial).
- * Band 2 % for LST with ordinary elements at the tip (suggested case 7).
+ * Tada, Paris & Irwin (2000) p. 2.2 (Feddersen 1966 secant form, with Tada's polynomial; page and
+ * coefficients from memory). Measured 0.070 %: 0.5 %.
  * Second figure: the energy release rate from two crack lengths, G ≈ dU/dA with U = ½ fᵀu under
  * fixed load (central difference over a ± 0.1a; four quarters, two tips: G = 2 ΔU_quarter/(t Δa)),
- * against Irwin's G = K²/E' (Irwin 1957) with Tada's K. Band 2 % [practice]: the energy converges
- * faster than the near-tip displacements, but the two meshes differ.
+ * against Irwin's G = K²/E' (Irwin 1957) with Tada's K. Measured 0.053 %: 0.2 %.
  */
 function centreCrackCase(): CheckResult[] {
   const { W, S, E, nu } = CRACK;
@@ -582,15 +638,15 @@ function centreCrackCase(): CheckResult[] {
   return [
     result({
       name: 'centre crack: K_I',
-      source: `Tada, Paris & Irwin 2000, p. 2.2: S√(πa)·F(2a/W) (Feddersen 1966: ${feddersenCentreCrackK(S, a, W).toFixed(4)})`,
+      source: `Tada, Paris & Irwin 2000, p. 2.2 (from memory): S√(πa)·F(2a/W) (Feddersen 1966: ${feddersenCentreCrackK(S, a, W).toFixed(4)})`,
       quantity: 'K_I by displacement extrapolation of the crack-face opening, 2a/W = 0.2',
-      reference: ref, value: K, error: relError(K, ref), tolerance: 0.02,
+      reference: ref, value: K, error: relError(K, ref), tolerance: 0.005,
     }),
     result({
       name: 'centre crack: energy release rate',
       source: 'Irwin 1957 (J. Appl. Mech. 24): G = K²/E\', K from Tada, Paris & Irwin 2000',
       quantity: 'G = dU/dA from the strain energy at a ± 0.1a (fixed load)',
-      reference: Gref, value: G, error: relError(G, Gref), tolerance: 0.02,
+      reference: Gref, value: G, error: relError(G, Gref), tolerance: 0.002,
     }),
   ];
 }
@@ -606,6 +662,9 @@ export const CHECK_CASES: readonly CheckCase[] = [
   { id: 'strip-0.5', run: () => stripCase(0.5) },
   { id: 'inglis-2', run: () => inglisCase(2) },
   { id: 'inglis-3', run: () => inglisCase(3) },
+  { id: 'study-kirsch', run: () => exactPlateCase(kirschPlate) },
+  { id: 'study-inglis-2', run: () => exactPlateCase((levels) => inglisPlate(2, levels)) },
+  { id: 'study-inglis-3', run: () => exactPlateCase((levels) => inglisPlate(3, levels)) },
   { id: 'lame', run: lameCase },
   { id: 'lame-plane-strain', run: lamePlaneStrainCase },
   { id: 'cantilever', run: cantileverCase },

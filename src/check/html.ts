@@ -48,7 +48,7 @@ export function checksHtml(results: readonly CheckResult[], meta: { version: str
 <body>
 <h1>Verification against closed-form results</h1>
 <p class="summary">${escapeXml(summary)} <small>${escapeXml(stamp)}</small></p>
-<p>Each case builds its own model, runs the solver and compares one number with a published closed form. Errors are relative unless the quantity says otherwise.</p>
+<p>Each case builds its own model, runs the solver and compares one number with a published closed form or an independent computation; rows that run a convergence study also show whether the reference lies inside the band. Errors are relative unless the quantity says otherwise.</p>
 <table>
 <thead><tr>${TABLE_HEADER.map((h) => `<th>${escapeXml(h)}</th>`).join('')}</tr></thead>
 <tbody>

@@ -64,6 +64,13 @@ export function errorText(r: Pick<CheckResult, 'quantity'>, e: number): string {
   return r.quantity.includes('absolute') ? formatFigure(e, 2) : formatError(e);
 }
 
+/** "reference inside band" cell: yes/NO with the half-width for study rows, n/a for single solves. */
+export function bandText(band: { halfWidth: number | null; inside: boolean | null } | undefined | null): string {
+  if (!band || band.inside === null) return 'n/a';
+  const hw = band.halfWidth === null || !Number.isFinite(band.halfWidth) ? 'no band' : `± ${formatFigure(band.halfWidth, 2)}`;
+  return `${band.inside ? 'yes' : 'NO'} (${hw})`;
+}
+
 export function tableRows(results: readonly CheckResult[]): string[][] {
   return results.map((r) => [
     stripControl(r.name),
@@ -73,11 +80,12 @@ export function tableRows(results: readonly CheckResult[]): string[][] {
     formatFigure(r.value),
     errorText(r, r.error),
     errorText(r, r.tolerance),
+    bandText(r.band),
     r.pass ? 'pass' : 'FAIL',
   ]);
 }
 
-export const TABLE_HEADER = ['case', 'source', 'quantity', 'reference', 'peakwise', 'error', 'tolerance', 'result'];
+export const TABLE_HEADER = ['case', 'source', 'quantity', 'reference', 'peakwise', 'error', 'tolerance', 'reference inside band', 'result'];
 
 // eslint-disable-next-line no-control-regex
 const ANSI = /\u001b\[[0-9;]*m/g;
@@ -135,17 +143,27 @@ function wrapText(text: string, max: number): string[] {
 }
 
 export interface ChecksJson {
-  cases: { name: string; source: string; quantity: string; reference: number | null; value: number | null; error: number | null; tolerance: number | null; pass: boolean }[];
+  cases: {
+    name: string; source: string; quantity: string; reference: number | null; value: number | null; error: number | null; tolerance: number | null;
+    /** study rows: the band's half-width and whether it holds the reference; null for single solves */
+    halfWidth: number | null; insideBand: boolean | null;
+    pass: boolean;
+  }[];
 }
 
 const num = (v: number): number | null => (Number.isFinite(v) ? v : null);
 
-/** `--json` output: `{ "cases": [ { name, source, quantity, reference, value, error, tolerance, pass } ] }` (NaN → null). */
+/**
+ * `--json` output: `{ "cases": [ { name, source, quantity, reference, value, error, tolerance, halfWidth,
+ * insideBand, pass } ] }` (NaN → null; halfWidth and insideBand null for single-solve rows).
+ */
 export function checksJson(results: readonly CheckResult[]): ChecksJson {
   return {
     cases: results.map((r) => ({
       name: r.name, source: r.source, quantity: r.quantity,
-      reference: num(r.reference), value: num(r.value), error: num(r.error), tolerance: num(r.tolerance), pass: r.pass,
+      reference: num(r.reference), value: num(r.value), error: num(r.error), tolerance: num(r.tolerance),
+      halfWidth: r.band ? num(r.band.halfWidth) : null, insideBand: r.band ? r.band.inside : null,
+      pass: r.pass,
     })),
   };
 }

@@ -13,6 +13,12 @@ export interface CheckResult {
   /** relative error |value − reference| / |reference| unless `quantity` states otherwise */
   error: number;
   tolerance: number;
+  /**
+   * rows that run a convergence study: the converging site's band (value ± halfWidth, in the units of
+   * `value`) and whether it holds the reference within the reference's own stated uncertainty; every
+   * converging site of the study counts (`inside` is false if any band misses its exact value)
+   */
+  band?: { value: number; halfWidth: number; referenceUncertainty: number; inside: boolean };
   pass: boolean;
   /** wall time of the case in seconds (shared solves are counted where they ran) */
   seconds?: number;

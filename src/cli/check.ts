@@ -8,9 +8,10 @@ import { progressBar } from './progress.js';
 import { CHECK_CASES, checksHtml, checksJson, checksTable, runChecks, type CheckResult } from '../check/index.js';
 import { PeakwiseError } from '../errors.js';
 import { VERSION } from '../version.js';
-import type { CliContext } from './commands.js';
-import { useColor } from './commands.js';
+import type { CliContext } from './common.js';
+import { useColor } from './common.js';
 import { writeFileAtomic } from './io.js';
+import { checkTargetFile } from './output-set.js';
 
 export interface CheckCliOptions {
   json?: boolean;
@@ -22,6 +23,7 @@ export interface CheckCliOptions {
 
 
 export function runCheck(_ctx: CliContext, opts: CheckCliOptions): void {
+  if (opts.report) checkTargetFile(opts.report, `--report ${opts.report}`);
   const bar = progressBar(opts, 'cases');
   let results: CheckResult[];
   try {

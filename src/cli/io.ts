@@ -1,6 +1,8 @@
-import { mkdirSync, readFileSync, renameSync, rmSync, writeFileSync, openSync, writeSync, closeSync, realpathSync, existsSync } from 'node:fs';
+import { readFileSync, renameSync, rmSync, writeFileSync, openSync, writeSync, closeSync } from 'node:fs';
 import { basename, dirname, extname, join, resolve, sep } from 'node:path';
 import { PeakwiseError } from '../errors.js';
+import { refuseInputTarget } from './inputs.js';
+import { errnoWords, makeFolders } from './real-path.js';
 
 /** Read a model file, with a clear message when it is missing or unreadable. */
 export function readModelText(file: string): string {
@@ -19,42 +21,37 @@ export function modelName(file: string): string {
 }
 
 /**
- * Output folder rules (nothing lost): the folder may not be the folder that holds the model
- * file (or any `models` folder), and no output may have the same path as the input.
+ * Writes into a result folder go through its output set (src/cli/output-set.ts), which stamps
+ * each file with the run id and lists it in the manifest. The set registers itself here, so no
+ * code path can write into an open result folder behind its back.
  */
-export function prepareOutDir(outDir: string, modelFile: string): string {
-  const out = resolve(outDir);
-  const modelDir = dirname(resolve(modelFile));
-  if (out === modelDir || basename(out) === 'models') {
-    throw new PeakwiseError('usage', `--out ${outDir}: refusing to write results into the models folder ${modelDir}; choose another folder, e.g. out/${modelName(modelFile)}`);
-  }
-  try {
-    mkdirSync(out, { recursive: true });
-  } catch (e) {
-    throw new PeakwiseError('io', `--out ${outDir}: cannot create the folder (${(e as NodeJS.ErrnoException).code ?? 'error'})`);
-  }
-  return out;
+export type ClaimedWrite = (path: string, content: string | Iterable<string>) => boolean;
+let claimedWrite: ClaimedWrite | undefined;
+export function setClaimedWrite(hook: ClaimedWrite | undefined): void {
+  claimedWrite = hook;
 }
 
-function samePath(a: string, b: string): boolean {
-  try {
-    return realpathSync(a) === realpathSync(b);
-  } catch {
-    return resolve(a) === resolve(b);
-  }
+/**
+ * Write an output file: refused when it would overwrite any input of the run (the model file,
+ * the files it imports, the verification record, and `protect`), compared by real path and
+ * inode; handed to the output set when it lies in an open result folder; else written
+ * atomically (`writeAtomic`).
+ */
+export function writeFileAtomic(path: string, content: string | Iterable<string>, protect: string[] = []): void {
+  refuseInputTarget(path, path, protect);
+  if (claimedWrite?.(path, content)) return;
+  writeAtomic(path, content);
 }
 
 /**
  * Write a file atomically: the text goes to a temporary file in the same folder, which is then
  * renamed over the target, so a reader never sees a partial file and a crash never destroys a
- * complete earlier one. Refuses to overwrite the model file.
+ * complete earlier one. The folder is made if missing (bounded, never under /proc, /sys, /dev).
  */
-export function writeFileAtomic(path: string, content: string | Iterable<string>, protect: string[] = []): void {
-  for (const p of protect) {
-    if (existsSync(path) && samePath(path, p)) throw new PeakwiseError('io', `${path}: refusing to overwrite the input file`);
-  }
-  mkdirSync(dirname(resolve(path)), { recursive: true });
-  const tmp = join(dirname(resolve(path)), `.${basename(path)}.${process.pid}.tmp`);
+export function writeAtomic(path: string, content: string | Iterable<string>): void {
+  const dir = dirname(resolve(path));
+  makeFolders(dir, path);
+  const tmp = join(dir, `.${basename(path)}.${process.pid}.tmp`);
   try {
     if (typeof content === 'string') {
       writeFileSync(tmp, content);
@@ -70,7 +67,8 @@ export function writeFileAtomic(path: string, content: string | Iterable<string>
   } catch (e) {
     rmSync(tmp, { force: true });
     if (e instanceof PeakwiseError) throw e;
-    throw new PeakwiseError('io', `${path}: cannot write (${(e as NodeJS.ErrnoException).code ?? String(e)})`);
+    const code = (e as NodeJS.ErrnoException).code;
+    throw new PeakwiseError('io', `${path}: cannot write: ${code ? errnoWords(code) : String(e)}`);
   }
 }
 

@@ -9,9 +9,14 @@ import { describeError } from './report-error.js';
 import { registerCutOptions } from './cut.js';
 import { runMesh, runSolve, runStudy, setStopFlag, StudyInterrupted, type CliContext } from './commands.js';
 import { Worker, isMainThread, parentPort, workerData } from 'node:worker_threads';
+import { writeSync } from 'node:fs';
 import { VERSION } from '../version.js';
 import { registerSweep } from './sweep.js';
 import { registerCheck } from './check.js';
+import { closeOutputSets } from './output-set.js';
+import { adoptWorkerLock, releaseAllLocks } from './lock.js';
+import { maxDofsArgument } from './options.js';
+import { registerResults } from './results.js';
 
 const ctx: CliContext = { file: undefined, model: undefined };
 
@@ -48,7 +53,7 @@ export function buildProgram(): Command {
       .option('--export-matrix <file>', 'write the stiffness matrix of the free dofs (Matrix Market, lower triangle)')
       .option('--export-load <file>', 'write the load vector of the free dofs (Matrix Market)')
       .option('--adapt <percent>', 'refine adaptively until the estimated energy error is below this')
-      .option('--max-dofs <n>', 'cap on degrees of freedom', '2000000')
+      .option('--max-dofs <n>', 'cap on degrees of freedom (a whole number)', maxDofsArgument, '2000000')
       .option('--report', 'also write report.html'),
   )).action(async (model: string, opts) => runSolve(ctx, model, opts));
 
@@ -58,11 +63,12 @@ export function buildProgram(): Command {
       .description('find every site, refine it level after level and give a verdict')
       .option('--levels <n>', 'refinement levels per site (overrides study.levels)')
       .option('--ratio <r>', 'element size ratio between levels (overrides study.ratio)')
-      .option('--max-dofs <n>', 'cap on degrees of freedom per solve', '2000000'),
+      .option('--max-dofs <n>', 'cap on degrees of freedom per solve (a whole number)', maxDofsArgument, '2000000'),
   )).action(async (model: string, opts) => runStudy(ctx, model, opts));
 
   registerSweep(program, ctx);
   registerCheck(program, ctx);
+  registerResults(program);
 
   return program;
 }
@@ -88,13 +94,22 @@ async function main(argv: string[]): Promise<number> {
   const program = buildProgram();
   try {
     await program.parseAsync(argv);
+    closeOutputSets('done'); // the result set's manifest, written last
     return 0;
   } catch (e) {
     if (e instanceof CommanderError) {
       // help and version are "errors" to commander with exit code 0
       return e.exitCode === 0 ? 0 : 1;
     }
-    if (e instanceof StudyInterrupted) return 130;
+    if (e instanceof StudyInterrupted) {
+      try {
+        closeOutputSets('interrupted');
+      } catch (e2) {
+        if (isPeakwiseError(e2)) process.stderr.write(`peakwise: ${describeError(e2, ctx.file, ctx.model)}\n`);
+      }
+      return 130;
+    }
+    closeOutputSets('failed');
     if (isPeakwiseError(e)) {
       process.stderr.write(`peakwise: ${describeError(e, ctx.file, ctx.model)}\n`);
       return 1;
@@ -106,12 +121,14 @@ async function main(argv: string[]): Promise<number> {
 }
 
 /**
- * A study runs in a worker thread so that Ctrl-C can reach it: the study is synchronous, and a
- * signal handler only runs when the thread that owns it is idle. The main thread keeps the
- * handler and sets a shared flag; the study reads it between two solves, writes what it has
- * and ends with status 130. A second Ctrl-C quits at once.
+ * A study (and a solve) runs in a worker thread so that Ctrl-C can reach it: the work is
+ * synchronous, and a signal handler only runs when the thread that owns it is idle. The main
+ * thread keeps the handler and sets a shared flag; the study reads it between two solves (solve
+ * --adapt between two cycles), writes what it has and ends with status 130. A second Ctrl-C — or
+ * the first one for a single solve, which has nothing finished to keep — quits at once, and the
+ * main thread releases the folder lock the worker reported.
  */
-function runInWorker(argv: string[]): void {
+function runInWorker(argv: string[], graceful: boolean): void {
   const flag = new Int32Array(new SharedArrayBuffer(4));
   const worker = new Worker(new URL(import.meta.url), {
     argv: argv.slice(2),
@@ -120,13 +137,23 @@ function runInWorker(argv: string[]): void {
   let interrupts = 0;
   const onSigint = (): void => {
     interrupts++;
-    if (interrupts > 1) process.exit(130);
+    if (interrupts > 1 || !graceful) {
+      // quit at once: the lock, temporary files and an empty new folder go (lock.ts exit hook)
+      if (!graceful) process.stderr.write('\npeakwise: interrupted\n');
+      releaseAllLocks();
+      process.exit(130);
+    }
     Atomics.store(flag, 0, 1);
-    process.stderr.write('\npeakwise: stopping after the current solve and writing the finished levels (Ctrl-C again to quit at once)\n');
+    process.stderr.write(argv[2] === 'solve'
+      ? '\npeakwise: stopping after the current cycle and writing the last finished one (Ctrl-C again to quit at once)\n'
+      : '\npeakwise: stopping after the current solve and writing the finished levels (Ctrl-C again to quit at once)\n');
   };
   process.on('SIGINT', onSigint);
   let code = 2;
-  worker.on('message', (m: unknown) => { if (typeof m === 'number') code = m; });
+  worker.on('message', (m: unknown) => {
+    if (typeof m === 'number') code = m;
+    else adoptWorkerLock(m); // released by the main thread if the worker is cut short
+  });
   worker.on('error', (e) => {
     process.stderr.write(`peakwise: internal error: ${e instanceof Error ? e.message : String(e)}\n`);
     code = 2;
@@ -137,14 +164,39 @@ function runInWorker(argv: string[]): void {
   });
 }
 
+/**
+ * A worker's stderr is a message port to the main thread that passes a chunk on only when the
+ * worker is idle: during a long synchronous solve, the adaptive cycle lines and the progress bar
+ * would all arrive at the end. Written straight to the process's stderr (fd 2) they show as they
+ * happen.
+ */
+function writeStderrDirectly(): void {
+  const direct = (chunk: string | Uint8Array, encoding?: BufferEncoding | ((e?: Error | null) => void), done?: (e?: Error | null) => void): boolean => {
+    const cb = typeof encoding === 'function' ? encoding : done;
+    try {
+      if (typeof chunk === 'string') writeSync(2, chunk);
+      else writeSync(2, chunk);
+      cb?.(null);
+    } catch (e) {
+      cb?.(e as Error);
+    }
+    return true;
+  };
+  process.stderr.write = direct as typeof process.stderr.write;
+}
+
 if (isMainThread) {
   // `peakwise … | head` closes the pipe early: that is not an error
   process.stdout.on('error', (e: NodeJS.ErrnoException) => {
     if (e.code === 'EPIPE') process.exit(process.exitCode ?? 0);
     throw e;
   });
-  if (process.argv[2] === 'study') {
-    runInWorker(process.argv);
+  // study and solve run in a worker so that Ctrl-C reaches them: study and solve --adapt keep
+  // their finished part, a single solve quits at once and leaves its folder as it was
+  const command = process.argv[2];
+  if (command === 'study' || command === 'solve') {
+    const adapt = process.argv.some((a) => a === '--adapt' || a.startsWith('--adapt='));
+    runInWorker(process.argv, command === 'study' || adapt);
   } else {
     main(process.argv).then((code) => {
       // an action may have set a failure status itself (check: a case failed); keep it
@@ -161,5 +213,6 @@ if (isMainThread) {
     Object.defineProperty(process.stderr, 'isTTY', { value: true });
     if (data.columns) Object.defineProperty(process.stderr, 'columns', { value: data.columns });
   }
+  writeStderrDirectly();
   main(process.argv).then((code) => parentPort?.postMessage(code));
 }

@@ -1,4 +1,5 @@
-import { ModelError, PeakwiseError } from '../errors.js';
+import { MeshError, ModelError, PeakwiseError } from '../errors.js';
+import { pointKeyPath } from '../model/index.js';
 import type { Model } from '../model/types.js';
 
 /** Strip terminal control characters from text that came from a file. */
@@ -19,18 +20,25 @@ export function describeError(e: PeakwiseError, file: string | undefined, model:
     line = e.line;
     col = e.col;
   }
-  if (line === undefined && e.keyPath && model) {
-    const pos = nearestPosition(model, e.keyPath);
+  // an error about a point (a required node outside the plate): the entry that asked for it
+  const keyPath = e.keyPath ?? (e instanceof MeshError && e.at && model ? pointKeyPath(model, e.at) : undefined);
+  if (line === undefined && keyPath && model) {
+    const pos = nearestPosition(model, keyPath);
     if (pos) {
       line = pos.line;
       col = pos.col;
     }
   }
   if (file) where = line !== undefined ? `${file}:${line}:${col ?? 1}` : file;
-  const key = e.keyPath ? `${e.keyPath}: ` : '';
+  const key = keyPath ? `${keyPath}: ` : '';
   let message = e.message;
   // stages sometimes start their message with the key path too; say it once
-  if (e.keyPath && message.startsWith(`${e.keyPath}: `)) message = message.slice(e.keyPath.length + 2);
+  if (keyPath && message.startsWith(`${keyPath}: `)) message = message.slice(keyPath.length + 2);
+  // the other entry of a conflict: its line too, so both can be found
+  for (const other of e.related ?? []) {
+    const pos = model ? nearestPosition(model, other) : undefined;
+    if (pos) message += ` (${other} is at line ${pos.line})`;
+  }
   const head = [where, key].filter((s) => s.length > 0).join(' ');
   return plain(`${head.length > 0 ? head + (key ? '' : ': ') : ''}${message}`);
 }

@@ -17,12 +17,14 @@ import {
   type PointCache, type PointOutcome, type SweepResult, type SweepStudyOptions,
 } from '../sweep/index.js';
 import type { SiteResult } from '../study/types.js';
-import { StudyInterrupted, outDirFor, useColor, type CliContext, type CommonOptions } from './commands.js';
+import { StudyInterrupted, levelsOption, limitsOf, outDirFor, ratioOption, useColor, type CliContext, type CommonOptions } from './common.js';
 import { readModelText, writeFileAtomic } from './io.js';
+import { inputFile, noteInput } from './inputs.js';
 import { plain } from './report-error.js';
 
 export interface SweepCliOptions extends CommonOptions {
   vary: string[];
+  maxDofs?: string;
   jobs?: string;
   levels?: string;
   ratio?: string;
@@ -108,17 +110,15 @@ export function sweepSummary(sweep: SweepResult, units: { stress: string; length
 export async function runSweepCommand(ctx: CliContext, file: string, opts: SweepCliOptions): Promise<void> {
   ctx.file = file;
   const text = readModelText(file);
+  noteInput(inputFile(file, 'model file', text));
   const axes = opts.vary.map(parseVary);
   if (axes.length === 0) throw new PeakwiseError('usage', 'sweep needs at least one --vary name=values, e.g. --vary r=0,2,4');
   const jobs = intOption(opts.jobs, '--jobs', 1, 256);
   const options: SweepStudyOptions = {};
-  const levels = intOption(opts.levels, '--levels', 2, 12);
+  const levels = levelsOption(opts.levels);
   if (levels !== undefined) options.levels = levels;
-  if (opts.ratio !== undefined) {
-    const ratio = Number(opts.ratio);
-    if (!(ratio > 1 && ratio <= 4)) throw new PeakwiseError('usage', `--ratio must be a number above 1 and at most 4, got "${opts.ratio}"`);
-    options.ratio = ratio;
-  }
+  const ratio = ratioOption(opts.ratio);
+  if (ratio !== undefined) options.ratio = ratio;
   if (opts.order !== undefined) options.order = opts.order === '1' ? 1 : 2;
   if (opts.size !== undefined) {
     const size = Number(opts.size);
@@ -128,7 +128,7 @@ export async function runSweepCommand(ctx: CliContext, file: string, opts: Sweep
   // the model as written, for error positions and units (each point re-parses with its params)
   const model = parseModel(text, file);
   ctx.model = model;
-  const outDir = outDirFor(file, opts);
+  const outDir = outDirFor(file, opts, 'sweep');
   const protect = [file];
   const bar = progressBar(opts, 'points');
   let sweep: SweepResult;
@@ -144,6 +144,7 @@ export async function runSweepCommand(ctx: CliContext, file: string, opts: Sweep
   try {
     sweep = await runSweep(text, file, axes, {
       ...options,
+      limits: limitsOf(opts),
       ...(jobs !== undefined ? { jobs } : {}),
       cache: pointFolderCache(join(outDir, 'points'), protect),
       onProgress: (done, total, left) => bar.update(done, total, `${duration(left)} left`),
@@ -203,6 +204,7 @@ export function registerSweep(program: Command, ctx: CliContext): void {
     .option('--jobs <n>', 'worker threads (default: one per core)')
     .option('--levels <n>', 'refinement levels per site (overrides study.levels)')
     .option('--ratio <r>', 'element size ratio between levels (overrides study.ratio)')
+    .option('--max-dofs <n>', 'cap on degrees of freedom per solve', '2000000')
     .option('--out <dir>', 'output folder (default out/<model-name>)')
     .option('--json', 'print the machine-readable result on stdout')
     .addOption(new Option('--order <n>', 'element order: 1 = 3-node, 2 = 6-node triangles').choices(['1', '2']))

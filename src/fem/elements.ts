@@ -1,4 +1,5 @@
-import { TRI3_ETA, TRI3_W, TRI3_XI, cstGradients, lstGradients } from './shape.js';
+import { TRI_3 } from '../element/index.js';
+import { cstGradients, lstGradients } from './shape.js';
 
 const scratchDx = new Float64Array(6);
 const scratchDy = new Float64Array(6);
@@ -70,9 +71,10 @@ export function elementStiffnessLst(
   out: Float64Array = new Float64Array(144),
 ): Float64Array {
   out.fill(0);
-  for (let g = 0; g < 3; g++) {
-    const det = lstGradients(xy, TRI3_XI[g], TRI3_ETA[g], scratchDx, scratchDy);
-    addBtDB(6, scratchDx, scratchDy, D, det * TRI3_W[g] * thickness, out);
+  for (let g = 0; g < TRI_3.w.length; g++) {
+    const det = lstGradients(xy, TRI_3.xi[g], TRI_3.eta[g], scratchDx, scratchDy);
+    // weight × |J|/2 (element/rules.ts convention)
+    addBtDB(6, scratchDx, scratchDy, D, 0.5 * TRI_3.w[g] * det * thickness, out);
   }
   return out;
 }

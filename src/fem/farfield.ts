@@ -1,8 +1,8 @@
 import type { Mesh } from '../mesh/types.js';
-import type { FieldLoad } from '../model/types.js';
-import { edgeTractionLoad } from './loads.js';
+import type { Load } from '../model/types.js';
+import { edgeTractionLoad } from './edge-load.js';
 
-type StressLoad = Extract<FieldLoad, { kind: 'stress' }>;
+type StressLoad = Extract<Load, { kind: 'stress' }>;
 
 /**
  * Nodal forces of a far-field stress state on boundary edges (issue 9): the traction of the

@@ -27,6 +27,40 @@ export function checkResidual(residual: number, limit = RESIDUAL_LIMIT): void {
   }
 }
 
+/**
+ * When a factorisation breaks down or the residual is too large, a section value can be the
+ * cause rather than the supports: plane strain near ν = 0.5, whose bulk stiffness
+ * E/(3(1 − 2ν)) outgrows the shear stiffness E/(2(1 + ν)) by more than double precision resolves,
+ * or an E × thickness so far out of scale that the stiffness entries under- or overflow (doubles
+ * hold full precision between about 2.2e-308 and 1.8e308). Returns the error naming that key, or
+ * undefined when the section looks sound.
+ */
+export function sectionCulprit(section: Pick<ElasticSection, 'E' | 'nu' | 'thickness' | 'state'>): SolveError | undefined {
+  const { E, nu, thickness, state } = section;
+  if (state === 'plane-strain' && 1 - 2 * nu < 1e-6) {
+    const ratio = (2 * (1 + nu)) / (3 * (1 - 2 * nu));
+    return new SolveError(
+      `nu = ${nu} in plane strain makes the material almost incompressible: its bulk stiffness is ${ratio.toExponential(1).replace('e+', 'e')} times `
+        + 'its shear stiffness, more than the solver resolves in double precision; use nu ≤ 0.4999 (or plane stress), '
+        + 'the supports are not the cause',
+      'material.nu',
+    );
+  }
+  const stiffness = E * thickness;
+  if (!(stiffness > 1e-280 && stiffness < 1e280)) {
+    // blame the value further from 1 on a log scale
+    const byThickness = Math.abs(Math.log10(thickness)) >= Math.abs(Math.log10(E));
+    const [key, what, value] = byThickness ? ['thickness', 'thickness', thickness] : ['material.E', 'E', E];
+    return new SolveError(
+      `${what} = ${value} makes the stiffness E × thickness = ${stiffness.toExponential(2).replace('e+', 'e')}, `
+        + `too ${stiffness <= 1e-280 ? 'small' : 'large'} for double precision (full precision lies between about 1e-308 and 1e308); `
+        + `give ${what} in the model's units (the supports are not the cause)`,
+      key,
+    );
+  }
+  return undefined;
+}
+
 /** measured ratio of real to integrated triangle counts (see estimateMeshSize) */
 const CALIBRATION = 1.12;
 
@@ -90,12 +124,39 @@ export function estimateMeshSize(geometry: PlateGeometry, sizeAt: SizeField, ord
   return { triangles: Math.round(triangles), nodes: Math.round(nodes), dofs: Math.round(2 * nodes), exceeded };
 }
 
-/** The message for a model above the dof cap, with the size that would fit. */
-export function dofLimitError(estimatedDofs: number, maxDofs: number, size: number, how: 'estimated' | 'more-than' | 'counted'): SolveError {
+/** A solve refused before the work because it would pass a limit: `limit` says which one. */
+export class LimitError extends SolveError {
+  readonly limit: 'dofs' | 'memory';
+  constructor(limit: 'dofs' | 'memory', message: string, keyPath?: string) {
+    super(message, keyPath);
+    this.limit = limit;
+  }
+}
+
+/**
+ * The message for a model above the dof cap, with the size that would fit. Given the plate's
+ * narrow side, a size that would leave fewer than MIN_ELEMENTS_ACROSS elements across it is not
+ * offered: a long narrow strip cannot be coarsened into the cap.
+ */
+export function dofLimitError(
+  estimatedDofs: number, maxDofs: number, size: number, how: 'estimated' | 'more-than' | 'counted', plate?: { narrow: number; lengthUnit?: string },
+): LimitError {
   // dofs grow like h⁻² for a uniform field, so the base size must grow by √(ratio)
   const factor = Math.sqrt(estimatedDofs / maxDofs);
   const suggested = size * factor * 1.1;
-  return new SolveError(
+  if (plate && how !== 'more-than' && suggested > plate.narrow / MIN_ELEMENTS_ACROSS) {
+    const L = plate.lengthUnit ? ` ${plate.lengthUnit}` : '';
+    return new LimitError(
+      'dofs',
+      `the model would have ${how === 'estimated' ? 'about ' : ''}${fmtCount(estimatedDofs)} degrees of freedom, above --max-dofs ${fmtCount(maxDofs)}; `
+        + `a mesh.size that fits (about ${fmtLen(suggested)}${L}) would leave fewer than ${MIN_ELEMENTS_ACROSS} elements across the plate's `
+        + `${fmtLen(plate.narrow)}${L} narrow side, so coarsening cannot help: model a shorter length (the rest carried as a load), `
+        + 'use larger sizes only away from the details (mesh.local), or raise --max-dofs',
+      'mesh.size',
+    );
+  }
+  return new LimitError(
+    'dofs',
     `the model would have ${how === 'estimated' ? 'about ' : how === 'more-than' ? 'more than ' : ''}${fmtCount(estimatedDofs)} degrees of freedom` +
       `${how === 'counted' ? ' (counted on the mesh)' : ' (estimated from the plate area and the element sizes, before meshing)'}, above --max-dofs ${fmtCount(maxDofs)}; ` +
       `coarsen it: ${how === 'more-than' ? `a larger mesh.size than ${fmtLen(size)}` : `mesh.size ${fmtLen(size)} → about ${fmtLen(suggested)}`} (or --size), larger mesh.local sizes, or a lower mesh.order; or raise --max-dofs`,
@@ -112,8 +173,9 @@ export function factorBytes(nnzStored: number): number {
   return nnzStored * 8 * 1.25;
 }
 
-export function memoryLimitError(bytes: number, limit: number, dofs: number): SolveError {
-  return new SolveError(
+export function memoryLimitError(bytes: number, limit: number, dofs: number): LimitError {
+  return new LimitError(
+    'memory',
     `factorising ${fmtCount(dofs)} degrees of freedom needs about ${fmtBytes(bytes)} of memory, above the ${fmtBytes(limit)} allowed; ` +
       `coarsen the mesh (a larger mesh.size or --size, larger mesh.local sizes, or mesh.order 1)`,
     'mesh.size',
@@ -196,13 +258,20 @@ export function healthWarnings(input: HealthInput): string[] {
   const w = geometry.bbox.maxX - geometry.bbox.minX;
   const h = geometry.bbox.maxY - geometry.bbox.minY;
   const narrow = Math.min(w, h), long = Math.max(w, h);
-  if (narrow / size < MIN_ELEMENTS_ACROSS) {
+  if (long / narrow > MAX_ELEMENTS_ALONG / MIN_ELEMENTS_ACROSS && (narrow / size < MIN_ELEMENTS_ACROSS || long / size > MAX_ELEMENTS_ALONG)) {
+    // no uniform size meets both rules: advising a smaller (or larger) mesh.size would only
+    // trade one warning for the other
+    out.push(
+      `the plate is ${fmtLen(long)} ${L} long and ${fmtLen(narrow)} ${L} across (${fmtCount(Math.round(long / narrow))} to 1): no single mesh.size gives `
+        + `${MIN_ELEMENTS_ACROSS} elements across and at most ${fmtCount(MAX_ELEMENTS_ALONG)} along it; keep mesh.size at or below ${fmtLen(narrow / MIN_ELEMENTS_ACROSS)} ${L} `
+        + 'near the details that matter (mesh.local) and larger elsewhere, or model a shorter length with the rest carried as a load',
+    );
+  } else if (narrow / size < MIN_ELEMENTS_ACROSS) {
     out.push(
       `the plate is ${fmtLen(narrow)} ${L} across but mesh.size is ${fmtLen(size)} ${L}: fewer than ${MIN_ELEMENTS_ACROSS} elements across its narrow side, ` +
         'so bending and stress gradients across it are poorly resolved; use a smaller mesh.size',
     );
-  }
-  if (long / size > MAX_ELEMENTS_ALONG) {
+  } else if (long / size > MAX_ELEMENTS_ALONG) {
     out.push(
       `the plate is ${fmtLen(long)} ${L} long and mesh.size is ${fmtLen(size)} ${L}: more than ${fmtCount(MAX_ELEMENTS_ALONG)} elements along it; ` +
         'a uniform size this small wastes degrees of freedom and digits — use a larger mesh.size with mesh.local refinement',

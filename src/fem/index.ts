@@ -1,6 +1,8 @@
 export type { ElasticSection, GaussStresses, Solution } from './types.js';
 export { elasticityMatrix, outOfPlaneStress } from './elasticity.js';
-export { TRI3_ETA, TRI3_W, TRI3_XI, cstGradients, gatherElementXY, lstGradients, lstParametricDerivatives, lstShape } from './shape.js';
+export { cstGradients, gatherElementXY, lstGradients } from './shape.js';
+// the reference element's shape functions, for callers that reached them through fem
+export { lstParametricDerivatives, lstShape } from '../element/index.js';
 export { elementStiffnessCst, elementStiffnessLst } from './elements.js';
 export { gaussStresses } from './stresses.js';
 export { assembleStiffness, csrMultiply, stiffnessPattern, type StiffnessPattern } from './assembly.js';
@@ -9,18 +11,12 @@ export {
   type Selection, type BoundaryPointHit,
 } from './selectors.js';
 export { selectorVertices, verticesOfSelector } from './required-points.js';
-export {
-  appliedResultant,
-  bodyForceLoad,
-  edgeTractionLoad,
-  loadVector,
-  pressureLoad,
-  type BodyForceField,
-  type TractionField,
-} from './loads.js';
+export { appliedResultant, loadVector } from './loads.js';
+export { edgeTractionLoad, pressureLoad, type TractionField } from './edge-load.js';
+export { bodyForceLoad, type BodyForceField } from './body-load.js';
 export { checkRigidRestraint, supportedDofs } from './supports.js';
 export { validateSolverMesh, validateSection } from './validate.js';
 export { solvePlate, type PlateProblem, type PrescribedDisplacement } from './solve.js';
 export { farFieldStressLoad } from './farfield.js';
 export { pinForceLoad } from './pin-force.js';
-export { prescribedFromSupports, interpolateTable, TABLE_TOLERANCE_RELATIVE, type PrescribedValue } from './prescribe.js';
+export { prescribedFromSupports, supportConstraints, interpolateTable, TABLE_TOLERANCE_RELATIVE, type PrescribedValue, type SupportConstraints } from './prescribe.js';

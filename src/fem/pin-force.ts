@@ -1,6 +1,6 @@
 import { FemError } from '../errors.js';
 import type { Mesh } from '../mesh/types.js';
-import { edgeTractionLoad } from './loads.js';
+import { edgeTractionLoad } from './edge-load.js';
 
 /**
  * Pin force on a hole (issue 9), the usual idealisation of a pin-loaded lug (common practice,

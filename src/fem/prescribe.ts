@@ -9,6 +9,8 @@ import { selectBoundary } from './selectors.js';
 export interface PrescribedValue {
   dof: number;
   value: number;
+  /** index of the support that prescribes it */
+  support: number;
 }
 
 /** Default table tolerance: this fraction of the plate's bounding-box diagonal. */
@@ -22,32 +24,104 @@ function fmt(v: number): string {
 }
 
 /**
- * The non-zero displacements of the supports that carry `displace` (issue 9), per dof.
+ * The displacements of the supports that carry `displace` (issue 9), per dof, in list order.
  * supportedDofs already marks those dofs fixed (the model sets `fix` for every prescribed
- * component); the solver then imposes these values there.
+ * component); `supportConstraints` merges both and refuses conflicting values.
  */
 export function prescribedFromSupports(mesh: MeshPart, geom: GeomPart, supports: readonly Support[]): PrescribedValue[] {
   const out: PrescribedValue[] = [];
   supports.forEach((s, i) => {
-    if (!s.displace) return;
-    const keyPath = s.keyPath || `supports[${i}]`;
-    const sel = selectBoundary(mesh, geom, s.where, `${keyPath}.where`);
-    if (s.displace.kind === 'values') {
-      const comps: [0 | 1, DisplacementValue | undefined][] = [[0, s.displace.x], [1, s.displace.y]];
-      for (const [c, v] of comps) {
-        if (v === undefined) continue;
-        for (const n of sel.nodes) out.push({ dof: 2 * n + c, value: valueAt(v, mesh.xy[2 * n], mesh.xy[2 * n + 1], `${keyPath}.displace`) });
-      }
-      return;
-    }
-    const tol = s.displace.tolerance ?? TABLE_TOLERANCE_RELATIVE * geom.scale;
-    const u = interpolateTable(mesh, sel.edges, s.displace.rows, tol, s.displace.file, `${keyPath}.displace.table`);
-    for (const [n, ux, uy] of u) {
-      out.push({ dof: 2 * n, value: ux });
-      out.push({ dof: 2 * n + 1, value: uy });
-    }
+    if (s.displace) for (const p of supportValues(mesh, geom, s, i)) out.push(p);
   });
   return out;
+}
+
+/** The dofs one support holds and their values: 0 for `fix`, the displacement for `displace`. */
+function supportValues(mesh: MeshPart, geom: GeomPart, s: Support, i: number): PrescribedValue[] {
+  const out: PrescribedValue[] = [];
+  const keyPath = s.keyPath || `supports[${i}]`;
+  const sel = selectBoundary(mesh, geom, s.where, `${keyPath}.where`);
+  if (!s.displace) {
+    for (const n of sel.nodes) {
+      if (s.fix.x) out.push({ dof: 2 * n, value: 0, support: i });
+      if (s.fix.y) out.push({ dof: 2 * n + 1, value: 0, support: i });
+    }
+    return out;
+  }
+  if (s.displace.kind === 'values') {
+    const comps: [0 | 1, DisplacementValue | undefined][] = [[0, s.displace.x], [1, s.displace.y]];
+    for (const [c, v] of comps) {
+      if (v === undefined) continue;
+      for (const n of sel.nodes) out.push({ dof: 2 * n + c, value: valueAt(v, mesh.xy[2 * n], mesh.xy[2 * n + 1], `${keyPath}.displace`), support: i });
+    }
+    return out;
+  }
+  const tol = s.displace.tolerance ?? TABLE_TOLERANCE_RELATIVE * geom.scale;
+  const u = interpolateTable(mesh, sel.edges, s.displace.rows, tol, s.displace.file, `${keyPath}.displace.table`);
+  for (const [n, ux, uy] of u) {
+    out.push({ dof: 2 * n, value: ux, support: i });
+    out.push({ dof: 2 * n + 1, value: uy, support: i });
+  }
+  return out;
+}
+
+/** The dofs the supports hold and the value each is held at (0 for `fix`). */
+export interface SupportConstraints {
+  /** 1 at every held dof */
+  fixed: Uint8Array;
+  /** the prescribed value at each held dof (0 elsewhere) */
+  value: Float64Array;
+}
+
+/**
+ * Every dof the supports hold, with its value, refusing a dof that two supports hold at different
+ * values (a `fix` and a non-zero `displace`, or two `displace` that differ): one of them would
+ * silently win and the stresses would depend on the order of the list. Values that agree to
+ * 1e-9 of the largest prescribed displacement count as equal (expressions evaluated at one node
+ * may differ by rounding); repeating a value is fine.
+ */
+export function supportConstraints(mesh: MeshPart, geom: GeomPart, supports: readonly Support[]): SupportConstraints {
+  const nDof = mesh.xy.length;
+  const fixed = new Uint8Array(nDof);
+  const value = new Float64Array(nDof);
+  const owner = new Int32Array(nDof).fill(-1);
+  // selectors in list order, so a selector that matches nothing is reported in that order
+  const held: PrescribedValue[] = [];
+  supports.forEach((s, i) => {
+    for (const p of supportValues(mesh, geom, s, i)) held.push(p);
+  });
+  let largest = 0;
+  for (const p of held) largest = Math.max(largest, Math.abs(p.value));
+  const tol = 1e-9 * largest;
+  const keyOf = (i: number): string => supports[i].keyPath || `supports[${i}]`;
+  for (const { dof, value: v, support } of held) {
+    const first = owner[dof];
+    if (first < 0) {
+      owner[dof] = support;
+      fixed[dof] = 1;
+      value[dof] = v;
+    } else if (first !== support && !(Math.abs(value[dof] - v) <= tol)) {
+      throw conflictError(mesh, dof, first, value[dof], support, v, supports, keyOf);
+    }
+  }
+  return { fixed, value };
+}
+
+function conflictError(
+  mesh: MeshPart, dof: number, first: number, firstValue: number, second: number, secondValue: number,
+  supports: readonly Support[], keyOf: (i: number) => string,
+): FemError {
+  const n = dof >> 1;
+  const comp = dof % 2 === 0 ? 'u_x' : 'u_y';
+  const at = `(${fmt(mesh.xy[2 * n])}, ${fmt(mesh.xy[2 * n + 1])})`;
+  const says = (i: number, v: number) => (supports[i].displace ? `${keyOf(i)} prescribes ${comp} = ${fmt(v)}` : `${keyOf(i)} fixes it (${comp} = 0)`);
+  return new FemError(
+    `two supports hold ${comp} of the node at ${at} at different values: ${says(first, firstValue)}, ${says(second, secondValue)}; `
+      + 'one would silently win and the stresses would depend on the order of the list. '
+      + 'Give both the same value there, or narrow one selector (a segment that stops short of that node)',
+    keyOf(second),
+    [keyOf(first)],
+  );
 }
 
 function valueAt(v: DisplacementValue, x: number, y: number, keyPath: string): number {

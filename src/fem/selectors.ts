@@ -287,7 +287,7 @@ export function selectorWarnings(
     }
   }
   let far: Set<number> | undefined;
-  for (const l of model.fieldLoads ?? []) {
+  for (const l of [...model.loads, ...(model.fieldLoads ?? [])]) {
     if (l.kind !== 'stress') continue;
     far ??= outlineFarPieces(geom);
     const outline = geom.loops.find((lp) => !lp.hole);

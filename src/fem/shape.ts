@@ -1,57 +1,8 @@
 /**
- * Shape functions of the 3-node (CST) and 6-node (LST) triangles in the reference
- * coordinates (ξ, η), area coordinates L1 = 1 − ξ − η, L2 = ξ, L3 = η:
- *
- *        2              N0 = L1(2L1 − 1)   N3 = 4 L1 L2
- *        | \            N1 = L2(2L2 − 1)   N4 = 4 L2 L3
- *        5   4          N2 = L3(2L3 − 1)   N5 = 4 L3 L1
- *        |     \
- *        0 --3-- 1      (local numbering of src/mesh/types.ts)
- *
- * The LST is isoparametric: the same functions map (ξ, η) to (x, y), so mid-side nodes
- * placed on a curve give an element with a curved (quadratic) edge.
+ * Cartesian derivatives of the element shape functions: the reference functions and rules are
+ * the element module's (src/element), these map them onto an element's own node coordinates.
  */
-
-/**
- * Interior 3-point rule on the reference triangle (area 1/2): points (1/6, 1/6), (2/3, 1/6),
- * (1/6, 2/3), weight 1/6 each. Exact for polynomials of degree 2 (Strang & Fix, "An Analysis of
- * the Finite Element Method", 1973, Table 4.1), hence exact for the stiffness BᵀDB of a
- * straight-sided LST, whose strains are linear.
- */
-export const TRI3_XI = new Float64Array([1 / 6, 2 / 3, 1 / 6]);
-export const TRI3_ETA = new Float64Array([1 / 6, 1 / 6, 2 / 3]);
-export const TRI3_W = new Float64Array([1 / 6, 1 / 6, 1 / 6]);
-
-/** values of the six LST shape functions at (ξ, η) into N[0..5] */
-export function lstShape(xi: number, eta: number, N: Float64Array): void {
-  const L1 = 1 - xi - eta;
-  const L2 = xi;
-  const L3 = eta;
-  N[0] = L1 * (2 * L1 - 1);
-  N[1] = L2 * (2 * L2 - 1);
-  N[2] = L3 * (2 * L3 - 1);
-  N[3] = 4 * L1 * L2;
-  N[4] = 4 * L2 * L3;
-  N[5] = 4 * L3 * L1;
-}
-
-/** ∂N/∂ξ into dXi[0..5] and ∂N/∂η into dEta[0..5] of the six LST shape functions at (ξ, η) */
-export function lstParametricDerivatives(xi: number, eta: number, dXi: Float64Array, dEta: Float64Array): void {
-  const L1 = 1 - xi - eta;
-  const a = 4 * L1 - 1;
-  dXi[0] = -a;
-  dEta[0] = -a;
-  dXi[1] = 4 * xi - 1;
-  dEta[1] = 0;
-  dXi[2] = 0;
-  dEta[2] = 4 * eta - 1;
-  dXi[3] = 4 * (L1 - xi);
-  dEta[3] = -4 * xi;
-  dXi[4] = 4 * eta;
-  dEta[4] = 4 * xi;
-  dXi[5] = -4 * eta;
-  dEta[5] = 4 * (L1 - eta);
-}
+import { lstParametricDerivatives } from '../element/index.js';
 
 /**
  * Cartesian derivatives of the LST shape functions at (ξ, η) for an element with node

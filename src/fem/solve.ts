@@ -11,14 +11,14 @@ import {
 } from '../linalg/index.js';
 import type { Csr } from '../linalg/types.js';
 import type { Mesh } from '../mesh/types.js';
-import type { AnyLoad, Support } from '../model/types.js';
-import { prescribedFromSupports } from './prescribe.js';
+import type { Load, Support } from '../model/types.js';
+import { supportConstraints } from './prescribe.js';
 import { assembleStiffness, csrMultiply, stiffnessPattern, type StiffnessPattern } from './assembly.js';
 import { appliedResultant, loadVector } from './loads.js';
-import { checkRigidRestraint, supportedDofs } from './supports.js';
+import { checkRigidRestraint } from './supports.js';
 import type { ElasticSection, Solution } from './types.js';
 import { validateSolverMesh, validateSection } from './validate.js';
-import { RESIDUAL_LIMIT, checkResidual, factorBytes, memoryLimitError } from './health.js';
+import { RESIDUAL_LIMIT, checkResidual, factorBytes, memoryLimitError, sectionCulprit } from './health.js';
 
 /** A prescribed displacement: dof 2n is u_x of node n, 2n + 1 is u_y. */
 export interface PrescribedDisplacement {
@@ -31,8 +31,8 @@ export interface PlateProblem {
   geometry: Pick<PlateGeometry, 'pieces' | 'loops' | 'scale'>;
   section: ElasticSection;
   supports: readonly Support[];
-  /** the model's loads, including its far-field stress and pin forces (`Model.fieldLoads`) */
-  loads: readonly AnyLoad[];
+  /** the model's loads, every kind (`Model.loads`) */
+  loads: readonly Load[];
   /**
    * Non-zero (or zero) displacements imposed at single dofs, eliminated like supports.
    * A dof both supported and prescribed takes the prescribed value.
@@ -64,13 +64,9 @@ export function solvePlate(input: PlateProblem): Solution {
 
   // supports first: a model that cannot be held fails before the costly assembly
   const t0 = now();
-  const fixed = supportedDofs(mesh, geometry, input.supports);
-  const uFixed = new Float64Array(nDof);
-  // supports with `displace` first, so that explicit `prescribed` entries win
-  for (const p of prescribedFromSupports(mesh, geometry, input.supports)) {
-    fixed[p.dof] = 1;
-    uFixed[p.dof] = p.value;
-  }
+  // fixes and displacements of the supports; two supports holding one dof at different
+  // values are an error (supportConstraints), explicit `prescribed` entries then win
+  const { fixed, value: uFixed } = supportConstraints(mesh, geometry, input.supports);
   for (const [k, p] of (input.prescribed ?? []).entries()) {
     if (!(Number.isInteger(p.dof) && p.dof >= 0 && p.dof < nDof)) {
       throw new FemError(`prescribed[${k}].dof = ${p.dof} is not a dof of the mesh (0 … ${nDof - 1})`, `prescribed[${k}]`);
@@ -118,7 +114,7 @@ export function solvePlate(input: PlateProblem): Solution {
     try {
       factor = factorize(Kff, symbolic);
     } catch (err) {
-      if (err instanceof NotPositiveDefiniteError) throw notHeldError(mesh, free, err.dof);
+      if (err instanceof NotPositiveDefiniteError) throw sectionCulprit(section) ?? notHeldError(mesh, free, err.dof);
       throw err;
     }
     nnzL = factor.nnzL;
@@ -126,7 +122,12 @@ export function solvePlate(input: PlateProblem): Solution {
     const uFree = solveFactor(factor, b);
     for (let k = 0; k < nFree; k++) u[free[k]] = uFree[k];
     residual = residualNorm(Kff, uFree, b);
-    checkResidual(residual, input.residualLimit ?? RESIDUAL_LIMIT);
+    const limit = input.residualLimit ?? RESIDUAL_LIMIT;
+    if (!(residual <= limit)) {
+      const culprit = sectionCulprit(section);
+      if (culprit) throw culprit;
+    }
+    checkResidual(residual, limit);
   }
   const reaction = new Float64Array(nDof);
   for (let k = 0; k < fixedRows.rows.length; k++) {

@@ -1,6 +1,7 @@
 import type { Mesh } from '../mesh/types.js';
 import { elasticityMatrix } from './elasticity.js';
-import { TRI3_ETA, TRI3_W, TRI3_XI, cstGradients, gatherElementXY, lstGradients, lstShape } from './shape.js';
+import { TRI_3, lstShape } from '../element/index.js';
+import { cstGradients, gatherElementXY, lstGradients } from './shape.js';
 import type { ElasticSection, GaussStresses } from './types.js';
 
 /**
@@ -45,9 +46,10 @@ export function gaussStresses(
         px = (exy[0] + exy[2] + exy[4]) / 3;
         py = (exy[1] + exy[3] + exy[5]) / 3;
       } else {
-        const det = lstGradients(exy, TRI3_XI[g], TRI3_ETA[g], dNdx, dNdy);
-        weight[k] = det * TRI3_W[g];
-        lstShape(TRI3_XI[g], TRI3_ETA[g], N);
+        const det = lstGradients(exy, TRI_3.xi[g], TRI_3.eta[g], dNdx, dNdy);
+        // weight × |J|/2 (element/rules.ts convention)
+        weight[k] = 0.5 * TRI_3.w[g] * det;
+        lstShape(TRI_3.xi[g], TRI_3.eta[g], N);
         for (let i = 0; i < 6; i++) {
           px += N[i] * exy[2 * i];
           py += N[i] * exy[2 * i + 1];

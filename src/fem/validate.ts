@@ -1,6 +1,7 @@
 import { FemError } from '../errors.js';
 import type { Mesh } from '../mesh/types.js';
-import { TRI3_ETA, TRI3_XI, cstGradients, gatherElementXY, lstGradients } from './shape.js';
+import { TRI_3 } from '../element/index.js';
+import { cstGradients, gatherElementXY, lstGradients } from './shape.js';
 import type { ElasticSection } from './types.js';
 
 /** Checks the material and thickness once at the stage entry. */
@@ -58,7 +59,7 @@ export function validateSolverMesh(mesh: Mesh): void {
     if (npe === 3) detMin = cstGradients(exy, dx, dy);
     else {
       detMin = Infinity;
-      for (let g = 0; g < 3; g++) detMin = Math.min(detMin, lstGradients(exy, TRI3_XI[g], TRI3_ETA[g], dx, dy));
+      for (let g = 0; g < TRI_3.w.length; g++) detMin = Math.min(detMin, lstGradients(exy, TRI_3.xi[g], TRI_3.eta[g], dx, dy));
     }
     if (!(detMin > 0)) {
       throw new FemError(

@@ -4,13 +4,14 @@
  * outline and not inside each other).
  */
 import { GeometryError } from '../errors.js';
-import type { Plate, Point } from '../model/types.js';
-import type { BoundaryPiece, Corner, Loop, PlateGeometry } from './types.js';
+import type { Plate, Point, Shape } from '../model/types.js';
+import { boundingBox } from '../model/index.js';
+import type { BoundaryPiece, Corner, Curve, Loop, PlateGeometry } from './types.js';
 import { curveBBox, curveDoubleArea, curveEnd, curveLength, curveStart, curveTangent, type BBox } from './curves.js';
 import { buildShapeLoop, shapeExtent, STRAIGHT_TURN, type LoopDraft } from './loops.js';
 import { boxesOverlap, pieceContact, unionBox, windingNumber } from './checks.js';
 import { forEachOverlappingPair } from './predicates.js';
-import { fmtPoint } from './format.js';
+import { fmt, fmtPoint, withMessageOrigin } from './format.js';
 
 /**
  * Two loops (or two non-neighbouring pieces of one loop) must stay this far apart, relative to
@@ -19,10 +20,100 @@ import { fmtPoint } from './format.js';
  */
 export const CLEARANCE_RELATIVE = 1e-8;
 
+/**
+ * Significant decimal digits that must be left for the plate after its distance from the origin
+ * takes its share of a double's 15.95: below this, node coordinates (which the solver and the
+ * selectors use as they are, far from 0) resolve the plate to worse than 1 part in 10⁹ of its
+ * size, the clearance and selector tolerances (1e-8 and 1e-9 of it) stop working, and stresses
+ * drift (measured: see docs/reliability.md, "Coordinates far from the origin").
+ */
+export const MIN_DIGITS_LEFT = 9;
+
+/**
+ * Build the plate's exact boundary. Every coordinate is first taken relative to the centre of
+ * the outline's bounding box and the checks run there (sums and differences of small numbers);
+ * the result is moved back, and keeps the centred copy in `local` for the mesher.
+ */
 export function buildGeometry(plate: Plate): PlateGeometry {
   if (!plate || typeof plate.outline !== 'object' || plate.outline === null || !Array.isArray(plate.openings)) {
     throw new GeometryError('plate: expected an outline shape and a list of openings', 'plate');
   }
+  const origin = plateOrigin(plate.outline);
+  if (origin[0] === 0 && origin[1] === 0) return buildAt(plate);
+  const local = withMessageOrigin(origin, () => buildAt(translatePlate(plate, origin)));
+  return { ...translateGeometry(local, origin), local: { origin, geometry: local } };
+}
+
+/**
+ * The centre of the outline's bounding box ([0, 0] for broken input, left to the checks), after
+ * refusing coordinates so far from it that too few digits are left for the plate itself.
+ */
+function plateOrigin(outline: Shape): Point {
+  const box = boundingBox(outline);
+  const values = [box.minX, box.minY, box.width, box.height];
+  if (!values.every(Number.isFinite) || !(box.width >= 0 && box.height >= 0)) return [0, 0];
+  const size = Math.hypot(box.width, box.height);
+  const far = Math.max(Math.abs(box.minX), Math.abs(box.minY), Math.abs(box.minX + box.width), Math.abs(box.minY + box.height));
+  if (size > 0 && far > 0) {
+    // a double carries 52 bits after the leading one: 15.95 decimal digits
+    const left = Math.log10(size / (far * 2 ** -52));
+    if (left < MIN_DIGITS_LEFT) {
+      throw new GeometryError(
+        `plate.outline: the plate is ${fmt(size)} across but lies ${far >= 1e6 ? far.toExponential(2).replace('e+', 'e') : fmt(far)} from the origin; `
+          + `a number keeps 15.9 significant digits, ${(15.95 - left).toFixed(1)} of them go to that distance, leaving ${Math.max(0, left).toFixed(1)} `
+          + `for the plate (peakwise needs ${MIN_DIGITS_LEFT}); move the model's coordinates near 0 (subtract a point of the plate from every coordinate)`,
+        'plate.outline',
+      );
+    }
+  }
+  return [box.minX + box.width / 2, box.minY + box.height / 2];
+}
+
+const shiftPoint = (p: Point, o: Point): Point => [p[0] - o[0], p[1] - o[1]];
+
+function translateShape(shape: Shape, o: Point): Shape {
+  switch (shape.kind) {
+    case 'circle': case 'ellipse': case 'rect':
+      return { ...shape, center: shiftPoint(shape.center, o) };
+    case 'polygon': {
+      const moved: Shape = { ...shape, vertices: shape.vertices.map((v) => ({ ...v, at: shiftPoint(v.at, o) })) };
+      if (shape.pieces) {
+        moved.pieces = shape.pieces.map((p) => (p.kind === 'line'
+          ? { ...p, from: shiftPoint(p.from, o), to: shiftPoint(p.to, o) }
+          : { ...p, center: shiftPoint(p.center, o), from: shiftPoint(p.from, o), to: shiftPoint(p.to, o) }));
+      }
+      return moved;
+    }
+  }
+}
+
+function translatePlate(plate: Plate, o: Point): Plate {
+  return {
+    ...plate,
+    outline: translateShape(plate.outline, o),
+    openings: plate.openings.map((op) => ({ ...op, shape: op.shape && typeof op.shape === 'object' ? translateShape(op.shape, o) : op.shape })),
+  };
+}
+
+/** The geometry moved by +o (built about the origin, handed out where the plate is). */
+function translateGeometry(g: PlateGeometry, o: Point): PlateGeometry {
+  const back = (p: Point): Point => [p[0] + o[0], p[1] + o[1]];
+  const curve = (c: Curve): Curve => {
+    if (c.kind === 'line') return { ...c, from: back(c.from), to: back(c.to) };
+    const moved = { ...c, center: back(c.center) };
+    if (c.from) moved.from = back(c.from);
+    if (c.to) moved.to = back(c.to);
+    return moved;
+  };
+  return {
+    ...g,
+    pieces: g.pieces.map((p) => ({ ...p, curve: curve(p.curve) })),
+    corners: g.corners.map((c) => ({ ...c, at: back(c.at) })),
+    bbox: { minX: g.bbox.minX + o[0], minY: g.bbox.minY + o[1], maxX: g.bbox.maxX + o[0], maxY: g.bbox.maxY + o[1] },
+  };
+}
+
+function buildAt(plate: Plate): PlateGeometry {
   const drafts: LoopDraft[] = [];
   // the outline's own extent sets the clearance while the loops are built (openings lie inside it)
   const minLength = CLEARANCE_RELATIVE * shapeExtent(plate.outline);

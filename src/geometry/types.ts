@@ -71,4 +71,11 @@ export interface PlateGeometry {
   bbox: { minX: number; minY: number; maxX: number; maxY: number };
   /** a length scale for tolerances: the bounding-box diagonal */
   scale: number;
+  /**
+   * The same plate about `origin` (the centre of the outline's bounding box, subtracted from
+   * every coordinate), as buildGeometry built and checked it. The mesher meshes this copy and
+   * adds `origin` back, so a mesh does not depend on where the plate sits and coordinates far
+   * from 0 lose no digits while meshing. Absent on geometries built by hand (meshed as they are).
+   */
+  local?: { origin: Point; geometry: PlateGeometry };
 }

@@ -1,4 +1,4 @@
-import { amdOrder } from './amd.js';
+import { amdOrder } from './min-degree.js';
 import { compressGraph, inversePerm, nodeWeights, type NodeGraph } from './graph.js';
 import { nodeEliminationTree } from './node-tree.js';
 import { postorderedTree } from './symbolic.js';
@@ -23,7 +23,7 @@ function fromNodePerm(g: NodeGraph, nodePerm: Int32Array, nRows: number, method:
 /** Approximate minimum degree on the compressed node graph, expanded to rows. */
 export function orderAmd(A: Csr, graph?: NodeGraph): Ordering {
   const g = graph ?? compressGraph(A);
-  const nodePerm = amdOrder(g.n, g.adjPtr, g.adjIdx, nodeWeights(g));
+  const nodePerm = amdOrder(g.n, g.adjPtr, g.adjIdx, nodeWeights(g), { symmetricPattern: true });
   return fromNodePerm(g, nodePerm, A.n, 'amd');
 }
 
@@ -315,7 +315,7 @@ function orderLeaf(
       if (u >= 0) idx[w++] = u;
     }
   }
-  const order = amdOrder(m, ptr, idx, wgt);
+  const order = amdOrder(m, ptr, idx, wgt, { symmetricPattern: true });
   for (let t = 0; t < m; t++) out[outPos + t] = nodes[order[t]];
   for (let t = 0; t < m; t++) local[nodes[t]] = -1;
   return outPos + m;

@@ -1,71 +1,104 @@
 import { inversePerm } from './graph.js';
 import type { Csr, EliminationTree, Ordering, Symbolic } from './types.js';
 
+const NONE = -1;
+
 /**
- * Elimination tree of P A Pᵀ from the full symmetric pattern of A.
- * Liu, "A compact row storage scheme for Cholesky factors using elimination trees",
- * ACM TOMS 12(2):127–148, 1986 — path compression through `ancestor`.
+ * Elimination tree of P A Pᵀ from the full symmetric pattern of A: parent[j] = the first row
+ * below j in column j of L (−1 for a root).
+ *
+ * Liu, "The role of elimination trees in sparse factorization", SIAM J. Matrix Anal. Appl.
+ * 11(1):134–172, 1990 (the algorithm first appeared in Liu, "A compact row storage scheme for
+ * Cholesky factors using elimination trees", ACM TOMS 12(2):127–148, 1986). Rows are
+ * added one at a time: row k of A with entries in columns j < k links, for each such j, the
+ * root of the tree j belongs to (among rows 0…k−1) below k. Roots are found through `climb`,
+ * a shortcut pointer redirected to k along every path walked (path compression), so the
+ * walks cost O(nnz(A)·log n) at most and nearly O(nnz(A)) in practice.
  */
 export function eliminationTree(A: Csr, perm: Int32Array, iperm: Int32Array): Int32Array {
   const n = A.n;
-  const parent = new Int32Array(n).fill(-1);
-  const ancestor = new Int32Array(n).fill(-1);
+  const parent = new Int32Array(n).fill(NONE);
+  const climb = new Int32Array(n).fill(NONE);
+  const rowPtr = A.rowPtr, colIdx = A.colIdx;
   for (let k = 0; k < n; k++) {
     const row = perm[k];
-    for (let p = A.rowPtr[row]; p < A.rowPtr[row + 1]; p++) {
-      let i = iperm[A.colIdx[p]];
-      while (i !== -1 && i < k) {
-        const next = ancestor[i];
-        ancestor[i] = k;
-        if (next === -1) parent[i] = k;
-        i = next;
-      }
+    for (let p = rowPtr[row]; p < rowPtr[row + 1]; p++) {
+      const j = iperm[colIdx[p]];
+      if (j < k) linkRootBelow(parent, climb, j, k);
     }
   }
   return parent;
 }
 
-/** Depth-first postorder of a forest given by parent pointers: post[k] = node visited k-th. */
+/** Walk from j to the root of its tree, pointing each node passed at k; a root found becomes k's child. */
+function linkRootBelow(parent: Int32Array, climb: Int32Array, j: number, k: number): void {
+  let node = j;
+  for (;;) {
+    const up = climb[node];
+    if (up === k) return; // this tree hangs below k already
+    climb[node] = k;
+    if (up === NONE) {
+      parent[node] = k;
+      return;
+    }
+    node = up;
+  }
+}
+
+/**
+ * Postorder of a forest whose parents come after their children (parent[j] > j, as in every
+ * elimination tree): post[k] = node visited k-th by a depth-first search that takes roots and
+ * children in ascending order. Computed without a search: subtree sizes in one upward pass,
+ * then each node's slot range handed out downward — a node's range ends at its own slot, and
+ * its children's ranges fill the slots before it, the largest child last.
+ */
 export function postorderTree(parent: Int32Array): Int32Array {
   const n = parent.length;
-  const head = new Int32Array(n).fill(-1);
-  const next = new Int32Array(n);
-  // insert children in reverse so that they are visited in ascending order
+  const size = new Int32Array(n).fill(1);
+  for (let j = 0; j < n; j++) {
+    const p = parent[j];
+    if (p === NONE) continue;
+    if (!(p > j && p < n)) throw new RangeError(`postorderTree: parent[${j}] = ${p} must be −1 or a node after ${j}`);
+    size[p] += size[j];
+  }
+  // free[v] = one past the last unassigned slot in v's range (its own slot comes last)
+  const free = new Int32Array(n);
+  const post = new Int32Array(n);
+  let rootsFree = n;
   for (let j = n - 1; j >= 0; j--) {
     const p = parent[j];
-    if (p === -1) continue;
-    next[j] = head[p];
-    head[p] = j;
-  }
-  const post = new Int32Array(n);
-  const stack = new Int32Array(n);
-  let k = 0;
-  for (let root = 0; root < n; root++) {
-    if (parent[root] !== -1) continue;
-    let top = 0;
-    stack[0] = root;
-    while (top >= 0) {
-      const p = stack[top];
-      const c = head[p];
-      if (c === -1) {
-        top--;
-        post[k++] = p;
-      } else {
-        head[p] = next[c];
-        stack[++top] = c;
-      }
+    let end: number; // one past j's own slot
+    if (p === NONE) {
+      end = rootsFree;
+      rootsFree -= size[j];
+    } else {
+      end = free[p];
+      free[p] -= size[j];
     }
+    post[end - 1] = j;
+    free[j] = end - 1;
   }
   return post;
 }
 
 /**
- * Column counts of L (diagonal included) for a matrix whose elimination tree is already
- * postordered (children numbered before parents, subtrees contiguous).
+ * Column counts of L (diagonal included) for a matrix whose elimination tree is postordered
+ * (children before parents, each subtree a contiguous range of columns).
+ *
  * Gilbert, Ng & Peyton, "An efficient algorithm to compute row and column counts for sparse
- * Cholesky factorization", SIAM J. Matrix Anal. Appl. 15(4):1075–1091, 1994: each column's
- * count is a sum of ±1 "deltas" placed at the leaves of the row subtrees and at the least
- * common ancestors of consecutive leaves, found with a disjoint-set forest.
+ * Cholesky factorization", SIAM J. Matrix Anal. Appl. 15(4):1075–1091, 1994. Row i of L is
+ * nonzero in the columns of its ROW SUBTREE: the union of the tree paths from the columns
+ * j < i of A's row i up to i. The count of column j is the number of rows whose row subtree
+ * holds j, which is a sum over the subtree of j of per-node terms: +1 at each leaf of a row
+ * subtree, −1 at the least common ancestor of each two leaves of the same row subtree that are
+ * consecutive in postorder, −1 at the parent of each row's top node i (and +1 at i itself when
+ * row i has no entries left of the diagonal). Leaves are recognised in postorder: j is a leaf
+ * of row i's subtree when no earlier column of row i lies in j's subtree, i.e. when the first
+ * descendant of j comes after the last column of row i seen so far. The common ancestors come
+ * from a disjoint-set forest in which each finished column joins its parent's set.
+ *
+ * `weight[j]` (optional) = rows that column j stands for: every term of row i then counts
+ * weight[i] instead of 1 (used on the compressed node graph; see node-tree.ts).
  */
 export function columnCounts(
   A: Csr,
@@ -74,92 +107,72 @@ export function columnCounts(
   parent: Int32Array,
   weight?: Int32Array,
 ): Int32Array {
-  // weight[j] (optional) = rows that permuted vertex j stands for: every ±1 of row i becomes
-  // ±weight[i], so the counts are sums of weights (used on the compressed node graph)
-  if (weight) return weightedColumnCounts(A, perm, iperm, parent, weight);
   const n = A.n;
-  const delta = new Int32Array(n);
-  const first = new Int32Array(n).fill(-1);
-  const maxFirst = new Int32Array(n).fill(-1);
-  const prevLeaf = new Int32Array(n).fill(-1);
-  const ancestor = new Int32Array(n);
-  for (let k = 0; k < n; k++) {
-    let j = k;
-    delta[j] = first[j] === -1 ? 1 : 0; // j is a leaf of the etree
-    for (; j !== -1 && first[j] === -1; j = parent[j]) first[j] = k;
+  const firstDescendant = firstDescendants(parent);
+  const term = new Int32Array(n);
+  /** last column j < i of row i met so far, and the last leaf of its row subtree */
+  const lastColumn = new Int32Array(n).fill(NONE);
+  const lastLeaf = new Int32Array(n).fill(NONE);
+  const setLink = new Int32Array(n);
+  for (let j = 0; j < n; j++) setLink[j] = j;
+  const rowPtr = A.rowPtr, colIdx = A.colIdx;
+  for (let i = 0; i < n; i++) {
+    const wi = weight ? weight[i] : 1;
+    if (firstDescendant[i] === i) term[i] += wi; // a tree leaf: row i has nothing left of the diagonal
+    if (parent[i] !== NONE) term[parent[i]] -= wi;
   }
-  for (let i = 0; i < n; i++) ancestor[i] = i;
   for (let j = 0; j < n; j++) {
-    if (parent[j] !== -1) delta[parent[j]]--;
+    // rows i > j with an entry in column j, in any order: each sees its columns ascending
     const row = perm[j];
-    for (let p = A.rowPtr[row]; p < A.rowPtr[row + 1]; p++) {
-      const i = iperm[A.colIdx[p]];
-      // is j a leaf of the i-th row subtree? (only entries below the diagonal matter)
-      if (i <= j || first[j] <= maxFirst[i]) continue;
-      maxFirst[i] = first[j];
-      const jPrev = prevLeaf[i];
-      prevLeaf[i] = j;
-      delta[j]++;
-      if (jPrev === -1) continue; // first leaf of row i's subtree
-      // least common ancestor q of jPrev and j, with path compression
-      let q = jPrev;
-      while (q !== ancestor[q]) q = ancestor[q];
-      for (let s = jPrev; s !== q; ) {
-        const sp = ancestor[s];
-        ancestor[s] = q;
-        s = sp;
-      }
-      delta[q]--;
+    for (let p = rowPtr[row]; p < rowPtr[row + 1]; p++) {
+      const i = iperm[colIdx[p]];
+      if (i <= j) continue;
+      const isLeaf = firstDescendant[j] > lastColumn[i];
+      lastColumn[i] = j;
+      if (!isLeaf) continue;
+      const wi = weight ? weight[i] : 1;
+      term[j] += wi;
+      if (lastLeaf[i] !== NONE) term[setRoot(setLink, lastLeaf[i])] -= wi;
+      lastLeaf[i] = j;
     }
-    if (parent[j] !== -1) ancestor[j] = parent[j];
+    if (parent[j] !== NONE) setLink[j] = parent[j];
   }
-  for (let j = 0; j < n; j++) if (parent[j] !== -1) delta[parent[j]] += delta[j];
-  return delta;
+  // sum the terms over each subtree: children come before parents
+  for (let j = 0; j < n; j++) if (parent[j] !== NONE) term[parent[j]] += term[j];
+  return term;
 }
 
-function weightedColumnCounts(
-  A: Csr,
-  perm: Int32Array,
-  iperm: Int32Array,
-  parent: Int32Array,
-  weight: Int32Array,
-): Int32Array {
-  const n = A.n;
-  const delta = new Int32Array(n);
-  const first = new Int32Array(n).fill(-1);
-  const maxFirst = new Int32Array(n).fill(-1);
-  const prevLeaf = new Int32Array(n).fill(-1);
-  const ancestor = new Int32Array(n);
-  for (let k = 0; k < n; k++) {
-    let j = k;
-    delta[j] = first[j] === -1 ? weight[j] : 0;
-    for (; j !== -1 && first[j] === -1; j = parent[j]) first[j] = k;
-  }
-  for (let i = 0; i < n; i++) ancestor[i] = i;
+/** First (lowest-numbered) descendant of each node of a postordered tree, itself for a leaf. */
+function firstDescendants(parent: Int32Array): Int32Array {
+  const n = parent.length;
+  const first = new Int32Array(n);
+  for (let j = 0; j < n; j++) first[j] = j;
+  // in postorder a node's first descendant is its first child's; children come before parents,
+  // so one ascending pass sees every child before its parent
+  const seen = new Uint8Array(n);
   for (let j = 0; j < n; j++) {
-    if (parent[j] !== -1) delta[parent[j]] -= weight[j];
-    const row = perm[j];
-    for (let p = A.rowPtr[row]; p < A.rowPtr[row + 1]; p++) {
-      const i = iperm[A.colIdx[p]];
-      if (i <= j || first[j] <= maxFirst[i]) continue;
-      maxFirst[i] = first[j];
-      const jPrev = prevLeaf[i];
-      prevLeaf[i] = j;
-      delta[j] += weight[i];
-      if (jPrev === -1) continue;
-      let q = jPrev;
-      while (q !== ancestor[q]) q = ancestor[q];
-      for (let s = jPrev; s !== q; ) {
-        const sp = ancestor[s];
-        ancestor[s] = q;
-        s = sp;
-      }
-      delta[q] -= weight[i];
+    const p = parent[j];
+    if (p !== NONE && !seen[p]) {
+      seen[p] = 1;
+      first[p] = first[j];
     }
-    if (parent[j] !== -1) ancestor[j] = parent[j];
   }
-  for (let j = 0; j < n; j++) if (parent[j] !== -1) delta[parent[j]] += delta[j];
-  return delta;
+  return first;
+}
+
+/**
+ * Representative of j's set in the disjoint-set forest (the set's one unfinished column, the
+ * lowest common ancestor asked for), halving the path on the way (Tarjan & van Leeuwen,
+ * "Worst-case analysis of set union algorithms", J. ACM 31(2):245–281, 1984).
+ */
+function setRoot(link: Int32Array, j: number): number {
+  let x = j;
+  while (link[x] !== x) {
+    const up = link[x];
+    link[x] = link[up];
+    x = up;
+  }
+  return x;
 }
 
 /** Do the adjacent rows colIdx[a…b) and colIdx[b…end) hold the same columns? */

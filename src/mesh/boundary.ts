@@ -31,7 +31,7 @@ export interface BoundaryPoints {
 }
 
 /** cut parameters of one piece: required-point parameters, then size-driven subdivision */
-function pieceParams(geom: PlateGeometry, pid: number, cuts: number[], sizeAt: SizeField, hCap: number): number[] {
+function pieceParams(geom: PlateGeometry, pid: number, cuts: number[], sizeAt: SizeField, hCap: number, origin: readonly [number, number]): number[] {
   const c = geom.pieces[pid].curve;
   // required points closer than the tolerance along the curve are one cut
   const len = Math.max(curveSpeed(c, 0), 1e-300);
@@ -46,7 +46,7 @@ function pieceParams(geom: PlateGeometry, pid: number, cuts: number[], sizeAt: S
     curveXY(c, t, p);
     let h = sizeAt(p[0], p[1]);
     if (!(h > 0) || !Number.isFinite(h)) {
-      throw new MeshError(`size field gave ${h} at (${p[0]}, ${p[1]}); sizes must be positive numbers`, 'mesh.size');
+      throw new MeshError(`size field gave ${h} at (${p[0] + origin[0]}, ${p[1] + origin[1]}); sizes must be positive numbers`, 'mesh.size');
     }
     if (h > hCap) h = hCap;
     if (curved) {
@@ -95,6 +95,8 @@ export function discretiseBoundary(
   sizeAt: SizeField,
   required: ReadonlyArray<readonly [number, number]>,
   tol: number,
+  /** added to coordinates in messages (the geometry is about this point, see PlateGeometry.local) */
+  origin: readonly [number, number] = [0, 0],
 ): BoundaryPoints {
   const np = geom.pieces.length;
   const cuts: number[][] = Array.from({ length: np }, () => []);
@@ -126,7 +128,7 @@ export function discretiseBoundary(
   const addPoint = (x: number, y: number, piece: number, t: number, where: string): number => {
     const key = `${x},${y}`;
     if (seen.has(key)) {
-      throw new GeometryError(`boundary loops touch at (${x}, ${y}) (${where}); openings must keep clear of each other and of the outline`, where);
+      throw new GeometryError(`boundary loops touch at (${x + origin[0]}, ${y + origin[1]}) (${where}); openings must keep clear of each other and of the outline`, where);
     }
     const i = out.piece.length;
     seen.set(key, i);
@@ -141,7 +143,7 @@ export function discretiseBoundary(
     let prevPoint = -1;
     loop.pieces.forEach((pid, k) => {
       const piece = geom.pieces[pid];
-      const params = pieceParams(geom, pid, cuts[pid], sizeAt, hCap);
+      const params = pieceParams(geom, pid, cuts[pid], sizeAt, hCap, origin);
       // the junction at t = 0 (shared with the previous piece's end)
       let start: number;
       if (k === 0) {
@@ -202,9 +204,12 @@ export function crossingSegments(b: BoundaryPoints): number[] {
     maxY = Math.max(maxY, xy[2 * a + 1], xy[2 * c + 1]);
     sumLen += Math.hypot(xy[2 * c] - xy[2 * a], xy[2 * c + 1] - xy[2 * a + 1]);
   }
-  const cell = Math.max((2 * sumLen) / ns, 1e-300);
-  const nx = Math.min(2048, Math.max(1, Math.ceil((maxX - minX) / cell)));
-  const ny = Math.min(2048, Math.max(1, Math.ceil((maxY - minY) / cell)));
+  // cells about two segment lengths wide; the cap is on the cell count, not on each side, so a
+  // long thin plate keeps its buckets small
+  let cell = Math.max((2 * sumLen) / ns, 1e-300);
+  while (Math.ceil((maxX - minX) / cell) * Math.ceil((maxY - minY) / cell) > 1 << 22) cell *= 2;
+  const nx = Math.max(1, Math.ceil((maxX - minX) / cell));
+  const ny = Math.max(1, Math.ceil((maxY - minY) / cell));
   const cw = (maxX - minX) / nx || 1;
   const ch = (maxY - minY) / ny || 1;
   const buckets = new Map<number, number[]>();

@@ -89,7 +89,7 @@ function tryTriangulate(geom: PlateGeometry, b: BoundaryPoints, vCapHint: number
     const v = tri[e % 3 === 2 ? e - 2 : e + 1];
     const t = (e / 3) | 0;
     if (segOf.has(u * n + v)) {
-      if (state[t] === -1) throw new MeshError('boundary orientation is inconsistent (a loop is not closed or crosses another)');
+      if (state[t] === -1) throw new MeshError('boundary orientation is inconsistent (a loop is not closed or crosses another)', 'plate');
       if (state[t] === 0) {
         state[t] = 1;
         stack.push(t);
@@ -113,7 +113,7 @@ function tryTriangulate(geom: PlateGeometry, b: BoundaryPoints, vCapHint: number
   const newId = new Int32Array(nt).fill(-1);
   let nIn = 0;
   for (let t = 0; t < nt; t++) if (state[t] === 1) newId[t] = nIn++;
-  if (nIn === 0) throw new MeshError('no triangle lies inside the plate outline');
+  if (nIn === 0) throw new MeshError('no triangle lies inside the plate outline', 'plate.outline');
 
   const vCap = Math.max(2 * n, vCapHint);
   const m = new TriMesh(vCap, 2 * vCap + 16);
@@ -137,7 +137,7 @@ function tryTriangulate(geom: PlateGeometry, b: BoundaryPoints, vCapHint: number
         m.sT0[E] = b.segT0[s];
         m.sT1[E] = b.segT1[s];
       } else if (ot < 0) {
-        throw new MeshError('the plate boundary is not closed: an inside triangle borders the outside without a segment');
+        throw new MeshError('the plate boundary is not closed: an inside triangle borders the outside without a segment', 'plate');
       } else m.twin[E] = 3 * ot + (o % 3);
     }
   }
@@ -146,7 +146,7 @@ function tryTriangulate(geom: PlateGeometry, b: BoundaryPoints, vCapHint: number
   let nBoundary = 0;
   for (let e = 0; e < 3 * nIn; e++) if (m.twin[e] < 0) nBoundary++;
   if (nBoundary !== ns) {
-    throw new MeshError(`boundary recovery left ${ns - nBoundary} segment(s) without an inside triangle; check that openings lie inside the outline`);
+    throw new MeshError(`boundary recovery left ${ns - nBoundary} segment(s) without an inside triangle; check that openings lie inside the outline`, 'plate.openings');
   }
   // mark acute input corners (sharper than 60°)
   const cornerKey = new Map<string, number>();

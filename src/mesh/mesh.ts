@@ -9,6 +9,7 @@ import { buildMeshOutput } from './output.js';
 import { INSERT_REJECTED, V_FREE } from './trimesh.js';
 import type { TriMesh } from './trimesh.js';
 import { curveLen } from './curves.js';
+import { sizeFieldAbout } from './sizefield.js';
 
 export const DEFAULT_MIN_ANGLE_DEG = 28;
 export const DEFAULT_MAX_VERTICES = 3_000_000;
@@ -32,6 +33,24 @@ export function meshPlate(geom: PlateGeometry, opts: MeshOptions): Mesh {
     throw new MeshError('plate geometry has no boundary pieces');
   }
   if (!(geom.scale > 0)) throw new MeshError(`plate geometry scale must be > 0, got ${geom.scale}`);
+  if (!geom.local) return meshAbout(geom, opts, minAngleDeg, maxVertices, [0, 0]);
+  // mesh the copy about the plate's centre, then move the nodes to where the plate is: the mesh
+  // is then the same wherever the plate sits (up to the rounding of that last addition)
+  const { origin, geometry } = geom.local;
+  const [ox, oy] = origin;
+  const local = meshAbout(geometry, {
+    ...opts,
+    sizeAt: sizeFieldAbout(opts.sizeAt, origin),
+    requiredPoints: (opts.requiredPoints ?? []).map(([x, y]) => [x - ox, y - oy] as const),
+  }, minAngleDeg, maxVertices, origin);
+  for (let k = 0; k < local.xy.length; k += 2) {
+    local.xy[k] += ox;
+    local.xy[k + 1] += oy;
+  }
+  return local;
+}
+
+function meshAbout(geom: PlateGeometry, opts: MeshOptions, minAngleDeg: number, maxVertices: number, origin: readonly [number, number]): Mesh {
   const tol = 1e-9 * geom.scale;
   for (const piece of geom.pieces) {
     const len = curveLen(piece.curve);
@@ -44,7 +63,7 @@ export function meshPlate(geom: PlateGeometry, opts: MeshOptions): Mesh {
   }
   const required = opts.requiredPoints ?? [];
 
-  const b = discretiseBoundary(geom, opts.sizeAt, required, tol);
+  const b = discretiseBoundary(geom, opts.sizeAt, required, tol, origin);
   // chords of neighbouring curves can cross where the curves do not: split them until clear
   for (let round = 0; ; round++) {
     const bad = crossingSegments(b);
@@ -61,12 +80,14 @@ export function meshPlate(geom: PlateGeometry, opts: MeshOptions): Mesh {
     }
   }
   const m = initialTriangulation(geom, b, Math.min(maxVertices, estimateVertices(geom, opts.sizeAt) + b.piece.length));
-  for (const [x, y] of b.interior) insertRequired(m, x, y, tol);
-  refineMesh(m, geom, { sizeAt: opts.sizeAt, minAngleDeg, maxVertices, sizeFactor: SIZE_FACTOR });
+  for (const [x, y] of b.interior) insertRequired(m, x, y, tol, origin);
+  refineMesh(m, geom, { sizeAt: opts.sizeAt, minAngleDeg, maxVertices, sizeFactor: SIZE_FACTOR, origin });
   return buildMeshOutput(m, geom, opts.order);
 }
 
-function insertRequired(m: TriMesh, x: number, y: number, tol: number): void {
+function insertRequired(m: TriMesh, x: number, y: number, tol: number, origin: readonly [number, number]): void {
+  const point: [number, number] = [x + origin[0], y + origin[1]];
+  const at = `(${Number(point[0].toPrecision(12))}, ${Number(point[1].toPrecision(12))})`;
   for (let v = 0; v < m.nV; v++) {
     if (Math.hypot(m.xy[2 * v] - x, m.xy[2 * v + 1] - y) <= tol) return;
   }
@@ -75,11 +96,11 @@ function insertRequired(m: TriMesh, x: number, y: number, tol: number): void {
     const a = m.tri[3 * t], b = m.tri[3 * t + 1], c = m.tri[3 * t + 2];
     if (m.orientP(a, b, x, y) >= 0 && m.orientP(b, c, x, y) >= 0 && m.orientP(c, a, x, y) >= 0) found = t;
   }
-  if (found < 0) throw new MeshError(`required point (${x}, ${y}) lies outside the plate (not inside the outline, or inside an opening)`);
+  if (found < 0) throw new MeshError(`required point ${at} lies outside the plate (not inside the outline, or inside an opening)`, undefined, point);
   const p = m.addVertex(x, y, V_FREE, 0);
   if (m.insertVertex(p, found, -1, false) === INSERT_REJECTED) {
     m.popVertex();
-    throw new MeshError(`required point (${x}, ${y}) could not be inserted (too close to the boundary?)`);
+    throw new MeshError(`required point ${at} could not be inserted (too close to the boundary?)`, undefined, point);
   }
 }
 

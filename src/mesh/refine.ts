@@ -25,61 +25,148 @@ export interface RefineOptions {
   maxVertices: number;
   /** a triangle is oversized when its longest edge exceeds sizeFactor · h(centroid) */
   sizeFactor: number;
+  /** added to coordinates in messages (the geometry is about this point, see PlateGeometry.local) */
+  origin?: readonly [number, number];
 }
 
+/** What a triangle needs (`triangleCure`): nothing, a Steiner point, or (≥ 0) a split of boundary half-edge e. */
+const KEEP = -1;
+const STEINER = -2;
+
+/**
+ * Refine `m` in place until no boundary segment is encroached and no triangle is skinny or
+ * oversized: encroached segments first, then the triangles in queue order.
+ */
 export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions): void {
-  const { sizeAt, maxVertices, sizeFactor } = opts;
-  const sinMin = Math.sin((opts.minAngleDeg * Math.PI) / 180);
-  // radius–edge bound B = 1 / (2 sin θmin)
-  const B = 1 / (2 * sinMin);
-  const B2 = B * B;
-  const tinyLen = 1e-9 * geom.scale;
-  const np = geom.pieces.length;
-  // pieces meeting at a sharp corner → that corner's position
-  const acutePair = new Map<number, readonly [number, number]>();
-  for (const c of geom.corners) {
-    if (c.interiorAngleDeg < 60) {
-      acutePair.set(c.pieceIn * np + c.pieceOut, c.at);
-      acutePair.set(c.pieceOut * np + c.pieceIn, c.at);
+  const r = new Refinement(m, geom, opts);
+  r.queueInitial();
+  r.run();
+}
+
+/** The state of one refinement: the mesh, its two work queues, and the quality bounds. */
+class Refinement {
+  private readonly sizeAt: SizeField;
+  private readonly maxVertices: number;
+  private readonly sizeFactor: number;
+  /** radius–edge bound B = 1 / (2 sin θmin), and B² */
+  private readonly B: number;
+  private readonly B2: number;
+  private readonly tinyLen: number;
+  private readonly np: number;
+  /** vertices before refinement (boundary and required points), which no mesh.size thins */
+  private readonly boundaryVertices: number;
+  /** added to coordinates in messages */
+  private readonly origin: readonly [number, number];
+  /** pieces meeting at a sharp corner → that corner's position */
+  private readonly acutePair = new Map<number, readonly [number, number]>();
+  private readonly segQ = new IntQueue(1024);
+  private readonly triQ: IntQueue;
+  private readonly pt = [0, 0];
+  private readonly sp = [0, 0];
+
+  constructor(private readonly m: TriMesh, private readonly geom: PlateGeometry, opts: RefineOptions) {
+    this.sizeAt = opts.sizeAt;
+    this.maxVertices = opts.maxVertices;
+    this.sizeFactor = opts.sizeFactor;
+    const sinMin = Math.sin((opts.minAngleDeg * Math.PI) / 180);
+    this.B = 1 / (2 * sinMin);
+    this.B2 = this.B * this.B;
+    this.tinyLen = 1e-9 * geom.scale;
+    this.np = geom.pieces.length;
+    this.boundaryVertices = m.nV;
+    this.origin = opts.origin ?? [0, 0];
+    for (const c of geom.corners) {
+      if (c.interiorAngleDeg < 60) {
+        this.acutePair.set(c.pieceIn * this.np + c.pieceOut, c.at);
+        this.acutePair.set(c.pieceOut * this.np + c.pieceIn, c.at);
+      }
+    }
+    this.triQ = new IntQueue(4 * m.nT + 1024);
+  }
+
+  /** every encroached boundary edge and every triangle of the initial triangulation */
+  queueInitial(): void {
+    const m = this.m;
+    for (let e = 0; e < 3 * m.nT; e++) if (m.twin[e] < 0 && this.isEncroached(e)) this.segQ.push(e);
+    for (let t = 0; t < m.nT; t++) this.triQ.push(t);
+  }
+
+  /** the refinement loop: segments before triangles, until both queues are empty */
+  run(): void {
+    const m = this.m;
+    const { segQ, triQ } = this;
+    let guard = 0;
+    const maxSteps = 40 * this.maxVertices + 1000;
+    for (;;) {
+      if (guard++ > maxSteps) throw new MeshError('mesh refinement did not finish (step limit); the geometry may have features far below mesh.size', 'mesh.size');
+      if (segQ.size > 0) {
+        const e = segQ.shift();
+        if (e < 3 * m.nT && m.twin[e] < 0 && this.isEncroached(e)) this.splitSegment(e);
+        continue;
+      }
+      if (triQ.size === 0) break;
+      const t = triQ.shift();
+      const cure = this.triangleCure(t);
+      if (cure === KEEP) continue;
+      if (cure >= 0) {
+        if (this.splitSegment(cure)) triQ.push(t);
+        continue;
+      }
+      this.insertSteinerPoint(t);
     }
   }
-  const segQ = new IntQueue(1024);
-  const triQ = new IntQueue(4 * m.nT + 1024);
-  const pt = [0, 0];
 
-  const isEncroached = (e: number): boolean => {
+  private isEncroached(e: number): boolean {
+    const m = this.m;
     const w = m.tri[prevHalf(e)];
     return m.encroachesEdge(e, m.xy[2 * w], m.xy[2 * w + 1]);
-  };
+  }
 
-  const checkVertexCap = (): void => {
+  private checkVertexCap(): void {
+    const { m, maxVertices, boundaryVertices } = this;
+    // the boundary points (the outline's own edges, arcs at the chord rule) and required points:
+    // a larger mesh.size does not thin them
+    if (m.nV >= maxVertices && boundaryVertices > 0.5 * maxVertices) {
+      throw new MeshError(
+        `mesh would need more than ${maxVertices} vertices, and the plate boundary alone takes ${boundaryVertices} of them `
+          + '(every point of the outline and openings, and arcs at 0.2 rad per segment), which no mesh.size reduces; '
+          + 'simplify the outline (fewer points, or arcs instead of many short edges)',
+        'plate.outline',
+      );
+    }
     if (m.nV >= maxVertices) {
       throw new MeshError(
-        `mesh would need more than ${maxVertices} vertices (plate of size ${geom.scale.toPrecision(4)}, ` +
-          `smallest requested size ${smallestSize().toPrecision(3)}); increase mesh.size or the local sizes`,
+        `mesh would need more than ${maxVertices} vertices (plate of size ${this.geom.scale.toPrecision(4)}, ` +
+          `smallest requested size ${this.smallestSize().toPrecision(3)}); increase mesh.size or the local sizes`,
         'mesh.size',
       );
     }
-  };
-  const smallestSize = (): number => {
-    let h = Infinity;
-    for (let v = 0; v < m.nV; v += Math.max(1, (m.nV / 2000) | 0)) h = Math.min(h, sizeAt(m.xy[2 * v], m.xy[2 * v + 1]));
-    return h;
-  };
+  }
 
-  const afterInsert = (): void => {
+  private smallestSize(): number {
+    const m = this.m;
+    let h = Infinity;
+    for (let v = 0; v < m.nV; v += Math.max(1, (m.nV / 2000) | 0)) h = Math.min(h, this.sizeAt(m.xy[2 * v], m.xy[2 * v + 1]));
+    return h;
+  }
+
+  /** queue the triangles the last insertion made, and their boundary edges that are now encroached */
+  private afterInsert(): void {
+    const m = this.m;
     const n = m.nNew;
     for (let i = 0; i < n; i++) {
       const t = m.newTris[i];
-      triQ.push(t);
+      this.triQ.push(t);
       for (let j = 0; j < 3; j++) {
         const e = 3 * t + j;
-        if (m.twin[e] < 0 && isEncroached(e)) segQ.push(e);
+        if (m.twin[e] < 0 && this.isEncroached(e)) this.segQ.push(e);
       }
     }
-  };
+  }
 
-  const splitSegment = (e: number): boolean => {
+  /** split boundary half-edge e on its curve (at a concentric shell next to a sharp corner); false when it cannot be */
+  private splitSegment(e: number): boolean {
+    const m = this.m;
     if (m.twin[e] >= 0) return false;
     const tri = m.tri;
     const a = tri[e];
@@ -87,11 +174,11 @@ export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions)
     const xy = m.xy;
     const ax = xy[2 * a], ay = xy[2 * a + 1], bx = xy[2 * b], by = xy[2 * b + 1];
     const L = Math.hypot(bx - ax, by - ay);
-    if (L < tinyLen) return false;
+    if (L < this.tinyLen) return false;
     const piece = m.sPiece[e];
     const t0 = m.sT0[e];
     const t1 = m.sT1[e];
-    const curve = geom.pieces[piece].curve;
+    const curve = this.geom.pieces[piece].curve;
     let x: number, y: number, tm: number;
     if (curve.kind === 'line') {
       let f = 0.5;
@@ -106,26 +193,28 @@ export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions)
       tm = t0 + f * (t1 - t0);
     } else {
       tm = 0.5 * (t0 + t1);
-      curveXY(curve, tm, pt);
-      x = pt[0];
-      y = pt[1];
+      curveXY(curve, tm, this.pt);
+      x = this.pt[0];
+      y = this.pt[1];
     }
-    checkVertexCap();
+    this.checkVertexCap();
     const p = m.addVertex(x, y, piece, tm);
     const r = m.insertVertex(p, (e / 3) | 0, e, false);
     if (r < 0) {
       m.popVertex();
       return false;
     }
-    afterInsert();
+    this.afterInsert();
     return true;
-  };
+  }
 
-  /** set by needsSplit when the cure is a segment split rather than a Steiner point */
-  let pendingSegment = -1;
-  /** true when triangle t must be refined (see pendingSegment) */
-  const needsSplit = (t: number): boolean => {
-    pendingSegment = -1;
+  /**
+   * What triangle t needs: KEEP (good enough, or its small angle is forced by the input), STEINER
+   * (oversized or skinny), or the boundary half-edge to split instead (a skinny triangle across a
+   * sharp corner whose cure is to split a long side segment).
+   */
+  private triangleCure(t: number): number {
+    const m = this.m;
     const tri = m.tri;
     const xy = m.xy;
     const a = tri[3 * t], b = tri[3 * t + 1], c = tri[3 * t + 2];
@@ -134,18 +223,19 @@ export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions)
     const lb = (cx - ax) ** 2 + (cy - ay) ** 2; // opposite b
     const lc = (ax - bx) ** 2 + (ay - by) ** 2; // opposite c
     const lmax = Math.max(la, lb, lc);
-    const h = sizeFactor * sizeAt((ax + bx + cx) / 3, (ay + by + cy) / 3);
-    if (lmax > h * h) return true;
+    const h = this.sizeFactor * this.sizeAt((ax + bx + cx) / 3, (ay + by + cy) / 3);
+    if (lmax > h * h) return STEINER;
     if (!(h > 0)) {
-      throw new MeshError(`size field gave ${h / sizeFactor} at (${(ax + bx + cx) / 3}, ${(ay + by + cy) / 3}); sizes must be positive numbers`, 'mesh.size');
+      const [ox, oy] = this.origin;
+      throw new MeshError(`size field gave ${h / this.sizeFactor} at (${(ax + bx + cx) / 3 + ox}, ${(ay + by + cy) / 3 + oy}); sizes must be positive numbers`, 'mesh.size');
     }
     const area2 = (bx - ax) * (cy - ay) - (by - ay) * (cx - ax);
     const lmin = Math.min(la, lb, lc);
     // R² = la lb lc / (4 area2²) ; skinny when R² > B² lmin²
-    if (la * lb * lc <= B2 * lmin * 4 * area2 * area2) return false;
-    if (lmin < tinyLen * tinyLen) return false;
+    if (la * lb * lc <= this.B2 * lmin * 4 * area2 * area2) return KEEP;
+    if (lmin < this.tinyLen * this.tinyLen) return KEEP;
     // small angles forced by the input
-    if (m.vAcute[a] || m.vAcute[b] || m.vAcute[c]) return false;
+    if (m.vAcute[a] || m.vAcute[b] || m.vAcute[c]) return KEEP;
     let u: number, w: number;
     if (lmin === la) {
       u = b;
@@ -161,32 +251,69 @@ export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions)
     // corner): splitting it would only cascade toward the corner (Shewchuk 2002, §4)
     const pu = m.vPiece[u], pw = m.vPiece[w];
     if (pu >= 0 && pw >= 0 && pu !== pw) {
-      const at = acutePair.get(pu * np + pw);
+      const at = this.acutePair.get(pu * this.np + pw);
       if (at) {
         const du = Math.hypot(xy[2 * u] - at[0], xy[2 * u + 1] - at[1]);
         const dw = Math.hypot(xy[2 * w] - at[0], xy[2 * w + 1] - at[1]);
-        if (Math.abs(du - dw) <= 0.05 * Math.max(du, dw)) {
-          // but a long segment edge from the shell outward along a side is split, so the
-          // triangle's far vertex moves in and its angle opens up
-          pendingSegment = -1;
-          for (let j = 0; j < 3; j++) {
-            const e = 3 * t + j;
-            if (m.twin[e] >= 0) continue;
-            const p0 = tri[e], p1 = tri[nextHalf(e)];
-            const l2 = (xy[2 * p0] - xy[2 * p1]) ** 2 + (xy[2 * p0 + 1] - xy[2 * p1 + 1]) ** 2;
-            if (l2 > 4 * lmin) pendingSegment = e;
-          }
-          return pendingSegment >= 0;
-        }
+        if (Math.abs(du - dw) <= 0.05 * Math.max(du, dw)) return this.longSideSegment(t, lmin);
       }
     }
-    return true;
-  };
+    return STEINER;
+  }
+
+  /**
+   * A skinny triangle on a shell around a sharp corner: a long segment edge from the shell
+   * outward along a side is split, so the triangle's far vertex moves in and its angle opens up;
+   * KEEP when it has none (the last such edge of the triangle when it has several).
+   */
+  private longSideSegment(t: number, lmin: number): number {
+    const { tri, twin, xy } = this.m;
+    let found = KEEP;
+    for (let j = 0; j < 3; j++) {
+      const e = 3 * t + j;
+      if (twin[e] >= 0) continue;
+      const p0 = tri[e], p1 = tri[nextHalf(e)];
+      const l2 = (xy[2 * p0] - xy[2 * p1]) ** 2 + (xy[2 * p0 + 1] - xy[2 * p1 + 1]) ** 2;
+      if (l2 > 4 * lmin) found = e;
+    }
+    return found;
+  }
+
+  /**
+   * Insert triangle t's Steiner point, unless it lies beyond a boundary segment or encroaches one:
+   * then that segment is split instead (and t queued again when it was).
+   */
+  private insertSteinerPoint(t: number): void {
+    const { m, sp, triQ } = this;
+    this.steinerPoint(t, sp);
+    const loc = m.locate(t, sp[0], sp[1]);
+    if (loc <= -2) {
+      if (this.splitSegment(-(loc + 2))) triQ.push(t);
+      return;
+    }
+    if (loc < 0) return;
+    this.checkVertexCap();
+    const p = m.addVertex(sp[0], sp[1], V_FREE, 0);
+    const r = m.insertVertex(p, loc, -1, true);
+    if (r === INSERT_ENCROACHES) {
+      m.popVertex();
+      const enc = m.encroached.slice();
+      let any = false;
+      for (const e of enc) if (m.twin[e] < 0 && m.encroachesEdge(e, sp[0], sp[1]) && this.splitSegment(e)) any = true;
+      if (any) triQ.push(t);
+      return;
+    }
+    if (r < 0) {
+      m.popVertex();
+      return;
+    }
+    this.afterInsert();
+  }
 
   /** circumcentre, or Üngör's off-centre when that is nearer the shortest edge */
-  const steinerPoint = (t: number, out: number[]): void => {
-    const tri = m.tri;
-    const xy = m.xy;
+  private steinerPoint(t: number, out: number[]): void {
+    const { tri, xy } = this.m;
+    const { B, B2 } = this;
     const a = tri[3 * t], b = tri[3 * t + 1], c = tri[3 * t + 2];
     const ax = xy[2 * a], ay = xy[2 * a + 1];
     const dx = xy[2 * b] - ax, dy = xy[2 * b + 1] - ay;
@@ -222,51 +349,6 @@ export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions)
       out[0] = mx + f * (ccx - mx);
       out[1] = my + f * (ccy - my);
     }
-  };
-
-  for (let e = 0; e < 3 * m.nT; e++) if (m.twin[e] < 0 && isEncroached(e)) segQ.push(e);
-  for (let t = 0; t < m.nT; t++) triQ.push(t);
-
-  const sp = [0, 0];
-  let guard = 0;
-  const maxSteps = 40 * maxVertices + 1000;
-  for (;;) {
-    if (guard++ > maxSteps) throw new MeshError('mesh refinement did not finish (step limit); the geometry may have features far below mesh.size', 'mesh.size');
-    if (segQ.size > 0) {
-      const e = segQ.shift();
-      if (e < 3 * m.nT && m.twin[e] < 0 && isEncroached(e)) splitSegment(e);
-      continue;
-    }
-    if (triQ.size === 0) break;
-    const t = triQ.shift();
-    if (!needsSplit(t)) continue;
-    if (pendingSegment >= 0) {
-      if (splitSegment(pendingSegment)) triQ.push(t);
-      continue;
-    }
-    steinerPoint(t, sp);
-    const loc = m.locate(t, sp[0], sp[1]);
-    if (loc <= -2) {
-      if (splitSegment(-(loc + 2))) triQ.push(t);
-      continue;
-    }
-    if (loc < 0) continue;
-    checkVertexCap();
-    const p = m.addVertex(sp[0], sp[1], V_FREE, 0);
-    const r = m.insertVertex(p, loc, -1, true);
-    if (r === INSERT_ENCROACHES) {
-      m.popVertex();
-      const enc = m.encroached.slice();
-      let any = false;
-      for (const e of enc) if (m.twin[e] < 0 && m.encroachesEdge(e, sp[0], sp[1]) && splitSegment(e)) any = true;
-      if (any) triQ.push(t);
-      continue;
-    }
-    if (r < 0) {
-      m.popVertex();
-      continue;
-    }
-    afterInsert();
   }
 }
 

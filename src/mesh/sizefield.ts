@@ -11,6 +11,7 @@ import type { PlateGeometry } from '../geometry/types.js';
 import type { SizeField } from './types.js';
 import { curvatureRadius, curveLen, curveXY } from './curves.js';
 import { MeshError } from '../errors.js';
+import { buildBoxGrid, gridCell } from '../geometry/box-grid.js';
 
 /** chord rule: a segment subtending ≤ 0.2 rad deviates ≤ 0.5 % of the radius (1 − cos 0.1 = 0.005) */
 export const CURVE_SEGMENT_ANGLE = 2 * Math.acos(0.995);
@@ -31,6 +32,12 @@ export function sizeFieldFromSettings(geom: PlateGeometry, settings: SizeSetting
     throw new MeshError(`mesh.size must be a positive number, got ${settings.size}`, 'mesh.size');
   }
   if (!(grading > 0)) throw new MeshError(`size grading must be > 0, got ${grading}`);
+  if (geom.local) {
+    // built about the plate's centre, like the geometry the mesher meshes (see PlateGeometry.local)
+    const o = geom.local.origin;
+    const local = settings.local.map((l) => ({ ...l, near: [l.near[0] - o[0], l.near[1] - o[1]] as Point }));
+    return framed(sizeFieldFromSettings(geom.local.geometry, { size: settings.size, local }, grading), o);
+  }
   const h0 = settings.size;
   const g = grading;
   // disks: cx, cy, radius, size
@@ -76,18 +83,50 @@ export function sizeFieldFromSettings(geom: PlateGeometry, settings: SizeSetting
       if (samples.length > first) groups.push(c.center[0], c.center[1], Math.max(c.a, c.b), hMin, first, samples.length);
     }
   }
-  const nd = disks.length;
-  const na = arcs.length;
-  const ng = groups.length;
+  const nd = disks.length / 4;
+  const na = arcs.length / 10;
+  const ng = groups.length / 6;
+  // Bucket every feature by the box outside which it cannot lower the size below h0 (its
+  // "reach": a cone of slope g starting at h_f rises to h0 within (h0 − h_f)/g), so that a query
+  // visits only the features near it: with many openings the size field would otherwise cost
+  // O(openings) per call and meshing O(openings²). The minimum does not depend on the order in
+  // which features are visited, so the field is the same function as without the index.
+  const boxes = new Float64Array(4 * (nd + na + ng));
+  const put = (item: number, cx: number, cy: number, rx: number, ry: number): void => {
+    // a relative margin so that rounding never moves a feature's effect outside its box
+    const mx = rx * (1 + 1e-9) + 1e-12 * Math.abs(cx), my = ry * (1 + 1e-9) + 1e-12 * Math.abs(cy);
+    boxes[4 * item] = cx - mx; boxes[4 * item + 1] = cy - my; boxes[4 * item + 2] = cx + mx; boxes[4 * item + 3] = cy + my;
+  };
+  for (let k = 0; k < nd; k++) {
+    const reach = disks[4 * k + 2] + (h0 - disks[4 * k + 3]) / g;
+    put(k, disks[4 * k], disks[4 * k + 1], reach, reach);
+  }
+  for (let k = 0; k < na; k++) {
+    // the whole circle's box: every point the arc's distance is measured to lies on the circle
+    const reach = arcs[10 * k + 2] + (h0 - arcs[10 * k + 3]) / g;
+    put(nd + k, arcs[10 * k], arcs[10 * k + 1], reach, reach);
+  }
+  for (let k = 0; k < ng; k++) {
+    let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
+    for (let i = groups[6 * k + 4]; i < groups[6 * k + 5]; i += 3) {
+      const reach = (h0 - samples[i + 2]) / g;
+      x0 = Math.min(x0, samples[i] - reach); x1 = Math.max(x1, samples[i] + reach);
+      y0 = Math.min(y0, samples[i + 1] - reach); y1 = Math.max(y1, samples[i + 1] + reach);
+    }
+    put(nd + na + k, 0.5 * (x0 + x1), 0.5 * (y0 + y1), 0.5 * (x1 - x0), 0.5 * (y1 - y0));
+  }
+  const grid = buildBoxGrid(boxes);
   const TAU = 2 * Math.PI;
-  return (x: number, y: number): number => {
-    let h = h0;
-    for (let i = 0; i < nd; i += 4) {
+  /** the size feature `item` asks for at (x, y), or h when it asks for no less */
+  const lower = (item: number, x: number, y: number, h: number): number => {
+    if (item < nd) {
+      const i = 4 * item;
       const d = Math.hypot(x - disks[i], y - disks[i + 1]) - disks[i + 2];
       const hi = d > 0 ? disks[i + 3] + g * d : disks[i + 3];
-      if (hi < h) h = hi;
+      return hi < h ? hi : h;
     }
-    for (let i = 0; i < na; i += 10) {
+    if (item < nd + na) {
+      const i = 10 * (item - nd);
       const dx = x - arcs[i];
       const dy = y - arcs[i + 1];
       const R = arcs[i + 2];
@@ -95,23 +134,31 @@ export function sizeFieldFromSettings(geom: PlateGeometry, settings: SizeSetting
       const r = Math.sqrt(dx * dx + dy * dy);
       // the distance to the arc is at least |r − R| (distance to the full circle): cull first
       const dCircle = Math.abs(r - R);
-      if (hArc + g * dCircle >= h) continue;
+      if (hArc + g * dCircle >= h) return h;
       const sweep = arcs[i + 5];
       let d = dCircle;
       if (Math.abs(sweep) < TAU - 1e-12 && !angleWithin(Math.atan2(dy, dx), arcs[i + 4], sweep)) {
         d = Math.min(Math.hypot(x - arcs[i + 6], y - arcs[i + 7]), Math.hypot(x - arcs[i + 8], y - arcs[i + 9]));
       }
       const hi = hArc + g * d;
+      return hi < h ? hi : h;
+    }
+    const k = 6 * (item - nd - na);
+    const dl = Math.hypot(x - groups[k], y - groups[k + 1]) - groups[k + 2];
+    if (groups[k + 3] + g * Math.max(0, dl) >= h) return h;
+    for (let i = groups[k + 4]; i < groups[k + 5]; i += 3) {
+      const hi = samples[i + 2] + g * Math.hypot(x - samples[i], y - samples[i + 1]);
       if (hi < h) h = hi;
     }
-    for (let k = 0; k < ng; k += 6) {
-      const dl = Math.hypot(x - groups[k], y - groups[k + 1]) - groups[k + 2];
-      if (groups[k + 3] + g * Math.max(0, dl) >= h) continue;
-      for (let i = groups[k + 4]; i < groups[k + 5]; i += 3) {
-        const hi = samples[i + 2] + g * Math.hypot(x - samples[i], y - samples[i + 1]);
-        if (hi < h) h = hi;
-      }
-    }
+    return h;
+  };
+  const { large, start, items } = grid;
+  return (x: number, y: number): number => {
+    let h = h0;
+    for (let k = 0; k < large.length; k++) h = lower(large[k], x, y, h);
+    const c = gridCell(grid, x, y);
+    if (c < 0) return h;
+    for (let k = start[c]; k < start[c + 1]; k++) h = lower(items[k], x, y, h);
     return h;
   };
 }
@@ -129,6 +176,8 @@ function angleWithin(ang: number, start: number, sweep: number): boolean {
 /** min(base, hNear + grading·|x − p|): a size field refined toward the point p */
 export function gradedToward(base: SizeField, p: readonly [number, number] | Point, hNear: number, grading = 0.25): SizeField {
   if (!(hNear > 0)) throw new MeshError(`size near a refinement point must be > 0, got ${hNear}`);
+  const frame = FRAMES.get(base);
+  if (frame) return framed(gradedToward(frame.field, [p[0] - frame.origin[0], p[1] - frame.origin[1]], hNear, grading), frame.origin);
   const px = p[0];
   const py = p[1];
   return (x: number, y: number): number => {
@@ -136,4 +185,25 @@ export function gradedToward(base: SizeField, p: readonly [number, number] | Poi
     const hb = base(x, y);
     return hp < hb ? hp : hb;
   };
+}
+
+/**
+ * Size fields that have a twin about a plate's centre (PlateGeometry.local): the mesher evaluates
+ * the twin at its local coordinates, so the mesh is the same wherever the plate sits.
+ */
+const FRAMES = new WeakMap<SizeField, { origin: Point; field: SizeField }>();
+
+function framed(field: SizeField, origin: Point): SizeField {
+  const [ox, oy] = origin;
+  const outer: SizeField = (x, y) => field(x - ox, y - oy);
+  FRAMES.set(outer, { origin, field });
+  return outer;
+}
+
+/** `sizeAt` in coordinates about `origin`: its registered twin when it has one, else a shifted call. */
+export function sizeFieldAbout(sizeAt: SizeField, origin: Point): SizeField {
+  const frame = FRAMES.get(sizeAt);
+  if (frame && frame.origin[0] === origin[0] && frame.origin[1] === origin[1]) return frame.field;
+  const [ox, oy] = origin;
+  return (x, y) => sizeAt(x + ox, y + oy);
 }

@@ -10,12 +10,13 @@ import { nearest } from './issues.js';
 import type { ModelFile, RawPoint, RawVertex } from './schema.js';
 import { didYouMean, formatNumber, quote } from './text.js';
 import type {
-  CriticalDistance, DisplacementValue, FieldLoad, Load, LocalSize, Model, ModelWarning, Opening, Point, PolygonVertex, PrescribedMotion, Selector, Shape,
+  CriticalDistance, DisplacementValue, Load, LocalSize, Model, ModelWarning, Opening, Point, PolygonVertex, PrescribedMotion, Selector, Shape,
   SourcePosition, StudySettings, Support,
 } from './types.js';
 import { ImportError, MM_PER_UNIT, displacementRows, pointsShape, svgShape, type ReadFile } from './imports.js';
 import { parseExpression, namesIn, CONSTANTS } from './expr.js';
-import { DEFAULT_UNITS, PLAUSIBLE_E_MPA, stressToMPa, stressUnit } from './units.js';
+import { DEFAULT_UNITS, PLAUSIBLE_E_MPA, PLAUSIBLE_THICKNESS_MM, lengthToMm, stressToMPa, stressUnit } from './units.js';
+import { levelsRule, ratioRule } from './study-rules.js';
 
 /** Largest number accepted anywhere: beyond it the value is a slip, not a plate. */
 export const MAX_MAGNITUDE = 1e15;
@@ -40,6 +41,8 @@ interface Rule {
 const POSITIVE: Rule = { test: (v) => v > 0, text: 'must be > 0' };
 const NON_NEGATIVE: Rule = { test: (v) => v >= 0, text: 'must be >= 0 (0 = sharp)' };
 const ANY: Rule = { test: () => true, text: '' };
+/** a rule of study-rules.ts (shared with the CLI and the study) as a loader rule */
+const studyRule = (rule: (v: number) => string | undefined): Rule => ({ test: (v) => rule(v) === undefined, text: rule(NaN) ?? '' });
 
 export class Builder {
   readonly warnings: ModelWarning[] = [];
@@ -254,6 +257,18 @@ export function buildModel(
     }
   }
   const thickness = b.length(raw.thickness, 'thickness', 'plate thickness');
+  const mmPer = lengthToMm(units.length);
+  if (mmPer !== undefined) {
+    const tMm = thickness * mmPer;
+    const [lo, hi] = PLAUSIBLE_THICKNESS_MM;
+    if (tMm < lo || tMm > hi) {
+      b.warnings.push({
+        keyPath: 'thickness',
+        message: `thickness ${formatNumber(thickness)} ${units.length} is ${formatNumber(tMm)} mm, outside the usual range of plates (${lo} mm to ${hi / 1000} m); `
+          + `check that it is in ${units.length}, the model's length unit`,
+      });
+    }
+  }
 
   const outline: Shape = Array.isArray(raw.plate.outline)
     ? { kind: 'polygon', vertices: raw.plate.outline.map((v, i) => b.vertex(v, joinPath('plate.outline', i))) }
@@ -285,7 +300,6 @@ export function buildModel(
     b.fail('expected at least one load (or a support that prescribes a displacement with displace:)', 'loads');
   }
   const loads: Load[] = [];
-  const fieldLoads: FieldLoad[] = [];
   raw.loads.forEach((l, i) => {
     const keyPath = joinPath('loads', i);
     const where = b.selector(l.where, joinPath(keyPath, 'where'), ids);
@@ -297,7 +311,7 @@ export function buildModel(
       const g = l.gradient;
       const gp = joinPath(keyPath, 'gradient');
       const grad = (k: 'sxx' | 'syy' | 'sxy'): Point => (g?.[k] === undefined ? [0, 0] : b.point(g[k]!, joinPath(gp, k)));
-      fieldLoads.push({
+      loads.push({
         kind: 'stress',
         where,
         stress: [b.num(l.stress[0], joinPath(p, 0), 'sxx'), b.num(l.stress[1], joinPath(p, 1), 'syy'), b.num(l.stress[2], joinPath(p, 2), 'sxy')],
@@ -308,7 +322,7 @@ export function buildModel(
     } else {
       const force = b.point(l.pinForce!, joinPath(keyPath, 'pinForce'));
       if (force[0] === 0 && force[1] === 0) b.fail('a pin force of [0, 0] has no direction; give the pin force [Fx, Fy]', joinPath(keyPath, 'pinForce'));
-      fieldLoads.push({ kind: 'pinForce', where: where as Selector & { kind: 'opening' }, force, keyPath });
+      loads.push({ kind: 'pinForce', where: where as Selector & { kind: 'opening' }, force, keyPath });
     }
   });
 
@@ -338,12 +352,8 @@ export function buildModel(
   const s = raw.study;
   const study: StudySettings = {
     measure: s?.measure ?? DEFAULT_STUDY.measure,
-    levels: s?.levels === undefined ? DEFAULT_STUDY.levels : b.num(s.levels, 'study.levels', 'refinement levels', {
-      test: (v) => Number.isInteger(v) && v >= 2 && v <= 12, text: 'must be a whole number from 2 to 12',
-    }),
-    ratio: s?.ratio === undefined ? DEFAULT_STUDY.ratio : b.num(s.ratio, 'study.ratio', 'refinement ratio', {
-      test: (v) => v > 1 && v <= 10, text: 'must be > 1 (size shrinks by this factor per level) and at most 10',
-    }),
+    levels: s?.levels === undefined ? DEFAULT_STUDY.levels : b.num(s.levels, 'study.levels', 'refinement levels', studyRule(levelsRule)),
+    ratio: s?.ratio === undefined ? DEFAULT_STUDY.ratio : b.num(s.ratio, 'study.ratio', 'refinement ratio', studyRule(ratioRule)),
     sites: s?.sites === undefined || s.sites === 'auto'
       ? 'auto'
       : s.sites.map((p, i) => b.point(p, joinPath('study.sites', i))),
@@ -354,6 +364,17 @@ export function buildModel(
       ...(s?.readouts?.critical ? { critical: criticalDistance(b, s.readouts.critical, Math.hypot(box.width, box.height), stress) } : {}),
     },
   };
+  // a readout point farther from its site than the plate is across lies outside the plate for
+  // every site; it would be dropped without a word
+  const across = Math.hypot(box.width, box.height);
+  if (study.readouts.distance !== undefined && Number.isFinite(across) && across > 0 && study.readouts.distance >= across) {
+    b.fail(
+      `readout distance ${formatNumber(study.readouts.distance)} ${units.length} is larger than the plate `
+        + `(${formatNumber(box.width)} × ${formatNumber(box.height)} ${units.length}, ${formatNumber(across)} ${units.length} across); `
+        + 'a readout point that far from a site lies outside it for every site',
+      'study.readouts.distance',
+    );
+  }
 
   const model: Model = {
     title: raw.title?.trim() || defaultTitle(file),
@@ -366,7 +387,6 @@ export function buildModel(
     plate: { outline, openings },
     supports,
     loads,
-    ...(fieldLoads.length > 0 ? { fieldLoads } : {}),
     mesh: { size, order, local },
     study,
     sourceMap: valueAt,
@@ -404,11 +424,16 @@ export function boundingBox(shape: Shape): { minX: number; minY: number; width: 
     case 'rect':
       return { minX: shape.center[0] - shape.width / 2, minY: shape.center[1] - shape.height / 2, width: shape.width, height: shape.height };
     case 'polygon': {
-      const xs = shape.vertices.map((v) => v.at[0]);
-      const ys = shape.vertices.map((v) => v.at[1]);
-      const minX = Math.min(...xs);
-      const minY = Math.min(...ys);
-      return { minX, minY, width: Math.max(...xs) - minX, height: Math.max(...ys) - minY };
+      // a loop, not Math.min(...xs): an imported outline can have more points than the call
+      // stack takes arguments
+      let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+      for (const v of shape.vertices) {
+        if (v.at[0] < minX) minX = v.at[0];
+        if (v.at[0] > maxX) maxX = v.at[0];
+        if (v.at[1] < minY) minY = v.at[1];
+        if (v.at[1] > maxY) maxY = v.at[1];
+      }
+      return { minX, minY, width: maxX - minX, height: maxY - minY };
     }
   }
 }
@@ -420,11 +445,14 @@ export function shapeArea(shape: Shape): number {
     case 'ellipse': return Math.PI * shape.a * shape.b;
     case 'rect': return shape.width * shape.height;
     case 'polygon': {
+      // about the first vertex: the products of coordinates far from 0 would cancel
       let twice = 0;
       const v = shape.vertices;
-      for (let i = 0; i < v.length; i++) {
-        const [x0, y0] = v[i].at;
-        const [x1, y1] = v[(i + 1) % v.length].at;
+      if (v.length === 0) return 0;
+      const [ox, oy] = v[0].at;
+      for (let i = 1; i + 1 < v.length; i++) {
+        const x0 = v[i].at[0] - ox, y0 = v[i].at[1] - oy;
+        const x1 = v[i + 1].at[0] - ox, y1 = v[i + 1].at[1] - oy;
         twice += x0 * y1 - x1 * y0;
       }
       return Math.abs(twice) / 2;

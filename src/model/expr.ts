@@ -35,9 +35,10 @@ export const FUNCTIONS: Readonly<Record<string, Fn>> = {
   acos: { arity: 1, apply: ([x]) => Math.acos(x) },
   atan: { arity: 1, apply: ([x]) => Math.atan(x) },
   atan2: { arity: 2, apply: ([y, x]) => Math.atan2(y, x) },
-  hypot: { arity: 'many', apply: (args) => Math.hypot(...args) },
-  min: { arity: 'many', apply: (args) => Math.min(...args) },
-  max: { arity: 'many', apply: (args) => Math.max(...args) },
+  // folded pairwise, never spread: an argument list has no bound but the file's length
+  hypot: { arity: 'many', apply: (args) => args.reduce((a, b) => Math.hypot(a, b), 0) },
+  min: { arity: 'many', apply: (args) => args.reduce((a, b) => Math.min(a, b), Infinity) },
+  max: { arity: 'many', apply: (args) => args.reduce((a, b) => Math.max(a, b), -Infinity) },
   abs: { arity: 1, apply: ([x]) => Math.abs(x) },
 };
 
@@ -73,11 +74,39 @@ export function parseExpression(text: string): ExpressionTree {
   try {
     tree = jsep(text);
   } catch (e) {
+    // `8mm`: jsep's complaint is about variable names, the slip is a unit
+    const unit = UNIT_AFTER_NUMBER.exec(text);
+    if (unit) throw new ExpressionError(unitMessage(unit[1]));
     const err = e as Error & { description?: string; index?: number };
     const where = typeof err.index === 'number' ? ` at character ${err.index + 1}` : '';
     throw new ExpressionError(`syntax error${where}: ${err.description ?? err.message}`);
   }
+  if (tree.type === 'Compound' || tree.type === 'SequenceExpression') throw new ExpressionError(severalValuesMessage(text, tree));
   return raiseUnaryBelowPower(tree);
+}
+
+/** A number written with a unit after it: `8 mm`, `8mm`, `210 GPa`, `10 N/mm^2`. */
+const UNIT_AFTER_NUMBER = /^\s*[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?\s*((?:mm|cm|m|in|ft|um|µm|N|kN|MN|lbf|kip|Pa|kPa|MPa|GPa|psi|ksi|deg|rad|°)\b[^]*|°.*)$/;
+
+function unitMessage(unit: string): string {
+  return `a number followed by the unit ${quote(unit.trim())}; write the number alone: values are in the model's units, set once under units: { length, force }`;
+}
+
+/**
+ * What `8 mm`, `5 5` or `1, 5` most likely meant, for an expression that holds several values
+ * (jsep reads terms side by side, or separated by commas, as a list).
+ */
+function severalValuesMessage(text: string, tree: jsep.Expression): string {
+  const unit = UNIT_AFTER_NUMBER.exec(text);
+  if (unit) return unitMessage(unit[1]);
+  const parts = ((tree.type === 'Compound' ? tree.body : tree.expressions) as jsep.Expression[]).length;
+  if (text.includes(',')) {
+    const decimal = /^\s*[-+]?\d+,\d+\s*$/.test(text) ? `; for a decimal write a point (${text.trim().replace(',', '.')})` : '';
+    return `expected one number, got a list of ${parts} values separated by commas; a point is written [x, y] (a YAML list), not as text${decimal}`;
+  }
+  const words = text.trim().split(/\s+/);
+  const example = words.length === 2 && text.length <= 40 ? words.join(' * ') : '5 * 5';
+  return `expected one number, got ${parts} values side by side; join them with an operator (such as ${example}) or, for a point, write [x, y]`;
 }
 
 /**
@@ -211,7 +240,8 @@ export function evaluateTree(tree: ExpressionTree, names: Readonly<Record<string
         throw new ExpressionError('. and [ ] are not allowed in expressions; use plain parameter names');
       case 'SequenceExpression':
       case 'Compound':
-        throw new ExpressionError('an expression must give one number (found a comma-separated list)');
+        // parseExpression refuses these with a better message; trees built by hand land here
+        throw new ExpressionError('a list of values (separated by commas or spaces) stands where one number is expected');
       case 'ConditionalExpression':
         throw new ExpressionError('the ? : operator is not allowed; use + - * / ^ and min/max');
       case 'ArrayExpression':

@@ -4,6 +4,8 @@
  * (paths as written in the model, relative to the model file's folder).
  */
 import type { PathPiece, Point, PolygonVertex, Shape } from './types.js';
+import { quote } from './text.js';
+import { notUtf8Text } from './text-file.js';
 import { CsvError, pickColumns, readCsv } from './csv.js';
 import { SvgError, findSvgPath, flattenSegments, parseSvgPath, segmentsExtent } from './svg.js';
 
@@ -24,12 +26,16 @@ export class ImportError extends Error {
 
 function read(readFile: ReadFile | undefined, file: string): string {
   if (!readFile) throw new ImportError(`${file}: this model refers to a file, but no file reader was given (parse it with the readFile option)`);
+  let text: string;
   try {
-    return readFile(file);
+    text = readFile(file);
   } catch (e) {
     const why = e instanceof Error ? e.message.replace(/^[A-Z]+: /, '') : String(e);
-    throw new ImportError(`${file}: cannot read the file (${why})`);
+    throw new ImportError(`${file}: cannot read the file (${why.length > 120 ? `${why.slice(0, 119)}…` : why})`);
   }
+  const notText = notUtf8Text(text);
+  if (notText) throw new ImportError(`${file}:${notText.line}: not a UTF-8 text file: ${notText.reason}`);
+  return text;
 }
 
 function wrap<T>(f: () => T): T {
@@ -72,7 +78,7 @@ export function svgShape(readFile: ReadFile | undefined, req: SvgRequest): Shape
     const extent = segmentsExtent(segs);
     const tol = req.chordTolerance ?? (extent > 0 ? extent / 1000 : 1);
     const pieces = flattenSegments(segs, tol);
-    if (pieces.length < 2) throw new SvgError(`${req.file}: path '${req.path}' encloses no area (${pieces.length} piece)`);
+    if (pieces.length < 2) throw new SvgError(`${req.file}: path ${quote(req.path)} encloses no area (${pieces.length} piece)`);
     return { kind: 'polygon', vertices: sketch(pieces), pieces, source: `${req.file}#${req.path}` };
   });
 }

@@ -1,6 +1,6 @@
 /** Model stage: model file text → evaluated, validated Model (design.md §3). */
 export type * from './types.js';
-export { parseModel, locate, formatModelError, type ParseOptions } from './parse.js';
+export { parseModel, locate, formatModelError, pointKeyPath, type ParseOptions } from './parse.js';
 export { stressUnit, stressToMPa, DEFAULT_UNITS, type UnitLabels } from './units.js';
 export {
   evaluateExpression, parseExpression, evaluateTree, namesIn, ExpressionError, FUNCTIONS, CONSTANTS, RESERVED_NAMES,
@@ -10,3 +10,4 @@ export { formatPath, parsePath, joinPath, type PathSegment } from './keypath.js'
 export { closest, editDistance, didYouMean } from './text.js';
 export { boundingBox, shapeArea, MAX_ESTIMATED_TRIANGLES, MAX_MAGNITUDE, DEFAULT_STUDY } from './build.js';
 export { MAX_ALIAS_COUNT, MAX_MODEL_CHARS } from './source.js';
+export { STUDY_LEVELS, STUDY_RATIO, levelsRule, ratioRule } from './study-rules.js';

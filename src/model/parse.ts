@@ -1,7 +1,7 @@
 /**
  * The model stage's entry: text in, Model out. No file I/O — the CLI reads the file.
  */
-import { ModelError, type PeakwiseError } from '../errors.js';
+import { MeshError, ModelError, type PeakwiseError } from '../errors.js';
 import { buildModel } from './build.js';
 import { firstIssueError, nearest } from './issues.js';
 import { parsePath } from './keypath.js';
@@ -49,15 +49,40 @@ export function locate(model: Pick<Model, 'sourceMap'>, keyPath: string): Source
 }
 
 /**
+ * The key path of the model entry that asks for a node at `at` (a point load or support, a
+ * listed study site), for an error of a later stage that knows only the point. The nearest one
+ * within rounding of the point (the mesher works about the plate's centre and adds it back).
+ */
+export function pointKeyPath(model: Pick<Model, 'loads' | 'supports' | 'study'>, at: readonly [number, number]): string | undefined {
+  const tol = 1e-9 * Math.max(1, Math.abs(at[0]), Math.abs(at[1]));
+  let best: string | undefined;
+  let bestD = Infinity;
+  const consider = (p: readonly [number, number], keyPath: string): void => {
+    const d = Math.hypot(p[0] - at[0], p[1] - at[1]);
+    if (d <= tol && d < bestD) { bestD = d; best = keyPath; }
+  };
+  model.loads.forEach((l, i) => { if (l.where.kind === 'point') consider(l.where.at, `${l.keyPath || `loads[${i}]`}.where.point`); });
+  model.supports.forEach((s, i) => { if (s.where.kind === 'point') consider(s.where.at, `${s.keyPath || `supports[${i}]`}.where.point`); });
+  if (Array.isArray(model.study.sites)) model.study.sites.forEach((p, i) => consider(p, `study.sites[${i}]`));
+  return best;
+}
+
+/**
  * One line for the terminal: `models/x.yaml:12:7 loads[1].where: expected one of …`.
  * ModelErrors carry their own position; for errors of later stages pass the model so the
  * key path can be located.
  */
-export function formatModelError(e: PeakwiseError, file: string, model?: Pick<Model, 'sourceMap'>): string {
+export function formatModelError(e: PeakwiseError, file: string, model?: Pick<Model, 'sourceMap'> & Partial<Pick<Model, 'loads' | 'supports' | 'study'>>): string {
   let pos: SourcePosition | undefined;
+  // an error about a point (a required node outside the plate): the entry that asked for it
+  const keyPath = e.keyPath ?? (e instanceof MeshError && e.at && model?.loads && model.supports && model.study
+    ? pointKeyPath({ loads: model.loads, supports: model.supports, study: model.study }, e.at)
+    : undefined);
   if (e instanceof ModelError && e.line !== undefined) pos = { line: e.line, col: e.col ?? 1 };
-  else if (model && e.keyPath !== undefined) pos = locate(model, e.keyPath);
+  else if (model && keyPath !== undefined) pos = locate(model, keyPath);
   const place = pos ? `${file}:${pos.line}:${pos.col}` : file;
-  const message = e.message.replace(/\s*[\r\n]+\s*/g, ' ');
-  return e.keyPath ? `${place} ${e.keyPath}: ${message}` : `${place}: ${message}`;
+  let message = e.message.replace(/\s*[\r\n]+\s*/g, ' ');
+  // the other entry of a conflict (two supports on one dof): its line too
+  if (model) for (const other of e.related ?? []) message += ` (${other} is at line ${locate(model, other).line})`;
+  return keyPath ? `${place} ${keyPath}: ${message}` : `${place}: ${message}`;
 }

@@ -3,11 +3,12 @@
  * ranges; we walk its syntax tree once to record where every key path sits, so that any
  * later message can name a line and column.
  */
-import { isAlias, isMap, isScalar, isSeq, LineCounter, parseDocument, type Node } from 'yaml';
+import { Composer, isAlias, isMap, isScalar, isSeq, LineCounter, Parser, type Document, type Node } from 'yaml';
 import { ModelError } from '../errors.js';
 import type { SourcePosition } from './types.js';
 import { formatPath, type PathSegment } from './keypath.js';
 import { quote } from './text.js';
+import { notUtf8Text } from './text-file.js';
 
 /**
  * Aliases (`*name`) are legitimate reuse in YAML, but nested aliases expand exponentially
@@ -17,6 +18,16 @@ export const MAX_ALIAS_COUNT = 50;
 
 /** Longest model text we read; real plate details are a few kilobytes. */
 export const MAX_MODEL_CHARS = 2_000_000;
+
+/**
+ * Deepest nesting of mappings and lists accepted. A model needs six levels
+ * (`supports[0].where.segment[1]`); the YAML reader builds its tree recursively and would run
+ * out of stack near a thousand.
+ */
+export const MAX_NESTING = 32;
+
+/** Longest parser message echoed (it may quote the file). */
+const MAX_ECHO = 160;
 
 export interface YamlSource {
   data: unknown;
@@ -30,19 +41,37 @@ export function readYaml(text: string): YamlSource {
   if (text.length > MAX_MODEL_CHARS) {
     throw new ModelError(`model text is ${text.length} characters; the limit is ${MAX_MODEL_CHARS}`, '', 1, 1);
   }
+  const notText = notUtf8Text(text);
+  if (notText) throw new ModelError(`the file is not a UTF-8 text file: ${notText.reason}`, '', notText.line, notText.col);
   const lines = new LineCounter();
-  const doc = parseDocument(text, {
-    lineCounter: lines,
-    uniqueKeys: true,
-    prettyErrors: false,
-    // YAML 1.2 core schema: `yes`/`no` stay text, no `<<` merge keys
-    version: '1.2',
-    strict: true,
-  });
   const at = (offset: number): SourcePosition => {
     const p = lines.linePos(Math.max(0, Math.min(offset, text.length)));
     return { line: p.line, col: p.col };
   };
+  // what the yaml package's parseDocument does, with a depth check between its syntax pass
+  // (iterative) and the tree building (recursive)
+  const cst = [...new Parser(lines.addNewLine).parse(text)];
+  const deep = deepestNesting(cst);
+  if (deep.depth > MAX_NESTING) {
+    const pos = at(deep.offset);
+    throw new ModelError(
+      `mappings and lists nest ${deep.depth > 10 * MAX_NESTING ? `more than ${10 * MAX_NESTING}` : deep.depth} levels deep here; `
+        + `a model needs about 6 and the limit is ${MAX_NESTING}`,
+      '', pos.line, pos.col,
+    );
+  }
+  // YAML 1.2 core schema: `yes`/`no` stay text, no `<<` merge keys
+  const composer = new Composer({ uniqueKeys: true, prettyErrors: false, version: '1.2', strict: true });
+  let doc: Document.Parsed | undefined;
+  let second: number | undefined;
+  for (const d of composer.compose(cst, true, text.length)) {
+    if (!doc) doc = d;
+    else {
+      second = d.range[0];
+      break;
+    }
+  }
+  if (!doc) throw new ModelError('the model file is empty; expected a mapping with material, thickness, plate, supports and loads', '', 1, 1);
 
   const valueAt: Record<string, SourcePosition> = {};
   const keyAt: Record<string, SourcePosition> = {};
@@ -54,10 +83,11 @@ export function readYaml(text: string): YamlSource {
       const key = duplicateKeyName(text, first.pos[0], first.pos[1]);
       throw new ModelError(`duplicate key ${quote(key)}: each key may appear only once in a mapping`, '', pos.line, pos.col);
     }
-    if (first.code === 'MULTIPLE_DOCS') {
-      throw new ModelError('the file holds more than one YAML document (a second ---); a model is one document', '', pos.line, pos.col);
-    }
     throw new ModelError(`YAML syntax: ${yamlMessage(first.message)}`, '', pos.line, pos.col);
+  }
+  if (second !== undefined) {
+    const pos = at(second);
+    throw new ModelError('the file holds more than one YAML document (a second ---); a model is one document', '', pos.line, pos.col);
   }
 
   const root = doc.contents;
@@ -117,9 +147,36 @@ function duplicateKeyName(text: string, start: number, end: number): string {
   return (m?.[1] ?? raw).trim() || raw;
 }
 
-/** The parser's message without position noise, on one line. */
+/** The parser's message without position noise, on one line, of bounded length, without control characters. */
 function yamlMessage(message: string): string {
-  return message.split('\n')[0].replace(/ at line \d+, column \d+:?$/, '').trim();
+  // eslint-disable-next-line no-control-regex
+  const line = message.split('\n')[0].replace(/ at line \d+, column \d+:?$/, '').trim().replace(/[\u0000-\u001f\u007f-\u009f]/g, '?');
+  return line.length > MAX_ECHO ? `${line.slice(0, MAX_ECHO - 1)}…` : line;
+}
+
+/**
+ * Deepest nesting of collections in the syntax tokens of the yaml package's Parser (block maps
+ * and lists, flow collections), walked with an explicit stack; with the offset where it is reached.
+ */
+function deepestNesting(tokens: readonly unknown[]): { depth: number; offset: number } {
+  let best = { depth: 0, offset: 0 };
+  const stack: [unknown, number][] = tokens.map((t) => [t, 0]);
+  while (stack.length > 0) {
+    const [token, depth] = stack.pop()!;
+    if (!token || typeof token !== 'object') continue;
+    const t = token as { type?: string; offset?: number; value?: unknown; items?: { key?: unknown; value?: unknown }[] };
+    const inner = t.type === 'block-map' || t.type === 'block-seq' || t.type === 'flow-collection' ? depth + 1 : depth;
+    if (inner > best.depth) best = { depth: inner, offset: t.offset ?? 0 };
+    if (inner > 10 * MAX_NESTING) break; // deep enough to refuse; no need to walk it all
+    if (t.value && typeof t.value === 'object') stack.push([t.value, inner]);
+    if (Array.isArray(t.items)) {
+      for (const item of t.items) {
+        if (item?.key && typeof item.key === 'object') stack.push([item.key, inner]);
+        if (item?.value && typeof item.value === 'object') stack.push([item.value, inner]);
+      }
+    }
+  }
+  return best;
 }
 
 function firstAlias(node: unknown, at: (offset: number) => SourcePosition): SourcePosition | undefined {

@@ -20,29 +20,190 @@ export class SvgError extends Error {
   }
 }
 
-/** The `d` attribute of the `<path>` whose id is `id`. */
-export function findSvgPath(svgText: string, id: string, file: string): string {
-  const ids: string[] = [];
-  const tagRe = /<path\b([^>]*)>/gis;
-  for (const m of svgText.matchAll(tagRe)) {
-    const attrs = m[1];
-    const pid = attribute(attrs, 'id');
-    if (pid !== undefined) ids.push(pid);
-    if (pid !== id) continue;
-    if (attribute(attrs, 'transform') !== undefined) {
-      throw new SvgError(`${file}: path '${id}' has a transform attribute; apply it to the path data first (peakwise reads the d attribute as it is)`);
-    }
-    const d = attribute(attrs, 'd');
-    if (d === undefined) throw new SvgError(`${file}: path '${id}' has no d attribute`);
-    return d;
-  }
-  const known = ids.length ? `the paths with an id are ${ids.slice(0, 20).map((s) => `'${s}'`).join(', ')}` : 'the file has no <path> with an id';
-  throw new SvgError(`${file}: no <path> with id '${id}'; ${known}`);
+/**
+ * Elements whose content is never drawn where it stands (SVG 1.1 §5.3 `defs`, §5.5 `symbol`,
+ * §14.3 `clipPath`, §14.4 `mask`, §13.3 `pattern`, §11.6 `marker`, §5.4 `title`/`desc`, §21
+ * `metadata`, gradients, filters, fonts, `style`, `script`, `foreignObject`): a path in there is
+ * not an outline of the drawing. Compared lower-cased.
+ */
+const NOT_DRAWN = new Set([
+  'defs', 'symbol', 'clippath', 'mask', 'pattern', 'marker', 'title', 'desc', 'metadata', 'lineargradient',
+  'radialgradient', 'filter', 'font', 'font-face', 'glyph', 'missing-glyph', 'cursor', 'view', 'style', 'script',
+  'foreignobject',
+]);
+
+/** Elements whose text content is not markup (skipped up to their end tag). */
+const RAW_TEXT = new Set(['style', 'script']);
+
+/** Longest id or fragment of the file quoted in a message. */
+const MAX_SHOWN = 40;
+
+interface SvgElement {
+  /** local name, lower-cased */
+  name: string;
+  /** local name as written */
+  tag: string;
+  attrs: Record<string, string>;
+  line: number;
+  /** why the element is not drawn where it stands ("lies inside <defs> (line 3)"), if it is not */
+  hiddenBy: string | undefined;
+  /** an enclosing element that moves its content: a group with a transform, a nested svg */
+  movedBy: string | undefined;
 }
 
-function attribute(attrs: string, name: string): string | undefined {
-  const m = new RegExp(`(?:^|\\s)${name}\\s*=\\s*(?:"([^"]*)"|'([^']*)')`, 'i').exec(attrs);
-  return m ? (m[1] ?? m[2]) : undefined;
+function shown(text: string): string {
+  // eslint-disable-next-line no-control-regex
+  const clean = text.replace(/[\u0000-\u001f\u007f-\u009f]/g, '?');
+  return `'${clean.length > MAX_SHOWN ? `${clean.slice(0, MAX_SHOWN - 1)}…` : clean}'`;
+}
+
+/** XML character and the five predefined entity references in an attribute value. */
+function decodeEntities(text: string): string {
+  return text.replace(/&(#x[0-9a-f]+|#[0-9]+|lt|gt|amp|quot|apos);/gi, (m, ref: string) => {
+    const r = ref.toLowerCase();
+    if (r[0] === '#') {
+      const code = r[1] === 'x' ? parseInt(r.slice(2), 16) : parseInt(r.slice(1), 10);
+      return code > 0 && code <= 0x10ffff ? String.fromCodePoint(code) : m;
+    }
+    return ({ lt: '<', gt: '>', amp: '&', quot: '"', apos: "'" } as Record<string, string>)[r] ?? m;
+  });
+}
+
+/**
+ * Every start tag of the drawing, in document order, with its attributes and whether it sits in a
+ * part that is not drawn. Comments, CDATA sections, processing instructions, the DOCTYPE and the
+ * text of `style` and `script` are skipped; attribute values may hold `>` (XML 1.0 §3.1).
+ */
+function svgElements(text: string, file: string): SvgElement[] {
+  const out: SvgElement[] = [];
+  const stack: { name: string; hidden: string | undefined; moved: string | undefined }[] = [];
+  let line = 1;
+  let pos = 0;
+  const advance = (to: number): void => {
+    for (let k = pos; k < to && k < text.length; k++) if (text.charCodeAt(k) === 10) line++;
+    pos = to;
+  };
+  const skipPast = (end: string, what: string): void => {
+    const k = text.indexOf(end, pos);
+    if (k < 0) throw new SvgError(`${file}:${line}: ${what} is never closed (no ${end})`);
+    advance(k + end.length);
+  };
+  const attrRe = /\s*([^\s=/>]+)\s*=\s*(?:"([^"]*)"|'([^']*)')|\s*([^\s=/>]+)/y;
+  while (pos < text.length) {
+    const lt = text.indexOf('<', pos);
+    if (lt < 0) break;
+    advance(lt);
+    if (text.startsWith('<!--', pos)) { skipPast('-->', 'a comment'); continue; }
+    if (text.startsWith('<![CDATA[', pos)) { skipPast(']]>', 'a CDATA section'); continue; }
+    if (text.startsWith('<?', pos)) { skipPast('?>', 'a processing instruction'); continue; }
+    if (text.startsWith('<!', pos)) {
+      // DOCTYPE, possibly with an internal subset in [ … ]
+      const bracket = text.indexOf('[', pos), close = text.indexOf('>', pos);
+      if (bracket >= 0 && close >= 0 && bracket < close) skipPast(']', 'a DOCTYPE');
+      skipPast('>', 'a DOCTYPE');
+      continue;
+    }
+    if (text.startsWith('</', pos)) {
+      const m = /<\/\s*([^\s>]+)\s*>/y;
+      m.lastIndex = pos;
+      const e = m.exec(text);
+      if (!e) throw new SvgError(`${file}:${line}: cannot read the end tag ${shown(text.slice(pos, pos + 20))}`);
+      const name = localName(e[1]);
+      // pop to the matching start tag (lenient about unclosed elements inside it)
+      for (let k = stack.length - 1; k >= 0; k--) {
+        if (stack[k].name === name) { stack.length = k; break; }
+      }
+      advance(m.lastIndex);
+      continue;
+    }
+    const nameRe = /<([A-Za-z_][^\s/>]*)/y;
+    nameRe.lastIndex = pos;
+    const nm = nameRe.exec(text);
+    if (!nm) { advance(pos + 1); continue; } // a stray '<' in text
+    const startLine = line;
+    const name = localName(nm[1]);
+    // as written, for messages (`clipPath`, not `clippath`)
+    const tag = nm[1].slice(nm[1].indexOf(':') + 1);
+    let k = nameRe.lastIndex;
+    const attrs: Record<string, string> = {};
+    let selfClosing = false;
+    for (;;) {
+      while (k < text.length && /\s/.test(text[k])) k++;
+      if (k >= text.length) throw new SvgError(`${file}:${startLine}: the tag <${tag}> is never closed`);
+      if (text[k] === '>') { k++; break; }
+      if (text.startsWith('/>', k)) { k += 2; selfClosing = true; break; }
+      attrRe.lastIndex = k;
+      const a = attrRe.exec(text);
+      if (!a) throw new SvgError(`${file}:${startLine}: cannot read the attributes of <${tag}>`);
+      k = attrRe.lastIndex;
+      // an attribute without a value (an HTML habit) is ignored
+      if (a[4] === undefined) attrs[localName(a[1])] = decodeEntities(a[2] ?? a[3] ?? '');
+    }
+    advance(k);
+    const parent = stack[stack.length - 1];
+    // why the element is not drawn where it stands, completing "… is not drawn: it …"
+    const hiddenBy = parent?.hidden ?? (notDisplayed(attrs) ? 'has display: none' : undefined);
+    out.push({ name, tag, attrs, line: startLine, hiddenBy, movedBy: parent?.moved });
+    if (!selfClosing) {
+      const hidden = hiddenBy !== undefined && parent?.hidden === undefined
+        ? `lies inside an element with display: none (line ${startLine})`
+        : hiddenBy ?? (NOT_DRAWN.has(name) ? `lies inside <${tag}> (line ${startLine})` : undefined);
+      const moves = stack.length > 0 && name === 'svg' && ['x', 'y', 'viewbox'].some((n) => attrs[n] !== undefined)
+        ? `a nested <svg> (line ${startLine})`
+        : attrs.transform !== undefined ? `<${tag}> with a transform (line ${startLine})` : undefined;
+      stack.push({ name, hidden, moved: parent?.moved ?? moves });
+      if (RAW_TEXT.has(name)) {
+        const endRe = new RegExp(`</(?:[^\\s:>]+:)?${name}[\\s>]`, 'ig');
+        endRe.lastIndex = pos;
+        const end = endRe.exec(text);
+        advance(end ? end.index : text.length);
+      }
+    }
+  }
+  return out;
+}
+
+function localName(qname: string): string {
+  const c = qname.indexOf(':');
+  return (c >= 0 ? qname.slice(c + 1) : qname).toLowerCase();
+}
+
+function notDisplayed(attrs: Record<string, string>): boolean {
+  if (attrs.display?.trim() === 'none') return true;
+  return /(?:^|;)\s*display\s*:\s*none\s*(?:;|$)/i.test(attrs.style ?? '');
+}
+
+/**
+ * The `d` attribute of the drawn `<path>` whose id is `id`. An id used twice in the file, a path
+ * inside a part that is not drawn (`<defs>`, `<symbol>`, `<clipPath>`, …, or display: none) and a
+ * path moved by a transform (its own or an enclosing group's) are errors naming the line.
+ */
+export function findSvgPath(svgText: string, id: string, file: string): string {
+  const elements = svgElements(svgText, file);
+  const same = elements.filter((e) => e.attrs.id === id);
+  if (same.length > 1) {
+    throw new SvgError(`${file}: the id ${shown(id)} is used by ${same.length} elements (lines ${same.map((e) => e.line).join(', ')}); ids must be unique in a drawing, rename all but one`);
+  }
+  const target = same[0];
+  if (target === undefined || target.name !== 'path') {
+    const drawn = elements.filter((e) => e.name === 'path' && e.attrs.id !== undefined && e.hiddenBy === undefined).map((e) => e.attrs.id);
+    const what = target ? ` (line ${target.line} has id ${shown(id)} on a <${target.tag}>, not on a <path>)` : '';
+    const known = drawn.length ? `the drawn paths with an id are ${drawn.slice(0, 20).map(shown).join(', ')}${drawn.length > 20 ? ', …' : ''}` : 'the file has no drawn <path> with an id';
+    throw new SvgError(`${file}: no <path> with id ${shown(id)}${what}; ${known}`);
+  }
+  const at = `${file}:${target.line}: path ${shown(id)}`;
+  if (target.hiddenBy !== undefined) {
+    throw new SvgError(`${at} is not drawn: it ${target.hiddenBy}; peakwise reads only paths that are drawn where they stand`);
+  }
+  if (target.attrs.transform !== undefined) {
+    throw new SvgError(`${at} has a transform attribute; apply it to the path data first (peakwise reads the d attribute as it is)`);
+  }
+  if (target.movedBy !== undefined) {
+    throw new SvgError(`${at} sits inside ${target.movedBy}, which moves it; apply the transform to the path data first (peakwise reads the d attribute as it is)`);
+  }
+  const d = target.attrs.d;
+  if (d === undefined) throw new SvgError(`${at} has no d attribute`);
+  return d;
 }
 
 /** A path segment before flattening, in model coordinates. */
@@ -60,8 +221,15 @@ function tokenize(d: string, file: string, id: string): (string | number)[] {
     if (/^[\s,]*$/.test(d.slice(pos))) break;
     re.lastIndex = pos;
     const m = re.exec(d);
-    if (!m) throw new SvgError(`${file}: path '${id}': cannot read the path data at character ${pos + 1}: ${JSON.stringify(d.slice(pos, pos + 12))}`);
-    out.push(m[1] ?? Number(m[2]));
+    if (!m) throw new SvgError(`${file}: path ${shown(id)}: cannot read the path data at character ${pos + 1}: ${shown(d.slice(pos, pos + 12))}`);
+    if (m[1] !== undefined) out.push(m[1]);
+    else {
+      const v = Number(m[2]);
+      if (!Number.isFinite(v)) {
+        throw new SvgError(`${file}: path ${shown(id)}: the number ${shown(m[2])} at character ${re.lastIndex - m[2].length + 1} of the path data is not a finite number`);
+      }
+      out.push(v);
+    }
     pos = re.lastIndex;
   }
   return out;
@@ -74,14 +242,20 @@ function tokenize(d: string, file: string, id: string): (string | number)[] {
 export function parseSvgPath(d: string, scale: number, file: string, id: string): SvgSegment[] {
   const tokens = tokenize(d, file, id);
   const segs: SvgSegment[] = [];
-  const where = `${file}: path '${id}'`;
+  const where = `${file}: path ${shown(id)}`;
   // current point and subpath start in SVG coordinates
   let cx = 0, cy = 0, sx = 0, sy = 0;
   let lastCtrl: [number, number] | undefined; // reflected control point for S / T
   let lastCmd = '';
   let moves = 0;
   let closed = false;
-  const map = (x: number, y: number): Point => [scale * x, -scale * y];
+  const map = (x: number, y: number): Point => {
+    const p: Point = [scale * x, -scale * y];
+    if (!(Number.isFinite(p[0]) && Number.isFinite(p[1]))) {
+      throw new SvgError(`${where}: the point (${x}, ${y}) times the scale ${scale} is not a finite number`);
+    }
+    return p;
+  };
   const line = (x: number, y: number) => {
     if (x !== cx || y !== cy) segs.push({ kind: 'line', from: map(cx, cy), to: map(x, y) });
     cx = x; cy = y;
@@ -155,6 +329,12 @@ export function parseSvgPath(d: string, scale: number, file: string, id: string)
   if (moves === 0) throw new SvgError(`${where}: the path data is empty`);
   if (cx !== sx || cy !== sy) {
     throw new SvgError(`${where}: the path is not closed: it ends at (${cx}, ${cy}), not at its start (${sx}, ${sy}); end it with Z`);
+  }
+  // an arc through finite end points can still overflow (a radius of 1e300 squared)
+  for (const sg of segs) {
+    const nums = sg.kind === 'bezier' ? sg.control.flat() : sg.kind === 'line' ? [] : sg.kind === 'arc'
+      ? [...sg.center, sg.radius, sg.startAngle, sg.sweep] : [...sg.center, sg.a, sg.b, sg.rotation, sg.startParam, sg.sweep];
+    if (!nums.every(Number.isFinite)) throw new SvgError(`${where}: an arc of the path is too large to compute (not a finite number)`);
   }
   // exact end points: every piece starts bitwise where the previous one ends
   return segs;

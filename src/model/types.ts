@@ -84,19 +84,17 @@ export type PrescribedMotion =
    */
   | { kind: 'table'; file: string; rows: number[]; tolerance?: number };
 
+/**
+ * Every load a model can carry, in the order the file lists them: one list, so no caller can
+ * forget a kind (the solver, the checks, the sweep and the report all read `Model.loads`).
+ */
 export type Load =
   /** force per unit edge area (a stress), global x and y */
   | { kind: 'traction'; where: Selector; traction: Point; keyPath: string }
   /** normal pressure, positive pushes on the surface (acts against the outward normal) */
   | { kind: 'pressure'; where: Selector; pressure: number; keyPath: string }
   /** concentrated force over the whole thickness */
-  | { kind: 'force'; where: Selector; force: Point; keyPath: string };
-
-/**
- * Loads that are written in `loads:` like the others but kept apart in `Model.fieldLoads`,
- * so that code handling the three classic kinds keeps working unchanged.
- */
-export type FieldLoad =
+  | { kind: 'force'; where: Selector; force: Point; keyPath: string }
   /**
    * far-field stress state: traction σ·n on each selected edge, σ = stress + gradient·(p − about)
    * (σxx, σyy, σxy; each gradient row is [∂/∂x, ∂/∂y])
@@ -108,8 +106,8 @@ export type FieldLoad =
   /** pin force: cosine pressure on the half of an opening facing the force, resultant = force */
   | { kind: 'pinForce'; where: Selector & { kind: 'opening' }; force: Point; keyPath: string };
 
-/** Any load a model can carry. */
-export type AnyLoad = Load | FieldLoad;
+/** The same as `Load` (kept for code written when far-field and pin loads were a separate list). */
+export type AnyLoad = Load;
 
 export interface LocalSize {
   near: Point;
@@ -179,9 +177,8 @@ export interface Model {
   state: PlaneState;
   plate: Plate;
   supports: Support[];
+  /** every load of the file, all kinds, in file order */
   loads: Load[];
-  /** far-field stress and pin forces (issue 9); absent when the file has none */
-  fieldLoads?: FieldLoad[];
   mesh: MeshSettings;
   study: StudySettings;
   /** key path (`loads[1].where`) → 1-based position of that key's value in the file */

@@ -42,3 +42,16 @@ export function stressToMPa(units: Readonly<UnitLabels>): number | undefined {
   if (l === undefined || f === undefined) return undefined;
   return f / (l * l) / 1e6;
 }
+
+/**
+ * Rough range of plate thicknesses, in mm, used only to warn when the thickness looks like it was
+ * written in another length unit than the model's (common practice: sheet and foil from about
+ * 0.05 mm, rolled plate up to a few hundred mm, a wall or slab section in plane strain up to a few
+ * metres).
+ */
+export const PLAUSIBLE_THICKNESS_MM: readonly [number, number] = [0.05, 5000];
+
+/** Millimetres per length unit, for the known length labels. */
+export function lengthToMm(unit: string): number | undefined {
+  return ({ mm: 1, cm: 10, m: 1000, in: 25.4, ft: 304.8 } as Record<string, number>)[unit];
+}

@@ -1,82 +1,14 @@
 import type { Mesh } from '../mesh/types.js';
-import { lstParametricDerivatives, lstShape } from '../fem/index.js';
+import { shapeDerivatives, shapeFunctions } from '../element/index.js';
 
 /**
- * Element-level helpers shared by the recovery stage: shape functions of the 3- and 6-node
- * triangle, area-coordinate quadrature rules and the isoparametric map.
+ * Element-level helpers of the recovery stage: the corner area and the isoparametric map of an
+ * element (forward and inverse). Shape functions and quadrature rules are the reference
+ * element's (src/element).
  *
  * Local numbering (mesh/types.ts): corners 0, 1, 2 counter-clockwise; 3 on 0–1, 4 on 1–2, 5 on 2–0.
  * Reference triangle (ξ, η): node 0 at (0, 0), 1 at (1, 0), 2 at (0, 1); L1 = 1 − ξ − η, L2 = ξ, L3 = η.
  */
-
-/** A rule on the triangle: points as (ξ, η) pairs; weights sum to 1 (multiply by the area). */
-export interface TriangleRule {
-  xi: Float64Array;
-  eta: Float64Array;
-  w: Float64Array;
-}
-
-/** Centroid rule, exact for degree 1. */
-export const RULE_1: TriangleRule = { xi: Float64Array.of(1 / 3), eta: Float64Array.of(1 / 3), w: Float64Array.of(1) };
-
-/** Three interior points (1/6, 1/6, 2/3), exact for degree 2 (Strang & Fix 1973). */
-export const RULE_3: TriangleRule = {
-  xi: Float64Array.of(1 / 6, 2 / 3, 1 / 6),
-  eta: Float64Array.of(1 / 6, 1 / 6, 2 / 3),
-  w: Float64Array.of(1 / 3, 1 / 3, 1 / 3),
-};
-
-/** Seven-point rule exact for degree 5 (Radon 1948; as tabulated by Dunavant, IJNME 21, 1985). */
-export const RULE_7: TriangleRule = (() => {
-  const r = Math.sqrt(15);
-  const b1 = (6 - r) / 21;
-  const a1 = (9 + 2 * r) / 21;
-  const b2 = (6 + r) / 21;
-  const a2 = (9 - 2 * r) / 21;
-  const w1 = (155 - r) / 1200;
-  const w2 = (155 + r) / 1200;
-  // area coordinates (L1, L2, L3) → (ξ, η) = (L2, L3)
-  const pts: [number, number, number][] = [
-    [1 / 3, 1 / 3, 9 / 40],
-    [b1, b1, w1],
-    [a1, b1, w1],
-    [b1, a1, w1],
-    [b2, b2, w2],
-    [a2, b2, w2],
-    [b2, a2, w2],
-  ];
-  return {
-    xi: Float64Array.from(pts, (p) => p[0]),
-    eta: Float64Array.from(pts, (p) => p[1]),
-    w: Float64Array.from(pts, (p) => 2 * p[2]),
-  };
-})();
-// RULE_7 weights above are tabulated for the reference area ½; doubling makes them sum to 1.
-
-/** Shape functions at (ξ, η) into `N` (length 3 or 6); the LST ones are the fem stage's. */
-export function shapeFunctions(nodesPerElem: 3 | 6, xi: number, eta: number, N: Float64Array): void {
-  if (nodesPerElem === 6) {
-    lstShape(xi, eta, N);
-    return;
-  }
-  N[0] = 1 - xi - eta;
-  N[1] = xi;
-  N[2] = eta;
-}
-
-/** ∂N/∂ξ and ∂N/∂η at (ξ, η). */
-export function shapeDerivatives(nodesPerElem: 3 | 6, xi: number, eta: number, dXi: Float64Array, dEta: Float64Array): void {
-  if (nodesPerElem === 6) {
-    lstParametricDerivatives(xi, eta, dXi, dEta);
-    return;
-  }
-  dXi[0] = -1;
-  dXi[1] = 1;
-  dXi[2] = 0;
-  dEta[0] = -1;
-  dEta[1] = 0;
-  dEta[2] = 1;
-}
 
 /** Area of the straight triangle through the three corner nodes (positive counter-clockwise). */
 export function cornerArea(mesh: Pick<Mesh, 'xy' | 'elemNodes' | 'nodesPerElem'>, e: number): number {

@@ -1,7 +1,8 @@
 import type { ElasticSection, GaussStresses } from '../fem/types.js';
 import type { Mesh } from '../mesh/types.js';
 import { complianceForm } from './compliance.js';
-import { ElementScratch, RULE_3, RULE_7, type TriangleRule } from './element.js';
+import { TRI_3, TRI_7, type TriangleRule } from '../element/index.js';
+import { ElementScratch } from './element.js';
 import { evalElementField, fitElementFields } from './element-fit.js';
 import type { ErrorEstimate, NodalStress } from './types.js';
 import { checkField, checkGauss, checkSection } from './validate.js';
@@ -25,7 +26,7 @@ function elementDifferenceSq(
   checkSection(section);
   const form = complianceForm(section);
   const fields = fitElementFields(gauss, nElem);
-  const rule: TriangleRule = mesh.order === 1 ? RULE_3 : RULE_7;
+  const rule: TriangleRule = mesh.order === 1 ? TRI_3 : TRI_7;
   const s = new ElementScratch(mesh.nodesPerElem);
   const m = new Float64Array(6);
   const sh = new Float64Array(3);
@@ -38,6 +39,7 @@ function elementDifferenceSq(
       const J = s.map(rule.xi[q], rule.eta[q], m);
       evalElementField(fields, e, m[0], m[1], sh);
       other(e, s.N, m[0], m[1], sa);
+      // weight × |J|/2 (element/rules.ts convention)
       sum += 0.5 * Math.abs(J) * rule.w[q] * form(sa[0] - sh[0], sa[1] - sh[1], sa[2] - sh[2]);
     }
     out[e] = sum;

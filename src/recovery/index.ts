@@ -8,7 +8,6 @@ export { buildPointLocator, stressAt } from './locate.js';
 export type { PointLocator, PointHit, PointStress } from './locate.js';
 export { boundaryTangentialStress } from './boundary.js';
 export type { BoundaryStress } from './boundary.js';
-export { adaptiveSolve, zzElementSizes } from './adapt.js';
-export type { AdaptiveInput, AdaptiveOptions, AdaptiveCycle, AdaptiveCycleResult, AdaptiveResult } from './adapt.js';
+export { predictDofs, zzElementSizes } from './adapt.js';
 export { meshSizeField, vertexSizesFromElements } from './sizefield.js';
 export { dorflerMark } from './marking.js';

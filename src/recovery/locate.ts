@@ -1,5 +1,6 @@
 import type { Mesh } from '../mesh/types.js';
-import { ElementScratch, inverseMap, shapeFunctions } from './element.js';
+import { shapeFunctions } from '../element/index.js';
+import { ElementScratch, inverseMap } from './element.js';
 import type { NodalStress } from './types.js';
 import { checkField, checkMesh } from './validate.js';
 

@@ -2,7 +2,7 @@
 export { kolosov } from './elastic.js';
 export { kirschPolar, kirschCartesian, kirschDisplacement, kirschHoopAtEdge, KIRSCH_KT } from './kirsch.js';
 export { lameRing } from './lame.js';
-export { inglisKt, inglisKtFromRadius } from './inglis.js';
+export { inglisKt, inglisKtFromRadius, inglisField } from './inglis.js';
 export {
   heywoodKtn, heywoodKtg, netToGross, grossToNet, howlandKtg, HOWLAND_KTG_FROM_MEMORY, petersonFitKtn, roarkKtn,
 } from './strip.js';

@@ -21,9 +21,12 @@ export interface ReportCheck {
   detail?: string;
 }
 
+/** What the report shows of a run: a study's result, or one solve's figures with `sites: []`. */
+export type ReportRun = Pick<StudyResult, 'version' | 'model' | 'units' | 'mesh' | 'solution' | 'measure' | 'sites' | 'warnings'>;
+
 export interface ReportInput {
   model: Model;
-  study: StudyResult;
+  study: ReportRun;
   /** the mesh the field lives on (e.g. the finest study mesh or the base solve) */
   mesh: Mesh;
   geometry: PlateGeometry;
@@ -37,7 +40,7 @@ export interface ReportInput {
   /**
    * 'study' (default): the full page with verdicts and site sections. 'solve': one solve, no
    * refinement study — the verdict and site sections are replaced by a pointer to `peakwise
-   * study`; pass a StudyResult with `sites: []` and the solve's figures.
+   * study`; pass the solve's figures with `sites: []`.
    */
   mode?: 'study' | 'solve';
   /** magnification of the deformed outline (default: a round number that makes the largest displacement about 6 % of the plate size) */
@@ -179,7 +182,7 @@ export function reportHtml(input: ReportInput): string {
         : `<ul>${model.plate.openings.map((o) => `<li><b>${escapeXml(o.id)}</b>: ${escapeXml(shapeWords(o.shape, L))}</li>`).join('')}</ul>`,
     ),
     row('Supports', `<ul>${model.supports.map((s) => `<li>${escapeXml(describeSupport(s, L))}</li>`).join('')}</ul>`),
-    row('Loads', `<ul>${[...model.loads, ...(model.fieldLoads ?? [])].map((l) => `<li>${escapeXml(describeLoad(l, units))}</li>`).join('')}</ul>`),
+    row('Loads', `<ul>${model.loads.map((l) => `<li>${escapeXml(describeLoad(l, units))}</li>`).join('')}</ul>`),
     row('Study', escapeXml(`${measure}; ${model.study.levels} levels, element size ÷ ${formatNumber(model.study.ratio)} per level`)),
   ];
 

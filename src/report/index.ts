@@ -10,7 +10,7 @@ export { convergencePlotSvg, cutPlotSvg, slopeLabel } from './plot.js';
 export type { CutPlotInput, CutSeries } from './plot.js';
 export type { ConvergencePlotOptions } from './plot.js';
 export { reportHtml, autoDeformationScale, measureName, siteSectionIds } from './html.js';
-export type { ReportInput, ReportCheck } from './html.js';
+export type { ReportInput, ReportCheck, ReportRun } from './html.js';
 export { bandScale, bandColour, bandEdge, bandIndex, colourAt, triangleBands } from './isobands.js';
 export type { BandScale, BandSink } from './isobands.js';
 export { stripControl, escapeXml, formatNumber } from './text.js';

@@ -34,7 +34,8 @@ function verdictColour(c: Colors, verdict: Verdict): (s: string) => string {
 
 /** Lays out rows as aligned columns separated by two spaces; the first row is the header. */
 function columns(rows: string[][], c: Colors): string[] {
-  const widths = rows[0].map((_, j) => Math.max(...rows.map((r) => visibleWidth(r[j] ?? ''))));
+  // folded, not spread: a study may list any number of sites
+  const widths = rows[0].map((_, j) => rows.reduce((w, r) => Math.max(w, visibleWidth(r[j] ?? '')), 0));
   return rows.map((r, i) => {
     const line = r.map((cell, j) => (j === r.length - 1 ? cell : pad(cell, widths[j]))).join('  ');
     return i === 0 ? c.bold(line) : line;
@@ -72,7 +73,7 @@ export function studyTable(study: StudyResult, options: TerminalOptions): string
   );
   lines.push('');
   if (study.sites.length === 0) lines.push('No sites were found.');
-  else lines.push(...columns(rows, c));
+  else for (const line of columns(rows, c)) lines.push(line);
   const undecided = study.sites.filter((s) => s.verdict === 'undecided');
   for (const s of undecided) {
     if (s.advice) lines.push(c.yellow(`${stripControl(s.id)}: ${stripControl(s.advice)}`));

@@ -23,8 +23,8 @@ export interface ThreeLevelFit {
   gciFine: number;
   /** coarse-grid GCI as a fraction of |f₂| */
   gciCoarse: number;
-  /** GCI₂₃/(r^p GCI₁₂): ≈ 1 in the asymptotic range */
-  asymptoticRatio: number;
+  // (no "asymptotic ratio" GCI₂₃/(r^p GCI₁₂): with p observed from the same three values it equals
+  // |f₁/f₂| identically, so it cannot tell an asymptotic triple from any other)
 }
 
 export const GCI_SAFETY_FACTOR = 1.25;
@@ -38,7 +38,7 @@ export function threeLevelFit(f1: number, f2: number, f3: number, r: number, Fs 
   const e21 = f2 - f1;
   const e32 = f3 - f2;
   if (e21 === 0 || e32 === 0) {
-    return { p: NaN, R: e32 === 0 ? NaN : 0, kind: 'flat', fExt: f1, gciFine: 0, gciCoarse: 0, asymptoticRatio: NaN };
+    return { p: NaN, R: e32 === 0 ? NaN : 0, kind: 'flat', fExt: f1, gciFine: 0, gciCoarse: 0 };
   }
   const R = e21 / e32;
   const kind: ConvergenceClass = R < 0 ? 'oscillatory' : R < 1 ? 'monotone' : 'divergent';
@@ -48,7 +48,7 @@ export function threeLevelFit(f1: number, f2: number, f3: number, r: number, Fs 
   const fExt = f1 + (f1 - f2) / rp1;
   const gciFine = (Fs * Math.abs(e21 / f1)) / rp1;
   const gciCoarse = (Fs * Math.abs(e32 / f2)) / rp1;
-  return { p, R, kind, fExt, gciFine, gciCoarse, asymptoticRatio: gciCoarse / (Math.pow(r, p) * gciFine) };
+  return { p, R, kind, fExt, gciFine, gciCoarse };
 }
 
 /**

@@ -5,7 +5,12 @@ export {
   threeLevelFit, observedOrderVariableRatio, lineFit, logLogSlope, incrementExponent, GCI_SAFETY_FACTOR,
   type ThreeLevelFit, type ConvergenceClass,
 } from './fit.js';
-export { judgeSite, VERDICT_RULES, type SiteVerdict, type FitHistoryEntry } from './verdict.js';
+export { judgeSite, VERDICT_RULES, type SiteVerdict, type SiteEstimate, type FitHistoryEntry } from './verdict.js';
+export {
+  ecaHoekstraBand, fixedOrderFit, freeOrderFit, finestSpread, farFieldHalfWidth, BAND_RULES,
+  type BandEstimate, type LevelFit, type FitForm,
+} from './band.js';
+export { coarsenedOuterField } from './far-field.js';
 export {
   tanhSinh, criticalDistance, pointMethod, lineMethod, lineAverage, sampledAverage, notchStressIntensity, nsifUnits,
   extrapolateToZero, hotSpotLinear, hotSpotQuadratic, hotSpotTypeB, hotSpotPoints,

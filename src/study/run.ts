@@ -1,21 +1,23 @@
 import { PeakwiseError, isPeakwiseError } from '../errors.js';
 import { buildGeometry, closestOnCurve, pointInMaterial } from '../geometry/index.js';
-import { meshPlate, meshQuality, sizeFieldFromSettings } from '../mesh/index.js';
-import type { Mesh, SizeField } from '../mesh/types.js';
-import type { Model, Point, StressMeasure } from '../model/types.js';
-import { stressUnit } from '../model/index.js';
-import { gaussStresses, selectorVertices, selectorWarnings, solvePlate } from '../fem/index.js';
-import type { ElasticSection, Solution } from '../fem/types.js';
+import { meshQuality } from '../mesh/index.js';
+import type { Mesh } from '../mesh/types.js';
+import type { Model, Point } from '../model/types.js';
+import { levelsRule, ratioRule, stressUnit } from '../model/index.js';
+import type { Solution } from '../fem/types.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { NodalStress } from '../recovery/types.js';
-import { buildPointLocator, nodalMeasure, recoverSpr } from '../recovery/index.js';
+import { buildPointLocator } from '../recovery/index.js';
+import { baseSizeField, problemOf, solveAt, type SolveLimits, type SolvedLevel } from '../pipeline/index.js';
 import type { LevelResult, SiteResult, StudyResult } from './types.js';
 import { findSites, listedSitePoints, type SiteCandidate } from './sites.js';
 import { levelSizeField, probeLevel, rosettePoints, NEIGHBOURHOOD_SIZES, type SiteProbe } from './ladder.js';
 import { judgeSite } from './verdict.js';
+import { BAND_RULES } from './band.js';
+import { coarsenedOuterField } from './far-field.js';
 import { boundaryEdgesAt } from './mesh-tools.js';
 import { reportedPosition, siteProbe, siteReadouts, withPlateauExtent } from './site-readouts.js';
-import { dofLimitError, estimateMeshSize } from '../fem/health.js';
+import { selectorWarnings } from '../fem/index.js';
 
 export interface StudyOptions {
   levels?: number;
@@ -28,17 +30,8 @@ export interface StudyOptions {
   onBase?(base: BaseSolve): void;
   /** asked between solves; true stops the ladder, keeps the finished levels and sets `interrupted` */
   shouldStop?(): boolean;
-  /** cap on degrees of freedom, checked on an estimate before each mesh (default: none) */
-  maxDofs?: number;
-  /** cap on the factor's memory in bytes, checked before each factorisation (default: none) */
-  maxFactorBytes?: number;
-}
-
-/** Limits passed down to every solve of a study. */
-interface SolveLimits {
-  maxDofs?: number;
-  maxFactorBytes?: number;
-  size: number;
+  /** limits of every solve (dof cap, factor-memory cap, residual limit; default: none) */
+  limits?: SolveLimits;
 }
 
 /** The first solve of a study at the model's own mesh size. */
@@ -52,27 +45,6 @@ export interface BaseSolve {
 }
 
 const VERSION = '0.1.0';
-
-interface Solved {
-  mesh: Mesh;
-  solution: Solution;
-  field: ReturnType<typeof recoverSpr>;
-  nodal: Float64Array;
-  gauss: ReturnType<typeof gaussStresses>;
-}
-
-function solveOn(model: Model, geom: ReturnType<typeof buildGeometry>, section: ElasticSection, sizeAt: SizeField, order: 1 | 2, required: Point[], measure: StressMeasure, limits: SolveLimits = { size: 0 }): Solved {
-  if (limits.maxDofs !== undefined) {
-    const est = estimateMeshSize(geom, sizeAt, order, 4 * limits.maxDofs);
-    if (est.dofs > limits.maxDofs) throw dofLimitError(est.dofs, limits.maxDofs, limits.size, est.exceeded ? 'more-than' : 'estimated');
-  }
-  const mesh = meshPlate(geom, { sizeAt, order, requiredPoints: required });
-  if (limits.maxDofs !== undefined && mesh.xy.length > limits.maxDofs) throw dofLimitError(mesh.xy.length, limits.maxDofs, limits.size, 'counted');
-  const solution = solvePlate({ mesh, geometry: geom, section, supports: model.supports, ...(limits.maxFactorBytes !== undefined ? { maxFactorBytes: limits.maxFactorBytes } : {}), loads: [...model.loads, ...(model.fieldLoads ?? [])] });
-  const gauss = gaussStresses(mesh, solution.u, section);
-  const field = recoverSpr(mesh, gauss, section);
-  return { mesh, solution, field, nodal: nodalMeasure(field, measure), gauss };
-}
 
 /** Are the boundary pieces arriving at and leaving a node straight? (incoming, outgoing) */
 function straightFacesAt(mesh: Mesh, geom: ReturnType<typeof buildGeometry>, node: number): [boolean, boolean] {
@@ -105,13 +77,6 @@ function seedFits(geom: ReturnType<typeof buildGeometry>, p: Point, h: number, s
   return onLine || pointInMaterial(geom, p);
 }
 
-/** required points without duplicates (the mesher wants each point once) */
-function dedupe(points: Point[], tol: number): Point[] {
-  const out: Point[] = [];
-  for (const p of points) if (!out.some((q) => Math.hypot(q[0] - p[0], q[1] - p[1]) <= tol)) out.push(p);
-  return out;
-}
-
 function check(cond: boolean, message: string, keyPath: string): void {
   if (!cond) throw new PeakwiseError('study', message, keyPath);
 }
@@ -126,25 +91,24 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const ratio = opts.ratio ?? model.study.ratio;
   const order = opts.order ?? model.mesh.order;
   const size = opts.size ?? model.mesh.size;
-  check(Number.isInteger(levels) && levels >= 1 && levels <= 12, `study levels must be an integer in 1…12, got ${levels}`, 'study.levels');
-  check(ratio > 1 && ratio <= 4, `study ratio must be in (1, 4], got ${ratio}`, 'study.ratio');
+  check(levelsRule(levels) === undefined, `study levels ${levelsRule(levels)}, got ${levels}`, 'study.levels');
+  check(ratioRule(ratio) === undefined, `study ratio ${ratioRule(ratio)}, got ${ratio}`, 'study.ratio');
   check(order === 1 || order === 2, `mesh order must be 1 or 2, got ${order}`, 'mesh.order');
   check(size > 0, `mesh size must be > 0, got ${size}`, 'mesh.size');
   const measure = model.study.measure;
-  const geom = buildGeometry(model.plate);
-  const section: ElasticSection = { E: model.material.E, nu: model.material.nu, state: model.state, thickness: model.thickness };
-  const base = sizeFieldFromSettings(geom, { size, local: model.mesh.local });
-  // selector ends and point-selector targets, and the listed sites, are vertices of every mesh
-  const selectorPts = selectorVertices(model, geom);
-  const listed = listedSitePoints(model, geom, selectorPts);
+  const problem = problemOf(model, { size, order });
+  const { geometry: geom, section } = problem;
+  // the listed sites are vertices of every mesh, the first included (the selector ends are already)
+  const listed = listedSitePoints(model, geom, problem.requiredPoints);
   const warnings = selectorWarnings(model, geom);
-  const required: Point[] = [...selectorPts, ...listed];
-  const total = 1 + levels;
+  const base = baseSizeField(problem);
+  const limits: SolveLimits = opts.limits ?? {};
+  // one more solve after the ladder: the outer mesh coarsened, for the far-field term
+  const total = 2 + levels;
   const progress = (done: number, label: string) => opts.onProgress?.(done, total, label);
 
   progress(0, 'first solve');
-  const limits: SolveLimits = { size, ...(opts.maxDofs !== undefined ? { maxDofs: opts.maxDofs } : {}), ...(opts.maxFactorBytes !== undefined ? { maxFactorBytes: opts.maxFactorBytes } : {}) };
-  const first = solveOn(model, geom, section, base, order, dedupe(required, 1e-9 * geom.scale), measure, limits);
+  const first = solveAt(problem, base, order, limits, { points: listed });
   opts.onBase?.({ mesh: first.mesh, geometry: geom, solution: first.solution, field: first.field, nodal: first.nodal });
   progress(1, 'sites');
   const cands = findSites({ model, geom, mesh: first.mesh, solution: first.solution, measure: first.nodal, baseSize: base, listed });
@@ -162,13 +126,13 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const perSite: LevelResult[][] = cands.map(() => []);
   let stopped = '';
   let interrupted = false;
-  let finest: Solved | undefined;
+  let finest: SolvedLevel | undefined;
   for (let k = 0; k < levels && cands.length > 0; k++) {
     if (opts.shouldStop?.()) { interrupted = true; stopped = `interrupted after ${k} level${k === 1 ? '' : 's'}`; break; }
-    let s: Solved;
+    let s: SolvedLevel;
     try {
       const seeds = cands.flatMap((c, i) => rosettePoints(c, h0[i] / Math.pow(ratio, k), straight[i]).filter((p) => seedFits(geom, p, h0[i] / Math.pow(ratio, k), c.at)));
-      s = solveOn(model, geom, section, levelSizeField(base, cands, h0, ratio, k), order, dedupe([...required, ...sitePoints, ...seeds], 1e-9 * geom.scale), measure, limits);
+      s = solveAt(problem, levelSizeField(base, cands, h0, ratio, k), order, limits, { points: [...sitePoints, ...seeds] });
     } catch (e) {
       if (k >= 1 && isPeakwiseError(e)) { stopped = `level ${k + 1} failed (${e.message}); fitted on ${k} levels`; break; }
       throw e;
@@ -181,9 +145,34 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
     if (k === levels - 1) finest = s;
   }
 
+  // far-field term (docs/study.md, "Far field"): the finest level again with everything outside the sites'
+  // refined cores coarsened; the change of each peak is what the unrefined mesh, the same on every level,
+  // contributes. Only solved when some site converges (the term belongs to converging bands alone).
+  let farShift: number[] = [];
+  let farShiftK: number[] = [];
+  const kLast = (perSite[0]?.length ?? 0) - 1;
+  const anyConverging = cands.some((c, i) => judgeSite(perSite[i].map((l) => l.h), perSite[i].map((l) => l.peak), ratio, order, c.theory).verdict === 'converging');
+  // a stress intensity converges like a peak and gets the same far-field term
+  const anyIntensity = probes.some((p) => p.intensity !== undefined);
+  if (!interrupted && !stopped && kLast >= 2 && (anyConverging || anyIntensity) && !opts.shouldStop?.()) {
+    try {
+      const hk = h0.map((h) => h / Math.pow(ratio, kLast));
+      const seeds = cands.flatMap((c, i) => rosettePoints(c, hk[i], straight[i]).filter((p) => seedFits(geom, p, hk[i], c.at)));
+      const field = coarsenedOuterField(base, cands, h0, ratio, kLast, BAND_RULES.farField.coarsening);
+      const s = solveAt(problem, field, order, limits, { points: [...sitePoints, ...seeds] });
+      const locator = buildPointLocator(s.mesh);
+      const far = probes.map((p, i) => probeLevel(s.mesh, s.field, s.nodal, s.gauss, section, measure, p, perSite[i][kLast].h, s.solution.dofs, locator, s.solution.u));
+      farShift = far.map((l, i) => l.peak - perSite[i][kLast].peak);
+      farShiftK = far.map((l, i) => (l.nsif ?? NaN) - (perSite[i][kLast].nsif ?? NaN));
+    } catch (e) {
+      if (!isPeakwiseError(e)) throw e;
+    }
+    progress(2 + levels, 'far field');
+  }
+
   const stress = stressUnit(model.units);
   const sites: SiteResult[] = cands.map((c, i) => {
-    const r = toSiteResult(`S${i + 1}`, c, perSite[i], ratio, order, probes[i], stress, model.units.length, stopped);
+    const r = toSiteResult(`S${i + 1}`, c, perSite[i], ratio, order, probes[i], stress, model.units.length, stopped, farShift[i], farShiftK[i]);
     return finest ? withPlateauExtent(r, c, finest.mesh, finest.nodal) : r;
   });
   const q = meshQuality(first.mesh);
@@ -209,10 +198,11 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
 
 function toSiteResult(
   id: string, c: SiteCandidate, levels: LevelResult[], ratio: number, order: 1 | 2, probe: SiteProbe, stress: string, length: string, stopped: string,
+  farShift?: number, farShiftK?: number,
 ): SiteResult {
-  const v = judgeSite(levels.map((l) => l.h), levels.map((l) => l.peak), ratio, order, c.theory, c.theoryWhy);
+  const v = judgeSite(levels.map((l) => l.h), levels.map((l) => l.peak), ratio, order, c.theory, c.theoryWhy, farShift);
   const last = levels[levels.length - 1];
-  const readouts = siteReadouts(levels, probe, ratio, order, stress, length);
+  const readouts = siteReadouts(levels, probe, ratio, order, stress, length, farShiftK);
   const why = c.feature.kind === 'point-load' || c.feature.kind === 'point-support' ? `${c.theoryWhy}: ` : '';
   return {
     id,
@@ -229,4 +219,3 @@ function toSiteResult(
     ...(c.direction ? { direction: c.direction } : {}),
   };
 }
-

@@ -42,23 +42,22 @@ export function siteProbe(site: SiteCandidate, radius: number, model: Model, sec
 }
 
 /**
- * Stress intensity over the levels: the same fit and band as a peak (judgeSite with no singularity expected)
- * on the levels where it was taken, the finest ones in a row, with the floor of issue 12 §1: the half-width is
- * never below the largest difference among the finest three values (the far field is refined no further
- * than the base mesh, and no increment of the ladder sees its error). Not converging: the finest value, band NaN.
+ * Stress intensity over the levels: the same fit and band as a peak (judgeSite with no singularity expected:
+ * least squares over the finest levels, the order cap, the floor at the finest spread and the far-field
+ * term from `farFieldShift`, K on the coarsened far-field solve less K on the finest level) on the levels
+ * where it was taken, the finest ones in a row. Not converging: the finest value, band NaN.
  */
-export function intensityBand(levels: readonly Pick<LevelResult, 'h' | 'nsif'>[], ratio: number, order: 1 | 2): { value: number; uncertainty: number } | undefined {
+export function intensityBand(
+  levels: readonly Pick<LevelResult, 'h' | 'nsif'>[], ratio: number, order: 1 | 2, farFieldShift?: number,
+): { value: number; uncertainty: number } | undefined {
   let first = levels.length;
   while (first > 0 && levels[first - 1].nsif !== undefined && Number.isFinite(levels[first - 1].nsif)) first--;
   const used = levels.slice(first);
   if (used.length === 0) return undefined;
   const K = used.map((l) => l.nsif!);
-  const v = judgeSite(used.map((l) => l.h), K, ratio, order, 0);
-  const finestValue = K[K.length - 1];
-  if (v.verdict !== 'converging') return { value: finestValue, uncertainty: NaN };
-  const last3 = K.slice(-3);
-  const spread = Math.max(...last3) - Math.min(...last3);
-  return { value: v.estimate.value, uncertainty: Math.max(v.estimate.uncertainty, spread) };
+  const v = judgeSite(used.map((l) => l.h), K, ratio, order, 0, '', farFieldShift !== undefined && Number.isFinite(farFieldShift) ? farFieldShift : undefined);
+  if (v.verdict !== 'converging') return { value: K[K.length - 1], uncertainty: NaN };
+  return { value: v.estimate.value, uncertainty: v.estimate.uncertainty };
 }
 
 /**
@@ -106,7 +105,7 @@ export function withPlateauExtent(r: SiteResult, c: SiteCandidate, mesh: Mesh, n
 
 /** The finest level's readouts of a site, with the distances they were read at and K with its band. */
 export function siteReadouts(
-  levels: readonly LevelResult[], probe: SiteProbe, ratio: number, order: 1 | 2, stress: string, length: string,
+  levels: readonly LevelResult[], probe: SiteProbe, ratio: number, order: 1 | 2, stress: string, length: string, farFieldShiftK?: number,
 ): SiteResult['readouts'] {
   const last = levels[levels.length - 1];
   const d = probe.distance;
@@ -124,7 +123,7 @@ export function siteReadouts(
     if (last.pointMethod !== undefined) readouts.pointMethod = last.pointMethod;
     if (last.lineMethod !== undefined) readouts.lineMethod = last.lineMethod;
   }
-  const K = intensityBand(levels, ratio, order);
+  const K = intensityBand(levels, ratio, order, farFieldShiftK);
   if (K && probe.intensity) {
     readouts.nsif = K.value;
     readouts.nsifUncertainty = K.uncertainty;

@@ -57,6 +57,20 @@ export interface LevelResult {
 
 export type Verdict = 'converging' | 'singular' | 'undecided';
 
+/**
+ * The parts of a converging site's half-width (docs/study.md, "Bands"): their sum is
+ * `estimate.uncertainty`. `farField` is NaN (null in JSON) when it was not assessed (interrupted
+ * or failed extra solve); the sum then leaves it out.
+ */
+export interface BandComponents {
+  /** F_s ε + |φ₁ − φ_fit(h₁)| of the least-squares fit, at least the spread of the finest three peaks */
+  discretisation: number;
+  /** standard deviation of the fit (Eça & Hoekstra 2014) */
+  scatter: number;
+  /** discretisation error of the background mesh, which the ladder does not refine */
+  farField: number;
+}
+
 export interface SiteResult {
   id: string;
   at: Point;
@@ -67,7 +81,8 @@ export interface SiteResult {
   reason: string;
   /** what to do next for an undecided site */
   advice?: string;
-  estimate: { value: number; uncertainty: number; observedOrder: number };
+  /** value ± uncertainty must hold the exact value; `components` for converging sites */
+  estimate: { value: number; uncertainty: number; observedOrder: number; components?: BandComponents };
   growth: { exponent: number; exponentUncertainty: number; theory: number };
   readouts: {
     /** the measure at `distance` along `direction` and its mean over the disk of that radius (finest level) */
@@ -87,7 +102,7 @@ export interface SiteResult {
   };
   /** a flat peak (plateau): the stretch of boundary through `at` whose finest-level values lie within the band */
   extent?: { from: Point; to: Point; length: number; closed: boolean };
-  /** Richardson/GCI of every consecutive triple of levels, coarse → fine (the band should shrink) */
+  /** three-level Richardson/GCI of every consecutive triple, coarse → fine: the trend, not the band */
   history?: { finest: number; value: number; uncertainty: number; observedOrder: number }[];
   /** direction from the site into the material used for the readouts (unit vector), if defined */
   direction?: Point;

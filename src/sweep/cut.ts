@@ -96,6 +96,11 @@ export function sampleCut(mesh: Mesh, field: Pick<NodalStress, 'stress' | 'szz'>
     const y = from[1] + t * (to[1] - from[1]);
     out.push(sample(t * L, x, y, stressAt(mesh, field, x, y, locator)));
   }
+  // a cut that misses the plate would be a table of blanks: say so instead (issue 19)
+  if (!out.some((p) => Number.isFinite(p.sxx))) {
+    const p = (q: Point) => `(${Number(q[0].toPrecision(6))}, ${Number(q[1].toPrecision(6))})`;
+    throw usage(`--cut ${p(from)} to ${p(to)}: none of its ${samples} sample points lies in the plate; the line misses it (or crosses only an opening)`);
+  }
   return { kind: 'line', samples: out, extra: {} };
 }
 

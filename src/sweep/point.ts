@@ -6,6 +6,7 @@ import { createHash } from 'node:crypto';
 import { parseModel, boundingBox } from '../model/index.js';
 import { runStudy } from '../study/index.js';
 import type { StudyResult } from '../study/types.js';
+import type { SolveLimits } from '../pipeline/index.js';
 import { VERSION } from '../version.js';
 import type { SweepStudyOptions } from './types.js';
 
@@ -16,6 +17,8 @@ export interface PointTask {
   file: string;
   params: Record<string, number>;
   options: SweepStudyOptions;
+  /** limits of every solve (they decide whether a point fails, not its numbers: not part of the key) */
+  limits?: SolveLimits;
 }
 
 export interface PointOutcome {
@@ -41,7 +44,7 @@ export function runPoint(task: Omit<PointTask, 'index'>): PointOutcome {
   const t0 = performance.now();
   const model = parseModel(task.text, task.file, { params: task.params });
   const box = boundingBox(model.plate.outline);
-  const study = runStudy(model, task.options);
+  const study = runStudy(model, { ...task.options, ...(task.limits ? { limits: task.limits } : {}) });
   return { study, scale: Math.hypot(box.width, box.height), seconds: (performance.now() - t0) / 1000 };
 }
 

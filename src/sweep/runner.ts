@@ -16,6 +16,7 @@ import { fromJson, pointKey, runPoint, type PointOutcome, type PointTask } from 
 import type { SweepPoint, SweepResult, SweepStudyOptions, VaryAxis } from './types.js';
 import { cartesian } from './values.js';
 import type { WorkerReply } from './worker.js';
+import { checkLimits, type SolveLimits } from '../pipeline/index.js';
 
 /** Where finished points are kept between runs (the CLI's is a folder of JSON files). */
 export interface PointCache {
@@ -31,6 +32,8 @@ export interface SweepOptions extends SweepStudyOptions {
   onProgress?(done: number, total: number, secondsLeft: number): void;
   /** asked before each new point is handed out; true stops the sweep after the running points */
   shouldStop?(): boolean;
+  /** limits of every solve of every point (dof cap, factor-memory cap, residual limit; default: none) */
+  limits?: SolveLimits;
 }
 
 /** The compiled worker next to this file; absent when running from the TypeScript sources. */
@@ -67,6 +70,7 @@ export async function runSweep(text: string, file: string, axes: VaryAxis[], opt
   if (opts.ratio !== undefined) options.ratio = opts.ratio;
   if (opts.order !== undefined) options.order = opts.order;
   if (opts.size !== undefined) options.size = opts.size;
+  const limits = opts.limits ? checkLimits({ ...opts.limits }) : undefined;
   let title: string;
   try {
     title = parseModel(text, file, { params: combos[0] }).title;
@@ -84,7 +88,7 @@ export async function runSweep(text: string, file: string, axes: VaryAxis[], opt
       points[index] = { index, params, key, scale: hit.scale, study: hit.study, reused: true, seconds: 0 };
       done++;
     } else {
-      pending.push({ index, text, file, params, options });
+      pending.push({ index, text, file, params, options, ...(limits ? { limits } : {}) });
     }
   });
   const reused = done;

@@ -37,12 +37,12 @@ describe('peakwise check: every case passes', () => {
 });
 
 describe('checksJson / checksTable', () => {
-  it('JSON has exactly { cases: [ { name, source, quantity, reference, value, error, tolerance, pass } ] }', () => {
+  it('JSON has exactly { cases: [ { name, source, quantity, reference, value, error, tolerance, halfWidth, insideBand, pass } ] }', () => {
     const json = JSON.parse(JSON.stringify(checksJson(results)));
     expect(Object.keys(json)).toEqual(['cases']);
     expect(json.cases.length).toBe(results.length);
     for (const c of json.cases) {
-      expect(Object.keys(c)).toEqual(['name', 'source', 'quantity', 'reference', 'value', 'error', 'tolerance', 'pass']);
+      expect(Object.keys(c)).toEqual(['name', 'source', 'quantity', 'reference', 'value', 'error', 'tolerance', 'halfWidth', 'insideBand', 'pass']);
       expect(typeof c.name).toBe('string');
       expect(typeof c.reference).toBe('number');
       expect(typeof c.value).toBe('number');
@@ -65,13 +65,13 @@ describe('checksJson / checksTable', () => {
 });
 
 describe('docs/verification.md and the HTML page', () => {
-  it('markdown has one table row per case with the seven columns and escaped pipes', () => {
+  it('markdown has one table row per case with the nine columns and escaped pipes', () => {
     const md = checksMarkdown(checksJson(results), { version: '0.1.0', command: 'test' });
     const rows = md.split('\n').filter((l) => l.startsWith('| ') && !l.startsWith('| case') && !l.startsWith('| ---'));
     expect(rows.length).toBe(results.length);
     for (const row of rows) {
-      // 8 cells (case, source, quantity, reference, value, error, tolerance, result) → 9 unescaped bars
-      expect(row.replace(/\\\|/g, '').split('|').length - 1).toBe(9);
+      // 9 cells (case, source, quantity, reference, value, error, tolerance, inside band, result) → 10 unescaped bars
+      expect(row.replace(/\\\|/g, '').split('|').length - 1).toBe(10);
     }
     expect(md).toMatch(/all \d+ cases pass/);
   });

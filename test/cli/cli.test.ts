@@ -73,7 +73,9 @@ describe('solve through the binary', () => {
     // statics: Σ reactions + Σ applied loads = 0 (1e-9 of the applied resultant)
     const F = Math.hypot(j.solution.appliedSum[0], j.solution.appliedSum[1]);
     expect(Math.hypot(j.solution.reactionSum[0] + j.solution.appliedSum[0], j.solution.reactionSum[1] + j.solution.appliedSum[1])).toBeLessThan(1e-9 * F);
-    const header = readFileSync(join(out, 'field.csv'), 'utf8').split('\r\n')[0]; // RFC 4180 line ends
+    // RFC 4180 line ends; the first line is the result set's stamp, a `#` comment (docs/reliability.md)
+    const [stamp, header] = readFileSync(join(out, 'field.csv'), 'utf8').split('\r\n');
+    expect(stamp).toMatch(/^# peakwise run [0-9a-f]{64}$/);
     expect(header).toBe('"node","x","y","ux","uy","sxx","syy","sxy","von_mises"');
   });
 

@@ -13,7 +13,7 @@ export function solveModel(model: Model) {
   for (const l of model.loads) if (l.where.kind === 'point') required.push([l.where.at[0], l.where.at[1]]);
   const mesh = meshPlate(geometry, { sizeAt, order: model.mesh.order, requiredPoints: required });
   const section = { ...model.material, state: model.state, thickness: model.thickness };
-  const solution = solvePlate({ mesh, geometry, section, supports: model.supports, loads: [...model.loads, ...(model.fieldLoads ?? [])] });
+  const solution = solvePlate({ mesh, geometry, section, supports: model.supports, loads: model.loads });
   const field = recoverSpr(mesh, gaussStresses(mesh, solution.u, section), section);
   return { geometry, mesh, solution, field };
 }

@@ -16,7 +16,7 @@ const lugFile = fileURLToPath(new URL('../../models/hoist-lug.yaml', import.meta
 
 describe('pin force on a pin hole', () => {
   const model = parseModel(readFileSync(lugFile, 'utf8'), 'hoist-lug.yaml');
-  const load = model.fieldLoads?.[0];
+  const load = model.loads.find((l) => l.kind === 'pinForce');
   const F = 24000, tilt = (20 * Math.PI) / 180;
 
   it('the resultant of the nodal forces equals the given force to 1e-9', () => {

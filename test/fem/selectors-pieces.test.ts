@@ -88,9 +88,10 @@ describe('selector ends are mesh vertices (issue 12 §4)', () => {
       '  - { where: { x: 0 }, fix: [x] }\n  - { where: { point: [30, 6] }, fix: [y] }',
       '  - { where: { point: [61.5, 31] }, force: [0, 5] }',
     );
-    const { mesh, geometry } = meshModel(m);
+    const meshed = meshModel(m);
+    const { mesh, geometry } = meshed;
     expect(selectorVertices(m, geometry)).toEqual([[30, 0], [61.5, 40]]);
-    const s = solve({ model: m, mesh, geometry });
+    const s = solve(meshed);
     const at = (x: number, y: number) => {
       for (let n = 0; n < mesh.xy.length / 2; n++) if (mesh.xy[2 * n] === x && mesh.xy[2 * n + 1] === y) return n;
       throw new Error(`no node at (${x}, ${y})`);

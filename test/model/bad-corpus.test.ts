@@ -13,6 +13,8 @@ import { formatModelError, parseModel } from '../../src/model/index.js';
 const dir = fileURLToPath(new URL('../fixtures/bad/', import.meta.url));
 interface Expected { stage: string; fragment: string; line?: number; keyPath?: string }
 const expected = JSON.parse(readFileSync(`${dir}expected.json`, 'utf8')) as Record<string, Expected>;
+/** imported files (outlines, tables) live in bad/files, named relative to the fixture */
+const readFile = (path: string): string => readFileSync(dir + path, 'utf8');
 
 describe('bad-model corpus', () => {
   it('lists every fixture file in expected.json and has 20+ model cases', () => {
@@ -24,7 +26,7 @@ describe('bad-model corpus', () => {
   for (const [name, want] of Object.entries(expected)) {
     if (want.stage !== 'model') {
       it(`${name} passes the model stage (its error belongs to ${want.stage})`, () => {
-        expect(() => parseModel(readFileSync(dir + name, 'utf8'), `bad/${name}`)).not.toThrow();
+        expect(() => parseModel(readFileSync(dir + name, 'utf8'), `bad/${name}`, { readFile })).not.toThrow();
       });
       continue;
     }
@@ -32,7 +34,7 @@ describe('bad-model corpus', () => {
       const file = `test/fixtures/bad/${name}`;
       let caught: unknown;
       try {
-        parseModel(readFileSync(dir + name, 'utf8'), file);
+        parseModel(readFileSync(dir + name, 'utf8'), file, { readFile });
       } catch (e) {
         caught = e;
       }

@@ -94,6 +94,13 @@ describe('expressions: errors', () => {
     expect(message('constructor')).toContain('unknown name');
     expect(message('toString(1)')).toContain('unknown function');
   });
+  it('says what was meant by a value with a unit, two values side by side, or a list (issue 19)', () => {
+    for (const t of ['8 mm', '8mm', '210 GPa', '10 N/mm', '45°']) expect(message(t)).toMatch(/^a number followed by the unit '.+'; write the number alone/);
+    expect(message('5 5')).toBe('expected one number, got 2 values side by side; join them with an operator (such as 5 * 5) or, for a point, write [x, y]');
+    expect(message('2 r', { r: 1 })).toContain('(such as 2 * r)');
+    expect(message('0,3')).toContain('for a decimal write a point (0.3)');
+    expect(message('(1, 2) * 3')).toContain('a list of values');
+  });
   it('refuses very long text before parsing it', () => {
     expect(message('1+'.repeat(600) + '1')).toContain('limit');
   });

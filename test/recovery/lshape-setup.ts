@@ -6,6 +6,7 @@
 import type { GaussStresses } from '../../src/fem/types.js';
 import type { PlateGeometry } from '../../src/geometry/types.js';
 import type { Mesh } from '../../src/mesh/types.js';
+import type { Problem } from '../../src/pipeline/index.js';
 import * as L from '../../src/bench/lshape.js';
 import { williamsDisplacement, williamsStress } from './williams-field.js';
 
@@ -21,3 +22,5 @@ export const TEST_FIELD: L.LField = {
 export const lTractions = (mesh: Mesh): Float64Array => L.lTractions(mesh, TEST_FIELD);
 export const lConstraints = (mesh: Mesh): { dof: number; value: number }[] => L.lConstraints(mesh, TEST_FIELD);
 export const lSolve = (mesh: Mesh, geometry: PlateGeometry): { gauss: GaussStresses; dofs: number } => L.lSolve(mesh, geometry, TEST_FIELD);
+/** the L-plate problem with this folder's exact field, for the adaptive loop */
+export const lProblem = (order: 1 | 2, size: number): Problem => L.lProblem(TEST_FIELD, order, size);

@@ -1,8 +1,9 @@
 import { describe, it, expect } from 'vitest';
-import { adaptiveSolve, estimateError, recoverSpr } from '../../src/recovery/index.js';
+import { estimateError, recoverSpr } from '../../src/recovery/index.js';
+import { adaptiveSolve } from '../../src/pipeline/index.js';
 import { lShapeMesh } from '../../src/bench/lshape-mesh.js';
 import { LAMBDA_270, williamsB, williamsStress } from './williams-field.js';
-import { L_SECTION, lConstraints, lGeometry, lSolve, lTractions, lTrueError, logSlope } from './lshape-setup.js';
+import { L_SECTION, lGeometry, lProblem, lSolve, lTrueError, logSlope } from './lshape-setup.js';
 
 // The exact field itself first, against the point values of reference-values §6 [derived].
 describe('Williams (1952) mode-I field on the L domain', () => {
@@ -63,15 +64,15 @@ describe('adaptive loop on the L-shaped plate', () => {
     const N: number[] = [];
     const err: number[] = [];
     const res = adaptiveSolve(
-      { geometry: lGeometry(), section: L_SECTION, supports: [], loads: [], order: 2, sizeAt0: () => 0.25, extraLoad: lTractions, prescribed: lConstraints },
+      lProblem(2, 0.25),
       {
         targetPercent: 0.5,
-        maxDofs: 60_000,
         onCycle: (c, r) => {
           N.push(c.dofs);
           err.push(lTrueError(r.gauss));
         },
       },
+      { maxDofs: 60_000 },
     );
     const r = -logSlope(N.slice(1), err.slice(1));
     console.log(`L adaptive LST: N ${N.join(' ')}; error ${err.map((e) => e.toExponential(3)).join(' ')}; r = ${r.toFixed(3)}; ${res.stoppedBy}`);
@@ -89,8 +90,9 @@ describe('adaptive loop on the L-shaped plate, CST', () => {
     const N: number[] = [];
     const err: number[] = [];
     adaptiveSolve(
-      { geometry: lGeometry(), section: L_SECTION, supports: [], loads: [], order: 1, sizeAt0: () => 0.25, extraLoad: lTractions, prescribed: lConstraints },
-      { targetPercent: 3, maxDofs: 30_000, onCycle: (c, r) => (N.push(c.dofs), err.push(lTrueError(r.gauss))) },
+      lProblem(1, 0.25),
+      { targetPercent: 3, onCycle: (c, r) => (N.push(c.dofs), err.push(lTrueError(r.gauss))) },
+      { maxDofs: 30_000 },
     );
     const r = -logSlope(N.slice(1), err.slice(1));
     console.log(`L adaptive CST: N ${N.join(' ')}; error ${err.map((e) => e.toExponential(3)).join(' ')}; r = ${r.toFixed(3)}`);
@@ -100,9 +102,9 @@ describe('adaptive loop on the L-shaped plate, CST', () => {
 });
 
 describe('adaptive loop always terminates', () => {
-  const input = { geometry: lGeometry(), section: L_SECTION, supports: [], loads: [], order: 1 as const, sizeAt0: () => 0.3, extraLoad: lTractions, prescribed: lConstraints };
+  const input = lProblem(1, 0.3);
   it('a DOF cap stops it before a mesh would exceed the cap', () => {
-    const res = adaptiveSolve(input, { targetPercent: 0.01, maxDofs: 3000 });
+    const res = adaptiveSolve(input, { targetPercent: 0.01 }, { maxDofs: 3000 });
     expect(res.stoppedBy).toBe('dofs');
     // every solved mesh respects the cap, whether the prediction or the mesh itself stopped it
     for (const c of res.cycles) expect(c.dofs).toBeLessThanOrEqual(3000);

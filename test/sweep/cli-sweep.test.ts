@@ -63,7 +63,9 @@ describe('peakwise sweep over the L-bracket corner radius', () => {
     for (let i = 1; i < values.length; i++) expect(values[i]).toBeLessThan(values[i - 1]);
     // files
     expect(pointFiles(dir)).toHaveLength(4);
-    const csv = readFileSync(join(dir, 'sweep.csv'), 'utf8').split('\r\n');
+    // the first line is the result set's stamp, a `#` comment (docs/reliability.md)
+    const [stamp, ...csv] = readFileSync(join(dir, 'sweep.csv'), 'utf8').split('\r\n');
+    expect(stamp).toMatch(/^# peakwise run [0-9a-f]{64}$/);
     expect(csv[0].startsWith('"r","F1_id"')).toBe(true);
     expect(csv.filter((l) => l.length > 0)).toHaveLength(5);
     const html = readFileSync(join(dir, 'sweep.html'), 'utf8');
