@@ -34,7 +34,7 @@ export type * from './sweep/types.js';
 export { parseModel, formatModelError, stressUnit, type ParseOptions } from './model/index.js';
 export { buildGeometry, pointInMaterial } from './geometry/index.js';
 export { meshPlate, meshQuality, validateMesh, sizeFieldFromSettings } from './mesh/index.js';
-export { solvePlate, gaussStresses, assembleStiffness, appliedResultant, type PlateProblem } from './fem/index.js';
+export { solvePlate, gaussStresses, assembleStiffness, appliedResultant, selectorVertices, selectorWarnings, type PlateProblem } from './fem/index.js';
 export { analyze, factorize, solveFactor, solveSpd, residualNorm, toMatrixMarket } from './linalg/index.js';
 export {
   recoverSpr, recoverAverage, estimateError, nodalMeasure, measureValue, principal, vonMises, tresca,

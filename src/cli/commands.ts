@@ -12,6 +12,7 @@ import {
   adaptiveSolve, baseSizeField, estimateOf, meshAt, problemOf, sectionOf, solveProblem, type AdaptiveCycle, type Problem, type SolveLimits,
 } from '../pipeline/index.js';
 import { healthWarnings } from '../fem/health.js';
+import { selectorWarnings } from '../fem/index.js';
 import { progressBar } from './progress.js';
 import { recordedChecks } from './checks-record.js';
 import { checkCutOptions, writeCutOutputs, type CutCliOptions } from './cut.js';
@@ -151,7 +152,7 @@ export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOpti
   const model = loadModel(ctx, file, opts);
   const outDir = outDirFor(file, opts, 'study');
   const { study, base } = studyWithProgress(model, opts);
-  const warnings = modelWarnings(model, file);
+  const warnings = modelWarnings(model, file, base ? selectorWarnings(model, base.geometry) : []);
   if (base) {
     warnings.push(...healthWarnings({ section: sectionOf(model), geometry: base.geometry, mesh: base.mesh, size: model.mesh.size, lengthUnit: model.units.length }));
   }

@@ -5,7 +5,7 @@
  */
 import { join } from 'node:path';
 import { PeakwiseError } from '../errors.js';
-import type { Model } from '../model/types.js';
+import type { Model, ModelWarning } from '../model/types.js';
 import { levelsRule, parseModel, ratioRule } from '../model/index.js';
 import type { NodalStress } from '../recovery/types.js';
 import { nodalMeasure } from '../recovery/index.js';
@@ -73,9 +73,9 @@ export function stopRequested(): boolean {
   return stopFlag !== undefined && Atomics.load(stopFlag, 0) !== 0;
 }
 
-/** Model hints (e.g. E in other units) as `file:line:col key: message`. */
-export function modelWarnings(model: Model, file: string): string[] {
-  return (model.warnings ?? []).map((w) => {
+/** Model hints (e.g. E in other units), and `extra` ones found later (selectorWarnings), as `file:line:col key: message`. */
+export function modelWarnings(model: Model, file: string, extra: readonly ModelWarning[] = []): string[] {
+  return [...(model.warnings ?? []), ...extra].map((w) => {
     const pos = nearestPosition(model, w.keyPath);
     return `${file}${pos ? `:${pos.line}:${pos.col}` : ''} ${w.keyPath}: ${w.message}`;
   });

@@ -7,7 +7,7 @@ import { stressUnit } from '../model/index.js';
 import type { Mesh } from '../mesh/types.js';
 import { meshQuality } from '../mesh/index.js';
 import type { GaussStresses, Solution } from '../fem/types.js';
-import { assembleStiffness, supportedDofs } from '../fem/index.js';
+import { assembleStiffness, selectorWarnings, supportedDofs } from '../fem/index.js';
 import { healthWarnings } from '../fem/health.js';
 import { csrSubmatrix, matrixMarketChunks, vectorToMatrixMarket } from '../linalg/index.js';
 import type { ErrorEstimate } from '../recovery/types.js';
@@ -77,7 +77,7 @@ export function solveRecord(problem: Problem, run: SolveRun, file: string): Solv
   const peak = nodalMax(mesh, nodal);
   const gp = gaussMax(gauss);
   const t = solution.timings;
-  const warnings = [...modelWarnings(model, file), ...healthWarnings({ section, geometry, mesh, size: model.mesh.size, lengthUnit: model.units.length })];
+  const warnings = [...modelWarnings(model, file, selectorWarnings(model, geometry)), ...healthWarnings({ section, geometry, mesh, size: model.mesh.size, lengthUnit: model.units.length })];
   const at = (p: readonly [number, number]): [number, number] => [roundToScale(p[0], geometry.scale), roundToScale(p[1], geometry.scale)]; // no binary tails (issue 17)
   return {
     tool: 'peakwise',

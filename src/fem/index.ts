@@ -6,7 +6,11 @@ export { lstParametricDerivatives, lstShape } from '../element/index.js';
 export { elementStiffnessCst, elementStiffnessLst } from './elements.js';
 export { gaussStresses } from './stresses.js';
 export { assembleStiffness, csrMultiply, stiffnessPattern, type StiffnessPattern } from './assembly.js';
-export { SELECTOR_TOLERANCE, describeSelector, selectBoundary, type Selection } from './selectors.js';
+export {
+  SELECTOR_TOLERANCE, describeSelector, selectBoundary, nearestBoundaryPoint, pieceNearest, outlineFarPieces, farFieldEdges, selectorWarnings,
+  type Selection, type BoundaryPointHit,
+} from './selectors.js';
+export { selectorVertices, verticesOfSelector } from './required-points.js';
 export { appliedResultant, loadVector } from './loads.js';
 export { edgeTractionLoad, pressureLoad, type TractionField } from './edge-load.js';
 export { bodyForceLoad, type BodyForceField } from './body-load.js';

@@ -10,7 +10,7 @@ import type { Load } from '../model/types.js';
 import { edgeTractionLoad, pressureLoad } from './edge-load.js';
 import { farFieldStressLoad } from './farfield.js';
 import { pinForceLoad } from './pin-force.js';
-import { describeSelector, selectBoundary } from './selectors.js';
+import { describeSelector, farFieldEdges, selectBoundary } from './selectors.js';
 import type { ElasticSection } from './types.js';
 
 /**
@@ -44,7 +44,7 @@ export function loadVector(
     }
     const { edges } = selectBoundary(mesh, geom, load.where, where);
     if (load.kind === 'stress') {
-      farFieldStressLoad(mesh, edges, section.thickness, load, f);
+      farFieldStressLoad(mesh, farFieldEdges(mesh, geom, load.where, edges), section.thickness, load, f);
     } else if (load.kind === 'pinForce') {
       pinForceLoad(mesh, edges, section.thickness, load.force, keyPath, f);
     } else if (load.kind === 'traction') {

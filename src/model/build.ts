@@ -10,7 +10,7 @@ import { nearest } from './issues.js';
 import type { ModelFile, RawPoint, RawVertex } from './schema.js';
 import { didYouMean, formatNumber, quote } from './text.js';
 import type {
-  DisplacementValue, Load, LocalSize, Model, ModelWarning, Opening, Point, PolygonVertex, PrescribedMotion, Selector, Shape,
+  CriticalDistance, DisplacementValue, Load, LocalSize, Model, ModelWarning, Opening, Point, PolygonVertex, PrescribedMotion, Selector, Shape,
   SourcePosition, StudySettings, Support,
 } from './types.js';
 import { ImportError, MM_PER_UNIT, displacementRows, pointsShape, svgShape, type ReadFile } from './imports.js';
@@ -200,8 +200,32 @@ export class Builder {
       return { kind: 'opening', id };
     }
     if (raw.outline !== undefined) return { kind: 'outline' };
+    if (raw.piece !== undefined) return { kind: 'piece', at: this.point(raw.piece, joinPath(keyPath, 'piece')) };
     return { kind: 'point', at: this.point(raw.point!, joinPath(keyPath, 'point')) };
   }
+}
+
+/**
+ * `study.readouts.critical`: L given, or L = (1/π)(ΔK_th/Δσ₀)² (Taylor 2007). An L longer than the plate is
+ * refused: it almost always means ΔK_th was given in other units (stress·√length in the model's own units).
+ */
+function criticalDistance(
+  b: Builder, raw: { length?: number | string; deltaKth?: number | string; deltaSigma0?: number | string }, plateSize: number, stress: string,
+): CriticalDistance {
+  const p = 'study.readouts.critical';
+  let out: CriticalDistance;
+  if (raw.length !== undefined) out = { length: b.length(raw.length, joinPath(p, 'length'), 'critical distance') };
+  else {
+    const deltaKth = b.num(raw.deltaKth!, joinPath(p, 'deltaKth'), 'threshold stress-intensity range deltaKth', POSITIVE);
+    const deltaSigma0 = b.num(raw.deltaSigma0!, joinPath(p, 'deltaSigma0'), 'fatigue limit range deltaSigma0', POSITIVE, stress);
+    out = { length: (deltaKth / deltaSigma0) ** 2 / Math.PI, deltaKth, deltaSigma0 };
+  }
+  if (Number.isFinite(plateSize) && plateSize > 0 && out.length > plateSize) {
+    const key = raw.length !== undefined ? joinPath(p, 'length') : joinPath(p, 'deltaKth');
+    b.fail(`critical distance L = ${formatNumber(out.length)} is longer than the plate (${formatNumber(plateSize)}); `
+      + (raw.length !== undefined ? 'check the units' : `check that deltaKth is in ${stress}·√length with lengths in the model's units`), key);
+  }
+  return out;
 }
 
 export function buildModel(
@@ -345,6 +369,7 @@ export function buildModel(
       distance: s?.readouts?.distance === undefined
         ? undefined
         : b.length(s.readouts.distance, 'study.readouts.distance', 'readout distance'),
+      ...(s?.readouts?.critical ? { critical: criticalDistance(b, s.readouts.critical, Math.hypot(box.width, box.height), stress) } : {}),
     },
   };
   // a readout point farther from its site than the plate is across lies outside the plate for

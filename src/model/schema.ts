@@ -144,7 +144,7 @@ const OpeningLike = mapping(
   'an opening { id, circle | ellipse | rect | polygon | points | svg }',
 ).superRefine(exactlyOne(SHAPE_KINDS)).superRefine(svgKeys);
 
-export const SELECTOR_KINDS = ['x', 'y', 'segment', 'opening', 'outline', 'point'] as const;
+export const SELECTOR_KINDS = ['x', 'y', 'segment', 'opening', 'outline', 'point', 'piece'] as const;
 
 const SelectorLike = mapping(
   {
@@ -154,6 +154,7 @@ const SelectorLike = mapping(
     opening: Name.optional(),
     outline: z.literal(true, { error: expected('true (the whole outer boundary)') }).optional(),
     point: PointLike.optional(),
+    piece: PointLike.optional(),
   },
   `a selector { ${SELECTOR_KINDS.join(' | ')}: … }`,
 ).superRefine(exactlyOne(SELECTOR_KINDS));
@@ -258,7 +259,25 @@ const StudyLike = mapping(
         z.array(PointLike, { error: expected('a list of points [x, y]') }).min(1, { error: () => 'expected at least one point, or auto' }),
       ], { error: expected('auto or a list of points [x, y]') })
       .optional(),
-    readouts: mapping({ distance: NumberLike.optional() }, 'readouts { distance }').optional(),
+    readouts: mapping(
+      {
+        distance: NumberLike.optional(),
+        critical: mapping(
+          { length: NumberLike.optional(), deltaKth: NumberLike.optional(), deltaSigma0: NumberLike.optional() },
+          'a critical distance { length } or { deltaKth, deltaSigma0 }',
+        ).superRefine((value, ctx) => {
+          const fromMaterial = value.deltaKth !== undefined || value.deltaSigma0 !== undefined;
+          if (value.length !== undefined && fromMaterial) {
+            ctx.addIssue({ code: 'custom', message: 'give the critical distance either as length or as deltaKth and deltaSigma0, not both', path: [value.deltaKth !== undefined ? 'deltaKth' : 'deltaSigma0'] });
+          } else if (value.length === undefined && !fromMaterial) {
+            ctx.addIssue({ code: 'custom', message: 'expected length, or deltaKth and deltaSigma0', path: [] });
+          } else if (fromMaterial && (value.deltaKth === undefined || value.deltaSigma0 === undefined)) {
+            ctx.addIssue({ code: 'custom', message: `${value.deltaKth === undefined ? 'deltaKth' : 'deltaSigma0'} is missing: L = (1/π)(deltaKth/deltaSigma0)² needs both`, path: [] });
+          }
+        }).optional(),
+      },
+      'readouts { distance, critical }',
+    ).optional(),
   },
   'study settings { measure, levels, ratio, sites, readouts }',
 );

@@ -56,7 +56,9 @@ export type Selector =
   | { kind: 'segment'; from: Point; to: Point }
   | { kind: 'opening'; id: string }
   | { kind: 'outline' }
-  | { kind: 'point'; at: Point };
+  | { kind: 'point'; at: Point }
+  /** the whole boundary piece (straight edge, arc, ellipse arc, fillet) nearest the point */
+  | { kind: 'piece'; at: Point };
 
 export type Axis = 'x' | 'y';
 
@@ -127,7 +129,23 @@ export interface StudySettings {
   ratio: number;
   /** 'auto' or explicit points */
   sites: 'auto' | Point[];
-  readouts: { distance: number | undefined };
+  readouts: {
+    /** fixed readout distance; undefined: a fraction of each site's feature length (docs/study.md) */
+    distance: number | undefined;
+    /** material critical distance of the theory of critical distances (present only when given) */
+    critical?: CriticalDistance;
+  };
+}
+
+/**
+ * Critical distance L of the theory of critical distances (D. Taylor, The Theory of Critical Distances,
+ * Elsevier 2007): given, or L = (1/π)(ΔK_th/Δσ₀)² from the threshold stress-intensity range ΔK_th
+ * (stress·√length) and the plain fatigue limit range Δσ₀ (stress).
+ */
+export interface CriticalDistance {
+  length: number;
+  deltaKth?: number;
+  deltaSigma0?: number;
 }
 
 export interface Material {

@@ -8,7 +8,7 @@ import { buildGeometry } from '../geometry/index.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { Mesh } from '../mesh/types.js';
 import type { Load, MeshSettings, Model, Point, StressMeasure, Support } from '../model/types.js';
-import type { PrescribedDisplacement } from '../fem/index.js';
+import { selectorVertices, type PrescribedDisplacement } from '../fem/index.js';
 import type { ElasticSection } from '../fem/types.js';
 
 export interface Problem {
@@ -19,7 +19,7 @@ export interface Problem {
   supports: readonly Support[];
   /** every load, all kinds, in the model's order */
   loads: readonly Load[];
-  /** points that must be mesh nodes: point supports, point loads, then the extra points; each once */
+  /** points that must be mesh nodes: point-selector targets and selector ends (selectorVertices), then the extra points; each once */
   requiredPoints: readonly Point[];
   /** the mesh settings after the overrides (`size`, `order`) */
   meshSettings: MeshSettings;
@@ -64,10 +64,9 @@ export function uniquePoints(points: Iterable<readonly [number, number]>, tolera
 /** The problem of a model: geometry, section, supports, all loads, required points (deduplicated once). */
 export function problemOf(model: Model, options: ProblemOptions = {}): Problem {
   const geometry = buildGeometry(model.plate);
-  // point selectors need a node exactly on their point
-  const points: Point[] = [];
-  for (const s of model.supports) if (s.where.kind === 'point') points.push(s.where.at);
-  for (const l of model.loads) if (l.where.kind === 'point') points.push(l.where.at);
+  // the boundary point each point selector means and the ends of what line selectors catch are mesh
+  // vertices (issue 12 §4: selectorVertices)
+  const points: Point[] = selectorVertices(model, geometry);
   points.push(...(options.points ?? []));
   return {
     model,

@@ -12,6 +12,7 @@ import type { Mesh } from '../mesh/types.js';
 import type { Model, Point, Support } from '../model/types.js';
 import type { FaceCondition } from '../study/types.js';
 import { wedgeTheory } from '../study/wedge-theory.js';
+import { pieceNearest } from '../fem/selectors.js';
 import { formatFixed, formatNumber, stripControl } from './text.js';
 
 /** A point the idealised model makes singular. */
@@ -39,9 +40,16 @@ function pieceEnds(piece: BoundaryPiece): [Point, Point] | undefined {
 }
 
 /** Whether a support selector covers a whole boundary piece. */
-function covers(support: Support, piece: BoundaryPiece, tol: number): boolean {
+function covers(support: Support, piece: BoundaryPiece, tol: number, geometry: Pick<PlateGeometry, 'pieces' | 'scale'>): boolean {
   const w = support.where;
   switch (w.kind) {
+    case 'piece':
+      // the solve has already refused an ambiguous piece point; here it only reads as "not this piece"
+      try {
+        return pieceNearest(geometry, w.at, '') === piece.id;
+      } catch {
+        return false;
+      }
     case 'outline':
       return piece.loop === 'outline';
     case 'opening':
@@ -73,10 +81,10 @@ function condition(fx: boolean, fy: boolean, moved: boolean, piece: BoundaryPiec
 }
 
 /** Condition of one face from all the supports that cover it. */
-function faceOf(model: Model, piece: BoundaryPiece, tol: number): FaceCondition {
+function faceOf(model: Model, piece: BoundaryPiece, tol: number, geometry: Pick<PlateGeometry, 'pieces' | 'scale'>): FaceCondition {
   let fx = false, fy = false, moved = false;
   for (const s of model.supports) {
-    if (!covers(s, piece, tol)) continue;
+    if (!covers(s, piece, tol, geometry)) continue;
     fx ||= s.fix.x;
     fy ||= s.fix.y;
     moved ||= s.displace !== undefined;
@@ -92,7 +100,7 @@ export function singularPoints(model: Model, geometry: PlateGeometry): SingularP
   const L = model.units.length;
   const out: SingularPoint[] = [];
   for (const c of geometry.corners) {
-    const faces: [FaceCondition, FaceCondition] = [faceOf(model, geometry.pieces[c.pieceIn], tol), faceOf(model, geometry.pieces[c.pieceOut], tol)];
+    const faces: [FaceCondition, FaceCondition] = [faceOf(model, geometry.pieces[c.pieceIn], tol, geometry), faceOf(model, geometry.pieces[c.pieceOut], tol, geometry)];
     const th = wedgeTheory(c.interiorAngleDeg, faces, model.material.nu, model.state);
     if (!(th.q > 0)) continue;
     const held = faces.some((f) => f !== 'free');

@@ -27,6 +27,8 @@ export function describeSelector(where: Selector, lengthUnit: string): string {
       return 'the whole outer edge';
     case 'point':
       return `the point (${n(where.at[0])}, ${n(where.at[1])})`;
+    case 'piece':
+      return `the boundary piece nearest (${n(where.at[0])}, ${n(where.at[1])})`;
   }
 }
 

@@ -16,7 +16,9 @@ export {
   extrapolateToZero, hotSpotLinear, hotSpotQuadratic, hotSpotTypeB, hotSpotPoints,
 } from './readouts.js';
 export { wedgeTheory, theoryExponent, type WedgeTheory } from './wedge-theory.js';
-export { findSites, SITE_RULES, type SiteCandidate } from './sites.js';
-export { levelSizeField, probeLevel, LADDER_GRADING, NEIGHBOURHOOD_SIZES, type SiteProbe } from './ladder.js';
-export { runStudy, DEFAULT_READOUT_FRACTION, type StudyOptions, type BaseSolve } from './run.js';
+export { findSites, snapSitePoint, listedSitePoints, SITE_RULES, type SiteCandidate } from './sites.js';
+export { levelSizeField, probeLevel, LADDER_GRADING, NEIGHBOURHOOD_SIZES, APEX_SIZES, type SiteProbe } from './ladder.js';
+export { runStudy, type StudyOptions, type BaseSolve } from './run.js';
 export { reportedSites, roundToScale, isAboveYield } from './reported.js';
+export { intensityBand, siteProbe, siteReadouts, reportedPosition, withPlateauExtent, DEFAULT_READOUT_FRACTION } from './site-readouts.js';
+export { intensityNorm, reciprocalIntensity, singularTerm, type IntensitySetup, type IntensityNorm } from './stress-intensity.js';

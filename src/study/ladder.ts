@@ -5,21 +5,51 @@ import type { Point, StressMeasure } from '../model/types.js';
 import { buildPointLocator, measureValue, stressAt, type PointLocator } from '../recovery/index.js';
 import type { LevelResult } from './types.js';
 import type { SiteCandidate } from './sites.js';
-import { notchStressIntensity, sampledAverage } from './readouts.js';
+import { sampledAverage } from './readouts.js';
+import { reciprocalIntensity, singularTerm, type IntensityNorm, type IntensitySetup } from './stress-intensity.js';
 
 /** Grading of the refinement cone around each site: size grows by this much per unit distance. */
 export const LADDER_GRADING = 0.25;
 /** The peak neighbourhood: this many level-0 element sizes around the site (fixed in physical size). */
 export const NEIGHBOURHOOD_SIZES = 2;
+/** Readouts closer than this many level sizes to a singular apex at a mirror use the singular term of the level's K. */
+export const APEX_SIZES = 2;
 
-/** Size field of level k: every site's cone h₀/ratio^k + g·|x − site| under the base field (one mesh for all sites). */
-export function levelSizeField(base: SizeField, sites: readonly SiteCandidate[], h0: readonly number[], ratio: number, k: number): SizeField {
+/** distance from (x, y) to the segment a–b */
+function segmentDistance(x: number, y: number, ax: number, ay: number, bx: number, by: number): number {
+  const dx = bx - ax, dy = by - ay;
+  const l2 = dx * dx + dy * dy;
+  const t = l2 > 0 ? Math.min(1, Math.max(0, ((x - ax) * dx + (y - ay) * dy) / l2)) : 0;
+  return Math.hypot(x - ax - t * dx, y - ay - t * dy);
+}
+
+/**
+ * Size field of level k: every site's cone h₀/ratio^k + g·|x − site| under the base field (one mesh for all
+ * sites). A flat peak (a plateau) has its cone round the whole polyline through its points, so the plateau
+ * is refined alike along its length.
+ */
+export function levelSizeField(base: SizeField, sites: readonly Pick<SiteCandidate, 'at' | 'plateau'>[], h0: readonly number[], ratio: number, k: number): SizeField {
   const px = sites.map((s) => s.at[0]), py = sites.map((s) => s.at[1]);
   const hk = h0.map((h) => h / Math.pow(ratio, k));
+  // plateau segments: x0, y0, x1, y1, h per segment
+  const seg: number[] = [];
+  sites.forEach((s, i) => {
+    const p = s.plateau?.points;
+    if (!p || p.length < 2) return;
+    const n = s.plateau!.closed ? p.length : p.length - 1;
+    for (let j = 0; j < n; j++) {
+      const a = p[j], b = p[(j + 1) % p.length];
+      seg.push(a[0], a[1], b[0], b[1], hk[i]);
+    }
+  });
   return (x: number, y: number) => {
     let h = base(x, y);
     for (let i = 0; i < px.length; i++) {
       const v = hk[i] + LADDER_GRADING * Math.hypot(x - px[i], y - py[i]);
+      if (v < h) h = v;
+    }
+    for (let j = 0; j < seg.length; j += 5) {
+      const v = seg[j + 4] + LADDER_GRADING * segmentDistance(x, y, seg[j], seg[j + 1], seg[j + 2], seg[j + 3]);
       if (v < h) h = v;
     }
     return h;
@@ -35,7 +65,7 @@ export function levelSizeField(base: SizeField, sites: readonly SiteCandidate[],
  * and that noise swamps the increments the fit relies on.
  */
 export function rosettePoints(site: SiteCandidate, h: number, straightFaces: [boolean, boolean]): Point[] {
-  const dir = site.direction;
+  const dir = site.bisector ?? site.direction;
   if (!dir || site.theory <= 0) return [];
   const alpha = ((site.feature.interiorAngleDeg > 0 ? site.feature.interiorAngleDeg : 180) * Math.PI) / 180;
   // dOut is the bisector turned back by α/2
@@ -58,17 +88,26 @@ export interface SiteProbe {
   radius: number;
   /** readout distance d along `site.direction` */
   distance: number;
+  /** how d was chosen, for the result ("0.05 × shorter face 20") */
+  distanceRule?: string;
+  /** material critical distance L (Taylor 2007): point method at L/2, line method over 2L */
+  criticalDistance?: number;
+  /** stress intensity by the reciprocal work integral (stress-intensity.ts), where the site has one */
+  intensity?: IntensitySetup & { norm: IntensityNorm };
 }
 
 /**
  * Record one level for one site: the peak of the nodal measure over all nodes within `radius` of the site,
  * the measure at distance d along the readout direction (point method), the mean along it over
- * 0 ≤ r ≤ 4d (line method: point at L/2 and line over 2L, Taylor 2007), the Gauss-point area mean over the
- * disk r ≤ d, and the notch stress intensity fitted on the opening stress over 3h ≤ r ≤ max(d, 8h).
+ * 0 ≤ r ≤ 4d (line method: point at L/2 and line over 2L, Taylor 2007, with L = 2d), the Gauss-point area
+ * mean over the disk r ≤ d, with a critical distance L the point and line methods at L/2 and over 2L, and
+ * the stress intensity by the reciprocal work integral (from the displacements u) when the annulus of its
+ * domain is at least two element sizes h from the apex (NaN on coarser levels).
  */
 export function probeLevel(
   mesh: Mesh, field: NodalStress, nodal: Float64Array, gauss: GaussStresses, section: ElasticSection,
   measure: StressMeasure, probe: SiteProbe, h: number, dofs: number, locator: PointLocator = buildPointLocator(mesh),
+  u?: Float64Array,
 ): LevelResult {
   const { site, radius, distance: d } = probe;
   const [sx, sy] = site.at;
@@ -78,35 +117,45 @@ export function probeLevel(
     if (nodal[n] > peak || (nodal[n] === peak && n < pn)) { peak = nodal[n]; pn = n; }
   }
   const out: LevelResult = { h, dofs, peak, peakAt: [mesh.xy[2 * pn], mesh.xy[2 * pn + 1]], radius };
+  const K = probe.intensity;
+  if (K && u && K.innerRadius >= 2 * h) out.nsif = reciprocalIntensity(mesh, u, section, K, K.norm);
   const dir = site.direction;
   if (dir) {
+    // within APEX_SIZES·h of a singular apex the elements cannot follow r^(λ−1): at a mirror, where the field
+    // is symmetric and its singular part the opening term alone, the readouts take that term with this
+    // level's K there (the unit eigenfunction scaled by K/K₁), the FE field beyond. Elsewhere an
+    // antisymmetric term may be singular too (a corner beyond 257°, a crack under shear): no substitution.
+    const singular = K && K.mirrorFactor > 1 && out.nsif !== undefined && Number.isFinite(out.nsif) ? singularTerm(K, out.nsif, section) : undefined;
     const at = (r: number) => {
+      if (singular && r < APEX_SIZES * h) {
+        const p = singular(r);
+        return measureValue(measure, p.sxx, p.syy, p.sxy, section.state === 'plane-strain' ? section.nu * (p.sxx + p.syy) : 0);
+      }
       const p = stressAt(mesh, field, sx + r * dir[0], sy + r * dir[1], locator);
       return p ? measureValue(measure, p.sxx, p.syy, p.sxy, p.szz) : NaN;
     };
+    // mean along the direction over 0 ≤ r ≤ length: trapezoidal in s with r = length·s² (97 samples), which
+    // turns an r^(λ−1) rise at the apex (λ ≥ 1/2) into a bounded integrand 2·length·s·σ(length·s²), so the
+    // mean converges as the levels resolve the apex instead of following the growing apex value
+    const lineMean = (length: number): number => {
+      const ss: number[] = [], gs: number[] = [];
+      const N = 96;
+      for (let i = 0; i <= N; i++) {
+        const sv = i / N;
+        const v = at(Math.max(length * sv * sv, 1e-9 * length));
+        if (Number.isFinite(v)) { ss.push(sv); gs.push(2 * sv * v); }
+      }
+      return ss.length > N / 2 ? (sampledAverage(ss, gs) * (ss[ss.length - 1] - ss[0])) : NaN;
+    };
     const pm = at(d);
     if (Number.isFinite(pm)) out.atDistance = pm;
-    const rs: number[] = [], vs: number[] = [];
-    const N = 96;
-    for (let i = 0; i <= N; i++) {
-      const r = (4 * d * i) / N;
-      const v = at(Math.max(r, 1e-9 * d));
-      if (Number.isFinite(v)) { rs.push(r); vs.push(v); }
-    }
-    if (rs.length > N / 2) out.lineAverage = sampledAverage(rs, vs);
-    if (site.lambdaOpening !== undefined && site.lambdaOpening < 1) {
-      // opening stress: the normal stress across the bisector, n = bisector turned by 90°
-      const nx = -dir[1], ny = dir[0];
-      const r0 = 3 * h, r1 = Math.max(d, 8 * h);
-      const rr: number[] = [], ss: number[] = [];
-      for (let i = 0; i < 8; i++) {
-        const r = r0 * Math.pow(r1 / r0, i / 7);
-        const p = stressAt(mesh, field, sx + r * dir[0], sy + r * dir[1], locator);
-        if (!p) continue;
-        rr.push(r);
-        ss.push(p.sxx * nx * nx + 2 * p.sxy * nx * ny + p.syy * ny * ny);
-      }
-      if (rr.length >= 3) out.nsif = notchStressIntensity(rr, ss, site.lambdaOpening).K;
+    const lm = lineMean(4 * d);
+    if (Number.isFinite(lm)) out.lineAverage = lm;
+    const L = probe.criticalDistance;
+    if (L !== undefined) {
+      const p = at(L / 2), l = lineMean(2 * L);
+      if (Number.isFinite(p)) out.pointMethod = p;
+      if (Number.isFinite(l)) out.lineMethod = l;
     }
   }
   // area mean over the disk r ≤ d (Gauss points of the raw element stresses)

@@ -10,14 +10,15 @@ import type { NodalStress } from '../recovery/types.js';
 import { buildPointLocator } from '../recovery/index.js';
 import { baseSizeField, problemOf, solveAt, type SolveLimits, type SolvedLevel } from '../pipeline/index.js';
 import type { LevelResult, SiteResult, StudyResult } from './types.js';
-import { findSites, type SiteCandidate } from './sites.js';
+import { findSites, listedSitePoints, type SiteCandidate } from './sites.js';
 import { levelSizeField, probeLevel, rosettePoints, NEIGHBOURHOOD_SIZES, type SiteProbe } from './ladder.js';
 import { judgeSite } from './verdict.js';
 import { BAND_RULES } from './band.js';
 import { coarsenedOuterField } from './far-field.js';
 import { boundaryEdgesAt } from './mesh-tools.js';
-import { nsifUnits } from './readouts.js';
 import { reportedSites } from './reported.js';
+import { reportedPosition, siteProbe, siteReadouts, withPlateauExtent } from './site-readouts.js';
+import { selectorWarnings } from '../fem/index.js';
 
 export interface StudyOptions {
   levels?: number;
@@ -43,9 +44,6 @@ export interface BaseSolve {
   /** the study measure per node */
   nodal: Float64Array;
 }
-
-/** Default readout distance: 1 % of the plate's bounding-box diagonal (docs/study.md). */
-export const DEFAULT_READOUT_FRACTION = 0.01;
 
 const VERSION = '0.1.0';
 
@@ -101,6 +99,9 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const measure = model.study.measure;
   const problem = problemOf(model, { size, order });
   const { geometry: geom, section } = problem;
+  // the listed sites are vertices of every mesh, the first included (the selector ends are already)
+  const listed = listedSitePoints(model, geom, problem.requiredPoints);
+  const warnings = selectorWarnings(model, geom);
   const base = baseSizeField(problem);
   const limits: SolveLimits = opts.limits ?? {};
   // one more solve after the ladder: the outer mesh coarsened, for the far-field term
@@ -108,11 +109,10 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const progress = (done: number, label: string) => opts.onProgress?.(done, total, label);
 
   progress(0, 'first solve');
-  const first = solveAt(problem, base, order, limits);
+  const first = solveAt(problem, base, order, limits, { points: listed });
   opts.onBase?.({ mesh: first.mesh, geometry: geom, solution: first.solution, field: first.field, nodal: first.nodal });
   progress(1, 'sites');
-  const cands = findSites({ model, geom, mesh: first.mesh, solution: first.solution, measure: first.nodal, baseSize: base });
-  const d = model.study.readouts.distance ?? DEFAULT_READOUT_FRACTION * geom.scale;
+  const cands = findSites({ model, geom, mesh: first.mesh, solution: first.solution, measure: first.nodal, baseSize: base, listed });
   const h0 = cands.map((c) => base(c.at[0], c.at[1]));
   const probes: SiteProbe[] = cands.map((site, i) => {
     let radius = NEIGHBOURHOOD_SIZES * h0[i];
@@ -120,13 +120,14 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
     for (let j = 0; j < cands.length; j++) {
       if (j !== i) radius = Math.min(radius, 0.5 * Math.hypot(cands[j].at[0] - site.at[0], cands[j].at[1] - site.at[1]));
     }
-    return { site, radius, distance: d };
+    return siteProbe(site, radius, model, section);
   });
   const sitePoints = cands.map((c) => c.at);
   const straight = cands.map((c) => straightFacesAt(first.mesh, geom, c.node));
   const perSite: LevelResult[][] = cands.map(() => []);
   let stopped = '';
   let interrupted = false;
+  let finest: SolvedLevel | undefined;
   for (let k = 0; k < levels && cands.length > 0; k++) {
     if (opts.shouldStop?.()) { interrupted = true; stopped = `interrupted after ${k} level${k === 1 ? '' : 's'}`; break; }
     let s: SolvedLevel;
@@ -139,25 +140,31 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
     }
     const locator = buildPointLocator(s.mesh);
     probes.forEach((p, i) => {
-      perSite[i].push(probeLevel(s.mesh, s.field, s.nodal, s.gauss, section, measure, p, h0[i] / Math.pow(ratio, k), s.solution.dofs, locator));
+      perSite[i].push(probeLevel(s.mesh, s.field, s.nodal, s.gauss, section, measure, p, h0[i] / Math.pow(ratio, k), s.solution.dofs, locator, s.solution.u));
     });
     progress(2 + k, `level ${k + 1} of ${levels}`);
+    if (k === levels - 1) finest = s;
   }
 
   // far-field term (docs/study.md, "Far field"): the finest level again with everything outside the sites'
   // refined cores coarsened; the change of each peak is what the unrefined mesh, the same on every level,
   // contributes. Only solved when some site converges (the term belongs to converging bands alone).
   let farShift: number[] = [];
+  let farShiftK: number[] = [];
   const kLast = (perSite[0]?.length ?? 0) - 1;
   const anyConverging = cands.some((c, i) => judgeSite(perSite[i].map((l) => l.h), perSite[i].map((l) => l.peak), ratio, order, c.theory).verdict === 'converging');
-  if (!interrupted && !stopped && kLast >= 2 && anyConverging && !opts.shouldStop?.()) {
+  // a stress intensity converges like a peak and gets the same far-field term
+  const anyIntensity = probes.some((p) => p.intensity !== undefined);
+  if (!interrupted && !stopped && kLast >= 2 && (anyConverging || anyIntensity) && !opts.shouldStop?.()) {
     try {
       const hk = h0.map((h) => h / Math.pow(ratio, kLast));
       const seeds = cands.flatMap((c, i) => rosettePoints(c, hk[i], straight[i]).filter((p) => seedFits(geom, p, hk[i], c.at)));
       const field = coarsenedOuterField(base, cands, h0, ratio, kLast, BAND_RULES.farField.coarsening);
       const s = solveAt(problem, field, order, limits, { points: [...sitePoints, ...seeds] });
       const locator = buildPointLocator(s.mesh);
-      farShift = probes.map((p, i) => probeLevel(s.mesh, s.field, s.nodal, s.gauss, section, measure, p, perSite[i][kLast].h, s.solution.dofs, locator).peak - perSite[i][kLast].peak);
+      const far = probes.map((p, i) => probeLevel(s.mesh, s.field, s.nodal, s.gauss, section, measure, p, perSite[i][kLast].h, s.solution.dofs, locator, s.solution.u));
+      farShift = far.map((l, i) => l.peak - perSite[i][kLast].peak);
+      farShiftK = far.map((l, i) => (l.nsif ?? NaN) - (perSite[i][kLast].nsif ?? NaN));
     } catch (e) {
       if (!isPeakwiseError(e)) throw e;
     }
@@ -165,7 +172,11 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   }
 
   const stress = stressUnit(model.units);
-  const sites: SiteResult[] = reportedSites(cands.map((c, i) => toSiteResult(`S${i + 1}`, c, perSite[i], ratio, order, d, stress, model.units.length, stopped, farShift[i])), { scale: geom.scale, yieldStress: model.material.yield });
+  const perSiteResults: SiteResult[] = cands.map((c, i) => {
+    const r = toSiteResult(`S${i + 1}`, c, perSite[i], ratio, order, probes[i], stress, model.units.length, stopped, farShift[i], farShiftK[i]);
+    return finest ? withPlateauExtent(r, c, finest.mesh, finest.nodal) : r;
+  });
+  const sites: SiteResult[] = reportedSites(perSiteResults, { scale: geom.scale, yieldStress: model.material.yield });
   const q = meshQuality(first.mesh);
   return {
     tool: 'peakwise',
@@ -184,29 +195,21 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
     sites,
     timings: { totalS: (performance.now() - t0) / 1000 },
     ...(interrupted ? { interrupted: true } : {}),
+    ...(warnings.length > 0 ? { warnings: warnings.map((w) => `${w.keyPath}: ${w.message}`) } : {}),
   };
 }
 
 function toSiteResult(
-  id: string, c: SiteCandidate, levels: LevelResult[], ratio: number, order: 1 | 2, d: number, stress: string, length: string, stopped: string,
-  farShift?: number,
+  id: string, c: SiteCandidate, levels: LevelResult[], ratio: number, order: 1 | 2, probe: SiteProbe, stress: string, length: string, stopped: string,
+  farShift?: number, farShiftK?: number,
 ): SiteResult {
   const v = judgeSite(levels.map((l) => l.h), levels.map((l) => l.peak), ratio, order, c.theory, c.theoryWhy, farShift);
   const last = levels[levels.length - 1];
-  const readouts: SiteResult['readouts'] = {};
-  if (last) {
-    if (last.atDistance !== undefined) { readouts.atDistance = last.atDistance; readouts.distance = d; }
-    if (last.average !== undefined) { readouts.average = last.average; readouts.distance = d; }
-    if (last.lineAverage !== undefined) { readouts.lineAverage = last.lineAverage; readouts.lineLength = 4 * d; }
-    if (last.nsif !== undefined && c.lambdaOpening !== undefined) {
-      readouts.nsif = last.nsif;
-      readouts.nsifUnits = nsifUnits(stress, length, c.lambdaOpening);
-    }
-  }
+  const readouts = siteReadouts(levels, probe, ratio, order, stress, length, farShiftK);
   const why = c.feature.kind === 'point-load' || c.feature.kind === 'point-support' ? `${c.theoryWhy}: ` : '';
   return {
     id,
-    at: c.at,
+    at: reportedPosition(c, last),
     feature: c.feature,
     levels,
     verdict: v.verdict,

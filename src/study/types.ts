@@ -45,7 +45,11 @@ export interface LevelResult {
   average?: number;
   /** mean of the measure along the bisector over 0 ≤ r ≤ 4·distance (line method), if defined */
   lineAverage?: number;
-  /** generalised notch stress intensity fitted on this level, if defined */
+  /** point method of the critical distance: the measure at L/2 along the readout direction, if L is given */
+  pointMethod?: number;
+  /** line method: the mean of the measure along the readout direction over 0 ≤ r ≤ 2L, if L is given */
+  lineMethod?: number;
+  /** stress intensity (reciprocal work integral) on this level, if defined there */
   nsif?: number;
   /** radius of the neighbourhood the peak was searched in (fixed across levels) */
   radius?: number;
@@ -81,10 +85,23 @@ export interface SiteResult {
   estimate: { value: number; uncertainty: number; observedOrder: number; components?: BandComponents };
   growth: { exponent: number; exponentUncertainty: number; theory: number };
   readouts: {
-    atDistance?: number; distance?: number; average?: number; nsif?: number; nsifUnits?: string;
+    /** the measure at `distance` along `direction` and its mean over the disk of that radius (finest level) */
+    atDistance?: number; distance?: number; average?: number;
+    /** how `distance` was chosen: "0.05 × shorter face 20" or "study.readouts.distance" */
+    distanceRule?: string;
+    /** stress intensity: the converged value over the levels (the finest level's value when not converging) */
+    nsif?: number; nsifUnits?: string;
+    /** half-width of the band of `nsif` (NaN when the levels do not converge) */
+    nsifUncertainty?: number;
+    /** the annulus R₁ ≤ r ≤ R₂ of the domain integral behind `nsif` */
+    nsifRadii?: [number, number];
     /** line-method mean along the bisector over 0 ≤ r ≤ lineLength */
     lineAverage?: number; lineLength?: number;
+    /** material critical distance L = (1/π)(ΔK_th/Δσ₀)² (Taylor 2007), with the point method at L/2 and the line method over 2L */
+    criticalDistance?: number; pointMethod?: number; lineMethod?: number;
   };
+  /** a flat peak (plateau): the stretch of boundary through `at` whose finest-level values lie within the band */
+  extent?: { from: Point; to: Point; length: number; closed: boolean };
   /** three-level Richardson/GCI of every consecutive triple, coarse → fine: the trend, not the band */
   history?: { finest: number; value: number; uncertainty: number; observedOrder: number }[];
   /** direction from the site into the material used for the readouts (unit vector), if defined */

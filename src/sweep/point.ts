@@ -52,6 +52,7 @@ export function runPoint(task: Omit<PointTask, 'index'>): PointOutcome {
 const NUMBER_KEYS = new Set([
   'value', 'uncertainty', 'observedOrder', 'exponent', 'exponentUncertainty', 'theory',
   'atDistance', 'distance', 'average', 'nsif', 'lineAverage', 'lineLength', 'peak', 'h',
+  'nsifUncertainty', 'criticalDistance', 'pointMethod', 'lineMethod',
 ]);
 
 /** JSON text of a value with NaN and ±∞ as null (study.json's convention). */

@@ -31,7 +31,7 @@ describe('selectBoundary', () => {
     expect([mesh.xy[2 * s.nodes[0]], mesh.xy[2 * s.nodes[0] + 1]]).toEqual([4, 2]);
   });
   it.each([
-    [{ kind: 'point', at: [1.2, 0.3] }, /no node at point \(1\.2, 0\.3\); nearest is node \d+ at \(1, 0\.5\) at distance 0\.28/],
+    [{ kind: 'point', at: [1.2, 0.3] }, /no node at point \(1\.2, 0\), the boundary point nearest to \(1\.2, 0\.3\); nearest boundary node is \d+ at \(1, 0\) at distance 0\.2 /],
     [{ kind: 'x', value: 3.3 }, /\{ x: 3\.3 \} matches no boundary edge/],
     [{ kind: 'opening', id: 'door' }, /no opening with id 'door' \(openings: none\)/],
   ] as Array<[Selector, RegExp]>)('%o that matches nothing is a FemError naming the key path', (selector, message) => {

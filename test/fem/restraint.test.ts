@@ -69,7 +69,7 @@ describe('rigid-body restraint is checked before factorising', () => {
 
 describe('input errors name the key path', () => {
   const mesh = rectangleMesh(0, 0, 100, 40, 5, 2, 1);
-  it('a point support off the nodes is a FemError at supports[1].where', () => {
+  it('a point support whose boundary point is no node is a FemError at supports[1].where', () => {
     let caught: unknown;
     try {
       solvePlate({ mesh, geometry, section, loads: pull, supports: [sup({ kind: 'x', value: 0 }, true, true, 0), sup({ kind: 'point', at: [50, 20] }, true, true, 1)] });
@@ -78,7 +78,8 @@ describe('input errors name the key path', () => {
     }
     expect(caught).toBeInstanceOf(FemError);
     expect((caught as FemError).keyPath).toBe('supports[1].where');
-    expect((caught as FemError).message).toMatch(/no node at point \(50, 20\); nearest is node \d+ at \(\d+, 20\) at distance 10/);
+    // (50, 20) means the boundary point nearest to it, (50, 0) (design §3); this hand mesh has no node there
+    expect((caught as FemError).message).toMatch(/no node at point \(50, 0\), the boundary point nearest to \(50, 20\); nearest boundary node is \d+ at \(\d+, 0\) at distance 10/);
   });
   it('an inverted (clockwise) element is a FemError', () => {
     const bad = meshFromTriangles({ xy: [0, 0, 1, 0, 0, 1], tris: [0, 2, 1], order: 1, pieceOf: () => 0 });
