@@ -1,4 +1,5 @@
-import { closestOnCurve } from '../geometry/index.js';
+import { FemError } from '../errors.js';
+import { closestOnCurve, pointInMaterial } from '../geometry/index.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { AnyLoad, Point, Selector, Support } from '../model/types.js';
 import { SELECTOR_TOLERANCE, nearestBoundaryPoint } from './selectors.js';
@@ -32,6 +33,29 @@ function lineOverlapEnds(geom: Pick<PlateGeometry, 'pieces'>, a: Point, b: Point
   return out;
 }
 
+/**
+ * A point selector outside the material (beyond the outline, or inside an opening) farther than this
+ * fraction of the plate size (geom.scale) from every boundary piece matches nothing: snapping it to the
+ * boundary would load or hold a place the file does not name (docs/model-format.md, "Selectors"). A point
+ * in the material, or outside it but this near, means the nearest boundary point, with a warning when it
+ * is not on the boundary already (selectorWarnings).
+ */
+export const POINT_SNAP_FRACTION = 0.02;
+
+/** A FemError naming the key when a point selector lies outside the material and off the boundary (POINT_SNAP_FRACTION). */
+export function checkPointSelector(geom: PlateGeometry, where: Selector, keyPath?: string): void {
+  if (where.kind !== 'point' || geom.pieces.length === 0) return;
+  const hit = nearestBoundaryPoint(geom, where.at);
+  if (hit.distance > POINT_SNAP_FRACTION * geom.scale && !pointInMaterial(geom, where.at)) {
+    const f = (v: number) => Number(v.toPrecision(6));
+    throw new FemError(
+      `the point (${f(where.at[0])}, ${f(where.at[1])}) lies ${f(hit.distance)} from the nearest boundary point (${f(hit.point[0])}, ${f(hit.point[1])}), `
+        + `outside the material and more than ${POINT_SNAP_FRACTION * 100} % of the plate size away: a point selector picks a point of the plate's boundary; move it onto the edge it is meant for`,
+      keyPath === undefined ? undefined : `${keyPath}.where.point`,
+    );
+  }
+}
+
 /** The points one selector needs as mesh vertices (see selectorVertices). */
 export function verticesOfSelector(geom: Pick<PlateGeometry, 'pieces' | 'scale'>, where: Selector): Point[] {
   const tol = SELECTOR_TOLERANCE * geom.scale;
@@ -58,9 +82,14 @@ export function verticesOfSelector(geom: Pick<PlateGeometry, 'pieces' | 'scale'>
  * whichever node the mesh happens to have nearby. Each point once (within 1e-9 of the plate size).
  */
 export function selectorVertices(
-  model: { supports: readonly Pick<Support, 'where'>[]; loads: readonly Pick<AnyLoad, 'where'>[]; fieldLoads?: readonly Pick<AnyLoad, 'where'>[] },
-  geom: Pick<PlateGeometry, 'pieces' | 'scale'>,
+  model: {
+    supports: readonly (Pick<Support, 'where'> & { keyPath?: string })[];
+    loads: readonly (Pick<AnyLoad, 'where'> & { keyPath?: string })[];
+    fieldLoads?: readonly (Pick<AnyLoad, 'where'> & { keyPath?: string })[];
+  },
+  geom: PlateGeometry,
 ): Point[] {
+  for (const item of [...model.supports, ...model.loads, ...(model.fieldLoads ?? [])]) checkPointSelector(geom, item.where, item.keyPath);
   const out: Point[] = [];
   const same = 1e-9 * geom.scale;
   const add = (p: Point) => {

@@ -3,7 +3,7 @@
  * help is not given.
  */
 import { describe, expect, it } from 'vitest';
-import { MeshError } from '../../src/errors.js';
+import { FemError } from '../../src/errors.js';
 import { buildGeometry } from '../../src/geometry/index.js';
 import { meshPlate, sizeFieldFromSettings } from '../../src/mesh/index.js';
 import { dofLimitError, healthWarnings } from '../../src/fem/health.js';
@@ -33,10 +33,10 @@ describe('a required point outside the plate names the entry that asked for it',
     } catch (e) {
       caught = e;
     }
-    expect(caught).toBeInstanceOf(MeshError);
-    // the only required point outside the plate: the load
-    expect(formatModelError(caught as MeshError, 'lug.yaml', model)).toBe(
-      'lug.yaml:10:23 loads[0].where.point: required point (120, 500) lies outside the plate (not inside the outline, or inside an opening)',
+    expect(caught).toBeInstanceOf(FemError);
+    // the only point selector far from the boundary: the load (a point selector picks a boundary point)
+    expect(formatModelError(caught as FemError, 'lug.yaml', model)).toBe(
+      "lug.yaml:10:23 loads[0].where.point: the point (120, 500) lies 450 from the nearest boundary point (120, 50), outside the material and more than 2 % of the plate size away: a point selector picks a point of the plate's boundary; move it onto the edge it is meant for",
     );
   });
 });
