@@ -61,7 +61,7 @@ export function meshAt(problem: Problem, sizeAt: SizeField, order: 1 | 2, limits
   const size = problem.meshSettings.size;
   if (maxDofs !== undefined && !request.predicted) {
     const est = estimateMeshSize(problem.geometry, sizeAt, order, 4 * maxDofs);
-    if (est.dofs > maxDofs) throw dofLimitError(est.dofs, maxDofs, size, est.exceeded ? 'more-than' : 'estimated');
+    if (est.dofs > maxDofs) throw dofLimitError(est.dofs, maxDofs, size, est.exceeded ? 'more-than' : 'estimated', narrowSide(problem));
   }
   const points = request.points && request.points.length > 0
     ? uniquePoints([...problem.requiredPoints, ...request.points], SAME_POINT_RELATIVE * problem.geometry.scale)
@@ -73,8 +73,14 @@ export function meshAt(problem: Problem, sizeAt: SizeField, order: 1 | 2, limits
     ...(request.minAngleDeg !== undefined ? { minAngleDeg: request.minAngleDeg } : {}),
     ...(request.maxVertices !== undefined ? { maxVertices: request.maxVertices } : {}),
   });
-  if (maxDofs !== undefined && mesh.xy.length > maxDofs) throw dofLimitError(mesh.xy.length, maxDofs, size, 'counted');
+  if (maxDofs !== undefined && mesh.xy.length > maxDofs) throw dofLimitError(mesh.xy.length, maxDofs, size, 'counted', narrowSide(problem));
   return mesh;
+}
+
+/** The plate's narrow side, so the dof-cap message offers no size that leaves too few elements across. */
+function narrowSide(problem: Problem): { narrow: number; lengthUnit: string } {
+  const { minX, minY, maxX, maxY } = problem.geometry.bbox;
+  return { narrow: Math.min(maxX - minX, maxY - minY), lengthUnit: problem.model.units.length };
 }
 
 /** Solve the problem on a given mesh (factor-memory cap and residual limit from `limits`), then recover. */
