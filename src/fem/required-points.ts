@@ -1,4 +1,4 @@
-import { closestOnCurve } from '../geometry/index.js';
+import { closestOnCurve, pointInMaterial } from '../geometry/index.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { AnyLoad, Point, Selector, Support } from '../model/types.js';
 import { SELECTOR_TOLERANCE, nearestBoundaryPoint } from './selectors.js';
@@ -33,11 +33,14 @@ function lineOverlapEnds(geom: Pick<PlateGeometry, 'pieces'>, a: Point, b: Point
 }
 
 /** The points one selector needs as mesh vertices (see selectorVertices). */
-export function verticesOfSelector(geom: Pick<PlateGeometry, 'pieces' | 'scale'>, where: Selector): Point[] {
+export function verticesOfSelector(geom: Pick<PlateGeometry, 'pieces' | 'loops' | 'scale'>, where: Selector): Point[] {
   const tol = SELECTOR_TOLERANCE * geom.scale;
   switch (where.kind) {
-    case 'point':
-      return [nearestBoundaryPoint(geom, where.at).point];
+    case 'point': {
+      // a point outside the material stays as written: the mesher refuses it, naming the entry
+      const hit = nearestBoundaryPoint(geom, where.at);
+      return [hit.distance > tol && !pointInMaterial(geom as PlateGeometry, where.at) ? [where.at[0], where.at[1]] : hit.point];
+    }
     case 'segment':
       return lineOverlapEnds(geom, where.from, where.to, 0, 1, tol);
     case 'x':
@@ -53,21 +56,23 @@ export function verticesOfSelector(geom: Pick<PlateGeometry, 'pieces' | 'scale'>
 /**
  * Points that must be mesh vertices for the model's selectors (issue 12 §4), on every mesh of a solve or
  * study, like the geometry's own vertices: the boundary point a point selector means (nearestBoundaryPoint,
- * for forces and supports alike), and the ends of what a line selector catches — a segment ending inside a
+ * for forces and supports alike; a point outside the outline or inside an opening stays as written, and the
+ * mesher refuses it naming the entry), and the ends of what a line selector catches — a segment ending inside a
  * boundary piece splits that piece there, so the support or load stops exactly at its end instead of at
- * whichever node the mesh happens to have nearby. Each point once (within 1e-9 of the plate size).
+ * whichever node the mesh happens to have nearby. Loads first, then supports; each point once (within 1e-9 of
+ * the plate size).
  */
 export function selectorVertices(
   model: { supports: readonly Pick<Support, 'where'>[]; loads: readonly Pick<AnyLoad, 'where'>[]; fieldLoads?: readonly Pick<AnyLoad, 'where'>[] },
-  geom: Pick<PlateGeometry, 'pieces' | 'scale'>,
+  geom: Pick<PlateGeometry, 'pieces' | 'loops' | 'scale'>,
 ): Point[] {
   const out: Point[] = [];
   const same = 1e-9 * geom.scale;
   const add = (p: Point) => {
     if (!out.some((q) => Math.hypot(q[0] - p[0], q[1] - p[1]) <= same)) out.push(p);
   };
-  for (const s of model.supports) for (const p of verticesOfSelector(geom, s.where)) add(p);
   for (const l of model.loads) for (const p of verticesOfSelector(geom, l.where)) add(p);
   for (const l of model.fieldLoads ?? []) for (const p of verticesOfSelector(geom, l.where)) add(p);
+  for (const s of model.supports) for (const p of verticesOfSelector(geom, s.where)) add(p);
   return out;
 }
