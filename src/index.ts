@@ -48,7 +48,7 @@ export {
   type AdaptiveOptions, type AdaptiveCycle, type AdaptiveResult,
 } from './pipeline/index.js';
 export { runStudy, findSites, williamsRoots, wedgeTheory, type StudyOptions, type BaseSolve } from './study/index.js';
-export { studyTable, sitesCsv, fieldCsv, reportHtml, meshSvg, contourSvg, convergencePlotSvg, CAUTION } from './report/index.js';
+export { studyTable, sitesCsv, fieldCsv, reportHtml, meshSvg, contourSvg, convergencePlotSvg, CAUTION, bandText, formatBand } from './report/index.js';
 export { kirschPolar, kirschCartesian, lameRing, inglisKt } from './reference/index.js';
 export {
   runSweep, parseVary, expandRange, cartesian, matchSites, sweepCsv, sweepHtml, pointKey,
@@ -130,7 +130,7 @@ export function study(model: Model, opts: StudyOptions = {}): StudyResult {
 /**
  * The study repeated over parameter values, on worker threads (from the built package; pass
  * `jobs: 0` to stay in this thread). `vary` is `{ r: [0, 2, 4] }`, a list of axes, or `--vary`
- * strings such as `'r=0:2:20'`. Returns every point's study and the site families.
+ * strings such as `'r=0..20 by 2'`. Returns every point's study and the site families.
  */
 export function sweep(modelText: string, file: string, vary: Record<string, number[]> | VaryAxis[] | string[], opts: SweepOptions = {}): Promise<SweepResult> {
   let axes: VaryAxis[];

@@ -3,7 +3,8 @@
  * mesh, CST or LST, E = 210000, ν = 0.3, t = 1) at about 50k, 200k and 1M dofs. Times
  * ordering, symbolic analysis, numeric factorisation and solve, reports nnz(L), peak RSS and
  * the factor-time growth exponent, and — when the anchor program /tmp/cholmod_mtx has been
- * built (see ../shared/anchors.md) — runs it on the very same matrix and prints our/anchor ratios.
+ * built (a small program of ours that times a mature sparse Cholesky library on a Matrix Market
+ * file) — runs it on the very same matrix and prints our/anchor ratios.
  *
  * The assembly here is a self-contained few lines on purpose: the benchmark must not depend on
  * the fem stage.

@@ -267,7 +267,7 @@ mesh: { size: ${W / 10}, order: 2 }
   // measured errors 0.01–0.02 % against the references: 0.1 % is several times that
   return [bandResult({
     name: `study: strip hole d/W = ${dOverW}, Ktg`,
-    source: `Howland 1930 (Phil. Trans. A 229; ${{ '0.2': '3.14', '0.3': '3.36', '0.5': '4.32' }[String(dOverW)]} from memory); value: independent FE computation (9-node elements, Richardson extrapolation)`,
+    source: `independent FE computation (9-node quadrilaterals on graded mapped meshes, Richardson extrapolation); problem of Howland 1930 (Phil. Trans. A 229; ${{ '0.2': '3.14', '0.3': '3.36', '0.5': '4.32' }[String(dOverW)]} from memory)`,
     quantity: `study estimate of the converged von Mises peak / S, half-length ${ref.halfLength}W`,
     reference: ref.ktg, referenceUncertainty: ref.u, tolerance: 1e-3,
     site: site ?? siteAt(r, a, 0), scale: 1,
@@ -571,7 +571,7 @@ mesh: { size: 3, order: 2 }
   const edge = [siteAt(r, 1, 0), siteAt(r, -1, 0)].filter((p): p is SiteResult => p?.verdict === 'converging');
   return [bandResult({
     name: 'study: strip hole d/W = 0.1, Ktg',
-    source: 'Howland 1930 (Phil. Trans. A 229; 3.03 from memory); value: independent FE computation (9-node elements, Richardson extrapolation)',
+    source: 'independent FE computation (9-node quadrilaterals on graded mapped meshes, Richardson extrapolation); problem of Howland 1930 (Phil. Trans. A 229; 3.03 from memory)',
     quantity: 'study estimate of the converged von Mises peak / S',
     reference: ref, referenceUncertainty: u, tolerance: 1e-3,
     site: siteAt(r, 1, 0) ?? siteAt(r, -1, 0), scale: 1,

@@ -12,8 +12,9 @@ import { checksMarkdown } from './markdown.js';
 export function verificationDoc(): { markdown: string; json: string; failed: number } {
   const json = checksJson(runChecks());
   // the same results as data, for the verification strip of every report (src/cli/checks-record.ts)
-  const record = JSON.stringify({ tool: 'peakwise', version: VERSION, date: new Date().toISOString().slice(0, 10), ...json }, (_k, v: unknown) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2);
-  return { markdown: checksMarkdown(json, { version: VERSION, command: 'node dist/check/generate-doc.js' }), json: record + '\n', failed: json.cases.filter((c) => !c.pass).length };
+  const date = new Date().toISOString().slice(0, 10);
+  const record = JSON.stringify({ tool: 'peakwise', version: VERSION, date, ...json }, (_k, v: unknown) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2);
+  return { markdown: checksMarkdown(json, { version: VERSION, command: 'node dist/check/generate-doc.js', date }), json: record + '\n', failed: json.cases.filter((c) => !c.pass).length };
 }
 
 if (process.argv[1] && resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {

@@ -46,9 +46,9 @@ export function checksHtml(results: readonly CheckResult[], meta: { version: str
 <style>${CSS}</style>
 </head>
 <body>
-<h1>Verification against closed-form results</h1>
+<h1>Verification against published results and independent FE reference values</h1>
 <p class="summary">${escapeXml(summary)} <small>${escapeXml(stamp)}</small></p>
-<p>Each case builds its own model, runs the solver and compares one number with a published closed form or an independent computation; rows that run a convergence study also show whether the reference lies inside the band. Errors are relative unless the quantity says otherwise.</p>
+<p>Each case builds its own model, runs the solver and compares one number with a reference value: a published result or, where the source says “independent FE computation”, a value of an independent FE computation made for this project; rows that run a convergence study also show whether the reference lies inside the band. Errors are relative unless the quantity says otherwise.</p>
 <table>
 <thead><tr>${TABLE_HEADER.map((h) => `<th>${escapeXml(h)}</th>`).join('')}</tr></thead>
 <tbody>

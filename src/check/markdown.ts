@@ -9,8 +9,19 @@ const cell = (text: string): string => text.replace(/\|/g, '\\|').replace(/\r?\n
 const fig = (v: number | null): string => (v === null ? '—' : formatFigure(v));
 const err = (q: string, v: number | null): string => (v === null ? '—' : errorText({ quantity: q }, v));
 
-export function checksMarkdown(json: ChecksJson, meta: { version: string; command: string }): string {
+/** Marks the source of a reference value that is our own independent FE computation, not a publication. */
+export const FE_REFERENCE = 'independent FE computation';
+
+/** Whether a case compares with a published result or with an independent FE reference value. */
+export function referenceKind(source: string): 'published' | 'independent-fe' {
+  return source.startsWith(FE_REFERENCE) ? 'independent-fe' : 'published';
+}
+
+export function checksMarkdown(json: ChecksJson, meta: { version: string; command: string; date?: string }): string {
   const failed = json.cases.filter((c) => !c.pass).length;
+  const fe = json.cases.filter((c) => referenceKind(c.source) === 'independent-fe').length;
+  const published = json.cases.length - fe;
+  const recorded = meta.date ? `, recorded on ${meta.date}` : '';
   const lines = [
     '# Verification',
     '',
@@ -19,13 +30,19 @@ export function checksMarkdown(json: ChecksJson, meta: { version: string; comman
     '`peakwise check` runs the built-in verification suite: each case builds its own plate model in',
     'code, runs the same pipeline as `peakwise solve` / `peakwise study` (mesh, LST solve, SPR recovery,',
     'or the whole convergence study where a band, a verdict or an exponent is the quantity) and compares',
-    'one number with a published closed form or an independent computation. Errors are relative unless',
-    'the quantity says "absolute". Rows that run a study also show whether the reference lies inside the',
+    `one number with a reference value: ${published} of the ${json.cases.length} compare with published results (closed-form solutions,`,
+    `Williams\' eigenvalues, a handbook fit), ${fe} with reference values of an **${FE_REFERENCE}** made for this project and`,
+    'not with peakwise (their source column says so and gives the method). Errors are relative unless the',
+    'quantity says "absolute". Rows that run a study also show whether the reference lies inside the',
     'band value ± half-width (allowing the reference its own stated uncertainty); single solves read "n/a",',
-    'and so do singular sites, which have no value band (their exponent has its own tolerance). The same',
-    'cases run in the test suite (`test/check/checks.test.ts`); `peakwise check` exits with status 1 if any fails.',
+    'and so do singular sites, which have no value band (their exponent has its own tolerance). Every case',
+    'is built in dimensionless consistent units (E = 1000 or 10⁶, lengths of order 1 to 20), so the reference',
+    'and value columns are ratios or numbers in those units, as the quantity says, shown to 6 significant',
+    'digits. The same cases run in the test suite (`test/check/checks.test.ts`); `peakwise check` exits',
+    'with status 1 if any fails.',
     '',
-    `Results of peakwise ${meta.version}: ${failed === 0 ? `all ${json.cases.length} cases pass` : `${failed} of ${json.cases.length} cases FAIL`}.`,
+    `This table is the run of peakwise ${meta.version}${recorded}: ${failed === 0 ? `all ${json.cases.length} cases passed` : `${failed} of ${json.cases.length} cases FAILED`}. It is a record, not a`,
+    'guarantee for another build or machine: `peakwise check` repeats it.',
     '',
     '| case | source | quantity | reference | value | error | tolerance | reference inside band | result |',
     '| --- | --- | --- | ---: | ---: | ---: | ---: | --- | --- |',
@@ -43,8 +60,8 @@ export function checksMarkdown(json: ChecksJson, meta: { version: string; comman
     '  0°, 15° … 90° (worst deviation over 3S) and the hole widening 6Sa/E along the load. A CST run',
     '  (about 64 edges per quarter, SPR) checks the linear element on the same plate.',
     '- **Finite-width strip** (Howland 1930): W = 20, d/W = 0.2 and 0.3 with half-length 3W, 0.5 with',
-    '  half-length 2W, uniform end tension; the convergence study (5 levels). References: an independent',
-    '  FE computation with biquadratic 9-node elements on graded mapped meshes and Richardson extrapolation',
+    '  half-length 2W, uniform end tension; the convergence study (5 levels). References from an',
+    `  ${FE_REFERENCE}: biquadratic 9-node quadrilaterals on graded mapped meshes, Richardson extrapolation`,
     '  (3.153 and 3.374, GCI ≤ 2e−4; 4.3476 ± 0.0001); Howland\'s three-figure values (3.14, 3.36, 4.32) are',
     '  quoted from memory. Every converging site at (±a, 0) must hold the reference in its band.',
     '- **Inglis** (1913), finite plate: a/b = 2 and 3 across the load, 2a/W = 0.05, tip elements ρ/8',

@@ -52,7 +52,7 @@ export function runCheck(_ctx: CliContext, opts: CheckCliOptions): void {
 export function registerCheck(program: Command, ctx: CliContext): void {
   program
     .command('check')
-    .description('run the built-in verification cases against closed-form results')
+    .description('run the built-in verification cases against published results and independent FE reference values')
     .option('--json', 'print { "cases": [...] } on stdout instead of the table')
     .option('--report <file>', 'also write the table as a self-contained HTML page')
     .option('--only <ids>', 'run only these cases (comma-separated ids, e.g. kirsch,lame)')

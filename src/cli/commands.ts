@@ -100,7 +100,7 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
   const record = solveRecord(problem, run, file);
   const { mesh, solution, field, nodal } = run.level;
   const protect = [file];
-  writeFileAtomic(join(outDir, 'field.csv'), fieldCsv(mesh, solution.u, fieldColumns(model, field)), protect);
+  writeFileAtomic(join(outDir, 'field.csv'), fieldCsv(mesh, solution.u, fieldColumns(model, field), { length: model.units.length, stress: record.units.stress }), protect);
   const cut = writeCutOutputs(outDir, opts, { model, mesh, geometry: problem.geometry, field }, protect);
   if (cut && !opts.json && !opts.quiet) process.stderr.write(`peakwise: stresses along the cut written to ${cut.file}\n`);
   if (opts.exportMatrix || opts.exportLoad) exportSystem(problem, run.level, { matrix: opts.exportMatrix, load: opts.exportLoad }, protect);
@@ -117,7 +117,7 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
     process.stderr.write(`peakwise: interrupted: cycle ${last.cycle} (${last.dofs} dofs, error ${last.errorPercent.toFixed(2)} %) is written to ${outDir} (run.json has "interrupted": true)\n`);
     throw new StudyInterrupted();
   }
-  process.stdout.write(opts.json ? JSON.stringify(record, null, 2) + '\n' : solveText(record, solution, outDir, useColor(opts)));
+  process.stdout.write(opts.json ? JSON.stringify(record, null, 2) + '\n' : solveText(record, solution, outDir, useColor(opts), { model, geometry: problem.geometry, mesh }));
 }
 
 export interface StudyCliOptions extends CommonOptions, CutCliOptions {

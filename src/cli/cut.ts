@@ -111,7 +111,7 @@ export function writeCutOutputs(
   const table = cutTable(opts, input);
   if (!table) return undefined;
   const file = join(outDir, 'cut.csv');
-  writeFileAtomic(file, cutCsv(table), protect);
+  writeFileAtomic(file, cutCsv(table, { length: input.model.units.length, stress: stressUnit(input.model.units) }), protect);
   return { file, plot: cutPlotOf(table, opts, input.model) };
 }
 

@@ -60,7 +60,7 @@ export function buildProgram(): Command {
   registerCutOptions(sharedOptions(
     program
       .command('study <model>')
-      .description('find every site, refine it level after level and give a verdict')
+      .description('study the sites (theory features, stress maxima above 1.3 × the median, or the listed points): refine each level after level and give a verdict')
       .option('--levels <n>', 'refinement levels per site (overrides study.levels)')
       .option('--ratio <r>', 'element size ratio between levels (overrides study.ratio)')
       .option('--max-dofs <n>', 'cap on degrees of freedom per solve (a whole number)', maxDofsArgument, '2000000'),

@@ -13,8 +13,9 @@ import { csrSubmatrix, matrixMarketChunks, vectorToMatrixMarket } from '../linal
 import type { ErrorEstimate } from '../recovery/types.js';
 import { vonMises } from '../recovery/index.js';
 import type { AdaptiveCycle, Problem, SolvedLevel } from '../pipeline/index.js';
-import { measureName, solveSummary, type ReportRun } from '../report/index.js';
+import { measureName, solveSummary, type ReportRun, type SolveSummaryInput } from '../report/index.js';
 import { VERSION } from '../version.js';
+import { roundToScale } from '../study/index.js';
 import { fmt, modelWarnings } from './common.js';
 import { writeFileAtomic } from './io.js';
 
@@ -77,6 +78,7 @@ export function solveRecord(problem: Problem, run: SolveRun, file: string): Solv
   const gp = gaussMax(gauss);
   const t = solution.timings;
   const warnings = [...modelWarnings(model, file, selectorWarnings(model, geometry)), ...healthWarnings({ section, geometry, mesh, size: model.mesh.size, lengthUnit: model.units.length })];
+  const at = (p: readonly [number, number]): [number, number] => [roundToScale(p[0], geometry.scale), roundToScale(p[1], geometry.scale)]; // no binary tails (issue 17)
   return {
     tool: 'peakwise',
     version: VERSION,
@@ -86,14 +88,14 @@ export function solveRecord(problem: Problem, run: SolveRun, file: string): Solv
     solution: {
       dofs: solution.dofs,
       maxDisplacement: solution.maxDisplacement,
-      maxDisplacementAt: solution.maxDisplacementAt,
+      maxDisplacementAt: at(solution.maxDisplacementAt),
       reactionSum: solution.reactionSum,
       appliedSum: solution.appliedSum,
       residual: solution.residual,
       maxGaussVonMises: gp.value,
-      maxGaussVonMisesAt: gp.at,
+      maxGaussVonMisesAt: at(gp.at),
     },
-    stress: { measure: problem.measure, max: peak.value, at: peak.at, errorPercent: run.estimate.errorPercent },
+    stress: { measure: problem.measure, max: peak.value, at: at(peak.at), errorPercent: run.estimate.errorPercent },
     timings: { meshS: run.meshS, assembleS: t.assembleS, orderS: t.orderS, factorS: t.factorS, solveS: t.solveS, recoverS: run.level.timings.recoverS },
     factor: { nnzL: solution.nnzL },
     warnings,
@@ -108,7 +110,7 @@ export function solveReportRun(record: SolveRecord): ReportRun {
 }
 
 /** The terminal summary of a solve. */
-export function solveText(record: SolveRecord, solution: Solution, outDir: string, color: boolean): string {
+export function solveText(record: SolveRecord, solution: Solution, outDir: string, color: boolean, singularCheck?: SolveSummaryInput['singularCheck']): string {
   const { units, mesh, solution: s, stress, timings: t } = record;
   return solveSummary(
     {
@@ -125,6 +127,7 @@ export function solveText(record: SolveRecord, solution: Solution, outDir: strin
       timings: { mesh: t.meshS, assemble: t.assembleS, order: t.orderS, factor: t.factorS, solve: t.solveS, recover: t.recoverS },
       errorPercent: stress.errorPercent,
       residual: s.residual,
+      singularCheck,
       loadScale: solution.load.reduce((a, f) => a + Math.abs(f), 0),
       extraRows: [['max Gauss point', `von Mises ${fmt(s.maxGaussVonMises)} ${units.stress} at (${fmt(s.maxGaussVonMisesAt[0])}, ${fmt(s.maxGaussVonMisesAt[1])}) ${units.length}`]],
     },

@@ -14,6 +14,6 @@ export function writeStudyOutputs(model: Model, study: StudyResult, base: BaseSo
   writeFileAtomic(join(outDir, 'sites.csv'), sitesCsv(study), protect);
   if (!base) return;
   const { mesh, field, solution, geometry, nodal } = base;
-  writeFileAtomic(join(outDir, 'field.csv'), fieldCsv(mesh, solution.u, fieldColumns(model, field)), protect);
+  writeFileAtomic(join(outDir, 'field.csv'), fieldCsv(mesh, solution.u, fieldColumns(model, field), { length: model.units.length, stress: study.units.stress }), protect);
   writeFileAtomic(join(outDir, 'report.html'), reportHtml({ model, study, mesh, geometry, field: nodal, u: solution.u, checks: recordedChecks(), ...(cut ? { cut } : {}) }), protect);
 }

@@ -11,7 +11,7 @@ import { CAUTION } from '../report/index.js';
 import pc from 'picocolors';
 import { PeakwiseError } from '../errors.js';
 import { parseModel, stressUnit } from '../model/index.js';
-import { formatNumber } from '../report/index.js';
+import { bandText, formatNumber } from '../report/index.js';
 import {
   fromJson, memberAt, parseVary, runSweep, sweepCsv, sweepHtml, toJson,
   type PointCache, type PointOutcome, type SweepResult, type SweepStudyOptions,
@@ -79,9 +79,9 @@ function duration(s: number): string {
 
 function siteLine(s: SiteResult, unit: string, lengthUnit: string): string {
   const r = s.readouts.atDistance !== undefined && Number.isFinite(s.readouts.atDistance)
-    ? `; ${formatNumber(s.readouts.atDistance)} ${unit} at ${formatNumber(s.readouts.distance)} ${lengthUnit}`
+    ? `; point ${formatNumber(s.readouts.atDistance)} ${unit} at r = ${formatNumber(s.readouts.distance)} ${lengthUnit}`
     : '';
-  if (s.verdict === 'converging') return `${formatNumber(s.estimate.value)} ± ${formatNumber(s.estimate.uncertainty, 2)} ${unit}`;
+  if (s.verdict === 'converging') return `${bandText(s.estimate.value, s.estimate.uncertainty, unit)} (discretisation band)${s.aboveYield ? ', above yield' : ''}`;
   if (s.verdict === 'singular') return `q = ${formatNumber(s.growth.exponent, 3)} (theory ${formatNumber(s.growth.theory, 3)})${r}`;
   return `last ${formatNumber(s.estimate.value)} ${unit} (unsettled)`;
 }

@@ -59,7 +59,7 @@ export function verticesOfSelector(geom: Pick<PlateGeometry, 'pieces' | 'loops' 
  * for forces and supports alike; a point outside the outline or inside an opening stays as written, and the
  * mesher refuses it naming the entry), and the ends of what a line selector catches — a segment ending inside a
  * boundary piece splits that piece there, so the support or load stops exactly at its end instead of at
- * whichever node the mesh happens to have nearby. Loads first, then supports; each point once (within 1e-9 of
+ * whichever node the mesh happens to have nearby. Supports first, then loads; each point once (within 1e-9 of
  * the plate size).
  */
 export function selectorVertices(
@@ -71,8 +71,8 @@ export function selectorVertices(
   const add = (p: Point) => {
     if (!out.some((q) => Math.hypot(q[0] - p[0], q[1] - p[1]) <= same)) out.push(p);
   };
+  for (const s of model.supports) for (const p of verticesOfSelector(geom, s.where)) add(p);
   for (const l of model.loads) for (const p of verticesOfSelector(geom, l.where)) add(p);
   for (const l of model.fieldLoads ?? []) for (const p of verticesOfSelector(geom, l.where)) add(p);
-  for (const s of model.supports) for (const p of verticesOfSelector(geom, s.where)) add(p);
   return out;
 }

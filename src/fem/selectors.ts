@@ -115,7 +115,7 @@ function nodesOfEdges(mesh: Pick<Mesh, 'boundaryEdges' | 'edgeStride'>, edges: I
 }
 
 /**
- * The boundary edges and nodes a selector picks (design §3). Lines (`x`, `y`, `segment`)
+ * The boundary edges and nodes a selector picks (docs/model-format.md, `where`). Lines (`x`, `y`, `segment`)
  * take every boundary edge whose nodes all lie on them within SELECTOR_TOLERANCE · geom.scale;
  * `opening` and `outline` take every edge of that loop; `piece` every edge of the boundary piece nearest
  * its point; `point` the boundary vertex at the boundary point nearest to it (nearestBoundaryPoint), which

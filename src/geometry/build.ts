@@ -11,6 +11,8 @@ import { curveBBox, curveDoubleArea, curveEnd, curveLength, curveStart, curveTan
 import { buildShapeLoop, shapeExtent, STRAIGHT_TURN, type LoopDraft } from './loops.js';
 import { boxesOverlap, pieceContact, unionBox, windingNumber } from './checks.js';
 import { forEachOverlappingPair } from './predicates.js';
+import { buildBoxGrid, forEachNearBox } from './box-grid.js';
+import { windingLocator } from './query.js';
 import { fmt, fmtPoint, withMessageOrigin } from './format.js';
 
 /**
@@ -158,11 +160,18 @@ function buildAt(plate: Plate): PlateGeometry {
   drafts.forEach((d, li) => {
     if (d.polygon) checkLoopClear(d, loopPieceIds[li], pieces, pieceBoxes, tol);
   });
-  // 2. openings against the outline: no contact, and inside it
-  const outlineCurves = loopPieceIds[0].map((i) => pieces[i].curve);
+  // 2. openings against the outline: no contact, and inside it (the outline's pieces in a
+  // bucket grid, so a long outline and many openings do not meet pairwise)
+  const outlineIds = loopPieceIds[0];
+  const outlineGrid = buildBoxGrid(Float64Array.from(outlineIds.flatMap((i) => [pieceBoxes[i].minX, pieceBoxes[i].minY, pieceBoxes[i].maxX, pieceBoxes[i].maxY])));
+  const outlineWinding = windingLocator(outlineIds.map((i) => pieces[i].curve));
+  const nearSeen = new Uint8Array(outlineIds.length);
   for (let li = 1; li < drafts.length; li++) {
     const d = drafts[li];
-    const hit = loopsContact(loopPieceIds[0], loopPieceIds[li], pieces, pieceBoxes, tol);
+    const box = loopBoxes[li];
+    const near: number[] = [];
+    forEachNearBox(outlineGrid, box.minX, box.minY, box.maxX, box.maxY, tol, nearSeen, (k) => near.push(outlineIds[k]));
+    const hit = loopsContact(near, loopPieceIds[li], pieces, pieceBoxes, tol);
     if (hit) {
       throw new GeometryError(
         `${d.keyPath}: ${d.label} crosses or touches the outline near ${fmtPoint(hit)}; ` +
@@ -171,7 +180,7 @@ function buildAt(plate: Plate): PlateGeometry {
       );
     }
     const probe = curveStart(pieces[loopPieceIds[li][0]].curve);
-    if (windingNumber(outlineCurves, probe) === 0) {
+    if (outlineWinding(probe) === 0) {
       throw new GeometryError(`${d.keyPath}: ${d.label} lies outside the outline`, d.keyPath);
     }
   }

@@ -1,8 +1,9 @@
 /** Queries on a built geometry: which pieces pass near a point, inside/outside, polylines for drawing. */
 import { GeometryError } from '../errors.js';
 import type { Point } from '../model/types.js';
-import type { BoundaryPiece, PlateGeometry } from './types.js';
-import { closestOnCurve, curvePoint, curveSpeedBound, curveStart } from './curves.js';
+import type { BoundaryPiece, Curve, PlateGeometry } from './types.js';
+import { closestOnCurve, curveBBox, curvePoint, curveSpeedBound, curveStart } from './curves.js';
+import { buildBoxGrid } from './box-grid.js';
 import { windingNumber } from './checks.js';
 
 export interface PieceHit {
@@ -34,11 +35,98 @@ export function loopWinding(geom: PlateGeometry, loopId: string, p: Point): numb
   return windingNumber(loop.pieces.map((id) => geom.pieces[id].curve), p);
 }
 
-/** Is p inside the material (inside the outline and outside every opening)? Points on the boundary are undecided. */
+/**
+ * Is p inside the material (inside the outline and outside every opening)? Points on the boundary
+ * are undecided. The winding number is summed over the pieces that cross a ray from p (only those
+ * contribute to Sunday's crossing count, see windingNumber), found in a bucket grid of the pieces
+ * along the shortest of the four axis rays: a query costs the pieces near that ray, not all of
+ * them, so a plate with many openings or a long outline of many points stays fast.
+ */
 export function pointInMaterial(geom: PlateGeometry, p: Point): boolean {
-  let w = 0;
-  for (const loop of geom.loops) w += windingNumber(loop.pieces.map((id) => geom.pieces[id].curve), p);
-  return w !== 0;
+  return materialLocator(geom)(p) !== 0;
+}
+
+const LOCATORS = new WeakMap<PlateGeometry, (p: Point) => number>();
+
+/** Rotations that take the ray direction +x, +y, −x, −y onto +x (exact on coordinates). */
+const TURNS: readonly ((q: Point) => Point)[] = [
+  (q) => [q[0], q[1]],
+  (q) => [q[1], -q[0]],
+  (q) => [-q[0], -q[1]],
+  (q) => [-q[1], q[0]],
+];
+const TURN_ANGLE = [0, -Math.PI / 2, Math.PI, Math.PI / 2];
+
+function turnCurve(c: Curve, k: number): Curve {
+  const turn = TURNS[k];
+  if (c.kind === 'line') return { kind: 'line', from: turn(c.from), to: turn(c.to) };
+  const ends = { ...(c.from ? { from: turn(c.from) } : {}), ...(c.to ? { to: turn(c.to) } : {}) };
+  if (c.kind === 'arc') return { ...c, center: turn(c.center), startAngle: c.startAngle + TURN_ANGLE[k], ...ends };
+  return { ...c, center: turn(c.center), rotation: c.rotation + TURN_ANGLE[k], ...ends };
+}
+
+function materialLocator(geom: PlateGeometry): (p: Point) => number {
+  const cached = LOCATORS.get(geom);
+  if (cached) return cached;
+  const locate = windingLocator(geom.pieces.map((piece) => piece.curve));
+  LOCATORS.set(geom, locate);
+  return locate;
+}
+
+/**
+ * The winding number about p of closed chains of curves (one or more loops), as
+ * `windingNumber` gives it, through a bucket grid of the curves: only those along the shortest
+ * axis ray from p are visited.
+ */
+export function windingLocator(all: readonly Curve[]): (p: Point) => number {
+  const n = all.length;
+  const boxes = new Float64Array(4 * n);
+  all.forEach((c, i) => {
+    const b = curveBBox(c);
+    boxes.set([b.minX, b.minY, b.maxX, b.maxY], 4 * i);
+  });
+  const grid = buildBoxGrid(boxes);
+  const turned: Curve[][] = [0, 1, 2, 3].map((k) => all.map((c) => turnCurve(c, k)));
+  const stamp = new Int32Array(n);
+  let visit = 0;
+  const one: Curve[] = [all[0]];
+  const locate = (p: Point): number => {
+    visit++;
+    const { nx, ny, cw, ch } = grid;
+    const fi = Math.floor((p[0] - grid.minX) / cw), fj = Math.floor((p[1] - grid.minY) / ch);
+    // cells a ray crosses in each direction (0 when it misses the grid's row or column)
+    const inRow = fj >= 0 && fj < ny, inCol = fi >= 0 && fi < nx;
+    const cells = [
+      inRow ? nx - Math.max(0, fi) : 0, inCol ? ny - Math.max(0, fj) : 0,
+      inRow ? Math.min(nx - 1, fi) + 1 : 0, inCol ? Math.min(ny - 1, fj) + 1 : 0,
+    ];
+    let k = 0;
+    for (let d = 1; d < 4; d++) if (cells[d] < cells[k]) k = d;
+    const curves = turned[k];
+    const q = TURNS[k](p);
+    let w = 0;
+    const add = (id: number): void => {
+      if (stamp[id] === visit) return;
+      stamp[id] = visit;
+      one[0] = curves[id];
+      w += windingNumber(one, q);
+    };
+    for (let m = 0; m < grid.large.length; m++) add(grid.large[m]);
+    if (cells[k] > 0) {
+      const step = k === 0 || k === 1 ? 1 : -1;
+      const horizontal = k === 0 || k === 2;
+      let i = Math.min(nx - 1, Math.max(0, fi)), j = Math.min(ny - 1, Math.max(0, fj));
+      for (let c = 0; c < cells[k]; c++) {
+        const cell = i * ny + j;
+        for (let m = grid.start[cell]; m < grid.start[cell + 1]; m++) add(grid.items[m]);
+        if (horizontal) i += step;
+        else j += step;
+      }
+    }
+    // the turned frame reverses no orientation (rotations), so the count is the same integer
+    return w;
+  };
+  return locate;
 }
 
 /**

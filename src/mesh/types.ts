@@ -1,5 +1,5 @@
 /**
- * A triangle mesh as flat typed arrays (STYLE §3).
+ * A triangle mesh as flat typed arrays (DEVELOPERS.md: stages work on flat typed arrays).
  *
  * Local numbering of a 6-node triangle (LST); a 3-node triangle (CST) has only 0, 1, 2:
  *

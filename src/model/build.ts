@@ -245,6 +245,14 @@ export function buildModel(
   const nu = b.num(raw.material.nu, 'material.nu', "Poisson's ratio nu", {
     test: (v) => v > -1 && v < 0.5, text: 'must lie strictly between -1 and 0.5',
   });
+  const yieldStress = raw.material.yield === undefined ? undefined : b.num(raw.material.yield, 'material.yield', 'yield stress', POSITIVE, stress);
+  // yield strains of solids stay well below 5 % (steel 0.2 %, polymers a few %): above it the units are likely mixed
+  if (yieldStress !== undefined && yieldStress > 0.05 * E) {
+    b.warnings.push({
+      keyPath: 'material.yield',
+      message: `yield = ${formatNumber(yieldStress)} ${stress} is more than 5 % of E = ${formatNumber(E)} ${stress}; check that both are in ${stress}`,
+    });
+  }
   const toMPa = stressToMPa(units);
   if (toMPa !== undefined) {
     const eMPa = E * toMPa;
@@ -381,7 +389,7 @@ export function buildModel(
     file,
     units,
     params: { ...params },
-    material: { E, nu },
+    material: { E, nu, ...(yieldStress !== undefined ? { yield: yieldStress } : {}) },
     thickness,
     state: raw.state ?? 'plane-stress',
     plate: { outline, openings },

@@ -1,4 +1,4 @@
-/** Model stage: model file text → evaluated, validated Model (design.md §3). */
+/** Model stage: model file text → evaluated, validated Model (docs/model-format.md). */
 export type * from './types.js';
 export { parseModel, locate, formatModelError, pointKeyPath, type ParseOptions } from './parse.js';
 export { stressUnit, stressToMPa, DEFAULT_UNITS, type UnitLabels } from './units.js';

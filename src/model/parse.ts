@@ -22,7 +22,7 @@ export interface ParseOptions {
 }
 
 /**
- * Parse, evaluate and validate a model file (design.md §3). Throws ModelError whose
+ * Parse, evaluate and validate a model file (docs/model-format.md). Throws ModelError whose
  * message is the part after the key path; `formatModelError` gives the full line.
  */
 export function parseModel(text: string, file: string, options: ParseOptions = {}): Model {

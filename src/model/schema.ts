@@ -1,5 +1,5 @@
 /**
- * The shape of a model file before evaluation (design.md §3, version 1), as zod schemas.
+ * The shape of a model file before evaluation (docs/model-format.md, version 1), as zod schemas.
  * Numbers may still be expressions here; value rules (thickness > 0, …) come after the
  * expressions are evaluated, in build.ts. Every schema carries its own message so that the
  * translation in issues.ts can print them as they are.
@@ -290,7 +290,7 @@ export const ModelFileSchema = mapping(
     title: z.string({ error: expected('a title (text)') }).optional(),
     units: mapping({ length: Label.optional(), force: Label.optional() }, 'units { length, force }').optional(),
     params: z.record(z.string(), NumberLike, { error: expected('a mapping of names to numbers') }).optional(),
-    material: mapping({ E: NumberLike, nu: NumberLike }, 'a material { E, nu }'),
+    material: mapping({ E: NumberLike, nu: NumberLike, yield: NumberLike.optional() }, 'a material { E, nu, yield }'),
     thickness: NumberLike,
     state: word(STATES).optional(),
     plate: mapping(

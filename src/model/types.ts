@@ -1,5 +1,5 @@
 /**
- * The evaluated model (design.md §3, version 1) as plain data. Every expression has been
+ * The evaluated model (docs/model-format.md, version 1) as plain data. Every expression has been
  * evaluated to a number; every default has been filled in. Nothing here refers back to the
  * YAML document except `sourceMap`, which maps key paths to file positions for messages.
  */
@@ -151,6 +151,11 @@ export interface CriticalDistance {
 export interface Material {
   E: number;
   nu: number;
+  /**
+   * yield stress of the material (stress units), when given: a converged value above it is
+   * flagged (the linear-elastic result then expects local yielding)
+   */
+  yield?: number;
 }
 
 export type PlaneState = 'plane-stress' | 'plane-strain';

@@ -14,7 +14,7 @@ const EQUILATERAL = Math.sqrt(3) / 4;
  * New element sizes from the Zienkiewicz–Zhu (1987) criterion: with m elements, target error
  * η_goal and ‖U‖² = ‖u_h‖² + ‖e*‖², the permissible element error is ē = η_goal·‖U‖/√m; an
  * element with ξ = ‖e*‖_T/ē gets h_new = h_T ξ^(−1/p), limited to the cap per cycle.
- * O. C. Zienkiewicz & J. Z. Zhu, IJNME 24 (1987) 337–357 (reference-values §12).
+ * O. C. Zienkiewicz & J. Z. Zhu, IJNME 24 (1987) 337–357.
  */
 export function zzElementSizes(
   mesh: Mesh,

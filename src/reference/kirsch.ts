@@ -36,7 +36,7 @@ export function kirschCartesian(S: number, a: number, x: number, y: number): { s
 
 /**
  * Kirsch (1898) displacements, without rigid-body part (u_x = 0 on x = 0, u_y = 0 on y = 0).
- * Re-derived from the strains in the project's reference notes (item 1).
+ * Re-derived by integrating the strains of Kirsch's stress field (Hooke's law, plane stress or strain).
  */
 export function kirschDisplacement(
   S: number, a: number, x: number, y: number, E: number, nu: number, state: PlaneState = 'plane-stress',

@@ -58,7 +58,7 @@ export function wedgeModeIField(w: WedgeModeI, x: number, y: number): { sxx: num
 }
 
 /**
- * The L-shaped test domain of the project's reference notes (item 6): [−1, 1]² minus the quadrant x > 0, y < 0,
+ * The classic L-shaped test domain of corner-singularity benchmarks: [−1, 1]² minus the quadrant x > 0, y < 0,
  * re-entrant 270° corner at the origin, bisector at 135°, λ = 0.5444837368 (the 270° free–free symmetric root),
  * A = 1.
  */

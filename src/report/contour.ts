@@ -1,5 +1,6 @@
 /**
- * Filled contour picture of a nodal scalar field (SVG, our own drawing code).
+ * Filled contour picture of a nodal scalar field (SVG, our own drawing code): the drawing.
+ * Resampling lives in resample.ts, the colour range and bar in colour-scale.ts.
  *
  * Every linear triangle (CST element, or each of the four sub-triangles of an LST element) is
  * split into iso-band polygons (isobands.ts); the polygons of one band are gathered into one
@@ -11,11 +12,13 @@
  */
 import type { Mesh } from '../mesh/types.js';
 import type { Point } from '../model/types.js';
+import { type ColourRange, colourBarSvg, colourRange } from './colour-scale.js';
 import {
-  type Box, type Frame, boundaryLoops, c1, forEachLinearTriangle, linearTriangleCount, loopsPath, makeFrame,
-  meshBox, niceTicks, padBox, px, py,
+  type Box, type Frame, boundaryLoops, c1, linearTriangles, loopsPath, makeFrame, meetsBox, meshBox, padBox, px, py,
+  triangleMeetsBox,
 } from './draw.js';
-import { type BandScale, bandColour, bandEdge, bandScale, colourAt, triangleBands } from './isobands.js';
+import { type BandScale, bandColour, bandEdge, bandScale, triangleBands } from './isobands.js';
+import { countInWindow, gridForBudget, resampleTriangles } from './resample.js';
 import { escapeXml, formatNumber, safeId } from './text.js';
 
 export interface ContourOptions {
@@ -92,162 +95,22 @@ class BandPaths {
   };
 }
 
-function intersects(b: Box, x0: number, y0: number, x1: number, y1: number): boolean {
-  return x1 >= b.minX && x0 <= b.maxX && y1 >= b.minY && y0 <= b.maxY;
-}
-
-/** Triangles of the mesh whose bounding box meets the window. */
-function countInWindow(mesh: Mesh, box: Box): number {
-  const xy = mesh.xy;
-  let count = 0;
-  forEachLinearTriangle(mesh, (a, b, c) => {
-    const xa = xy[2 * a], xb = xy[2 * b], xc = xy[2 * c], ya = xy[2 * a + 1], yb = xy[2 * b + 1], yc = xy[2 * c + 1];
-    if (intersects(box, Math.min(xa, xb, xc), Math.min(ya, yb, yc), Math.max(xa, xb, xc), Math.max(ya, yb, yc))) count++;
-  });
-  return count;
-}
-
-function rangeInWindow(xy: Float64Array, values: Float64Array, box: Box): [number, number] {
-  let lo = Infinity, hi = -Infinity;
-  for (let n = 0; n < values.length; n++) {
-    const x = xy[2 * n], y = xy[2 * n + 1], v = values[n];
-    if (x < box.minX || x > box.maxX || y < box.minY || y > box.maxY || !Number.isFinite(v)) continue;
-    if (v < lo) lo = v;
-    if (v > hi) hi = v;
-  }
-  if (lo > hi) {
-    for (let n = 0; n < values.length; n++) {
-      const v = values[n];
-      if (!Number.isFinite(v)) continue;
-      if (v < lo) lo = v;
-      if (v > hi) hi = v;
-    }
-  }
-  return lo > hi ? [0, 1] : [lo, hi];
-}
-
-/**
- * Colour range over the window. The top is capped at the area quantile `q` (nodal areas from
- * the linear triangles, values binned in 4096 classes) when the values above it stretch the
- * scale by more than a quarter: a singular peak then no longer turns the whole plate one colour.
- */
-export function colourRange(
-  mesh: Mesh, values: Float64Array, box: Box, q: number | false,
-): { lo: number; hi: number; max: number; capped: boolean } {
-  const [lo, max] = rangeInWindow(mesh.xy, values, box);
-  if (q === false || !(q > 0 && q < 1) || !(max > lo)) return { lo, hi: max, max, capped: false };
-  const bins = 4096;
-  const areaIn = new Float64Array(bins);
-  const xy = mesh.xy;
-  let total = 0;
-  const inside = (n: number) => {
-    const x = xy[2 * n], y = xy[2 * n + 1];
-    return x >= box.minX && x <= box.maxX && y >= box.minY && y <= box.maxY && Number.isFinite(values[n]);
-  };
-  const add = (n: number, w: number) => {
-    if (!inside(n)) return;
-    const k = Math.min(bins - 1, Math.floor(((values[n] - lo) / (max - lo)) * bins));
-    areaIn[k] += w;
-    total += w;
-  };
-  forEachLinearTriangle(mesh, (a, b, c) => {
-    const w = Math.abs((xy[2 * b] - xy[2 * a]) * (xy[2 * c + 1] - xy[2 * a + 1]) - (xy[2 * c] - xy[2 * a]) * (xy[2 * b + 1] - xy[2 * a + 1])) / 6;
-    add(a, w);
-    add(b, w);
-    add(c, w);
-  });
-  if (!(total > 0)) return { lo, hi: max, max, capped: false };
-  let acc = 0;
-  let k = 0;
-  for (; k < bins; k++) {
-    acc += areaIn[k];
-    if (acc >= q * total) break;
-  }
-  const top = lo + ((k + 1) / bins) * (max - lo);
-  if (max - top > 0.25 * (top - lo)) return { lo, hi: top, max, capped: true };
-  return { lo, hi: max, max, capped: false };
-}
-
-/** Fine drawing: every triangle in the window, split into bands. */
-function drawTriangles(mesh: Mesh, values: Float64Array, box: Box, paths: BandPaths): void {
-  const xy = mesh.xy;
-  forEachLinearTriangle(mesh, (a, b, c) => {
-    const xa = xy[2 * a], xb = xy[2 * b], xc = xy[2 * c], ya = xy[2 * a + 1], yb = xy[2 * b + 1], yc = xy[2 * c + 1];
-    if (!intersects(box, Math.min(xa, xb, xc), Math.min(ya, yb, yc), Math.max(xa, xb, xc), Math.max(ya, yb, yc))) return;
+/** Fine drawing: every linear triangle in the window, split into bands. */
+function drawTriangles(xy: Float64Array, tri: Uint32Array, values: Float64Array, box: Box, paths: BandPaths): void {
+  const nTri = tri.length / 3;
+  for (let t = 0; t < nTri; t++) {
+    if (!triangleMeetsBox(xy, tri, t, box)) continue;
+    const a = tri[3 * t], b = tri[3 * t + 1], c = tri[3 * t + 2];
     const va = values[a], vb = values[b], vc = values[c];
-    if (!Number.isFinite(va) || !Number.isFinite(vb) || !Number.isFinite(vc)) return;
-    triangleBands(xa, ya, va, xb, yb, vb, xc, yc, vc, paths.scale, paths.sink);
-  });
-}
-
-/**
- * The field sampled on a regular grid over the window: grid node values by linear
- * interpolation in the mesh triangle that holds them (NaN outside the plate), then two
- * passes that give nodes just outside the plate the mean of their sampled neighbours, so grid
- * cells cut by the boundary are filled up to the boundary clip.
- */
-export function resampleOnGrid(
-  mesh: Mesh, values: Float64Array, box: Box, nx: number, ny: number,
-): { gx: number; gy: number; v: Float64Array } {
-  const gx = (box.maxX - box.minX) / nx, gy = (box.maxY - box.minY) / ny;
-  const stride = nx + 1;
-  const v = new Float64Array((nx + 1) * (ny + 1)).fill(NaN);
-  const xy = mesh.xy;
-  forEachLinearTriangle(mesh, (a, b, c) => {
-    const xa = xy[2 * a], xb = xy[2 * b], xc = xy[2 * c], ya = xy[2 * a + 1], yb = xy[2 * b + 1], yc = xy[2 * c + 1];
-    const i0 = Math.max(0, Math.ceil((Math.min(xa, xb, xc) - box.minX) / gx));
-    const i1 = Math.min(nx, Math.floor((Math.max(xa, xb, xc) - box.minX) / gx));
-    if (i0 > i1) return;
-    const j0 = Math.max(0, Math.ceil((Math.min(ya, yb, yc) - box.minY) / gy));
-    const j1 = Math.min(ny, Math.floor((Math.max(ya, yb, yc) - box.minY) / gy));
-    if (j0 > j1) return;
-    const det = (xb - xa) * (yc - ya) - (xc - xa) * (yb - ya);
-    if (det === 0) return;
-    const va = values[a], vb = values[b], vc = values[c];
-    const tol = -1e-9;
-    for (let j = j0; j <= j1; j++) {
-      const y = box.minY + j * gy;
-      for (let i = i0; i <= i1; i++) {
-        const x = box.minX + i * gx;
-        const la = ((xb - x) * (yc - y) - (xc - x) * (yb - y)) / det;
-        const lb = ((xc - x) * (ya - y) - (xa - x) * (yc - y)) / det;
-        const lc = 1 - la - lb;
-        if (la < tol || lb < tol || lc < tol) continue;
-        v[j * stride + i] = la * va + lb * vb + lc * vc;
-      }
-    }
-  });
-  for (let pass = 0; pass < 2; pass++) {
-    const filled = v.slice();
-    for (let j = 0; j <= ny; j++) {
-      for (let i = 0; i <= nx; i++) {
-        if (!Number.isNaN(v[j * stride + i])) continue;
-        let sum = 0, count = 0;
-        for (let dj = -1; dj <= 1; dj++) {
-          for (let di = -1; di <= 1; di++) {
-            const ii = i + di, jj = j + dj;
-            if (ii < 0 || jj < 0 || ii > nx || jj > ny) continue;
-            const w = v[jj * stride + ii];
-            if (!Number.isNaN(w)) {
-              sum += w;
-              count++;
-            }
-          }
-        }
-        if (count > 0) filled[j * stride + i] = sum / count;
-      }
-    }
-    v.set(filled);
+    if (!Number.isFinite(va) || !Number.isFinite(vb) || !Number.isFinite(vc)) continue;
+    triangleBands(xy[2 * a], xy[2 * a + 1], va, xy[2 * b], xy[2 * b + 1], vb, xy[2 * c], xy[2 * c + 1], vc, paths.scale, paths.sink);
   }
-  return { gx, gy, v };
 }
 
-function drawGrid(mesh: Mesh, values: Float64Array, box: Box, budget: number, paths: BandPaths): number {
-  const dx = box.maxX - box.minX, dy = box.maxY - box.minY;
-  const cells = Math.max(1, Math.floor(budget / 2));
-  const nx = Math.max(1, Math.round(Math.sqrt((cells * dx) / dy)));
-  const ny = Math.max(1, Math.floor(cells / nx));
-  const { gx, gy, v } = resampleOnGrid(mesh, values, box, nx, ny);
+/** Coarse drawing: the field resampled on a regular grid within the budget; returns the triangles drawn. */
+function drawGrid(xy: Float64Array, tri: Uint32Array, values: Float64Array, box: Box, budget: number, paths: BandPaths): number {
+  const { nx, ny } = gridForBudget(box, budget);
+  const { gx, gy, v } = resampleTriangles(xy, tri, values, box, nx, ny);
   const stride = nx + 1;
   let drawn = 0;
   for (let j = 0; j < ny; j++) {
@@ -288,7 +151,7 @@ function meshOverlayPath(mesh: Mesh, f: Frame, maxEdges: number): string | undef
       if (seen.has(key)) continue;
       seen.add(key);
       const xa = xy[2 * a], ya = xy[2 * a + 1], xb = xy[2 * b], yb = xy[2 * b + 1];
-      if (!intersects(f.box, Math.min(xa, xb), Math.min(ya, yb), Math.max(xa, xb), Math.max(ya, yb))) continue;
+      if (!meetsBox(f.box, Math.min(xa, xb), Math.min(ya, yb), Math.max(xa, xb), Math.max(ya, yb))) continue;
       if (++count > maxEdges) return undefined;
       d += `M${c1(px(f, xa))} ${c1(py(f, ya))}`;
       if (npe === 6) {
@@ -316,43 +179,6 @@ export function wrapWords(text: string, width: number): string[] {
   return lines;
 }
 
-/** The continuous colour bar: a slim rounded bar, ticks on its right, end values in bold. */
-export function colourBarSvg(
-  x: number, y: number, height: number, scale: BandScale, units: string, gradientId: string, capped = false,
-): string {
-  const w = 14;
-  const stops: string[] = [];
-  for (let i = 0; i <= 20; i++) {
-    const t = i / 20;
-    stops.push(`<stop offset="${t}" stop-color="${colourAt(t)}"/>`);
-  }
-  const valueY = (v: number) => y + height - ((v - scale.lo) / (scale.hi - scale.lo)) * height;
-  const parts: string[] = [
-    `<g class="colour-bar">`,
-    `<defs><linearGradient id="${gradientId}" x1="0" y1="1" x2="0" y2="0">${stops.join('')}</linearGradient></defs>`,
-    `<text class="bar-heading" x="${x}" y="${y - 14}" font-size="11" font-weight="600" fill="#222">${escapeXml(units)}</text>`,
-    `<rect x="${x}" y="${y}" width="${w}" height="${height}" rx="4" fill="url(#${gradientId})" stroke="#333" stroke-width="0.6"/>`,
-  ];
-  const endLabel = (v: number, yy: number, cls: string, prefix = '') =>
-    `<text class="${cls}" x="${x + w + 6}" y="${c1(yy + 4)}" font-size="11" font-weight="700" fill="#111">${escapeXml(prefix + formatNumber(v))}</text>`;
-  parts.push(endLabel(scale.hi, y, 'bar-max', capped ? '≥ ' : ''), endLabel(scale.lo, y + height, 'bar-min'));
-  if (capped) {
-    // an open top: a small arrowhead above the bar says the scale continues beyond its end
-    parts.push(`<path d="M${x} ${y - 2}L${x + w / 2} ${y - 8} ${x + w} ${y - 2}Z" fill="${colourAt(1)}" stroke="#333" stroke-width="0.6"/>`);
-  }
-  const minGap = 14;
-  for (const t of niceTicks(scale.lo, scale.hi, 5)) {
-    const ty = valueY(t);
-    if (ty < y + minGap || ty > y + height - minGap) continue;
-    parts.push(
-      `<line x1="${x + w}" x2="${x + w + 4}" y1="${c1(ty)}" y2="${c1(ty)}" stroke="#333" stroke-width="0.8"/>`,
-      `<text x="${x + w + 6}" y="${c1(ty + 4)}" font-size="10" fill="#444">${escapeXml(formatNumber(t))}</text>`,
-    );
-  }
-  parts.push('</g>');
-  return parts.join('');
-}
-
 /** A site marker: white-and-dark double ring, a short leader and the id in a pill. */
 export function siteMarkerSvg(x: number, y: number, id: string, flipLeft: boolean, below = false): string {
   const label = escapeXml(id);
@@ -372,47 +198,43 @@ export function siteMarkerSvg(x: number, y: number, id: string, flipLeft: boolea
   );
 }
 
-/**
- * Filled contour of a nodal field: smooth iso-bands, continuous colour bar with units and the
- * end values, plate outline, optional deformed outline, mesh overlay and site rings.
- */
-export function contourSvg(mesh: Mesh, values: Float64Array, opts: ContourOptions): string {
-  const nNodes = mesh.xy.length / 2;
-  if (values.length !== nNodes) {
-    throw new TypeError(`contourSvg: field must hold one value per node (${nNodes}), got ${values.length}`);
-  }
-  if (opts.deformed && opts.deformed.u.length !== 2 * nNodes) {
-    throw new TypeError(`contourSvg: displacements must hold 2 values per node (${2 * nNodes}), got ${opts.deformed.u.length}`);
-  }
-  const prefix = safeId(opts.idPrefix ?? defaultPrefix(opts));
-  const box = opts.viewBox ?? padBox(meshBox(mesh.xy, opts.deformed), 0.03);
-  const top = 44;
-  const frame = makeFrame(box, opts.width ?? 640, opts.maxHeight ?? 520, 12, top);
-  const range = opts.range
-    ? { lo: opts.range[0], hi: opts.range[1], max: opts.range[1], capped: false }
-    : colourRange(mesh, values, box, opts.capQuantile ?? 0.995);
-  const scale = bandScale(range.lo, range.hi, opts.levels ?? DEFAULT_LEVELS);
-  const paths = new BandPaths(scale, frame);
-  const budget = opts.maxTriangles ?? DEFAULT_MAX_TRIANGLES;
-  const inWindow = countInWindow(mesh, box);
-  const loops = boundaryLoops(mesh);
-  const notes: string[] = [];
-  let clipPlate = false;
-  if (inWindow <= budget) {
-    drawTriangles(mesh, values, box, paths);
-  } else {
-    const drawn = drawGrid(mesh, values, box, budget, paths);
-    clipPlate = loops.length > 0 && loops.every((l) => l.closed);
-    notes.push(
-      `Drawn from a regular resampling (${drawn.toLocaleString('en-US')} triangles) of the ${inWindow.toLocaleString('en-US')} mesh triangles in view; the data files hold every node.`,
-    );
-  }
+/** The band paths of the picture, and how they were drawn. */
+interface DrawnBands {
+  paths: BandPaths;
+  /** the picture was resampled on a grid: clip it to the plate outline */
+  clipPlate: boolean;
+  /** the sentence saying so, when resampled */
+  note?: string;
+}
 
-  const barHeight = Math.max(150, Math.min(frame.height - 20, 340));
-  const barX = frame.ox + frame.width + 28;
-  const plotBottom = top + Math.max(frame.height, barHeight + 20);
+/** Step 1: the field as band polygons, triangle by triangle or (above the budget) from a grid. */
+function drawBands(
+  mesh: Mesh, tri: Uint32Array, values: Float64Array, box: Box, scale: BandScale, frame: Frame,
+  budget: number, loops: { closed: boolean }[],
+): DrawnBands {
+  const paths = new BandPaths(scale, frame);
+  const inWindow = countInWindow(mesh.xy, tri, box);
+  if (inWindow <= budget) {
+    drawTriangles(mesh.xy, tri, values, box, paths);
+    return { paths, clipPlate: false };
+  }
+  const drawn = drawGrid(mesh.xy, tri, values, box, budget, paths);
+  return {
+    paths,
+    clipPlate: loops.length > 0 && loops.every((l) => l.closed),
+    note: `Drawn from a regular resampling (${drawn.toLocaleString('en-US')} triangles) of the ${inWindow.toLocaleString('en-US')} mesh triangles in view; the data files hold every node.`,
+  };
+}
+
+/** Step 2: clip paths, the band group and the outline inside the window clip; legend items for what it drew. */
+function windowLayer(
+  mesh: Mesh, opts: ContourOptions, prefix: string, frame: Frame, bands: DrawnBands, outline: string,
+  loops: { nodes: number[]; closed: boolean }[],
+): { svg: string; legend: string[]; notes: string[] } {
+  const { paths, clipPlate } = bands;
+  const scale = paths.scale;
   const legend: string[] = [];
-  const outline = loopsPath(frame, mesh.xy, loops);
+  const notes: string[] = [];
   const body: string[] = [];
   const clipRect = `${prefix}-window`;
   body.push(
@@ -448,49 +270,99 @@ export function contourSvg(mesh: Mesh, values: Float64Array, opts: ContourOption
     );
   }
   body.push('</g>');
-  // markers sit above the window clip so that a label next to the frame edge stays whole
-  for (const site of opts.sites ?? []) {
+  return { svg: body.join(''), legend, notes };
+}
+
+/** Step 3: site rings, above the window clip so that a label next to the frame edge stays whole. */
+function siteMarkers(sites: ContourOptions['sites'], box: Box, frame: Frame): string {
+  const out: string[] = [];
+  for (const site of sites ?? []) {
     const [x, y] = site.at;
     if (x < box.minX || x > box.maxX || y < box.minY || y > box.maxY) continue;
     const sx = px(frame, x), sy = py(frame, y);
-    body.push(siteMarkerSvg(sx, sy, site.id, sx > frame.ox + frame.width - 60, sy < frame.oy + 26));
+    out.push(siteMarkerSvg(sx, sy, site.id, sx > frame.ox + frame.width - 60, sy < frame.oy + 26));
   }
-  body.push(
-    `<rect x="${c1(frame.ox)}" y="${c1(frame.oy)}" width="${c1(frame.width)}" height="${c1(frame.height)}" fill="none" stroke="#bbb" stroke-width="0.6"/>`,
-  );
-  body.push(colourBarSvg(barX, top + 20, barHeight, scale, opts.units, `${prefix}-ramp`, range.capped));
-  if (range.capped) {
-    notes.push(
-      `Colour scale capped at ${formatNumber(range.hi)}: the values above it, up to ${formatNumber(range.max)}, cover under ${formatNumber(100 * (1 - (opts.capQuantile || 0.995)), 2)} % of the area in view and show in the top colour.`,
-    );
-  }
+  return out.join('');
+}
 
+/** The sentence under a capped colour scale. */
+function cappedNote(range: ColourRange, capQuantile: number | false | undefined): string {
+  return `Colour scale capped at ${formatNumber(range.hi)}: the values above it, up to ${formatNumber(range.max)}, cover under ${formatNumber(100 * (1 - (capQuantile || 0.995)), 2)} % of the area in view and show in the top colour.`;
+}
+
+/** Step 4: legend items and wrapped notes below the picture, from `top`; returns the markup and the bottom. */
+function captionLines(legend: string[], notes: string[], x: number, top: number, perLine: number): { svg: string; bottom: number } {
   const lines: string[] = [];
-  let ly = plotBottom + 20;
+  let ly = top;
   for (const item of legend) {
-    lines.push(`<g transform="translate(${c1(frame.ox)} ${c1(ly)})">${item}</g>`);
+    lines.push(`<g transform="translate(${c1(x)} ${c1(ly)})">${item}</g>`);
     ly += 18;
   }
-  // notes wrap to the picture width (about 5.6 px per character at 10.5 px)
-  const perLine = Math.max(30, Math.floor((barX + 90 - frame.ox) / 5.6));
   for (const note of notes) {
     for (const line of wrapWords(note, perLine)) {
-      lines.push(`<text class="note" x="${c1(frame.ox)}" y="${c1(ly)}" font-size="10.5" fill="#555">${escapeXml(line)}</text>`);
+      lines.push(`<text class="note" x="${c1(x)}" y="${c1(ly)}" font-size="10.5" fill="#555">${escapeXml(line)}</text>`);
       ly += 14;
     }
     ly += 2;
   }
+  return { svg: lines.join(''), bottom: ly };
+}
+
+function checkContourInput(mesh: Mesh, values: Float64Array, opts: ContourOptions): void {
+  const nNodes = mesh.xy.length / 2;
+  if (values.length !== nNodes) {
+    throw new TypeError(`contourSvg: field must hold one value per node (${nNodes}), got ${values.length}`);
+  }
+  if (opts.deformed && opts.deformed.u.length !== 2 * nNodes) {
+    throw new TypeError(`contourSvg: displacements must hold 2 values per node (${2 * nNodes}), got ${opts.deformed.u.length}`);
+  }
+}
+
+/**
+ * Filled contour of a nodal field: smooth iso-bands, continuous colour bar with units and the
+ * end values, plate outline, optional deformed outline, mesh overlay and site rings.
+ */
+export function contourSvg(mesh: Mesh, values: Float64Array, opts: ContourOptions): string {
+  checkContourInput(mesh, values, opts);
+  const prefix = safeId(opts.idPrefix ?? defaultPrefix(opts));
+  const box = opts.viewBox ?? padBox(meshBox(mesh.xy, opts.deformed), 0.03);
+  const top = 44;
+  const frame = makeFrame(box, opts.width ?? 640, opts.maxHeight ?? 520, 12, top);
+  const tri = linearTriangles(mesh);
+  const range: ColourRange = opts.range
+    ? { lo: opts.range[0], hi: opts.range[1], max: opts.range[1], capped: false }
+    : colourRange(mesh, values, box, opts.capQuantile ?? 0.995, tri);
+  const scale = bandScale(range.lo, range.hi, opts.levels ?? DEFAULT_LEVELS);
+  const loops = boundaryLoops(mesh);
+  const bands = drawBands(mesh, tri, values, box, scale, frame, opts.maxTriangles ?? DEFAULT_MAX_TRIANGLES, loops);
+
+  const barHeight = Math.max(150, Math.min(frame.height - 20, 340));
+  const barX = frame.ox + frame.width + 28;
+  const plotBottom = top + Math.max(frame.height, barHeight + 20);
+  const outline = loopsPath(frame, mesh.xy, loops);
+  const layer = windowLayer(mesh, opts, prefix, frame, bands, outline, loops);
+  const notes = [...(bands.note ? [bands.note] : []), ...layer.notes, ...(range.capped ? [cappedNote(range, opts.capQuantile)] : [])];
+  const frameRect =
+    `<rect x="${c1(frame.ox)}" y="${c1(frame.oy)}" width="${c1(frame.width)}" height="${c1(frame.height)}" fill="none" stroke="#bbb" stroke-width="0.6"/>`;
+  const bar = colourBarSvg(barX, top + 20, barHeight, scale, opts.units, `${prefix}-ramp`, range.capped);
+
+  // notes wrap to the picture width (about 5.6 px per character at 10.5 px)
+  const perLine = Math.max(30, Math.floor((barX + 90 - frame.ox) / 5.6));
+  const caption = captionLines(layer.legend, notes, frame.ox, plotBottom + 20, perLine);
   // room for the bar heading (about 6.2 px per character at 11 px) and the tick labels
   const width = Math.ceil(barX + Math.max(110, 6.2 * [...opts.units].length + 8));
-  const height = Math.ceil(ly);
+  const height = Math.ceil(caption.bottom);
   const title = escapeXml(opts.title);
   return (
     `<svg xmlns="http://www.w3.org/2000/svg" class="contour${opts.className ? ' ' + escapeXml(opts.className) : ''}" ` +
     `viewBox="0 0 ${width} ${height}" width="${width}" height="${height}" font-family="${FONT}" role="img" aria-label="${title}">` +
     `<title>${title}</title>` +
     `<text class="picture-title" x="${c1(frame.ox)}" y="22" font-size="14" font-weight="600" fill="#111">${title}</text>` +
-    body.join('') +
-    lines.join('') +
+    layer.svg +
+    siteMarkers(opts.sites, box, frame) +
+    frameRect +
+    bar +
+    caption.svg +
     `</svg>`
   );
 }

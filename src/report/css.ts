@@ -10,10 +10,12 @@ h1 { margin: 4px 0 6px; font-size: 24px; overflow-wrap: anywhere; }
 h2 { font-size: 18px; margin: 28px 0 8px; padding-bottom: 3px; border-bottom: 1px solid var(--rule); }
 h3 { font-size: 16px; margin: 0 0 6px; overflow-wrap: anywhere; }
 .lede { margin: 0 0 8px; }
+.detection { margin: 0 0 8px; color: var(--muted); font-size: 13px; }
+.above-yield { color: #9b2c2c; font-weight: 600; }
 .warnings { border-left: 4px solid #9b2c2c; background: #fff5f5; padding: 6px 10px 6px 28px; margin: 8px 0 12px; }
 .caution { border-left: 4px solid #b7791f; background: #fffaf0; padding: 6px 10px; margin: 8px 0 12px; }
 table { border-collapse: collapse; }
-table.facts th { text-align: left; font-weight: 600; padding: 3px 14px 3px 0; vertical-align: top; white-space: nowrap; color: var(--muted); }
+table.facts th { text-align: left; font-weight: 600; padding: 3px 14px 3px 0; vertical-align: top; max-width: 24em; color: var(--muted); }
 table.facts td { padding: 3px 0; overflow-wrap: break-word; }
 table.facts ul { margin: 0; padding-left: 18px; }
 table.verdicts, table.levels { width: 100%; font-variant-numeric: tabular-nums; }

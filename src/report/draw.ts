@@ -72,31 +72,36 @@ export function padBox(b: Box, fraction: number): Box {
 }
 
 /**
- * Calls fn(a, b, c) for each linear triangle of the mesh: the element itself for CST, and the
- * four corner/mid-node sub-triangles for LST (local numbering of mesh/types.ts):
+ * The linear triangles of the mesh as flat node triples `[a0, b0, c0, a1, …]`: the element itself
+ * for CST, and the four corner/mid-node sub-triangles for LST (local numbering of mesh/types.ts):
  * (0,3,5) (3,1,4) (5,4,2) (3,4,5), all counter-clockwise.
  */
-export function forEachLinearTriangle(
-  mesh: Pick<Mesh, 'elemNodes' | 'nodesPerElem'>,
-  fn: (a: number, b: number, c: number) => void,
-): void {
+export function linearTriangles(mesh: Pick<Mesh, 'elemNodes' | 'nodesPerElem'>): Uint32Array {
   const en = mesh.elemNodes;
-  if (mesh.nodesPerElem === 3) {
-    for (let p = 0; p + 2 < en.length; p += 3) fn(en[p], en[p + 1], en[p + 2]);
-    return;
-  }
-  for (let p = 0; p + 5 < en.length; p += 6) {
+  if (mesh.nodesPerElem === 3) return Uint32Array.from(en.subarray(0, 3 * Math.floor(en.length / 3)));
+  const nElems = Math.floor(en.length / 6);
+  const tri = new Uint32Array(12 * nElems);
+  for (let e = 0; e < nElems; e++) {
+    const p = 6 * e, t = 12 * e;
     const n0 = en[p], n1 = en[p + 1], n2 = en[p + 2], n3 = en[p + 3], n4 = en[p + 4], n5 = en[p + 5];
-    fn(n0, n3, n5);
-    fn(n3, n1, n4);
-    fn(n5, n4, n2);
-    fn(n3, n4, n5);
+    tri[t] = n0; tri[t + 1] = n3; tri[t + 2] = n5;
+    tri[t + 3] = n3; tri[t + 4] = n1; tri[t + 5] = n4;
+    tri[t + 6] = n5; tri[t + 7] = n4; tri[t + 8] = n2;
+    tri[t + 9] = n3; tri[t + 10] = n4; tri[t + 11] = n5;
   }
+  return tri;
 }
 
-export function linearTriangleCount(mesh: Pick<Mesh, 'elemNodes' | 'nodesPerElem'>): number {
-  const nElems = Math.floor(mesh.elemNodes.length / mesh.nodesPerElem);
-  return mesh.nodesPerElem === 6 ? 4 * nElems : nElems;
+/** Whether the axis-aligned box [x0, x1] × [y0, y1] meets the window `b`. */
+export function meetsBox(b: Box, x0: number, y0: number, x1: number, y1: number): boolean {
+  return x1 >= b.minX && x0 <= b.maxX && y1 >= b.minY && y0 <= b.maxY;
+}
+
+/** Whether linear triangle t (of `tri`) has a bounding box that meets the window. */
+export function triangleMeetsBox(xy: Float64Array, tri: Uint32Array, t: number, box: Box): boolean {
+  const a = tri[3 * t], b = tri[3 * t + 1], c = tri[3 * t + 2];
+  const xa = xy[2 * a], xb = xy[2 * b], xc = xy[2 * c], ya = xy[2 * a + 1], yb = xy[2 * b + 1], yc = xy[2 * c + 1];
+  return meetsBox(box, Math.min(xa, xb, xc), Math.min(ya, yb, yc), Math.max(xa, xb, xc), Math.max(ya, yb, yc));
 }
 
 /**

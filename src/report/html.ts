@@ -10,8 +10,10 @@ import { contourSvg } from './contour.js';
 import { plotCss } from './css.js';
 import { convergencePlotSvg, cutPlotSvg, type CutPlotInput } from './plot.js';
 import { escapeXml, formatFixed, formatNumber, safeId } from './text.js';
+import { singularMaxWarning } from './singular-max.js';
 import {
-  CAUTION, capitalise, describeLoad, describeSupport, featureLabel, materialLine, siteReadout, siteValue, siteWhere,
+  BAND_LABEL, CAUTION, READOUTS_LEGEND, SITE_DETECTION, aboveYieldNote, bandText, capitalise, describeLoad, describeSupport,
+  featureLabel, materialLine, nsifText, siteAdvice, siteReadout, siteValue, siteWhere,
 } from './words.js';
 
 export interface ReportCheck {
@@ -19,10 +21,14 @@ export interface ReportCheck {
   pass: boolean;
   /** optional one-line detail, e.g. "Kt 3.003 vs 3 (Kirsch 1898)" */
   detail?: string;
+  /** what the reference value is: a published result, or an independent FE computation of our own */
+  referenceKind?: 'published' | 'independent-fe';
+  /** set when the result is a recorded run (docs/verification.json), not one made for this report */
+  recorded?: { date: string; version: string };
 }
 
 /** What the report shows of a run: a study's result, or one solve's figures with `sites: []`. */
-export type ReportRun = Pick<StudyResult, 'version' | 'model' | 'units' | 'mesh' | 'solution' | 'measure' | 'sites' | 'warnings'>;
+export type ReportRun = Pick<StudyResult, 'version' | 'model' | 'units' | 'mesh' | 'solution' | 'measure' | 'sites' | 'warnings' | 'yieldStress'>;
 
 export interface ReportInput {
   model: Model;
@@ -143,31 +149,67 @@ export function siteSectionIds(sites: SiteResult[]): string[] {
   });
 }
 
-export function reportHtml(input: ReportInput): string {
-  const { model, study, mesh, geometry, field, u } = input;
-  const units = study.units;
-  const L = units.length, S = units.stress;
-  const measure = measureName(study.measure);
-  const stats = meshStats(mesh);
-  const sectionIds = siteSectionIds(study.sites);
-  const deformScale = input.deformationScale ?? autoDeformationScale(u, geometry.scale);
-  const siteMarks = study.sites.map((s) => ({ id: s.id, at: s.at }));
+/** What every section of the page needs, worked out once. */
+interface PageContext {
+  input: ReportInput;
+  model: Model;
+  study: ReportRun;
+  units: StudyResult['units'];
+  /** length and stress unit */
+  L: string;
+  S: string;
+  /** the study measure in words */
+  measure: string;
+  sectionIds: string[];
+  solveOnly: boolean;
+}
 
-  const main = contourSvg(mesh, field, {
-    units: `${measure}, ${S}`,
-    title: `${measure} (${S}) over the plate`,
-    sites: siteMarks,
-    deformed: deformScale !== undefined ? { u, scale: deformScale } : undefined,
-    showMesh: true,
-    idPrefix: 'main',
-    className: 'contour-main',
-    lengthUnit: L,
-  });
+function pageContext(input: ReportInput): PageContext {
+  const units = input.study.units;
+  return {
+    input,
+    model: input.model,
+    study: input.study,
+    units,
+    L: units.length,
+    S: units.stress,
+    measure: measureName(input.study.measure),
+    sectionIds: siteSectionIds(input.study.sites),
+    solveOnly: input.mode === 'solve',
+  };
+}
 
-  const insetBudget = Math.max(8_000, Math.min(30_000, Math.floor(120_000 / Math.max(1, study.sites.length))));
-  const half = 0.07 * geometry.scale;
+/** A solve page whose maximum sits at a point theory flags as singular says so (as `peakwise solve` does). */
+function solveMaxWarning(ctx: PageContext): string | undefined {
+  const { mesh, geometry, field } = ctx.input;
+  let node = -1;
+  for (let n = 0; n < field.length; n++) if (Number.isFinite(field[n]) && (node < 0 || field[n] > field[node])) node = n;
+  if (node < 0) return undefined;
+  return singularMaxWarning({ model: ctx.model, geometry, mesh, at: [mesh.xy[2 * node], mesh.xy[2 * node + 1]], measure: ctx.measure });
+}
 
-  const modelRows = [
+function pageHeader(ctx: PageContext, title: string): string {
+  const { study, measure, S, solveOnly } = ctx;
+  const counts = (['converging', 'singular', 'undecided'] as const)
+    .map((v) => `${study.sites.filter((s) => s.verdict === v).length} ${v}`)
+    .join(', ');
+  const lede = solveOnly
+    ? `One solve; measure: ${measure} in ${S}.`
+    : `${study.sites.length} site${study.sites.length === 1 ? '' : 's'} (${counts}); measure: ${measure} in ${S}.`;
+  const singular = solveOnly ? solveMaxWarning(ctx) : undefined;
+  const warnings = [...(study.warnings ?? []), ...(singular ? [singular] : [])];
+  return `<header>
+<p class="tool">peakwise ${escapeXml(study.version)} · ${solveOnly ? 'single solve' : 'convergence study'}</p>
+<h1>${title}</h1>
+<p class="lede">${escapeXml(lede)}</p>
+${solveOnly ? '' : `<p class="detection">${escapeXml(SITE_DETECTION)}</p>\n`}<p class="caution" role="note">${escapeXml(CAUTION)}</p>
+${warnings.length > 0 ? `<ul class="warnings">${warnings.map((w) => `<li>Warning: ${escapeXml(w)}</li>`).join('')}</ul>` : ''}
+</header>`;
+}
+
+function modelSection(ctx: PageContext): string {
+  const { model, units, L, S, measure } = ctx;
+  const rows = [
     row('Title', escapeXml(model.title)),
     row('Model file', model.file ? `<code>${escapeXml(model.file)}</code>` : '(built in code)'),
     row('Units', `length ${escapeXml(units.length)}, force ${escapeXml(units.force)}, stress ${escapeXml(units.stress)}`),
@@ -185,8 +227,14 @@ export function reportHtml(input: ReportInput): string {
     row('Loads', `<ul>${model.loads.map((l) => `<li>${escapeXml(describeLoad(l, units))}</li>`).join('')}</ul>`),
     row('Study', escapeXml(`${measure}; ${model.study.levels} levels, element size ÷ ${formatNumber(model.study.ratio)} per level`)),
   ];
+  return `<section id="model"><h2>Model</h2><table class="facts">${rows.join('')}</table></section>`;
+}
 
-  const meshRows = [
+function meshSection(ctx: PageContext): string {
+  const { study, L } = ctx;
+  const { mesh, geometry } = ctx.input;
+  const stats = meshStats(mesh);
+  const rows = [
     row('Elements', `${int(stats.elements)} ${mesh.order === 2 ? 'six-node LST' : 'three-node CST'} triangles`),
     row('Nodes', `${int(stats.nodes)} (${int(stats.vertices)} corner nodes)`),
     row('Degrees of freedom', int(2 * stats.nodes)),
@@ -199,7 +247,37 @@ export function reportHtml(input: ReportInput): string {
       `${int(study.solution.dofs)} dofs, largest displacement ${escapeXml(formatNumber(study.solution.maxDisplacement))} ${escapeXml(L)}`,
     ),
   ];
+  return `<section id="mesh"><h2>Mesh</h2><table class="facts">${rows.join('')}</table></section>`;
+}
 
+function pictureSection(ctx: PageContext): string {
+  const { study, L, S, measure } = ctx;
+  const { mesh, geometry, field, u } = ctx.input;
+  const deformScale = ctx.input.deformationScale ?? autoDeformationScale(u, geometry.scale);
+  const main = contourSvg(mesh, field, {
+    units: `${measure}, ${S}`,
+    title: `${measure} (${S}) over the plate`,
+    sites: study.sites.map((s) => ({ id: s.id, at: s.at })),
+    deformed: deformScale !== undefined ? { u, scale: deformScale } : undefined,
+    showMesh: true,
+    idPrefix: 'main',
+    className: 'contour-main',
+    lengthUnit: L,
+  });
+  return `<section id="picture"><h2>Stress picture</h2>
+<p class="toggle-row"><label for="show-mesh" class="toggle">show element edges</label></p>
+<figure class="figure">${main}</figure></section>`;
+}
+
+/** What each verdict means, under the verdict table. */
+const VERDICTS_LEGEND =
+  'Converging: the peak settles to a finite value of the linear-elastic model, shown with its discretisation band (the estimated error of the mesh alone, ' +
+  'not of the model, the loads or the material); compare it with what the applicable code asks for. ' +
+  'Singular: the peak keeps growing like h^−q as elements shrink; it is a property of the idealised model, not a stress, so use the readouts. ' +
+  'Undecided: the levels do not yet tell.';
+
+function verdictsSection(ctx: PageContext): string {
+  const { study, L, S, units, sectionIds } = ctx;
   const verdictRows = study.sites
     .map(
       (s, i) =>
@@ -208,94 +286,140 @@ export function reportHtml(input: ReportInput): string {
         `<td>${escapeXml(siteValue(s, S))}</td><td>${escapeXml(siteReadout(s, units))}</td></tr>`,
     )
     .join('');
+  return `<section id="verdicts"><h2>Verdicts</h2>
+<table class="verdicts"><thead><tr><th>site</th><th>where</th><th>feature</th><th>verdict</th><th>value ± ${BAND_LABEL}</th><th>readouts</th></tr></thead><tbody>${verdictRows || '<tr><td colspan="6">No sites were found.</td></tr>'}</tbody></table>
+<p class="legend-text">${escapeXml(VERDICTS_LEGEND)}</p>
+<p class="legend-text">${escapeXml(READOUTS_LEGEND)}</p>
+</section>`;
+}
 
-  const siteSections = study.sites.map((s, i) => {
-    const levelsRows = s.levels
-      .map(
-        (l, k) =>
-          `<tr><td>${k + 1}</td><td>${escapeXml(formatNumber(l.h))}</td><td>${int(l.dofs)}</td>` +
-          `<td>${escapeXml(formatNumber(l.peak, 6))}</td><td>${l.atDistance !== undefined ? escapeXml(formatNumber(l.atDistance, 5)) : '—'}</td></tr>`,
-      )
-      .join('');
-    const r = s.readouts;
-    const readouts: string[] = [];
-    if (s.verdict === 'converging') {
-      readouts.push(row('Converged value', escapeXml(`${formatNumber(s.estimate.value, 5)} ± ${formatNumber(s.estimate.uncertainty, 2)} ${S}`)));
-      if (Number.isFinite(s.estimate.observedOrder)) readouts.push(row('Observed order', escapeXml(formatFixed(s.estimate.observedOrder, 2))));
-    } else {
-      readouts.push(
-        row(
-          'Growth under refinement',
-          escapeXml(`peak ∝ h^−q, q = ${formatFixed(s.growth.exponent, 2)} ± ${formatNumber(s.growth.exponentUncertainty, 2)}; theory ${formatFixed(s.growth.theory, 2)}`),
-        ),
-      );
-    }
-    if (r.atDistance !== undefined) {
-      readouts.push(row(`Stress at ${r.distance !== undefined ? formatNumber(r.distance) + ' ' + L : 'the readout distance'}`, escapeXml(`${formatNumber(r.atDistance, 5)} ${S}`)));
-    }
-    if (r.average !== undefined) readouts.push(row('Mean over the readout disk', escapeXml(`${formatNumber(r.average, 5)} ${S}`)));
-    const line = r as { lineAverage?: number; lineLength?: number };
-    if (line.lineAverage !== undefined) {
-      readouts.push(row(`Mean along the bisector${line.lineLength !== undefined ? ` over ${formatNumber(line.lineLength)} ${L}` : ''}`, escapeXml(`${formatNumber(line.lineAverage, 5)} ${S}`)));
-    }
-    if (r.nsif !== undefined) readouts.push(row('Notch stress intensity', escapeXml(`${formatNumber(r.nsif, 5)} ${r.nsifUnits ?? ''}`)));
-    if (s.verdict === 'singular') {
-      readouts.push(row('Note', 'The peak grows without bound as the mesh is refined: do not read it as a stress. Use the measures above.'));
-    }
-    const inset = contourSvg(mesh, field, {
-      units: `${measure}, ${S}`,
-      title: `Around ${s.id}`,
-      sites: [{ id: s.id, at: s.at }],
-      viewBox: { minX: s.at[0] - half, maxX: s.at[0] + half, minY: s.at[1] - half, maxY: s.at[1] + half },
-      showMesh: true,
-      width: 300,
-      maxHeight: 300,
-      levels: 48,
-      maxTriangles: insetBudget,
-      maxMeshEdges: 20_000,
-      idPrefix: `inset-${i + 1}`,
-      className: 'contour-inset',
-      lengthUnit: L,
-    });
-    return (
-      `<section class="site" id="${sectionIds[i]}">` +
-      `<h3>${escapeXml(s.id)} <span class="where">at ${escapeXml(siteWhere(s, L))}</span> ${verdictBadge(s.verdict)}</h3>` +
-      `<p class="feature">${escapeXml(capitalise(s.feature.description || featureLabel(s)))}</p>` +
-      `<p class="why"><b>Why:</b> ${escapeXml(s.reason)}</p>` +
-      (s.advice ? `<p class="advice"><b>Next step:</b> ${escapeXml(s.advice)}</p>` : '') +
-      `<table class="facts">${readouts.join('')}</table>` +
-      `<div class="site-figures"><figure class="plot">${convergencePlotSvg(s, { units: S, lengthUnit: L, measure })}</figure>` +
-      `<figure class="inset">${inset}</figure></div>` +
-      `<details open="open"><summary>Refinement levels</summary><table class="levels"><thead><tr><th>level</th><th>h (${escapeXml(L)})</th><th>dofs</th><th>peak (${escapeXml(S)})</th><th>at distance (${escapeXml(S)})</th></tr></thead><tbody>${levelsRows}</tbody></table></details>` +
-      `</section>`
+/** The facts table of one site: its value or growth, then every readout with its distance. */
+function siteFacts(s: SiteResult, ctx: PageContext): string {
+  const { L, S, units, study } = ctx;
+  const r = s.readouts;
+  const len = (v: number | undefined) => (v !== undefined ? `${formatNumber(v)} ${L}` : 'the readout distance');
+  const readouts: string[] = [];
+  if (s.verdict === 'converging') {
+    readouts.push(row(`Converged value ± ${BAND_LABEL}`, escapeXml(bandText(s.estimate.value, s.estimate.uncertainty, S))));
+    if (Number.isFinite(s.estimate.observedOrder)) readouts.push(row('Observed order', escapeXml(formatFixed(s.estimate.observedOrder, 2))));
+    const y = aboveYieldNote(s, study.yieldStress, S);
+    if (y) readouts.push(row('Yield', `<span class="above-yield">${escapeXml(capitalise(y))}.</span>`));
+  } else {
+    readouts.push(
+      row(
+        'Growth under refinement',
+        escapeXml(`peak ∝ h^−q, q = ${formatFixed(s.growth.exponent, 2)} ± ${formatNumber(s.growth.exponentUncertainty, 2)}; theory ${formatFixed(s.growth.theory, 2)}`),
+      ),
     );
-  });
+  }
+  if (r.atDistance !== undefined) readouts.push(row(`Point: stress at r = ${len(r.distance)} along the inward bisector`, escapeXml(`${formatNumber(r.atDistance, 5)} ${S}`)));
+  if (r.lineAverage !== undefined) readouts.push(row(`Line: mean along the bisector over r = 0–${len(r.lineLength)}`, escapeXml(`${formatNumber(r.lineAverage, 5)} ${S}`)));
+  if (r.average !== undefined) readouts.push(row(`Area: mean over the disk r ≤ ${len(r.distance)}`, escapeXml(`${formatNumber(r.average, 5)} ${S}`)));
+  const k = nsifText(s, units);
+  if (k) readouts.push(row('K_I: notch stress intensity of the opening mode (Gross & Mendelson 1972)', escapeXml(k)));
+  if (s.verdict === 'singular') {
+    readouts.push(row('Note', 'The peak grows without bound as the mesh is refined: do not read it as a stress. The point, line and area measures and K_I above are measures of the linear-elastic field; use the one the applicable code or assessment method asks for, at the distance it prescribes.'));
+  }
+  return `<table class="facts">${readouts.join('')}</table>`;
+}
 
-  const checks = input.checks ?? [];
+function levelsTable(s: SiteResult, L: string, S: string): string {
+  const levelsRows = s.levels
+    .map(
+      (l, k) =>
+        `<tr><td>${k + 1}</td><td>${escapeXml(formatNumber(l.h))}</td><td>${int(l.dofs)}</td>` +
+        `<td>${escapeXml(formatNumber(l.peak, 6))}</td><td>${l.atDistance !== undefined ? escapeXml(formatNumber(l.atDistance, 5)) : '—'}</td></tr>`,
+    )
+    .join('');
+  return `<details open="open"><summary>Refinement levels</summary><table class="levels"><thead><tr><th>level</th><th>h (${escapeXml(L)})</th><th>dofs</th><th>peak (${escapeXml(S)})</th><th>point at r = ${escapeXml(s.readouts.distance !== undefined ? `${formatNumber(s.readouts.distance)} ${L}` : 'd')} (${escapeXml(S)})</th></tr></thead><tbody>${levelsRows}</tbody></table></details>`;
+}
+
+/** The close-up contour around one site; the triangle budget is shared among the sites. */
+function siteInset(ctx: PageContext, s: SiteResult, i: number): string {
+  const { study, L, S, measure } = ctx;
+  const { mesh, geometry, field } = ctx.input;
+  const insetBudget = Math.max(8_000, Math.min(30_000, Math.floor(120_000 / Math.max(1, study.sites.length))));
+  const half = 0.07 * geometry.scale;
+  return contourSvg(mesh, field, {
+    units: `${measure}, ${S}`,
+    title: `Around ${s.id}`,
+    sites: [{ id: s.id, at: s.at }],
+    viewBox: { minX: s.at[0] - half, maxX: s.at[0] + half, minY: s.at[1] - half, maxY: s.at[1] + half },
+    showMesh: true,
+    width: 300,
+    maxHeight: 300,
+    levels: 48,
+    maxTriangles: insetBudget,
+    maxMeshEdges: 20_000,
+    idPrefix: `inset-${i + 1}`,
+    className: 'contour-inset',
+    lengthUnit: L,
+  });
+}
+
+function siteSection(ctx: PageContext, s: SiteResult, i: number): string {
+  const { L, S, measure, sectionIds } = ctx;
+  return (
+    `<section class="site" id="${sectionIds[i]}">` +
+    `<h3>${escapeXml(s.id)} <span class="where">at ${escapeXml(siteWhere(s, L))}</span> ${verdictBadge(s.verdict)}</h3>` +
+    `<p class="feature">${escapeXml(capitalise(s.feature.description || featureLabel(s)))}</p>` +
+    `<p class="why"><b>Why:</b> ${escapeXml(s.reason)}</p>` +
+    (siteAdvice(s) ? `<p class="advice"><b>Next step:</b> ${escapeXml(siteAdvice(s) ?? '')}</p>` : '') +
+    siteFacts(s, ctx) +
+    `<div class="site-figures"><figure class="plot">${convergencePlotSvg(s, { units: S, lengthUnit: L, measure })}</figure>` +
+    `<figure class="inset">${siteInset(ctx, s, i)}</figure></div>` +
+    levelsTable(s, L, S) +
+    `</section>`
+  );
+}
+
+function sitesSection(ctx: PageContext): string {
+  return `<section id="sites"><h2>Sites</h2>${ctx.study.sites.map((s, i) => siteSection(ctx, s, i)).join('\n')}</section>`;
+}
+
+/** One solve: no verdicts, a pointer to the study instead. */
+function solveOnlySection(): string {
+  return `<section id="verdicts"><h2>Sites</h2><p>This page shows one solve. It does not say which peaks are real stress concentrations and which are singularities of the idealised model: <code>peakwise study</code> finds the sites (theory features, stress maxima above 1.3 × the median, or listed points), refines each and gives that verdict.</p></section>`;
+}
+
+function cutSection(cut: CutPlotInput | undefined): string {
+  return cut ? `<section id="cut"><h2>Along the cut</h2>${cutPlotSvg(cut)}</section>` : '';
+}
+
+function verificationSection(checks: ReportCheck[]): string {
   const passed = checks.filter((c) => c.pass).length;
-  const checksHtml =
+  const fe = checks.filter((c) => c.referenceKind === 'independent-fe').length;
+  const rec = checks.find((c) => c.recorded)?.recorded;
+  const kinds = checks.some((c) => c.referenceKind)
+    ? ` — ${checks.length - fe} against published results (closed forms, Williams' eigenvalues, a handbook fit), ${fe} against reference values of an independent FE computation made for this project`
+    : '';
+  const when = rec
+    ? `These are the results recorded on ${escapeXml(rec.date)} with peakwise ${escapeXml(rec.version)} (docs/verification.json), not a run made for this report: ${passed} of ${checks.length} checks passed${escapeXml(kinds)}. <code>peakwise check</code> repeats them on this machine.`
+    : `${passed} of ${checks.length} checks passed in the run that made this report${escapeXml(kinds)}.`;
+  const body =
     checks.length === 0
-      ? '<p>No verification results came with this report. <code>peakwise check</code> runs the closed-form cases.</p>'
-      : `<p>${passed} of ${checks.length} closed-form checks pass in this build.</p><ul class="checks">${checks
+      ? '<p>No verification record came with this report. <code>peakwise check</code> runs the verification cases.</p>'
+      : `<p>${when}${rec ? ' Each case is a model built in code in dimensionless consistent units, so its figures are ratios or numbers in those units, as the quantity in brackets says.' : ''}</p><ul class="checks">${checks
           .map(
             (c) =>
               `<li class="${c.pass ? 'pass' : 'fail'}"><span class="mark">${c.pass ? '✓' : '✗'}</span>${escapeXml(c.name)}` +
+              `${c.referenceKind === 'independent-fe' ? ' <small>(FE reference value)</small>' : ''}` +
               `${c.detail ? ` <small>${escapeXml(c.detail)}</small>` : ''}</li>`,
           )
           .join('')}</ul>`;
+  return `<section id="verification"><h2>Verification</h2>${body}</section>`;
+}
 
-  const solveOnly = input.mode === 'solve';
-  const studySections = solveOnly
-    ? `<section id="verdicts"><h2>Sites</h2><p>This page shows one solve. It does not say which peaks are real stress concentrations and which are singularities of the idealised model: <code>peakwise study</code> refines every site and gives that verdict.</p></section>`
-    : `<section id="verdicts"><h2>Verdicts</h2>
-<table class="verdicts"><thead><tr><th>site</th><th>where</th><th>feature</th><th>verdict</th><th>value</th><th>readout</th></tr></thead><tbody>${verdictRows || '<tr><td colspan="6">No sites were found.</td></tr>'}</tbody></table>
-<p class="legend-text">Converging: the peak settles to a finite value (shown with its extrapolation uncertainty); design for it. Singular: the peak keeps growing like h<sup>−q</sup> as elements shrink; it is a property of the idealised model, not a stress, so use the readouts. Undecided: the levels do not yet tell.</p>
-</section>
-<section id="sites"><h2>Sites</h2>${siteSections.join('\n')}</section>`;
-  const title = escapeXml(model.title || study.model.title || 'peakwise study');
-  const counts = (['converging', 'singular', 'undecided'] as const)
-    .map((v) => `${study.sites.filter((s) => s.verdict === v).length} ${v}`)
-    .join(', ');
+function pageFooter(ctx: PageContext): string {
+  const { study } = ctx;
+  return `<footer><p class="caution">${escapeXml(CAUTION)}</p><p class="small">Made by peakwise ${escapeXml(study.version)} from ${escapeXml(study.model.file || 'a model built in code')}.</p></footer>`;
+}
+
+/** The whole page: header, model, mesh, picture, verdicts and sites (or the solve note), cut, verification, footer. */
+export function reportHtml(input: ReportInput): string {
+  const ctx = pageContext(input);
+  const title = escapeXml(ctx.model.title || ctx.study.model.title || 'peakwise study');
+  const studySections = ctx.solveOnly ? solveOnlySection() : `${verdictsSection(ctx)}\n${sitesSection(ctx)}`;
   return `<!DOCTYPE html>
 <html lang="en" xmlns="http://www.w3.org/1999/xhtml">
 <head>
@@ -306,24 +430,16 @@ export function reportHtml(input: ReportInput): string {
 </head>
 <body>
 <input type="checkbox" id="show-mesh" class="toggle-input" aria-label="show element edges"/>
-<header>
-<p class="tool">peakwise ${escapeXml(study.version)} · ${solveOnly ? 'single solve' : 'convergence study'}</p>
-<h1>${title}</h1>
-<p class="lede">${escapeXml(solveOnly ? `One solve; measure: ${measure} in ${S}.` : `${study.sites.length} site${study.sites.length === 1 ? '' : 's'} (${counts}); measure: ${measure} in ${S}.`)}</p>
-<p class="caution" role="note">${escapeXml(CAUTION)}</p>
-${(study.warnings ?? []).length > 0 ? `<ul class="warnings">${(study.warnings ?? []).map((w) => `<li>Warning: ${escapeXml(w)}</li>`).join('')}</ul>` : ''}
-</header>
+${pageHeader(ctx, title)}
 <main>
-<section id="model"><h2>Model</h2><table class="facts">${modelRows.join('')}</table></section>
-<section id="mesh"><h2>Mesh</h2><table class="facts">${meshRows.join('')}</table></section>
-<section id="picture"><h2>Stress picture</h2>
-<p class="toggle-row"><label for="show-mesh" class="toggle">show element edges</label></p>
-<figure class="figure">${main}</figure></section>
+${modelSection(ctx)}
+${meshSection(ctx)}
+${pictureSection(ctx)}
 ${studySections}
-${input.cut ? `<section id="cut"><h2>Along the cut</h2>${cutPlotSvg(input.cut)}</section>` : ''}
-<section id="verification"><h2>Verification</h2>${checksHtml}</section>
+${cutSection(input.cut)}
+${verificationSection(input.checks ?? [])}
 </main>
-<footer><p class="caution">${escapeXml(CAUTION)}</p><p class="small">Made by peakwise ${escapeXml(study.version)} from ${escapeXml(study.model.file || 'a model built in code')}.</p></footer>
+${pageFooter(ctx)}
 </body>
 </html>
 `;

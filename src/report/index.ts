@@ -1,10 +1,12 @@
 /** report/: terminal table, CSV, SVG pictures and the HTML page — pure functions returning strings. */
 export { studyTable, solveSummary, equilibriumMismatch } from './terminal.js';
 export type { TerminalOptions, SolveSummaryInput } from './terminal.js';
-export { sitesCsv, fieldCsv, csvText, csvNumber } from './csv.js';
+export { sitesCsv, fieldCsv, csvText, csvNumber, columnName } from './csv.js';
+export type { FieldCsvUnits } from './csv.js';
 export { meshSvg } from './mesh-svg.js';
 export type { MeshSvgOptions } from './mesh-svg.js';
-export { contourSvg, resampleOnGrid, DEFAULT_LEVELS, DEFAULT_MAX_TRIANGLES } from './contour.js';
+export { contourSvg, DEFAULT_LEVELS, DEFAULT_MAX_TRIANGLES } from './contour.js';
+export { resampleOnGrid } from './resample.js';
 export type { ContourOptions } from './contour.js';
 export { convergencePlotSvg, cutPlotSvg, slopeLabel } from './plot.js';
 export type { CutPlotInput, CutSeries } from './plot.js';
@@ -14,5 +16,7 @@ export type { ReportInput, ReportCheck, ReportRun } from './html.js';
 export { bandScale, bandColour, bandEdge, bandIndex, colourAt, triangleBands } from './isobands.js';
 export type { BandScale, BandSink } from './isobands.js';
 export { stripControl, escapeXml, formatNumber } from './text.js';
-export { CAUTION, capitalise, featureLabel } from './words.js';
+export { CAUTION, BAND_LABEL, SITE_DETECTION, bandText, capitalise, featureLabel, nsifText, siteAdvice } from './words.js';
+export { formatBand } from './text.js';
+export { singularMaxWarning, singularPoints, type SingularPoint } from './singular-max.js';
 export type { Box } from './draw.js';

@@ -5,8 +5,10 @@
  * extrapolated value with its uncertainty band.
  */
 import type { SiteResult } from '../study/types.js';
+import { VERDICT_RULES } from '../study/verdict.js';
 import { c1, niceTicks } from './draw.js';
 import { escapeXml, formatFixed, formatNumber } from './text.js';
+import { BAND_LABEL, bandText } from './words.js';
 
 export interface ConvergencePlotOptions {
   /** stress unit for the peak axis, e.g. "MPa" */
@@ -15,7 +17,11 @@ export interface ConvergencePlotOptions {
   lengthUnit?: string;
   /** name of the measure, e.g. "von Mises" (default "peak") */
   measure?: string;
-  /** how many of the finest levels the fit used (default 3, or all when fewer) */
+  /**
+   * how many of the finest levels the fit used (default: as the study fits them — the finest three
+   * for a converging site, the finest `VERDICT_RULES.singularWindow` (4) for a singular or
+   * undecided one, whose growth exponent comes from that window; all when fewer)
+   */
   fitLevels?: number;
 }
 
@@ -194,7 +200,8 @@ export function convergencePlotSvg(site: SiteResult, opts: ConvergencePlotOption
   }
   const hs = levels.map((l) => l.h);
   const peaks = levels.map((l) => l.peak);
-  const used = Math.min(levels.length, Math.max(2, opts.fitLevels ?? 3));
+  const studyWindow = site.verdict === 'converging' ? 3 : VERDICT_RULES.singularWindow;
+  const used = Math.min(levels.length, Math.max(2, opts.fitLevels ?? studyWindow));
   const fitSet = levels.slice(-used);
   const hFit0 = Math.max(...fitSet.map((l) => l.h)), hFit1 = Math.min(...fitSet.map((l) => l.h));
   const hMax = Math.max(...hs), hMin = Math.min(...hs);
@@ -285,7 +292,7 @@ export function convergencePlotSvg(site: SiteResult, opts: ConvergencePlotOption
       `<text class="theory-label" x="${main.x + 194}" y="${ly + 16}">${escapeXml(theory > 0 ? `theory q = ${formatFixed(theory, 2)}` : 'theory: bounded (q = 0)')}</text>` +
       (band
         ? `<rect x="${main.x}" y="${ly + 22}" width="18" height="9" fill="${BAND}" fill-opacity="0.2" stroke="${BAND}" stroke-width="0.8"/>` +
-          `<text class="estimate-label" x="${main.x + 24}" y="${ly + 31}">${escapeXml(`extrapolated ${formatNumber(est.value)} ± ${formatNumber(est.uncertainty, 2)} ${units}`)}</text>`
+          `<text class="estimate-label" x="${main.x + 24}" y="${ly + 31}">${escapeXml(`extrapolated ${bandText(est.value, est.uncertainty, units)} (${BAND_LABEL})`)}</text>`
         : '') +
       `</g>`,
   );
@@ -304,9 +311,11 @@ export function convergencePlotSvg(site: SiteResult, opts: ConvergencePlotOption
     parts.push(
       `<path d="${polyline(levels.map((l) => [axD.at(l.dofs), ayD.at(l.peak)]))}" fill="none" stroke="${POINT}" stroke-width="1.1"/>`,
     );
-    for (const l of levels) {
-      parts.push(`<circle cx="${c1(axD.at(l.dofs))}" cy="${c1(ayD.at(l.peak))}" r="2.8" fill="${POINT}"/>`);
-    }
+    levels.forEach((l, i) => {
+      // filled and hollow as in the main panel: the legend there covers both
+      const inFit = i >= levels.length - used;
+      parts.push(`<circle cx="${c1(axD.at(l.dofs))}" cy="${c1(ayD.at(l.peak))}" r="2.8" fill="${inFit ? POINT : '#fff'}" stroke="${POINT}" stroke-width="1.1"/>`);
+    });
     parts.push(`</g>`);
   }
   parts.push('</svg>');

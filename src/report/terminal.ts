@@ -4,10 +4,15 @@
  * and whether stdout is a terminal).
  */
 import pc from 'picocolors';
-import type { Point } from '../model/types.js';
+import type { PlateGeometry } from '../geometry/types.js';
+import type { Mesh } from '../mesh/types.js';
+import type { Model, Point } from '../model/types.js';
 import type { StudyResult, Verdict } from '../study/types.js';
+import { singularMaxWarning } from './singular-max.js';
 import { formatNumber, formatPoint, stripControl } from './text.js';
-import { CAUTION, featureLabel, siteReadout, siteValue, siteWhere } from './words.js';
+import {
+  BAND_LABEL, CAUTION, aboveYieldNote, atSupportEnd, featureLabel, isCrackLike, siteAdvice, siteReadout, siteValue, siteWhere,
+} from './words.js';
 
 export interface TerminalOptions {
   color: boolean;
@@ -42,14 +47,40 @@ function columns(rows: string[][], c: Colors): string[] {
   });
 }
 
+/** Short legend of the readout column (the report and docs/study.md say more). */
+const READOUT_KEY =
+  'readouts: measures of the linear-elastic field along the inward bisector — point = the stress at the distance r shown, ' +
+  'line = its mean from r = 0 to the length shown, area = the mean over the disk of the radius shown, K_I = notch stress intensity of the opening mode';
+
+/** Lines under the table: what to make of flagged, support-end, crack and undecided sites. */
+function siteNotes(study: StudyResult, c: Colors): string[] {
+  const lines: string[] = [];
+  for (const s of study.sites) {
+    const y = aboveYieldNote(s, study.yieldStress, study.units.stress);
+    if (y) lines.push(c.red(`${stripControl(s.id)}: ${y}`));
+  }
+  const ends = study.sites.filter((s) => s.verdict === 'singular' && atSupportEnd(s));
+  if (ends.length > 0) {
+    lines.push(c.magenta(`${ends.map((s) => stripControl(s.id)).join(', ')} (where a support ends): ${siteAdvice(ends[0])}`));
+  }
+  for (const s of study.sites) {
+    if (s.verdict === 'singular' && isCrackLike(s)) lines.push(c.magenta(`${stripControl(s.id)}: ${siteAdvice(s)}`));
+  }
+  for (const s of study.sites.filter((x) => x.verdict === 'undecided')) {
+    if (s.advice) lines.push(c.yellow(`${stripControl(s.id)}: ${stripControl(s.advice)}`));
+  }
+  return lines;
+}
+
 /**
- * The verdict table of a study: one row per site (site, where, feature, verdict, value,
- * readout), a short header naming the model and measure, and the caution line at the end.
+ * The verdict table of a study: one row per site (site, where, feature, verdict, value ±
+ * discretisation band, readouts), a short header naming the model and measure, notes on flagged
+ * sites, and the caution line at the end.
  */
 export function studyTable(study: StudyResult, options: TerminalOptions): string {
   const c = pc.createColors(options.color);
   const units = study.units;
-  const header = ['site', 'where', 'feature', 'verdict', 'value', 'readout'];
+  const header = ['site', 'where', 'feature', 'verdict', `value ± ${BAND_LABEL}`, 'readouts'];
   const rows: string[][] = [header];
   for (const site of study.sites) {
     const verdict = stripControl(site.verdict);
@@ -73,11 +104,11 @@ export function studyTable(study: StudyResult, options: TerminalOptions): string
   );
   lines.push('');
   if (study.sites.length === 0) lines.push('No sites were found.');
-  else for (const line of columns(rows, c)) lines.push(line);
-  const undecided = study.sites.filter((s) => s.verdict === 'undecided');
-  for (const s of undecided) {
-    if (s.advice) lines.push(c.yellow(`${stripControl(s.id)}: ${stripControl(s.advice)}`));
+  else {
+    for (const line of columns(rows, c)) lines.push(line);
+    lines.push(c.dim(READOUT_KEY));
   }
+  lines.push(...siteNotes(study, c));
   lines.push('');
   lines.push(c.dim(CAUTION));
   return lines.join('\n') + '\n';
@@ -112,6 +143,8 @@ export interface SolveSummaryInput {
   loadScale?: number;
   /** scaled residual ‖Ku − f‖ / ‖f‖, when computed */
   residual?: number;
+  /** the solved model: when given, a maximum at a point theory flags as singular gets a warning */
+  singularCheck?: { model: Model; geometry: PlateGeometry; mesh: Mesh };
 }
 
 /**
@@ -163,6 +196,10 @@ export function solveSummary(info: SolveSummaryInput, options: TerminalOptions):
   const width = Math.max(...rows.map((r) => visibleWidth(r[0])));
   const lines = [c.bold(stripControl(info.title) || '(untitled model)'), ''];
   for (const [k, v] of rows) lines.push(`${c.dim(pad(k, width))}  ${v}`);
+  const singular = info.singularCheck
+    ? singularMaxWarning({ ...info.singularCheck, at: info.maxStress.at, measure: info.maxStress.measure })
+    : undefined;
+  if (singular) lines.push('', c.yellow(`warning: ${singular}`));
   lines.push('');
   lines.push(c.dim(CAUTION));
   return lines.join('\n') + '\n';

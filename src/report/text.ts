@@ -69,3 +69,35 @@ export function formatFixed(value: number, decimals: number): string {
 export function formatPoint(at: readonly [number, number], lengthUnit: string): string {
   return `(${formatNumber(at[0])}, ${formatNumber(at[1])}) ${stripControl(lengthUnit)}`.trimEnd();
 }
+
+/** Most significant digits a banded value is ever printed with (a band far below the value). */
+const MAX_BANDED_DIGITS = 9;
+
+/**
+ * A value with its discretisation band, rounded to what the band says is meaningful: the band to
+ * two significant digits, the value to the same decimal place (143.1234 ± 0.0044, 434.8 ± 1.2,
+ * 1230 ± 570). A value would never get more than 9 significant digits: past that the band is
+ * far below anything a drawing can hold, and it is then shown on its own to two digits
+ * (141.662345 ± 9.2e−6 style rounding stops at 9 digits). A band that is zero, missing or not
+ * finite leaves the value at 6 significant digits and the band "n/a" (or "0").
+ */
+export function formatBand(value: number, band: number): { value: string; band: string } {
+  if (!Number.isFinite(value)) return { value: formatNumber(value), band: formatNumber(Math.abs(band), 2) };
+  const b = Math.abs(band);
+  if (!Number.isFinite(b)) return { value: formatNumber(value, 6), band: 'n/a' };
+  if (b === 0) return { value: formatNumber(value, 6), band: '0' };
+  let e = Math.floor(Math.log10(b));
+  // rounding to two digits may carry into the next decade (0.0996 → 0.10)
+  if (Math.round(b / 10 ** (e - 1)) >= 100) e += 1;
+  const decimals = 1 - e;
+  const valueDigits = (value === 0 ? 1 : Math.floor(Math.log10(Math.abs(value))) + 1) + decimals;
+  if (valueDigits > MAX_BANDED_DIGITS) return { value: formatNumber(value, MAX_BANDED_DIGITS), band: formatNumber(b, 2) };
+  const fixed = (v: number): string => {
+    if (decimals >= 0) return v.toFixed(decimals);
+    const step = 10 ** -decimals;
+    return (Math.round(v / step) * step).toFixed(0);
+  };
+  const v = fixed(value);
+  const text = /^-0(\.0*)?$/.test(v) ? v.slice(1) : v; // no −0.00
+  return { value: text.replace('-', '−'), band: fixed(b) };
+}

@@ -21,3 +21,4 @@ export { levelSizeField, probeLevel, LADDER_GRADING, NEIGHBOURHOOD_SIZES, APEX_S
 export { runStudy, type StudyOptions, type BaseSolve } from './run.js';
 export { intensityBand, siteProbe, siteReadouts, reportedPosition, withPlateauExtent, DEFAULT_READOUT_FRACTION } from './site-readouts.js';
 export { intensityNorm, reciprocalIntensity, singularTerm, type IntensitySetup, type IntensityNorm } from './stress-intensity.js';
+export { reportedSites, roundToScale, isAboveYield } from './reported.js';

@@ -18,6 +18,7 @@ import { coarsenedOuterField } from './far-field.js';
 import { boundaryEdgesAt } from './mesh-tools.js';
 import { reportedPosition, siteProbe, siteReadouts, withPlateauExtent } from './site-readouts.js';
 import { selectorWarnings } from '../fem/index.js';
+import { reportedSites } from './reported.js';
 
 export interface StudyOptions {
   levels?: number;
@@ -171,10 +172,10 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   }
 
   const stress = stressUnit(model.units);
-  const sites: SiteResult[] = cands.map((c, i) => {
+  const sites: SiteResult[] = reportedSites(cands.map((c, i) => {
     const r = toSiteResult(`S${i + 1}`, c, perSite[i], ratio, order, probes[i], stress, model.units.length, stopped, farShift[i], farShiftK[i]);
     return finest ? withPlateauExtent(r, c, finest.mesh, finest.nodal) : r;
-  });
+  }), { scale: geom.scale, yieldStress: model.material.yield });
   const q = meshQuality(first.mesh);
   return {
     tool: 'peakwise',
@@ -189,6 +190,7 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
       appliedSum: first.solution.appliedSum,
     },
     measure,
+    ...(model.material.yield !== undefined ? { yieldStress: model.material.yield } : {}),
     sites,
     timings: { totalS: (performance.now() - t0) / 1000 },
     ...(interrupted ? { interrupted: true } : {}),

@@ -228,7 +228,7 @@ export function findSites(ctx: Ctx): SiteCandidate[] {
 
   const wedgeFeature = (node: number, at: Point, angleDeg: number, faces: [FaceCondition, FaceCondition], kind: 'corner' | 'support-edge', where: string) => {
     const h = ctx.baseSize(at[0], at[1]);
-    // a supported face that carries no force acts like a free one (design §5)
+    // a supported face that carries no force acts like a free one (docs/study.md, face conditions)
     let f = faces;
     if (f.some((c) => c !== 'free') && !carries(at, 1.5 * h)) f = ['free', 'free'];
     const th = wedgeTheory(angleDeg, f, nu, state);

@@ -106,6 +106,11 @@ export interface SiteResult {
   history?: { finest: number; value: number; uncertainty: number; observedOrder: number }[];
   /** direction from the site into the material used for the readouts (unit vector), if defined */
   direction?: Point;
+  /**
+   * set when the site converges to a value above the material's yield stress (`material.yield`):
+   * the linear-elastic result then expects local yielding
+   */
+  aboveYield?: true;
 }
 
 export interface StudyResult {
@@ -116,6 +121,8 @@ export interface StudyResult {
   mesh: { nodes: number; elements: number; order: 1 | 2; minAngleDeg: number };
   solution: { dofs: number; maxDisplacement: number; reactionSum: [number, number]; appliedSum: [number, number] };
   measure: string;
+  /** the material's yield stress (`material.yield`, stress units), when the model gives one */
+  yieldStress?: number;
   sites: SiteResult[];
   timings?: { totalS: number };
   /** set when the study was stopped (Ctrl-C) before every level was solved */

@@ -56,7 +56,7 @@ function round(v: number): string {
 }
 
 /**
- * Growth exponent q = 1 − λ that theory predicts for a feature (design §5 `growth.theory`): the Williams
+ * Growth exponent q = 1 − λ that theory predicts for a feature (docs/study.md, `growth.theory`): the Williams
  * (1952) wedge value at a corner, 1 for a concentrated force or point support (Flamant field ∝ 1/r), 0 for
  * fillets, smooth opening edges, plain edges and the interior.
  */

@@ -6,7 +6,7 @@ import { cdiv, cmul, csub } from '../reference/complex.js';
  * M. L. Williams, "Stress singularities resulting from various boundary conditions in angular corners of
  * plates in extension", J. Appl. Mech. 19 (1952) 526–528. Near the apex u ~ r^λ and σ ~ r^(λ−1); a root with
  * 0 < Re λ < 1 is a stress singularity. The characteristic equations (faces at θ = ±α/2, potentials
- * φ = A z^λ, ψ = B z^λ; factored forms as in the project's reference notes, item 6):
+ * φ = A z^λ, ψ = B z^λ; the 4 × 4 boundary determinant factored symbolically, our own derivation):
  *
  *   free–free, symmetric:          sin(λα) + λ sin α = 0
  *   free–free, antisymmetric:      sin(λα) − λ sin α = 0     (λ = 1 is a rigid rotation: discarded)

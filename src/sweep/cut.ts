@@ -1,5 +1,5 @@
 /**
- * Path readout: the recovered stress sampled along a straight line or around an opening's edge,
+ * Cut readout: the recovered stress sampled along a straight line or around an opening's edge,
  * with its invariants, and optionally a closed-form solution beside it (Kirsch, Lamé, Inglis).
  * Pure functions on the mesh and the nodal field; the CLI writes the table as cut.csv.
  */
@@ -10,7 +10,7 @@ import type { Model, PlaneState, Point } from '../model/types.js';
 import type { NodalStress } from '../recovery/types.js';
 import { boundaryTangentialStress, buildPointLocator, principal, stressAt, tresca, vonMises } from '../recovery/index.js';
 import { kirschCartesian, lameRing } from '../reference/index.js';
-import { csvNumber, csvText } from '../report/index.js';
+import { columnName, csvNumber, csvText } from '../report/index.js';
 
 /** Samples on a line cut when `:n` is not given. */
 export const DEFAULT_PATH_SAMPLES = 101;
@@ -221,10 +221,15 @@ export function compareCut(table: CutTable, c: CutCompare): CutTable {
 /** cut.csv columns before the closed-form ones. */
 export const PATH_COLUMNS = ['s', 'x', 'y', 'sxx', 'syy', 'sxy', 'szz', 's1', 's2', 'von_mises', 'tresca', 'tangential'] as const;
 
-/** cut.csv text (RFC 4180, CRLF, empty cells where a value is undefined). */
-export function cutCsv(table: CutTable): string {
+/**
+ * cut.csv text (RFC 4180, CRLF, empty cells where a value is undefined). With `units`, every
+ * column name carries its unit last, as in the other CSV files (`s_mm`, `sxx_MPa`).
+ */
+export function cutCsv(table: CutTable, units?: { length: string; stress: string }): string {
   const extra = Object.keys(table.extra);
-  const rows = [[...PATH_COLUMNS, ...extra].map(csvText).join(',')];
+  const lengthColumns = new Set(['s', 'x', 'y']);
+  const name = (c: string) => (units ? columnName(c, lengthColumns.has(c) ? units.length : units.stress) : c);
+  const rows = [[...PATH_COLUMNS, ...extra].map((c) => csvText(name(c))).join(',')];
   table.samples.forEach((p, k) => {
     const v = [p.s, p.x, p.y, p.sxx, p.syy, p.sxy, p.szz, p.s1, p.s2, p.vonMises, p.tresca, p.tangential, ...extra.map((e) => table.extra[e][k])];
     rows.push(v.map(csvNumber).join(','));

@@ -1,5 +1,5 @@
 /**
- * No import cycle between files of src/: imports only go downstream (design.md, STYLE.md §2.1),
+ * No import cycle between files of src/: imports only go downstream (DEVELOPERS.md, Layout),
  * so the graph of every import — type-only ones included, since a cycle of types is still a
  * circle in the design — must have no strongly connected component of more than one file.
  */

@@ -73,7 +73,13 @@ describe('docs/verification.md and the HTML page', () => {
       // 9 cells (case, source, quantity, reference, value, error, tolerance, inside band, result) → 10 unescaped bars
       expect(row.replace(/\\\|/g, '').split('|').length - 1).toBe(10);
     }
-    expect(md).toMatch(/all \d+ cases pass/);
+    expect(md).toMatch(/all \d+ cases passed/);
+    // the count says which references are published and which are our own FE values (issue 17)
+    const fe = results.filter((r) => r.source.startsWith('independent FE computation')).length;
+    expect(fe).toBeGreaterThan(0);
+    expect(md).toContain(`${results.length - fe} of the ${results.length} compare with published results`);
+    expect(md).toContain(`${fe} with reference values of an **independent FE computation**`);
+    expect(md).not.toMatch(/reference notes|\.\.\/shared/);
   });
   it('the HTML page escapes text and has no scripts or external files', () => {
     const bad: CheckResult = { name: '<b>x</b>', source: 'A & B 1999', quantity: 'q', reference: 1, value: 2, error: 1, tolerance: 0.1, pass: false };
@@ -86,7 +92,7 @@ describe('docs/verification.md and the HTML page', () => {
 });
 
 describe('centre-crack closed forms and the extrapolation', () => {
-  it('Tada and Feddersen values of the reference notes §7 (W = 1, a = 0.1: 0.574221, 0.574740)', () => {
+  it('Tada, Paris & Irwin (2000) and Feddersen (1966) centre-crack values (W = 1, a = 0.1: 0.574221, 0.574740)', () => {
     expect(tadaCentreCrackK(1, 0.1, 1)).toBeCloseTo(0.574221, 6);
     expect(feddersenCentreCrackK(1, 0.1, 1)).toBeCloseTo(0.574740, 6);
   });

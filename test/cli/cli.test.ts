@@ -76,7 +76,8 @@ describe('solve through the binary', () => {
     // RFC 4180 line ends; the first line is the result set's stamp, a `#` comment (docs/reliability.md)
     const [stamp, header] = readFileSync(join(out, 'field.csv'), 'utf8').split('\r\n');
     expect(stamp).toMatch(/^# peakwise run [0-9a-f]{64}$/);
-    expect(header).toBe('"node","x","y","ux","uy","sxx","syy","sxy","von_mises"');
+    // units in the header, stresses named as recovered nodal values (issue 17)
+    expect(header).toBe('"node","x_mm","y_mm","ux_mm","uy_mm","sxx_recovered_MPa","syy_recovered_MPa","sxy_recovered_MPa","von_mises_recovered_MPa"');
   });
 
   it('--adapt stops at the dof cap with a warning line, exit 0, and no solved mesh above the cap', async () => {

@@ -4,10 +4,10 @@ import { solveCantilever } from './helpers/problems.js';
 
 /*
  * Cantilever with a parabolic end shear, Timoshenko & Goodier, Theory of Elasticity, 3rd ed.
- * (1970) §21 [memory for the section]; root condition (c) of reference-values §5 — the exact
+ * (1970) §21 [memory for the section]; root condition (c) of Augarde & Deeks (FEAD 44, 2008) — the exact
  * root displacements u(0, y), v(0, y) are prescribed at every root node, so the exact field
  * solves the discrete problem's continuous counterpart and the FE solution must converge to it.
- * L = 10, D = 1, t = 1, P = 1, E = 1000, ν = 0.3: v(L, 0) = −4.0275 [derived, reference-values §5].
+ * L = 10, D = 1, t = 1, P = 1, E = 1000, ν = 0.3: v(L, 0) = −4.0275 [derived from the closed form].
  */
 const L = 10, D = 1, P = 1, E = 1000, nu = 0.3;
 
@@ -30,7 +30,7 @@ describe('cantilever with parabolic end shear (Timoshenko & Goodier 1970)', () =
   });
 
   it('LST, second beam L = 48, D = 12, E = 3e7, P = 1000: v(L, 0) = −0.0089 within 0.5 %', () => {
-    // reference-values §5 [derived]; the value quoted by Belytschko, Lu & Gu, IJNME 37 (1994) [memory]
+    // derived from the closed form; the value quoted by Belytschko, Lu & Gu, IJNME 37 (1994) [memory]
     const { mesh, solution } = solveCantilever(48, 12, 1000, 3e7, 0.3, 16, 4, 2);
     expect(Math.abs(solution.u[2 * nodeAt(mesh, 48, 0) + 1] / -0.0089 - 1)).toBeLessThan(0.005);
   });
@@ -45,7 +45,7 @@ describe('cantilever with parabolic end shear (Timoshenko & Goodier 1970)', () =
    *   e.g. Babuška & Miller, IJNME 20, 1984).
    * The band ±0.25 is the issue's acceptance; it is wide enough for the pre-asymptotic drift of
    * the CST, stiff in bending on coarse meshes (measured 1.38 → 1.79 → 1.94 for the tip), once
-   * both meshes have ≥ 8 elements through the depth (reference-values suggested case 5).
+   * both meshes have ≥ 8 elements through the depth (common practice).
    */
   it('CST: tip-deflection error rate ≈ 2 and energy-norm rate ≈ 1 over three meshes (40 × 4 → 80 × 8 → 160 × 16)', () => {
     const runs = [[40, 4], [80, 8], [160, 16]].map(([nx, ny]) => {

@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { elasticityMatrix, elementStiffnessCst, elementStiffnessLst } from '../../src/fem/index.js';
 
 describe('elasticityMatrix', () => {
-  // reference-values §14 table [derived from the D matrices of any elasticity text, e.g.
+  // derived from the D matrices of any elasticity text, e.g.
   // Cook, Malkus, Plesha & Witt (2002)]: E = 210 000, ν = 0.3, printed to 3 decimals
   it('plane stress D11, D12, D33 for E = 210000, nu = 0.3', () => {
     const D = elasticityMatrix({ E: 210000, nu: 0.3, state: 'plane-stress' });
@@ -45,7 +45,7 @@ const lstStraight = [0, 0, 2, 0.3, 0.4, 1.5, 1, 0.15, 1.2, 0.9, 0.2, 0.75];
 const lstCurved = [0, 0, 2, 0.3, 0.4, 1.5, 1.05, 0.05, 1.3, 1.0, 0.1, 0.8];
 
 /*
- * Element checks of the patch test literature (Irons & Razzaque 1972; reference-values §13):
+ * Element checks of the patch test literature (Irons & Razzaque 1972; MacNeal & Harder 1985):
  * a free element's stiffness is symmetric, positive semi-definite with exactly three zero
  * eigenvalues (two translations and a rotation), and K times a rigid-body vector is zero.
  */

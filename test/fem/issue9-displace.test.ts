@@ -6,7 +6,7 @@ import { hoopOnHole, solveModel } from './issue9-helpers.js';
 /*
  * A square with a hole driven by the exact Kirsch displacements on its outer edges, given as a
  * table of points (issue 9 acceptance). Reference: G. Kirsch, Z. VDI 42 (1898) 797–807, with the
- * displacement field of reference-values §1 (plane stress): the peak hoop stress is 3S at
+ * displacement field of Kirsch (1898), derived from its strains (plane stress): the peak hoop stress is 3S at
  * (0, ±a), and the reactions on the driven edges are the resultants of the Kirsch tractions
  * σ·n there. With exact boundary data there is no finite-size effect; what remains is the
  * discretisation and the linear interpolation of the table (spacing L/50), both well below 1 %.

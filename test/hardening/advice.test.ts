@@ -19,12 +19,12 @@ describe('a required point outside the plate names the entry that asked for it',
   it('point load, point support and listed site', () => {
     const model = parseModel([
       ...base,
-      'supports:', '  - { where: { x: 0 }, fix: [x] }', '  - { where: { point: [30, 25] }, fix: [y] }',
+      'supports:', '  - { where: { x: 0 }, fix: [x] }', '  - { where: { point: [0, 0] }, fix: [y] }',
       'loads:', '  - { where: { point: [120, 500] }, force: [0, -1000] }',
       'study: { sites: [[60, 25], [200, 10]] }',
     ].join('\n'), 'lug.yaml');
     expect(pointKeyPath(model, [120, 500])).toBe('loads[0].where.point');
-    expect(pointKeyPath(model, [30, 25 + 1e-12])).toBe('supports[1].where.point');
+    expect(pointKeyPath(model, [0, 1e-12])).toBe('supports[1].where.point');
     expect(pointKeyPath(model, [200, 10])).toBe('study.sites[1]');
     expect(pointKeyPath(model, [200, 11])).toBeUndefined();
     let caught: unknown;
@@ -34,7 +34,7 @@ describe('a required point outside the plate names the entry that asked for it',
       caught = e;
     }
     expect(caught).toBeInstanceOf(MeshError);
-    // the first required point the mesher meets: the load (listed before the supports)
+    // the only required point outside the plate: the load
     expect(formatModelError(caught as MeshError, 'lug.yaml', model)).toBe(
       'lug.yaml:10:23 loads[0].where.point: required point (120, 500) lies outside the plate (not inside the outline, or inside an opening)',
     );

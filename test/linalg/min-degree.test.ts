@@ -149,8 +149,9 @@ describe('approximate minimum degree (Amestoy, Davis & Duff 1996)', () => {
 
   // Margin: the approximate degree is an upper bound of the true one and ties break
   // differently, so AMD and exact minimum degree differ by a few % either way (the paper
-  // compares AMD's fill with exact-degree minimum degree orderings on its test matrices and
-  // finds them alike). Measured here: ratio 0.972–1.016 over the graphs below; bounds ±8 %.
+  // compares AMD's fill with an exact-degree minimum degree ordering on its test matrices and
+  // finds them alike; from memory). Measured here: ratio 0.972–1.016 over the graphs below;
+  // bounds ±8 %.
   it('fills within 8 % of exact minimum degree on small grids and random graphs', () => {
     const cases: [string, Graph][] = [
       ['grid 8×8', grid(8, 8)],

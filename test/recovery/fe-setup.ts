@@ -10,7 +10,7 @@ import type { Mesh } from '../../src/mesh/types.js';
 export type Stress3 = (x: number, y: number) => readonly [number, number, number];
 
 /** Kirsch (1898) stress around a circular hole of radius a in uniaxial σxx = S, Cartesian form
- * (reference-values §1). */
+ * (Kirsch 1898). */
 export function kirschStress(S: number, a: number): Stress3 {
   return (x, y) => {
     const r2 = x * x + y * y;
@@ -28,7 +28,7 @@ export function kirschStress(S: number, a: number): Stress3 {
   };
 }
 
-/** Lamé (1852): σr = A − B/r², σθ = A + B/r² for internal pressure p (reference-values §4). */
+/** Lamé (1852): σr = A − B/r², σθ = A + B/r² for internal pressure p (Timoshenko & Goodier 1970). */
 export function lameStress(p: number, a: number, b: number): Stress3 {
   const A = (p * a * a) / (b * b - a * a);
   const B = (p * a * a * b * b) / (b * b - a * a);

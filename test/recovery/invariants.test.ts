@@ -3,10 +3,10 @@ import { principal, vonMises, tresca, maxShear, measureValue, nodalMeasure } fro
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 
-// Values: reference-values.md §14 [derived], formulas from Timoshenko & Goodier (1970) and
+// Values derived by hand, formulas from Timoshenko & Goodier (1970) and
 // Cook, Malkus, Plesha & Witt (2002). The table gives 4 decimals for the rounded entries, so
 // those are compared with closed forms evaluated independently here, and to the table to 1e-6.
-describe('stress invariants (reference-values §14)', () => {
+describe('stress invariants (Timoshenko & Goodier 1970)', () => {
   it('principal stresses and angle of (100, −50, 40)', () => {
     const p = principal(100, -50, 40);
     expect(rel(p.s1, 110)).toBeLessThan(1e-12); // 25 + √(75² + 40²) = 25 + 85
@@ -31,7 +31,7 @@ describe('stress invariants (reference-values §14)', () => {
   });
 
   it('plane strain: σzz enters von Mises and Tresca', () => {
-    // Lamé bore of reference-values §4 in plane strain, ν = 0.3: σr = −1, σθ = 5/3, σz = 0.2.
+    // Lamé bore (Lamé 1852) in plane strain, ν = 0.3: σr = −1, σθ = 5/3, σz = 0.2.
     // On the x axis σxx = σr, σyy = σθ. vm = √(½[(−1 − 5/3)² + (5/3 − 0.2)² + (0.2 + 1)²])
     const sr = -1;
     const st = 5 / 3;

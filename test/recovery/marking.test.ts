@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { dorflerMark } from '../../src/recovery/index.js';
 
-// Dörfler (1996) bulk marking; the numbers are reference-values "Suggested test cases" 12(c).
+// Dörfler (1996) bulk marking; the numbers are a worked example by hand.
 describe('Dörfler marking', () => {
   const etaSq = [0.1, 0.4, 0.04, 0.25, 0.06, 0.15]; // the test's values, shuffled
   it.each([

@@ -54,7 +54,7 @@ function hoopPeak(mesh: Mesh, geometry: ReturnType<typeof buildGeometry>, field:
   return { hoop, peak };
 }
 
-// Kirsch (1898), reference-values §1: 3S at (0, ±a), −S at (±a, 0); on a mesh from the mesher.
+// Kirsch (1898): 3S at (0, ±a), −S at (±a, 0); on a mesh from the mesher.
 describe('Kirsch hole on a Delaunay mesh, exact tractions', () => {
   it('LST + SPR: peak within 0.5 % of 3S and −S within 2 % at ≤ 20 000 DOF', () => {
     const { mesh, geometry, solution, gauss } = solveSquare(2, 0.1, 0.8);
@@ -73,13 +73,13 @@ describe('Kirsch hole on a Delaunay mesh, exact tractions', () => {
     expect(theta).toBeLessThan(1.25);
   });
 
-  it('CST: SPR lands closer to 3S than nodal averaging (reference-values test case 1: "roughly halve")', () => {
+  it('CST: SPR lands closer to 3S than nodal averaging (common practice: "roughly halve")', () => {
     const { mesh, geometry, gauss } = solveSquare(1, 0.05, 0.6);
     const spr = hoopPeak(mesh, geometry, recoverSpr(mesh, gauss, section)).peak;
     const avg = hoopPeak(mesh, geometry, recoverAverage(mesh, gauss, section)).peak;
     console.log(`Kirsch Delaunay CST: SPR ${(spr / (3 * S) - 1).toExponential(3)}, average ${(avg / (3 * S) - 1).toExponential(3)}`);
     expect(Math.abs(spr / (3 * S) - 1)).toBeLessThan(Math.abs(avg / (3 * S) - 1));
-    // test case 1 allows 6 % for nodal averages of CST at ≥ 64 edges on the quarter arc
+    // common practice allows 6 % for nodal averages of CST at ≥ 64 edges on the quarter arc
     expect(Math.abs(spr / (3 * S) - 1)).toBeLessThan(0.03);
   });
 });

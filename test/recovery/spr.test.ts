@@ -15,7 +15,7 @@ function maxNodalError(stress: Float64Array, xy: Float64Array, fn: (x: number, y
 }
 
 // Zienkiewicz & Zhu (1992), IJNME 33, Part 1: a least-squares fit of a complete polynomial of
-// degree p reproduces any field of degree ≤ p exactly (reference-values §12, "property a test can
+// degree p reproduces any field of degree ≤ p exactly (Zienkiewicz & Zhu 1992, "property a test can
 // rely on"); the boundary nodes take values of the same polynomials, so they are exact too.
 describe('SPR polynomial reproduction', () => {
   it('CST: a constant stress is recovered exactly at every node', () => {
@@ -71,7 +71,7 @@ describe('SPR polynomial reproduction', () => {
     }
   });
 
-  it('plane strain: σzz = ν(σxx + σyy) at each node (reference-values §14)', () => {
+  it('plane strain: σzz = ν(σxx + σyy) at each node (Hooke\'s law, plane strain)', () => {
     const mesh = rectMesh(4, 4, 1, 1, 1, 0.3, 5);
     const fn = () => [-1, 5 / 3, 0] as [number, number, number];
     const field = recoverSpr(mesh, sampledGauss(mesh, fn), { ...steel, state: 'plane-strain' });

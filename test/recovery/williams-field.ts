@@ -1,6 +1,6 @@
 /**
  * Exact mode-I Williams (1952) field for the L-shaped domain [−1, 1]² minus the quadrant
- * x > 0, y < 0 (reference-values §6, "Exact mode-I field for an L-shaped test domain"):
+ * x > 0, y < 0 (Williams 1952 mode-I field on the L-shaped test domain):
  * Kolosov–Muskhelishvili potentials φ = z'^λ, ψ = B z'^λ in coordinates turned by −135°.
  */
 export const LAMBDA_270 = 0.5444837368;

@@ -36,22 +36,35 @@ describe('sitesCsv', () => {
   const rows = parseCsv(sitesCsv(study));
 
   it('has one row per site and level under a quoted header', () => {
+    // one naming style (snake_case, unit last), units from the study (issue 17)
     expect(rows[0].map((c) => c.value)).toEqual([
-      'site', 'x', 'y', 'feature', 'verdict', 'level', 'h', 'dofs', 'peak', 'atDistance',
-      'estimate', 'uncertainty', 'exponent', 'theory',
+      'site', 'x_mm', 'y_mm', 'feature', 'verdict', 'above_yield', 'level', 'h_mm', 'dofs', 'peak_MPa', 'at_distance_MPa',
+      'readout_distance_mm', 'value_MPa', 'discretisation_band_MPa', 'growth_exponent', 'theory_exponent',
     ]);
     expect(rows[0].every((c) => c.quoted)).toBe(true);
     expect(rows.length - 1).toBe(study.sites.reduce((a, s) => a + s.levels.length, 0));
-    for (const r of rows) expect(r.length).toBe(14);
+    for (const r of rows) expect(r.length).toBe(16);
   });
 
   it('writes numbers bare with full round-trip precision', () => {
     const first = rows[1];
     const level = study.sites[0].levels[0];
-    expect(first[8].quoted).toBe(false);
-    expect(Number(first[8].value)).toBe(level.peak); // exact, not rounded
-    expect(Number(first[12].value)).toBe(study.sites[0].growth.exponent);
-    expect(first[10].value).toBe(''); // NaN estimate of a singular site → empty cell
+    expect(first[9].quoted).toBe(false);
+    expect(Number(first[9].value)).toBe(level.peak); // exact, not rounded
+    expect(Number(first[14].value)).toBe(study.sites[0].growth.exponent);
+    expect(first[12].value).toBe(''); // a singular site has no value: its peak is not a stress
+    expect(first[13].value).toBe('');
+    const conv = rows.find((r) => r[4].value === 'converging')!;
+    expect(Number(conv[12].value)).toBe(study.sites[1].estimate.value);
+    expect(Number(conv[13].value)).toBe(study.sites[1].estimate.uncertainty);
+  });
+
+  it('marks a site above the yield stress', () => {
+    const flagged = demoStudy();
+    flagged.sites[1] = { ...flagged.sites[1], aboveYield: true };
+    const r = parseCsv(sitesCsv(flagged)).filter((row) => row[4].value === 'converging');
+    expect(r.every((row) => row[5].value === 'yes')).toBe(true);
+    expect(parseCsv(sitesCsv(demoStudy())).slice(1).every((row) => row[5].value === '')).toBe(true);
   });
 });
 
@@ -102,6 +115,18 @@ describe('fieldCsv', () => {
     expect(rows.length).toBe(n + 1);
     expect(Number(rows[n][6].value)).toBe(Math.PI * (n - 1));
     expect(Number(rows[5][1].value)).toBe(mesh.xy[8]);
+  });
+
+  it('with units: x_mm … and the stresses named as recovered nodal values; coordinates without a binary tail', () => {
+    const mesh = gridMesh({ nx: 3, ny: 2, width: 3, height: 2, order: 1 });
+    const n = mesh.xy.length / 2;
+    mesh.xy[2] = 0.9999999999999999; // a coordinate as arithmetic leaves it
+    const rows = parseCsv(fieldCsv(mesh, new Float64Array(2 * n), { sxx: new Float64Array(n), von_mises: new Float64Array(n) }, { length: 'mm', stress: 'MPa' }));
+    expect(rows[0].map((c) => c.value)).toEqual(['node', 'x_mm', 'y_mm', 'ux_mm', 'uy_mm', 'sxx_recovered_MPa', 'von_mises_recovered_MPa']);
+    // rounded to 1e-9 of the 3.6 mm diagonal (step 1e-9): 0.9999999999999999 → 1
+    expect(rows[2][1].value).toBe('1');
+    // every row has the header's width: the file stays one plain table
+    for (const r of rows) expect(r.length).toBe(7);
   });
 
   it('rejects columns of the wrong length', () => {

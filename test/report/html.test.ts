@@ -24,7 +24,7 @@ describe('reportHtml', () => {
     expect(html.match(/class="contour contour-inset"/g)?.length).toBe(3);
     expect(html.match(/class="contour contour-main"/g)?.length).toBe(1);
     expect(html.split(CAUTION).length - 1).toBe(2); // top and bottom of the page
-    expect(html).toContain('2 of 3 closed-form checks pass');
+    expect(html).toContain('2 of 3 checks passed in the run that made this report');
   });
 
   it('describes the model in words', () => {
@@ -101,5 +101,52 @@ describe('reportHtml for a single solve', () => {
     expect(html).toContain('<code>peakwise study</code>');
     expect(html).not.toContain('class="site"');
     expect(html).toContain('class="contour contour-main"');
+    // the field peaks at the plate's 270° corner (200, 150): the page says that maximum is not a stress
+    expect(unescape(html)).toContain('Warning: the maximum von Mises stress sits at the re-entrant corner (200, 150) mm, 270°, faces free/free: a singular point of the idealised geometry');
+  });
+});
+
+describe('words a practising engineer can sign (issue 17)', () => {
+  const input = demoReportInput();
+  const html = reportHtml(input);
+  const text = unescape(html.replace(/<svg[\s\S]*?<\/svg>/g, '').replace(/<[^>]+>/g, ' '));
+
+  it('claims no more than the tool checks', () => {
+    expect(text).not.toMatch(/design for it|second opinion|finds every|usable measures|pass in this build/i);
+    // the ± is the discretisation band, and the legend says what it leaves out
+    expect(text).toContain('value ± discretisation band');
+    expect(text).toMatch(/discretisation band \(the estimated error of the mesh alone, not of the model, the loads or the material\)/);
+    expect(text).toMatch(/compare it with what the applicable code asks for/);
+    // how sites are found, and whose idealisation the model is
+    expect(text).toMatch(/Sites are the points theory flags as singular .* above 1\.3 × its median, or the points the model lists/);
+    expect(text).toContain('the user’s idealisation of the real detail');
+  });
+
+  it('gives every readout with its distance or radius, and K_I with its units in both forms', () => {
+    expect(text).toContain('Point: stress at r = 0.5 mm along the inward bisector');
+    expect(text).toContain('Area: mean over the disk r ≤ 0.5 mm');
+    expect(text).toMatch(/point 118 MPa at r = 0\.5 mm; area mean 131\.2 MPa over r ≤ 0\.5 mm; K_I 812\.5 MPa·mm\^0\.460 \(33\.87 MPa·m\^0\.460\)/);
+    expect(text).toContain('K_I: notch stress intensity of the opening mode');
+    expect(text).toMatch(/point and line methods of the theory of critical distances \(Taylor 2007\)/);
+  });
+
+  it('flags a converged value above the yield stress', () => {
+    const study = { ...input.study, yieldStress: 150, sites: input.study.sites.map((s) => (s.verdict === 'converging' ? { ...s, aboveYield: true as const } : s)) };
+    const flagged = unescape(reportHtml({ ...input, study }));
+    expect(flagged).toContain('182.40 ± 0.90 MPa (above yield)');
+    expect(flagged).toContain('Above the yield stress (150 MPa): a linear-elastic result, so local yielding is expected here');
+    expect(text).not.toContain('above yield');
+  });
+
+  it('says when and with which version a recorded verification ran, and which references are FE values', () => {
+    const checks = [
+      { name: 'Kirsch', pass: true, detail: '2.99451 against 3', referenceKind: 'published' as const, recorded: { date: '2026-12-01', version: '0.1.0' } },
+      { name: 'strip', pass: true, detail: '3.37077 against 3.374', referenceKind: 'independent-fe' as const, recorded: { date: '2026-12-01', version: '0.1.0' } },
+    ];
+    const page = unescape(reportHtml({ ...input, checks }));
+    expect(page).toContain('These are the results recorded on 2026-12-01 with peakwise 0.1.0 (docs/verification.json), not a run made for this report: 2 of 2 checks passed');
+    expect(page).toContain('1 against published results');
+    expect(page).toContain('1 against reference values of an independent FE computation made for this project');
+    expect(page).toContain('(FE reference value)');
   });
 });

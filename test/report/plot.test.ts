@@ -34,7 +34,8 @@ describe('convergencePlotSvg', () => {
     const label = /class="slope-label" data-value="([^"]+)"/.exec(svg);
     expect(label?.[1]).toBe(converging.estimate.observedOrder.toFixed(2));
     expect(svg.match(/class="uncertainty-band"/g)?.length).toBe(2); // main and DOF panel
-    expect(svg).toContain('extrapolated 182.4 ± 0.9 MPa');
+    // the band to two significant digits, the value to the same decimal place (issue 17)
+    expect(svg).toContain('extrapolated 182.40 ± 0.90 MPa (discretisation band)');
   });
 
   it('labels an undecided site with its current growth exponent', () => {
@@ -44,16 +45,16 @@ describe('convergencePlotSvg', () => {
 
   it('passes the fitted line through exact power-law levels (peak = c·h^−q)', () => {
     // levels built with q = 0.4555 while the study reports 0.4562: the line with the study slope
-    // fitted over the three finest levels lies within a pixel of them
+    // fitted over the four finest levels (the study's singular window) lies within a pixel of them
     const svg = convergencePlotSvg(singular, { units: 'MPa' });
     const pts = circles(svg);
     const fit = pathPoints(svg, 'fit-line');
     expect(pts.length).toBe(5);
     expect(fit.length).toBe(2);
-    // the fit spans the third-finest to the finest level
-    expect(Math.abs(fit[0][0] - pts[2][0])).toBeLessThan(0.11);
+    // the fit spans the fourth-finest to the finest level
+    expect(Math.abs(fit[0][0] - pts[1][0])).toBeLessThan(0.11);
     expect(Math.abs(fit[1][0] - pts[4][0])).toBeLessThan(0.11);
-    expect(Math.abs(fit[0][1] - pts[2][1])).toBeLessThan(1);
+    expect(Math.abs(fit[0][1] - pts[1][1])).toBeLessThan(1);
     expect(Math.abs(fit[1][1] - pts[4][1])).toBeLessThan(1);
     // finer to the right: h halves per level, so x increases level by level in equal steps (log axis)
     const steps = pts.slice(1).map((p, i) => p[0] - pts[i][0]);
@@ -67,6 +68,19 @@ describe('convergencePlotSvg', () => {
     const fit = pathPoints(svg, 'fit-line');
     expect(Math.abs(fit[0][1] - pts[2][1])).toBeLessThan(1);
     expect(Math.abs(fit[fit.length - 1][1] - pts[4][1])).toBeLessThan(1);
+  });
+
+  it('fills exactly the levels the study fits: the finest three when converging, the finest four otherwise', () => {
+    // judgeSite: Richardson over the finest triple; the growth exponent over the finest VERDICT_RULES.singularWindow levels
+    const filled = (svg: string, cls: string) => [...svg.matchAll(new RegExp(`<circle ${cls}[^>]*fill="([^"]+)"`, 'g'))].filter((m) => m[1] !== '#fff').length;
+    for (const [site, n] of [[converging, 3], [singular, 4], [undecided, Math.min(4, undecided.levels.length)]] as const) {
+      const svg = convergencePlotSvg(site, { units: 'MPa' });
+      expect(svg).toContain('levels (filled: used in the fit)');
+      expect(filled(svg, 'class="level-point"'), site.verdict).toBe(n);
+      // the degrees-of-freedom panel fills the same levels
+      const side = svg.slice(svg.indexOf('class="dofs-panel"'));
+      expect(filled(side, 'cx'), site.verdict).toBe(n);
+    }
   });
 
   it('copes with a site without levels', () => {

@@ -16,9 +16,11 @@ describe('studyTable', () => {
     const s3 = lines.find((l) => l.startsWith('S3 '));
     expect(s1).toContain('singular');
     expect(s1).toContain('q = 0.46 (theory 0.46)');
-    expect(s1).toContain('118 MPa at 0.5 mm');
+    expect(s1).toContain('point 118 MPa at r = 0.5 mm');
     expect(s2).toContain('converging');
-    expect(s2).toContain('182.4 ± 0.9 MPa');
+    // the band to two significant digits and the value to the same decimal place (issue 17)
+    expect(s2).toContain('182.40 ± 0.90 MPa');
+    expect(lines.find((l) => l.startsWith('site '))).toContain('value ± discretisation band');
     expect(s3).toContain('undecided');
     expect(plain).toContain('S3: add two refinement levels');
   });
@@ -95,5 +97,48 @@ describe('feature labels', () => {
     expect(featureLabel(site({ kind: 'corner', interiorAngleDeg: 270, radius: 0, faceConditions: ['free', 'free'] }))).toBe('corner 270°');
     expect(featureLabel(site({ kind: 'corner', interiorAngleDeg: 90, radius: 0, faceConditions: ['clamped', 'free'] }))).toBe('corner 90°, faces clamped/free');
     expect(featureLabel(site({ kind: 'fillet', interiorAngleDeg: 0, radius: 8 }))).toBe('fillet r 8');
+  });
+});
+
+describe('notes under the study table (issue 17)', () => {
+  it('flags a site above yield, names the support ends and the crack, and keys the readouts', () => {
+    const study = demoStudy();
+    study.yieldStress = 150;
+    study.sites[1] = { ...study.sites[1], aboveYield: true };
+    study.sites.push({ ...study.sites[0], id: 'S4', feature: { ...study.sites[0].feature, interiorAngleDeg: 90, faceConditions: ['clamped', 'free'] } });
+    study.sites.push({ ...study.sites[0], id: 'S5', feature: { ...study.sites[0].feature, interiorAngleDeg: 357.1 } });
+    const text = studyTable(study, { color: false });
+    expect(text).toContain('182.40 ± 0.90 MPa (above yield)');
+    expect(text).toContain('S2: above the yield stress (150 MPa): a linear-elastic result, so local yielding is expected here');
+    expect(text).toContain('S4 (where a support ends): model the real support');
+    expect(text).toContain('S5: this is a crack: it needs a fracture assessment');
+    expect(text).toMatch(/readouts: measures of the linear-elastic field along the inward bisector/);
+  });
+});
+
+describe('solve warning at a singular maximum', () => {
+  it('is printed only when the model is given and the maximum sits at a singular point', async () => {
+    const { parseModel } = await import('../../src/model/index.js');
+    const { buildGeometry } = await import('../../src/geometry/index.js');
+    const { meshPlate, sizeFieldFromSettings } = await import('../../src/mesh/index.js');
+    const model = parseModel(`
+material: { E: 210000, nu: 0.3 }
+thickness: 10
+plate: { outline: [[0, 0], [120, 0], [120, 40], [40, 40], [40, 120], [0, 120]] }
+supports: [{ where: { y: 120 }, fix: [x, y] }]
+loads: [{ where: { x: 120 }, traction: [0, -6] }]
+mesh: { size: 10 }
+`, 'l.yaml');
+    const geometry = buildGeometry(model.plate);
+    const mesh = meshPlate(geometry, { sizeAt: sizeFieldFromSettings(geometry, model.mesh), order: 1 });
+    const base = {
+      title: 'L', units: { length: 'mm', force: 'N', stress: 'MPa' }, nodes: 1, elements: 1, order: 1 as const, dofs: 2,
+      maxDisplacement: { value: 1, at: [120, 0] as [number, number] }, reactionSum: [0, 1] as [number, number], appliedSum: [0, -1] as [number, number],
+      timings: {},
+    };
+    const at = (p: [number, number]) => solveSummary({ ...base, maxStress: { measure: 'von Mises', value: 500, at: p }, singularCheck: { model, geometry, mesh } }, { color: false });
+    expect(at([40, 40])).toMatch(/warning: the maximum von Mises sits at the re-entrant corner \(40, 40\) mm, 270°/);
+    expect(at([60, 20])).not.toContain('warning');
+    expect(solveSummary({ ...base, maxStress: { measure: 'von Mises', value: 500, at: [40, 40] } }, { color: false })).not.toContain('warning');
   });
 });

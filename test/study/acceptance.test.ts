@@ -39,7 +39,7 @@ describe('L-shaped plate, re-entrant 270° corner (Williams 1952: λ = 0.544484,
     expect(s.growth.theory).toBeCloseTo(0.455516, 5);
     expect(Math.abs(s.growth.exponent - 0.455516)).toBeLessThan(0.05);
     expect(s.readouts.nsifUnits).toBe('MPa·mm^0.456');
-    // point method at a fixed distance settles while the peak keeps rising (reference notes test 9, practice)
+    // point method at a fixed distance settles while the peak keeps rising (Taylor 2007; common practice)
     const n = s.levels.length;
     const pm = s.levels.map((l) => l.atDistance!);
     expect(Math.abs(pm[n - 1] / pm[n - 2] - 1)).toBeLessThan(Math.abs(s.levels[n - 1].peak / s.levels[n - 2].peak - 1));
@@ -102,9 +102,9 @@ mesh: { size: 3, order: 2 }
     expect(s.verdict).toBe('converging');
     const howland = howlandKtg(0.1); // 3.03 [from memory]
     expect(Math.abs(s.estimate.value / howland - 1)).toBeLessThan(0.005);
-    // reference notes item 2 [computed]: K_tg = 3.036 with GCI 4e−4; the two bands must overlap
+    // independent FE computation (9-node quadrilaterals, Richardson): K_tg = 3.036 with GCI 4e−4; the two bands must overlap
     expect(Math.abs(s.estimate.value - 3.036)).toBeLessThanOrEqual(s.estimate.uncertainty + 4e-4 * 3.036);
-    // no point support made a site: the loads balance, reactions vanish (design §5)
+    // no point support made a site: the loads balance, reactions vanish (docs/study.md)
     expect(r.sites.some((p) => p.feature.kind === 'point-support')).toBe(false);
   });
 });

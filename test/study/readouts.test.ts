@@ -6,7 +6,7 @@ import {
 
 const rel = (a: number, b: number) => Math.abs(a / b - 1);
 
-describe('theory of critical distances (Taylor 2007; reference notes item 9 / test 9)', () => {
+describe('theory of critical distances (Taylor 2007)', () => {
   const crack = (r: number) => 1 / Math.sqrt(2 * Math.PI * r); // K = 1
   it('K = σ₀ = 1: L = 0.318310, PM and LM both return σ₀ (1e−12)', () => {
     const L = criticalDistance(1, 1);
@@ -34,19 +34,19 @@ describe('generalised notch stress intensity (Gross & Mendelson 1972)', () => {
     const r = [0.01, 0.02, 0.03, 0.04, 0.05];
     const exact = r.map((x) => (K / Math.sqrt(2 * Math.PI)) * Math.pow(x, lambda - 1));
     expect(rel(notchStressIntensity(r, exact, lambda).K, K)).toBeLessThan(1e-12);
-    // second term ∝ r^(λ₂ − 1) with λ₂ = 1.629 (reference notes item 6) — small bias only
+    // second term ∝ r^(λ₂ − 1) with λ₂ = 1.629 (Williams 1952, second free–free root at 270°) — small bias only
     const two = r.map((x, i) => exact[i] + 0.5 * Math.pow(x, 1.629257 - 1));
     expect(rel(notchStressIntensity(r, two, lambda).K, K)).toBeLessThan(0.01);
   });
   it('crack case: K_I with λ = 1/2; units stress·length^(1−λ)', () => {
     const r = [0.001, 0.002, 0.004];
-    const s = r.map((x) => 0.574221 / Math.sqrt(2 * Math.PI * x)); // Tada K of reference notes item 7
+    const s = r.map((x) => 0.574221 / Math.sqrt(2 * Math.PI * x)); // K of Tada, Paris & Irwin (2000), W = 1, a = 0.1
     expect(notchStressIntensity(r, s, 0.5).K).toBeCloseTo(0.574221, 12);
     expect(nsifUnits('MPa', 'mm', 0.544484)).toBe('MPa·mm^0.456');
   });
 });
 
-describe('hot-spot extrapolation (Hobbacher 2016, IIW; reference notes test 8)', () => {
+describe('hot-spot extrapolation (Hobbacher 2016, IIW)', () => {
   const t = 12;
   it('linear profile σ = 100 − 20x/t: exact weights give 100, rounded 1.67/0.67 give 100.04', () => {
     const s = (x: number) => 100 - (20 * x) / t;

@@ -79,7 +79,8 @@ mesh: { size: 10, order: 2, local: [ { near: [0, 0], size: 2, radius: 15 } ] }
     expect(r.sites).toHaveLength(1);
     const s = r.sites[0];
     expect(s.verdict).toBe('converging');
-    expect(Math.abs(Math.hypot(s.at[0], s.at[1]) - 10)).toBeLessThan(1e-9);
+    // at 1e-9 of the plate size: the reported coordinates are rounded there
+    expect(Math.abs(Math.hypot(s.at[0], s.at[1]) - 10)).toBeLessThan(1e-6);
     expect(Math.abs(s.estimate.value / (2 * 100 * 100 ** 2 / (100 ** 2 - 10 ** 2)) - 1)).toBeLessThan(1e-3);
     expect(s.extent?.closed).toBe(true);
     // no singularity: no stress intensity

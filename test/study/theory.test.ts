@@ -4,7 +4,7 @@ import { theoryExponent, wedgeTheory } from '../../src/study/index.js';
 const section = { nu: 0.3, state: 'plane-stress' as const };
 
 describe('growth exponent theory per feature (Williams 1952; Flamant)', () => {
-  it('re-entrant 270° free corner: q = 0.455516 (reference notes item 6)', () => {
+  it('re-entrant 270° free corner: q = 0.455516 (Williams 1952)', () => {
     expect(theoryExponent({ kind: 'corner', interiorAngleDeg: 270, radius: 0, faces: 'free-free', description: '' }, section)).toBeCloseTo(0.455516, 6);
   });
   it('fixed edge meeting a free one at 90°: q = 1 − 0.758349 (clamped–free, plane stress ν = 0.3)', () => {

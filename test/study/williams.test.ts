@@ -1,7 +1,8 @@
 import { describe, it, expect } from 'vitest';
 import { williamsRoots, kolosovKappa } from '../../src/study/index.js';
 
-// Williams (1952), J. Appl. Mech. 19, 526–528; values from the project's reference notes item 6
+// Williams (1952), J. Appl. Mech. 19, 526–528; values: roots of the characteristic equations found
+// independently of this code
 // (derived by complex Newton with deflation, cross-checked with a 30-digit solver).
 const TOL = 1e-6;
 
@@ -49,7 +50,7 @@ describe('Williams (1952) free–free roots', () => {
   });
 });
 
-describe('Williams (1952) clamped faces (reference notes item 6 table, ν = 0.3)', () => {
+describe('Williams (1952) clamped faces (independent roots, ν = 0.3)', () => {
   const ps = kolosovKappa(0.3, 'plane-stress');
   const pe = kolosovKappa(0.3, 'plane-strain');
   it('κ = 2.076923 plane stress, 1.8 plane strain', () => {

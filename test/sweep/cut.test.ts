@@ -117,11 +117,13 @@ describe('cut.csv through the CLI helper, against Lamé', () => {
     expect(out?.plot.series.map((x) => x.reference === true)).toEqual([false, true]);
     const rows = readFileSync(out!.file, 'utf8').trimEnd().split('\r\n');
     const head = rows[0].split(',').map((h) => h.replace(/"/g, ''));
+    // the model's units last in every column name, as in the other CSV files (issue 17)
+    expect(head.slice(0, 4)).toEqual(['s_mm', 'x_mm', 'y_mm', 'sxx_MPa']);
     const col = (name: string) => rows.slice(1).map((l) => Number(l.split(',')[head.indexOf(name)]));
     // Lamé: σθ(a) = p (b² + a²)/(b² − a²) = 30 · 2900/2100 = 41.43 at the bore
     const hoopBore = (30 * (2500 + 400)) / (2500 - 400);
-    expect(col('ref_syy')[0]).toBeCloseTo(hoopBore, 9);
-    const diff = col('diff_von_mises');
+    expect(col('ref_syy_MPa')[0]).toBeCloseTo(hoopBore, 9);
+    const diff = col('diff_von_mises_MPa');
     expect(diff).toHaveLength(31);
     for (const d of diff) expect(Math.abs(d)).toBeLessThan(0.01 * hoopBore);
   });

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { cartesian, expandRange, parseVary, matchSites, sweepCsv, roundTicks, featureClass, tickLabel } from '../../src/sweep/index.js';
+import { familyPlotSvg } from '../../src/sweep/html.js';
 import type { SiteResult, StudyResult } from '../../src/study/types.js';
 import { PeakwiseError } from '../../src/errors.js';
 
@@ -111,10 +112,42 @@ describe('site families', () => {
     const csv = sweepCsv({ axes: [{ name: 'r', values: [0, 2] }], points, families: matchSites(points) });
     const rows = csv.trimEnd().split('\r\n').map((l) => l.split(','));
     expect(rows[0]).toHaveLength(1 + 2 * 10);
-    expect(rows[0].slice(0, 3)).toEqual(['"r"', '"F1_id"', '"F1_x"']);
+    // snake_case names with the study's units last (issue 17)
+    expect(rows[0].slice(0, 11)).toEqual([
+      '"r"', '"F1_id"', '"F1_x_mm"', '"F1_y_mm"', '"F1_feature"', '"F1_verdict"', '"F1_value_MPa"', '"F1_discretisation_band_MPa"',
+      '"F1_growth_exponent"', '"F1_theory_exponent"', '"F1_at_distance_MPa"',
+    ]);
     expect(rows[1][0]).toBe('0');
     expect(rows[1][5]).toBe('"singular"');
+    // a singular site has no value and no band (its peak, 10 here, is not a stress); its exponent stays
+    expect(rows[1][6]).toBe('');
+    expect(rows[1][7]).toBe('');
+    expect(rows[1][8]).toBe('0.46');
     expect(rows[2][6]).toBe('5');
+    expect(rows[2][7]).toBe('1');
     expect(rows[1].slice(11)).toEqual(new Array(10).fill(''));
+  });
+});
+
+describe('sweep plot', () => {
+  it('keeps singular points apart: in their own strip, never on the value axis or joined to valued points', () => {
+    const points = [0, 1, 2, 3].map((r, i) => ({
+      index: i, params: { r }, key: String(i), reused: false, seconds: 0, scale: 100,
+      study: study([site('S1', r === 0 ? 'corner' : 'fillet', [1, 1], r === 0 || r === 2 ? 'singular' : 'converging', 1000 + r, r)]),
+    }));
+    const sweep = { axes: [{ name: 'r', values: [0, 1, 2, 3] }], points, families: matchSites(points) };
+    const svg = familyPlotSvg(sweep, sweep.families[0], 'MPa');
+    expect(svg).toContain('class="singular-strip"');
+    expect(svg).toContain('singular: no value (the peak is not a stress)');
+    const strip = /class="singular-strip" x="[^"]+" y="([^"]+)" width="[^"]+" height="([^"]+)"/.exec(svg)!;
+    const [top, bottom] = [Number(strip[1]), Number(strip[1]) + Number(strip[2])];
+    const triangles = [...svg.matchAll(/<path d="M([\d.]+) ([\d.]+) L/g)].map((m) => Number(m[2]) + 6);
+    expect(triangles).toHaveLength(2);
+    for (const y of triangles) expect(y > top && y < bottom).toBe(true);
+    const discs = [...svg.matchAll(/<circle cx="[^"]+" cy="([^"]+)"/g)].map((m) => Number(m[1]));
+    expect(discs).toHaveLength(2);
+    for (const y of discs) expect(y).toBeLessThan(top);
+    // r = 1 and r = 3 converge but r = 2 between them is singular: no dashed line joins them across it
+    expect(svg).not.toContain('stroke-dasharray="4 3"');
   });
 });

@@ -1,12 +1,12 @@
 /**
- * Closed-form elasticity fields used by the fem tests (reference-values.md items 1, 4, 5).
- * Each function names its published source; the formulas are copied from reference-values.md.
+ * Closed-form elasticity fields used by the fem tests: Kirsch, Lamé, the Timoshenko–Goodier cantilever.
+ * Each function names its published source.
  */
 
 /**
  * Timoshenko & Goodier, Theory of Elasticity, 3rd ed. (1970), §21: cantilever with a parabolic
  * end shear P (acting in −y) at x = L, root at x = 0, depth D, thickness t; plane stress.
- * Root condition (c) of reference-values §5: u(0, ±D/2) = 0 and the root centroid held.
+ * Root condition (c) (Augarde & Deeks, FEAD 44, 2008): u(0, ±D/2) = 0 and the root centroid held.
  */
 export function cantilever(L: number, D: number, t: number, P: number, E: number, nu: number) {
   const I = (t * D ** 3) / 12;
@@ -29,7 +29,7 @@ export function cantilever(L: number, D: number, t: number, P: number, E: number
 
 /**
  * Lamé (1852); Timoshenko & Goodier (1970) §28: thick ring a ≤ r ≤ b under internal pressure p.
- * Radial displacement in plane stress or plane strain (reference-values §4).
+ * Radial displacement in plane stress or plane strain (from Hooke's law with Lamé's stresses).
  */
 export function lameRadialDisplacement(a: number, b: number, p: number, E: number, nu: number, state: 'plane-stress' | 'plane-strain', r: number): number {
   const c = (p * a * a) / (b * b - a * a);
@@ -40,7 +40,7 @@ export function lameRadialDisplacement(a: number, b: number, p: number, E: numbe
 
 /**
  * Kirsch (1898): circular hole of radius a in an infinite plate under remote σxx = S.
- * Cartesian stresses and displacements (plane stress), reference-values §1 [derived].
+ * Cartesian stresses and displacements (plane stress); the displacements derived by integrating Kirsch's strains.
  */
 export function kirsch(a: number, S: number, E: number, nu: number) {
   const mu = E / (2 * (1 + nu));
