@@ -57,11 +57,14 @@ export function checkPointSelector(geom: PlateGeometry, where: Selector, keyPath
 }
 
 /** The points one selector needs as mesh vertices (see selectorVertices). */
-export function verticesOfSelector(geom: Pick<PlateGeometry, 'pieces' | 'scale'>, where: Selector): Point[] {
+export function verticesOfSelector(geom: Pick<PlateGeometry, 'pieces' | 'loops' | 'scale'>, where: Selector): Point[] {
   const tol = SELECTOR_TOLERANCE * geom.scale;
   switch (where.kind) {
-    case 'point':
-      return [nearestBoundaryPoint(geom, where.at).point];
+    case 'point': {
+      // a point outside the material stays as written: the mesher refuses it, naming the entry
+      const hit = nearestBoundaryPoint(geom, where.at);
+      return [hit.distance > tol && !pointInMaterial(geom as PlateGeometry, where.at) ? [where.at[0], where.at[1]] : hit.point];
+    }
     case 'segment':
       return lineOverlapEnds(geom, where.from, where.to, 0, 1, tol);
     case 'x':
@@ -77,9 +80,11 @@ export function verticesOfSelector(geom: Pick<PlateGeometry, 'pieces' | 'scale'>
 /**
  * Points that must be mesh vertices for the model's selectors (issue 12 §4), on every mesh of a solve or
  * study, like the geometry's own vertices: the boundary point a point selector means (nearestBoundaryPoint,
- * for forces and supports alike), and the ends of what a line selector catches — a segment ending inside a
+ * for forces and supports alike; a point outside the outline or inside an opening stays as written, and the
+ * mesher refuses it naming the entry), and the ends of what a line selector catches — a segment ending inside a
  * boundary piece splits that piece there, so the support or load stops exactly at its end instead of at
- * whichever node the mesh happens to have nearby. Each point once (within 1e-9 of the plate size).
+ * whichever node the mesh happens to have nearby. Supports first, then loads; each point once (within 1e-9 of
+ * the plate size).
  */
 export function selectorVertices(
   model: {

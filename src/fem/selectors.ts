@@ -1,5 +1,5 @@
 import { FemError } from '../errors.js';
-import { closestOnCurve, curveEnd, curvePoint, curveStart, loopPolyline } from '../geometry/index.js';
+import { closestOnCurve, curveEnd, curvePoint, curveStart, loopPolyline, pointInMaterial } from '../geometry/index.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { Mesh } from '../mesh/types.js';
 import type { AnyLoad, ModelWarning, Point, Selector, Support } from '../model/types.js';
@@ -119,7 +119,7 @@ function nodesOfEdges(mesh: Pick<Mesh, 'boundaryEdges' | 'edgeStride'>, edges: I
  * take every boundary edge whose nodes all lie on them within SELECTOR_TOLERANCE · geom.scale;
  * `opening` and `outline` take every edge of that loop; `piece` every edge of the boundary piece nearest
  * its point; `point` the boundary vertex at the boundary point nearest to it (nearestBoundaryPoint), which
- * must lie within the tolerance — `selectorVertices` gives the mesher those points as required vertices,
+ * must lie within the tolerance (a point outside the outline or inside an opening is an error) — `selectorVertices` gives the mesher those points as required vertices,
  * for forces and supports alike, so an interior node is never picked.
  * A selector that matches nothing is a FemError naming keyPath.
  */
@@ -135,7 +135,11 @@ export function selectBoundary(
   const nEdges = boundaryEdges.length / stride;
 
   if (selector.kind === 'point') {
-    const target = geom.pieces.length > 0 ? nearestBoundaryPoint(geom, selector.at).point : selector.at;
+    const hit = geom.pieces.length > 0 ? nearestBoundaryPoint(geom, selector.at) : undefined;
+    if (hit && hit.distance > tol && geom.loops.length > 0 && !pointInMaterial(geom as PlateGeometry, selector.at)) {
+      throw new FemError(`point (${fmt(selector.at[0])}, ${fmt(selector.at[1])}) lies outside the plate (not inside the outline, or inside an opening)`, keyPath);
+    }
+    const target = hit ? hit.point : selector.at;
     const [px, py] = target;
     let best = -1;
     let bestD = Infinity;
@@ -279,7 +283,7 @@ export function selectorWarnings(
   for (const item of all) {
     if (item.where.kind !== 'point') continue;
     const hit = nearestBoundaryPoint(geom, item.where.at);
-    if (hit.distance > tol) {
+    if (hit.distance > tol && pointInMaterial(geom as PlateGeometry, item.where.at)) {
       out.push({
         keyPath: `${item.keyPath}.where`,
         message: `the point (${fmt(item.where.at[0])}, ${fmt(item.where.at[1])}) is not on the boundary; the nearest boundary point (${fmt(hit.point[0])}, ${fmt(hit.point[1])}), ${fmt(hit.distance)} away, is used`,
