@@ -4,8 +4,7 @@
  * (bytes as UTF-8).
  */
 import { describe, expect, it } from 'vitest';
-import { ModelError } from '../../src/errors.js';
-import { formatModelError, parseModel } from '../../src/model/index.js';
+import { formatModelError } from '../../src/model/index.js';
 import { seededRandom } from '../helpers/random.js';
 import { modelErrorOf } from './helpers.js';
 
