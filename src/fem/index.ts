@@ -16,7 +16,7 @@ export { edgeTractionLoad, pressureLoad, type TractionField } from './edge-load.
 export { bodyForceLoad, type BodyForceField } from './body-load.js';
 export { checkRigidRestraint, supportedDofs } from './supports.js';
 export { validateSolverMesh, validateSection } from './validate.js';
-export { solvePlate, type PlateProblem, type PrescribedDisplacement } from './solve.js';
+export { solvePlate, solvePlateCases, largestDisplacement, type PlateProblem, type PlateCase, type PrescribedDisplacement } from './solve.js';
 export { farFieldStressLoad } from './farfield.js';
 export { pinForceLoad } from './pin-force.js';
 export { prescribedFromSupports, supportConstraints, interpolateTable, TABLE_TOLERANCE_RELATIVE, type PrescribedValue, type SupportConstraints } from './prescribe.js';

@@ -18,5 +18,5 @@ export { eliminationTree, postorderTree, postorderedTree, columnCounts, symbolic
 export { nodeEliminationTree } from './node-tree.js';
 export { factorKernels, type FactorOptions } from './numeric.js';
 export { wasmKernelsAvailable } from './wasm.js';
-export { analyze, factorize, refactorize, solveFactor, solveSpd, type SpdSolution } from './solve.js';
+export { analyze, factorize, refactorize, solveFactor, solveFactorMany, solveSpd, type SpdSolution } from './solve.js';
 export { toMatrixMarket, vectorToMatrixMarket, matrixMarketChunks } from './matrix-market.js';
