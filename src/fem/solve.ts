@@ -7,6 +7,7 @@ import {
   csrSubmatrix,
   factorize,
   residualNorm,
+  residualNorms,
   solveFactorMany,
 } from '../linalg/index.js';
 import type { Csr } from '../linalg/types.js';
@@ -152,10 +153,11 @@ export function solvePlateCases(input: PlateProblem, cases: readonly PlateCase[]
     t3 = now();
     const uFrees = solveFactorMany(factor, bs);
     const limit = input.residualLimit ?? RESIDUAL_LIMIT;
+    const scaled = cases.length === 1 ? [residualNorm(Kff, uFrees[0], bs[0])] : residualNorms(Kff, uFrees, bs);
     uFrees.forEach((uFree, c) => {
       const u = us[c];
       for (let k = 0; k < nFree; k++) u[free[k]] = uFree[k];
-      const residual = residualNorm(Kff, uFree, bs[c]);
+      const residual = scaled[c];
       residuals[c] = residual;
       if (!(residual <= limit)) {
         const culprit = sectionCulprit(section);
@@ -229,8 +231,13 @@ function reducedSystem(
 ): { bs: Float64Array[]; Kff: Csr; fixedRows: ReturnType<typeof csrRows> } {
   const K = assembleStiffness(mesh, section, pattern);
   const bs = forces.map((f, c) => {
-    const KuFixed = csrMultiply(K, uFixeds[c]);
     const b = new Float64Array(free.length);
+    // held at zero everywhere (the usual case): K_fc u_c vanishes and the product is skipped
+    if (uFixeds[c].every((v) => v === 0)) {
+      for (let k = 0; k < free.length; k++) b[k] = f[free[k]];
+      return b;
+    }
+    const KuFixed = csrMultiply(K, uFixeds[c]);
     for (let k = 0; k < free.length; k++) b[k] = f[free[k]] - KuFixed[free[k]];
     return b;
   });

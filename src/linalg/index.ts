@@ -1,5 +1,5 @@
 export type { Csr, Ordering, Symbolic, Factor, EliminationTree } from './types.js';
-export { csrFromTriplets, csrMatVec, csrSubmatrix, csrGet, csrNormInf, isSymmetric, residualNorm, validateCsr } from './csr.js';
+export { csrFromTriplets, csrMatVec, csrSubmatrix, csrGet, csrNormInf, isSymmetric, residualNorm, residualNorms, validateCsr } from './csr.js';
 export { NotPositiveDefiniteError } from './errors.js';
 export { amdOrder, type MinDegreeOptions } from './min-degree.js';
 export { compressGraph, type NodeGraph } from './graph.js';
