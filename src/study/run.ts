@@ -10,7 +10,7 @@ import type { NodalStress } from '../recovery/types.js';
 import { buildPointLocator } from '../recovery/index.js';
 import { baseSizeField, problemOf, solveAt, type LoadSetLevel, type SolveLimits, type SolvedLevel } from '../pipeline/index.js';
 import type { CaseStudy, LevelResult, SiteResult, StudyResult } from './types.js';
-import { envelopeOf, envelopeSites, mergeSiteLists } from './cases.js';
+import { envelopeOf, envelopeSites, mergeSiteLists, peakOnRim } from './cases.js';
 import { findSites, listedSitePoints, type SiteCandidate } from './sites.js';
 import { levelSizeField, probeLevel, rosettePoints, NEIGHBOURHOOD_SIZES, type SiteProbe } from './ladder.js';
 import { judgeSite } from './verdict.js';
@@ -196,7 +196,8 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const caseStudies: CaseStudy[] = withCases
     ? sets.map((set, j) => ({ name: set.name, kind: set.kind, ...(set.expression ? { expression: set.expression } : {}), solution: summary(set.solution), sites: sitesOf(j) }))
     : [];
-  const envelope = withCases ? envelopeOf(caseStudies, measure) : [];
+  const onRim = perSet.map((perSite) => perSite.map((levels, i) => peakOnRim(levels, cands[i].at)));
+  const envelope = withCases ? envelopeOf(caseStudies, measure, onRim) : [];
   const sites: SiteResult[] = withCases ? envelopeSites(caseStudies, envelope) : sitesOf(0);
   const q = meshQuality(first.mesh);
   return {

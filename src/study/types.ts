@@ -125,6 +125,8 @@ export interface EnvelopeValue {
   /** the converged value (converging), the readout at distance (singular), or the finest peak (undecided) */
   value: number;
   basis: DesignBasis;
+  /** the finest peak lies on the rim of the site's neighbourhood: no peak of this case's own here (it does not govern) */
+  rim?: true;
 }
 
 /** The governing case or combination of one site. */
