@@ -1,7 +1,7 @@
 /**
  * `npm run bench`: speed and memory figures for this machine (never in tests).
  *
- *   node dist/bench/main.js [--quick] [--skip mesh,holes,solver,pipeline,study,rates]
+ *   node dist/bench/main.js [--quick] [--skip mesh,holes,solver,pipeline,cases,study,rates]
  *
  * 1. mesh      quality mesh of a multi-opening plate (~200 000 triangles) against plain delaunator
  *    holes     perforated plate, 400 and 1 600 holes: time ratio (src/bench/holes.ts)
@@ -9,6 +9,7 @@
  *              with the anchor library's figures on the same matrices when /tmp/cholmod_mtx exists
  * 3. pipeline  square plate with a central hole, LST, ~50k / 200k / 1M dofs: assemble, order,
  *              factor, solve, nnz(L), peak memory, factor-time growth exponent
+ *    cases     ten load cases on one factorisation against one case, ~200k dofs (src/bench/cases.ts)
  * 4. study     whole `study` time of each demo model
  * 5. rates     energy-norm error rates at the 270° corner of the L plate: uniform meshes and
  *              the adaptive loop (issue 4)
@@ -17,6 +18,7 @@ import { readFileSync, readdirSync, existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { benchMesh } from './mesh.js';
 import { benchHoles } from './holes.js';
+import { benchCases } from './cases.js';
 import { benchSolver, runAnchor, writeMatrixMarket } from './solver.js';
 import { L_SECTION, lProblem, lSolve, lTrueError, logSlope, type LField } from './lshape.js';
 import { lShapeMesh } from './lshape-mesh.js';
@@ -142,6 +144,7 @@ async function main(): Promise<void> {
     await benchSolver({ max: quick ? 60_000 : 1_000_000 });
   }
   if (!skip.has('pipeline')) await benchPipeline();
+  if (!skip.has('cases')) { heading('load cases: ten right-hand sides on one factorisation'); benchCases(quick); }
   if (!skip.has('study')) benchStudies();
   if (!skip.has('rates')) benchRates();
   process.stdout.write(`\npeak RSS ${rssMiB().toFixed(0)} MiB\n`);

@@ -24,6 +24,8 @@ import {
 } from './common.js';
 import { exportSystem, solveRecord, solveReportRun, solveText, type SolveRun } from './solve-output.js';
 import { writeStudyOutputs } from './study-output.js';
+import { checkCaseOption, levelOfCase, loadSetNames } from './cases.js';
+import { caseStudyResult } from '../study/index.js';
 
 export { StudyInterrupted, setStopFlag, type CliContext, type CommonOptions } from './common.js';
 
@@ -63,6 +65,7 @@ export interface SolveOptions extends CommonOptions, CutCliOptions {
   adapt?: string;
   maxDofs?: string;
   report?: boolean;
+  case?: string;
 }
 
 /** One solve at the model's own mesh settings. */
@@ -95,9 +98,16 @@ export async function runSolve(ctx: CliContext, file: string, opts: SolveOptions
   const model = loadModel(ctx, file, opts);
   const outDir = outDirFor(file, opts, 'solve');
   const limits = limitsOf(opts);
+  checkCaseOption(model, opts.case);
   const problem = problemOf(model);
-  const run = opts.adapt !== undefined ? solveAdaptive(problem, limits, opts.adapt, opts) : solveOnce(problem, limits);
+  const solved = opts.adapt !== undefined ? solveAdaptive(problem, limits, opts.adapt, opts) : solveOnce(problem, limits);
+  // with load cases, one case or combination is shown (--case, else the first)
+  const level = levelOfCase(solved.level, opts.case);
+  // the error estimate is of the case shown (the solve estimated the first)
+  const run = opts.case === undefined || level.sets[0].name === opts.case ? { ...solved, level } : { ...solved, level, estimate: estimateOf(problem, level) };
   const record = solveRecord(problem, run, file);
+  const names = loadSetNames(model);
+  if (names.length > 0) { record.case = opts.case ?? names[0]; record.cases = names; }
   const { mesh, solution, field, nodal } = run.level;
   const protect = [file];
   writeFileAtomic(join(outDir, 'field.csv'), fieldCsv(mesh, solution.u, fieldColumns(model, field), { length: model.units.length, stress: record.units.stress }), protect);
@@ -124,6 +134,7 @@ export interface StudyCliOptions extends CommonOptions, CutCliOptions {
   levels?: string;
   ratio?: string;
   maxDofs?: string;
+  case?: string;
 }
 
 /** The study with a progress bar; the first solve is kept for the field files and the picture. */
@@ -150,6 +161,7 @@ function studyWithProgress(model: Parameters<typeof runStudyStage>[0], opts: Stu
 export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOptions): Promise<void> {
   checkCutOptions(opts);
   const model = loadModel(ctx, file, opts);
+  checkCaseOption(model, opts.case);
   const outDir = outDirFor(file, opts, 'study');
   const { study, base } = studyWithProgress(model, opts);
   const warnings = modelWarnings(model, file, base ? selectorWarnings(model, base.geometry) : []);
@@ -165,10 +177,12 @@ export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOpti
     process.stderr.write(`peakwise: interrupted: the finished levels are written to ${outDir} (study.json has "interrupted": true)\n`);
     throw new StudyInterrupted();
   }
+  // --case: that case's own StudyResult on stdout (study.json keeps every case and the envelope)
+  const shown = opts.case !== undefined ? caseStudyResult(study, opts.case) ?? study : study;
   if (opts.json) {
-    process.stdout.write(studyJson(study) + '\n');
+    process.stdout.write(studyJson(shown) + '\n');
     return;
   }
-  process.stdout.write(studyTable(study, { color: useColor(opts) }) + '\n');
+  process.stdout.write(studyTable(shown, { color: useColor(opts) }) + '\n');
   process.stdout.write(`  results in ${outDir}: study.json, sites.csv, field.csv, report.html\n`);
 }

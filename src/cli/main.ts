@@ -54,7 +54,8 @@ export function buildProgram(): Command {
       .option('--export-load <file>', 'write the load vector of the free dofs (Matrix Market)')
       .option('--adapt <percent>', 'refine adaptively until the estimated energy error is below this')
       .option('--max-dofs <n>', 'cap on degrees of freedom (a whole number)', maxDofsArgument, '2000000')
-      .option('--report', 'also write report.html'),
+      .option('--report', 'also write report.html')
+      .option('--case <name>', 'show this load case or combination (default: the first case)'),
   )).action(async (model: string, opts) => runSolve(ctx, model, opts));
 
   registerCutOptions(sharedOptions(
@@ -63,7 +64,8 @@ export function buildProgram(): Command {
       .description('study the sites (theory features, stress maxima above 1.3 × the median, or the listed points): refine each level after level and give a verdict')
       .option('--levels <n>', 'refinement levels per site (overrides study.levels)')
       .option('--ratio <r>', 'element size ratio between levels (overrides study.ratio)')
-      .option('--max-dofs <n>', 'cap on degrees of freedom per solve (a whole number)', maxDofsArgument, '2000000'),
+      .option('--max-dofs <n>', 'cap on degrees of freedom per solve (a whole number)', maxDofsArgument, '2000000')
+      .option('--case <name>', 'show this load case or combination instead of the envelope (study.json holds every case)'),
   )).action(async (model: string, opts) => runStudy(ctx, model, opts));
 
   registerSweep(program, ctx);

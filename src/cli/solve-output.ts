@@ -47,6 +47,9 @@ export interface SolveRecord {
   factor: { nnzL: number };
   warnings: string[];
   cycles?: { dofs: number; errorPercent: number; max: number }[];
+  /** with load cases: the case or combination shown (--case, else the first) and every name */
+  case?: string;
+  cases?: string[];
 }
 
 /** Largest value of a nodal array and the node position where it occurs. */
@@ -129,7 +132,10 @@ export function solveText(record: SolveRecord, solution: Solution, outDir: strin
       residual: s.residual,
       singularCheck,
       loadScale: solution.load.reduce((a, f) => a + Math.abs(f), 0),
-      extraRows: [['max Gauss point', `von Mises ${fmt(s.maxGaussVonMises)} ${units.stress} at (${fmt(s.maxGaussVonMisesAt[0])}, ${fmt(s.maxGaussVonMisesAt[1])}) ${units.length}`]],
+      extraRows: [
+        ['max Gauss point', `von Mises ${fmt(s.maxGaussVonMises)} ${units.stress} at (${fmt(s.maxGaussVonMisesAt[0])}, ${fmt(s.maxGaussVonMisesAt[1])}) ${units.length}`],
+        ...(record.case !== undefined ? [['load case', `${record.case} (of ${(record.cases ?? []).join(', ')}; --case NAME shows another)`] as [string, string]] : []),
+      ],
     },
     { color },
   ) + `  field written to ${join(outDir, 'field.csv')}\n`;

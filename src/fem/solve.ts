@@ -7,7 +7,8 @@ import {
   csrSubmatrix,
   factorize,
   residualNorm,
-  solveFactor,
+  residualNorms,
+  solveFactorMany,
 } from '../linalg/index.js';
 import type { Csr } from '../linalg/types.js';
 import type { Mesh } from '../mesh/types.js';
@@ -56,9 +57,28 @@ const now = (): number => performance.now() / 1000;
  * reactions r = K u − f at the fixed dofs.
  */
 export function solvePlate(input: PlateProblem): Solution {
+  return solvePlateCases(input, [{ loads: input.loads, supports: input.supports }])[0];
+}
+
+/** One load case of `solvePlateCases`: its loads and the supports with its displacement values. */
+export interface PlateCase {
+  loads: readonly Load[];
+  /** the supports with this case's prescribed values; every case must hold the same dofs */
+  supports: readonly Support[];
+}
+
+/**
+ * Several load cases on one stiffness: assemble K once, order and factorise K_ff once, and solve
+ * every case as a right-hand side of that factor (one sweep over it for all cases). The cases must
+ * hold the same dofs (only the prescribed values may differ); `input.loads` and `input.supports` are
+ * not used, `input.prescribed` and `input.extraLoad` apply to every case. One Solution per case, each
+ * equal to a `solvePlate` of that case alone (the factor is the same, the sweeps do the same arithmetic).
+ */
+export function solvePlateCases(input: PlateProblem, cases: readonly PlateCase[]): Solution[] {
   const { mesh, geometry, section } = input;
   validateSection(section);
   validateSolverMesh(mesh);
+  if (cases.length === 0) throw new FemError('no load case to solve');
   const nNodes = mesh.xy.length / 2;
   const nDof = 2 * nNodes;
 
@@ -66,21 +86,33 @@ export function solvePlate(input: PlateProblem): Solution {
   const t0 = now();
   // fixes and displacements of the supports; two supports holding one dof at different
   // values are an error (supportConstraints), explicit `prescribed` entries then win
-  const { fixed, value: uFixed } = supportConstraints(mesh, geometry, input.supports);
-  for (const [k, p] of (input.prescribed ?? []).entries()) {
-    if (!(Number.isInteger(p.dof) && p.dof >= 0 && p.dof < nDof)) {
-      throw new FemError(`prescribed[${k}].dof = ${p.dof} is not a dof of the mesh (0 … ${nDof - 1})`, `prescribed[${k}]`);
+  const constraints = cases.map((c) => supportConstraints(mesh, geometry, c.supports));
+  for (const { fixed, value: uFixed } of constraints) {
+    for (const [k, p] of (input.prescribed ?? []).entries()) {
+      if (!(Number.isInteger(p.dof) && p.dof >= 0 && p.dof < nDof)) {
+        throw new FemError(`prescribed[${k}].dof = ${p.dof} is not a dof of the mesh (0 … ${nDof - 1})`, `prescribed[${k}]`);
+      }
+      if (!Number.isFinite(p.value)) throw new FemError(`prescribed[${k}].value = ${p.value} is not finite`, `prescribed[${k}]`);
+      fixed[p.dof] = 1;
+      uFixed[p.dof] = p.value;
     }
-    if (!Number.isFinite(p.value)) throw new FemError(`prescribed[${k}].value = ${p.value} is not finite`, `prescribed[${k}]`);
-    fixed[p.dof] = 1;
-    uFixed[p.dof] = p.value;
+  }
+  const fixed = constraints[0].fixed;
+  for (let c = 1; c < cases.length; c++) {
+    const other = constraints[c].fixed;
+    for (let i = 0; i < nDof; i++) {
+      if (other[i] !== fixed[i]) throw new FemError(`load case ${c + 1} holds dof ${i} (node ${i >> 1}) and case 1 does not; every case must hold the same dofs`, 'cases');
+    }
   }
   checkRigidRestraint(mesh.xy, fixed, geometry.scale);
-  const f = loadVector(mesh, geometry, section, input.loads);
-  if (input.extraLoad) {
-    if (input.extraLoad.length !== nDof) throw new FemError(`extra load has ${input.extraLoad.length} entries; the mesh has ${nDof} dofs`);
-    for (let i = 0; i < nDof; i++) f[i] += input.extraLoad[i];
-  }
+  const forces = cases.map((c) => {
+    const f = loadVector(mesh, geometry, section, c.loads);
+    if (input.extraLoad) {
+      if (input.extraLoad.length !== nDof) throw new FemError(`extra load has ${input.extraLoad.length} entries; the mesh has ${nDof} dofs`);
+      for (let i = 0; i < nDof; i++) f[i] += input.extraLoad[i];
+    }
+    return f;
+  });
 
   let nFree = 0;
   for (let i = 0; i < nDof; i++) if (!fixed[i]) nFree++;
@@ -89,7 +121,7 @@ export function solvePlate(input: PlateProblem): Solution {
 
   const pattern = input.pattern ?? stiffnessPattern(mesh);
   if (pattern.n !== nDof) throw new FemError(`stiffness pattern has ${pattern.n} dofs; the mesh has ${nDof}`);
-  const { b, Kff, fixedRows } = reducedSystem(mesh, section, pattern, f, fixed, uFixed, free);
+  const { bs, Kff, fixedRows } = reducedSystem(mesh, section, pattern, forces, fixed, constraints.map((c) => c.value), free);
   const t1 = now();
 
   const rowXY = new Float64Array(2 * nFree);
@@ -101,8 +133,8 @@ export function solvePlate(input: PlateProblem): Solution {
   let t2 = t1;
   let t3 = t1;
   let nnzL = 0;
-  let residual = 0;
-  const u = uFixed;
+  const residuals = cases.map(() => 0);
+  const us = constraints.map((c) => c.value);
   if (nFree > 0) {
     const ordering = chooseOrdering(Kff, rowXY);
     t2 = now();
@@ -119,53 +151,72 @@ export function solvePlate(input: PlateProblem): Solution {
     }
     nnzL = factor.nnzL;
     t3 = now();
-    const uFree = solveFactor(factor, b);
-    for (let k = 0; k < nFree; k++) u[free[k]] = uFree[k];
-    residual = residualNorm(Kff, uFree, b);
+    const uFrees = solveFactorMany(factor, bs);
     const limit = input.residualLimit ?? RESIDUAL_LIMIT;
-    if (!(residual <= limit)) {
-      const culprit = sectionCulprit(section);
-      if (culprit) throw culprit;
+    const scaled = cases.length === 1 ? [residualNorm(Kff, uFrees[0], bs[0])] : residualNorms(Kff, uFrees, bs);
+    uFrees.forEach((uFree, c) => {
+      const u = us[c];
+      for (let k = 0; k < nFree; k++) u[free[k]] = uFree[k];
+      const residual = scaled[c];
+      residuals[c] = residual;
+      if (!(residual <= limit)) {
+        const culprit = sectionCulprit(section);
+        if (culprit) throw culprit;
+      }
+      checkResidual(residual, limit);
+    });
+  }
+  const solutions = us.map((u, c) => {
+    const f = forces[c];
+    const reaction = new Float64Array(nDof);
+    for (let k = 0; k < fixedRows.rows.length; k++) {
+      const i = fixedRows.rows[k];
+      let s = 0;
+      for (let p = fixedRows.rowPtr[k]; p < fixedRows.rowPtr[k + 1]; p++) s += fixedRows.values[p] * u[fixedRows.colIdx[p]];
+      reaction[i] = s - f[i];
     }
-    checkResidual(residual, limit);
-  }
-  const reaction = new Float64Array(nDof);
-  for (let k = 0; k < fixedRows.rows.length; k++) {
-    const i = fixedRows.rows[k];
-    let s = 0;
-    for (let p = fixedRows.rowPtr[k]; p < fixedRows.rowPtr[k + 1]; p++) s += fixedRows.values[p] * u[fixedRows.colIdx[p]];
-    reaction[i] = s - f[i];
-  }
+    return { u, reaction, f };
+  });
   const t4 = now();
+  // the shared work (assembly, ordering, factor) is reported with every case; the sweeps and
+  // reactions are shared out evenly
+  const solveS = (t4 - t3) / cases.length;
+  return solutions.map(({ u, reaction, f }, c) => {
+    const { maxDisplacement, maxDisplacementAt } = largestDisplacement(mesh.xy, u);
+    return {
+      u,
+      reaction,
+      load: f,
+      fixed: c === 0 ? fixed : constraints[c].fixed,
+      dofs: nDof,
+      freeDofs: nFree,
+      appliedSum: appliedResultant(f),
+      reactionSum: appliedResultant(reaction),
+      maxDisplacement,
+      maxDisplacementAt,
+      nnzL,
+      residual: residuals[c],
+      timings: { assembleS: t1 - t0, orderS: t2 - t1, factorS: t3 - t2, solveS },
+    };
+  });
+}
 
+/** The largest nodal displacement |u| and where (the first node on a tie). */
+export function largestDisplacement(xy: Float64Array, u: Float64Array): { maxDisplacement: number; maxDisplacementAt: [number, number] } {
   let maxDisplacement = 0;
   let maxNode = 0;
-  for (let n = 0; n < nNodes; n++) {
+  for (let n = 0; n < xy.length / 2; n++) {
     const d = Math.hypot(u[2 * n], u[2 * n + 1]);
     if (d > maxDisplacement) {
       maxDisplacement = d;
       maxNode = n;
     }
   }
-  return {
-    u,
-    reaction,
-    load: f,
-    fixed,
-    dofs: nDof,
-    freeDofs: nFree,
-    appliedSum: appliedResultant(f),
-    reactionSum: appliedResultant(reaction),
-    maxDisplacement,
-    maxDisplacementAt: [mesh.xy[2 * maxNode], mesh.xy[2 * maxNode + 1]],
-    nnzL,
-    residual,
-    timings: { assembleS: t1 - t0, orderS: t2 - t1, factorS: t3 - t2, solveS: t4 - t3 },
-  };
+  return { maxDisplacement, maxDisplacementAt: [xy[2 * maxNode], xy[2 * maxNode + 1]] };
 }
 
 /**
- * Assembles K and reduces it to the free dofs: K_ff, b = f_f − K_fc u_c, and the fixed rows of K
+ * Assembles K and reduces it to the free dofs: K_ff, b = f_f − K_fc u_c for each case, and the fixed rows of K
  * (all the reactions need). The full K lives only inside this call, so it can be collected before
  * the factorisation claims its memory.
  */
@@ -173,16 +224,24 @@ function reducedSystem(
   mesh: Mesh,
   section: ElasticSection,
   pattern: StiffnessPattern,
-  f: Float64Array,
+  forces: readonly Float64Array[],
   fixed: Uint8Array,
-  uFixed: Float64Array,
+  uFixeds: readonly Float64Array[],
   free: Int32Array,
-): { b: Float64Array; Kff: Csr; fixedRows: ReturnType<typeof csrRows> } {
+): { bs: Float64Array[]; Kff: Csr; fixedRows: ReturnType<typeof csrRows> } {
   const K = assembleStiffness(mesh, section, pattern);
-  const KuFixed = csrMultiply(K, uFixed);
-  const b = new Float64Array(free.length);
-  for (let k = 0; k < free.length; k++) b[k] = f[free[k]] - KuFixed[free[k]];
-  return { b, Kff: csrSubmatrix(K, free), fixedRows: csrRows(K, fixed) };
+  const bs = forces.map((f, c) => {
+    const b = new Float64Array(free.length);
+    // held at zero everywhere (the usual case): K_fc u_c vanishes and the product is skipped
+    if (uFixeds[c].every((v) => v === 0)) {
+      for (let k = 0; k < free.length; k++) b[k] = f[free[k]];
+      return b;
+    }
+    const KuFixed = csrMultiply(K, uFixeds[c]);
+    for (let k = 0; k < free.length; k++) b[k] = f[free[k]] - KuFixed[free[k]];
+    return b;
+  });
+  return { bs, Kff: csrSubmatrix(K, free), fixedRows: csrRows(K, fixed) };
 }
 
 /** the rows of K marked in `mask`, with their original column indices */

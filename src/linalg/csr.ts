@@ -178,6 +178,26 @@ export function residualNorm(A: Csr, x: ArrayLike<number>, b: ArrayLike<number>)
   return scale > 0 ? r / scale : 0;
 }
 
+/**
+ * `residualNorm` of several solutions of one matrix: the same scaled residual for each pair
+ * (x, b), with ‖A‖∞ computed once.
+ */
+export function residualNorms(A: Csr, xs: readonly ArrayLike<number>[], bs: readonly ArrayLike<number>[]): number[] {
+  const norm = csrNormInf(A);
+  return xs.map((x, c) => {
+    const b = bs[c];
+    const ax = csrMatVec(A, x);
+    let r = 0, xn = 0, bn = 0;
+    for (let i = 0; i < A.n; i++) {
+      r = Math.max(r, Math.abs(ax[i] - b[i]));
+      xn = Math.max(xn, Math.abs(x[i]));
+      bn = Math.max(bn, Math.abs(b[i]));
+    }
+    const scale = norm * xn + bn;
+    return scale > 0 ? r / scale : 0;
+  });
+}
+
 /** Structural checks once at the stage entry: shapes, sorted unique columns, finite values. */
 export function validateCsr(A: Csr, what = 'matrix'): void {
   const { n, rowPtr, colIdx, values } = A;

@@ -1,5 +1,5 @@
 export type { Csr, Ordering, Symbolic, Factor, EliminationTree } from './types.js';
-export { csrFromTriplets, csrMatVec, csrSubmatrix, csrGet, csrNormInf, isSymmetric, residualNorm, validateCsr } from './csr.js';
+export { csrFromTriplets, csrMatVec, csrSubmatrix, csrGet, csrNormInf, isSymmetric, residualNorm, residualNorms, validateCsr } from './csr.js';
 export { NotPositiveDefiniteError } from './errors.js';
 export { amdOrder, type MinDegreeOptions } from './min-degree.js';
 export { compressGraph, type NodeGraph } from './graph.js';
@@ -18,5 +18,5 @@ export { eliminationTree, postorderTree, postorderedTree, columnCounts, symbolic
 export { nodeEliminationTree } from './node-tree.js';
 export { factorKernels, type FactorOptions } from './numeric.js';
 export { wasmKernelsAvailable } from './wasm.js';
-export { analyze, factorize, refactorize, solveFactor, solveSpd, type SpdSolution } from './solve.js';
+export { analyze, factorize, refactorize, solveFactor, solveFactorMany, solveSpd, type SpdSolution } from './solve.js';
 export { toMatrixMarket, vectorToMatrixMarket, matrixMarketChunks } from './matrix-market.js';

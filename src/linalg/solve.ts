@@ -1,6 +1,6 @@
 import { SolveError } from '../errors.js';
 import { validateCsr } from './csr.js';
-import { numericFactor, solveWithFactor, type FactorOptions } from './numeric.js';
+import { numericFactor, solveWithFactor, solveWithFactorMany, type FactorOptions } from './numeric.js';
 import { chooseOrdering } from './ordering.js';
 import { symbolicFactor, type SupernodeOptions } from './symbolic.js';
 import type { Csr, Factor, Ordering, Symbolic } from './types.js';
@@ -37,6 +37,21 @@ export function solveFactor(F: Factor, b: ArrayLike<number>): Float64Array {
     if (!Number.isFinite(b[i])) throw new SolveError(`right-hand side entry ${i} is ${b[i]}`);
   }
   return solveWithFactor(F, b);
+}
+
+/**
+ * X = A⁻¹ B for several right-hand sides from one factor of A, in one sweep over the factor
+ * (`solveWithFactorMany`): each result equals `solveFactor` of that side, to the last bit.
+ */
+export function solveFactorMany(F: Factor, bs: readonly ArrayLike<number>[]): Float64Array[] {
+  bs.forEach((b, r) => {
+    if (b.length !== F.n) throw new TypeError(`right-hand side ${r} has length ${b.length}, matrix order is ${F.n}`);
+    for (let i = 0; i < b.length; i++) {
+      if (!Number.isFinite(b[i])) throw new SolveError(`right-hand side ${r}, entry ${i} is ${b[i]}`);
+    }
+  });
+  if (bs.length === 0) return [];
+  return solveWithFactorMany(F, bs);
 }
 
 export interface SpdSolution {

@@ -83,7 +83,7 @@ export function physicalConstants(b: ValueReader, raw: ModelFile['material'], un
 
 /** The load of `raw` when it is a body load (gravity, spin, temperature), else undefined. */
 export function bodyLoad(
-  b: ValueReader, raw: ModelFile['loads'][number], keyPath: string, physical: PhysicalConstants, units: Readonly<UnitLabels>,
+  b: ValueReader, raw: NonNullable<ModelFile['loads']>[number], keyPath: string, physical: PhysicalConstants, units: Readonly<UnitLabels>,
 ): Load | undefined {
   const needDensity = (kind: string, key: string): void => {
     if (physical.density === undefined) {

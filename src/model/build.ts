@@ -18,6 +18,7 @@ import { parseExpression, namesIn, CONSTANTS } from './expr.js';
 import { DEFAULT_UNITS, PLAUSIBLE_E_MPA, PLAUSIBLE_THICKNESS_MM, lengthToMm, stressToMPa, stressUnit } from './units.js';
 import { bodyLoad, physicalConstants, type PhysicalConstants } from './body-loads.js';
 import { levelsRule, ratioRule } from './study-rules.js';
+import { buildCases, buildCombinations } from './cases.js';
 
 /** Largest number accepted anywhere: beyond it the value is a slip, not a plate. */
 export const MAX_MAGNITUDE = 1e15;
@@ -187,7 +188,7 @@ export class Builder {
     return { kind: 'polygon', vertices: (raw.polygon ?? []).map((v, i) => this.vertex(v, joinPath(p, i))) };
   }
 
-  selector(raw: NonNullable<ModelFile['loads'][number]['where']>, keyPath: string, openingIds: readonly string[]): Selector {
+  selector(raw: NonNullable<NonNullable<ModelFile['loads']>[number]['where']>, keyPath: string, openingIds: readonly string[]): Selector {
     if (raw.x !== undefined) return { kind: 'x', value: this.num(raw.x, joinPath(keyPath, 'x'), 'x') };
     if (raw.y !== undefined) return { kind: 'y', value: this.num(raw.y, joinPath(keyPath, 'y'), 'y') };
     if (raw.segment !== undefined) {
@@ -303,20 +304,36 @@ export function buildModel(
   const supports: Support[] = raw.supports.map((s, i) => {
     const keyPath = joinPath('supports', i);
     const where = b.selector(s.where, joinPath(keyPath, 'where'), ids);
-    if (s.fix) return { where, fix: { x: s.fix.includes('x'), y: s.fix.includes('y') }, keyPath };
+    const id = s.id === undefined ? {} : { id: s.id };
+    if (s.fix) return { ...id, where, fix: { x: s.fix.includes('x'), y: s.fix.includes('y') }, keyPath };
     const motion = prescribedMotion(b, s.displace!, joinPath(keyPath, 'displace'));
     const fix = motion.kind === 'table' ? { x: true, y: true } : { x: motion.x !== undefined, y: motion.y !== undefined };
     if (!fix.x && !fix.y) b.fail('both displacement components are free (null); prescribe at least one, or drop the entry', joinPath(keyPath, 'displace'));
     if (where.kind === 'point' && motion.kind === 'table') b.fail('a displacement table is interpolated along an edge; use a line or loop selector', joinPath(keyPath, 'where'));
-    return { where, fix, keyPath, displace: motion };
+    return { ...id, where, fix, keyPath, displace: motion };
+  });
+  supports.forEach((s, i) => {
+    const j = s.id === undefined ? -1 : supports.findIndex((t) => t.id === s.id);
+    if (j >= 0 && j < i) b.fail(`support id ${quote(s.id!)} is already used by ${supports[j].keyPath}; ids must be unique`, joinPath(s.keyPath, 'id'));
   });
 
-  if (raw.loads.length === 0 && !supports.some((s) => s.displace !== undefined)) {
+  // the model's loads, then every case's (docs/model-format.md, "Load cases"), built alike
+  const rawLoads: { l: NonNullable<ModelFile['loads']>[number]; keyPath: string }[] = [];
+  const addRawLoads = (list: readonly NonNullable<ModelFile['loads']>[number][], prefix: string): void => {
+    list.forEach((l, i) => rawLoads.push({ l, keyPath: joinPath(prefix, i) }));
+  };
+  if (raw.cases !== undefined && (raw.loads?.length ?? 0) > 0) {
+    b.fail('with cases, every load belongs to a case: move these loads into a case (top-level loads would count once per case in every combination)', 'loads');
+  }
+  if (raw.cases === undefined && raw.combinations !== undefined) b.fail('combinations combine load cases; add cases: first', 'combinations');
+  if (raw.cases === undefined && raw.loads === undefined) b.fail('required key \'loads\' is missing (expected a list of loads, or cases:)', 'loads');
+  if (raw.cases === undefined && raw.loads!.length === 0 && !supports.some((s) => s.displace !== undefined)) {
     b.fail('expected at least one load (or a support that prescribes a displacement with displace:)', 'loads');
   }
+  addRawLoads(raw.loads ?? [], 'loads');
+  const cases = raw.cases === undefined ? undefined : buildCases(b, raw.cases, supports, params, addRawLoads, (d, keyPath) => prescribedMotion(b, d, keyPath));
   const loads: Load[] = [];
-  raw.loads.forEach((l, i) => {
-    const keyPath = joinPath('loads', i);
+  rawLoads.forEach(({ l, keyPath }) => {
     const body = bodyLoad(b, l, keyPath, physical, units);
     if (body) {
       loads.push(body);
@@ -412,12 +429,21 @@ export function buildModel(
     plate: { outline, openings },
     supports,
     loads,
+    ...(cases ? {
+      cases: cases.map((c) => ({ name: c.name, keyPath: c.keyPath, supports: c.supports, loads: loads.filter((l) => isUnder(l.keyPath, c.loadsPath)) })),
+      combinations: buildCombinations(b, raw.combinations ?? {}, cases.map((c) => c.name), params),
+    } : {}),
     mesh: { size, order, local },
     study,
     sourceMap: valueAt,
   };
   if (b.warnings.length > 0) model.warnings = b.warnings;
   return model;
+}
+
+/** Is `keyPath` an item of the list at `list` (`cases.lift[2]` under `cases.lift`)? */
+function isUnder(keyPath: string, list: string): boolean {
+  return keyPath.startsWith(`${list}[`) && /^\[\d+\]$/.test(keyPath.slice(list.length));
 }
 
 function checkTriangleCount(b: Builder, estimate: number, size: number, keyPath: string, unit: string): void {

@@ -169,6 +169,8 @@ const DisplaceLike = z.union([
 
 const SupportLike = mapping(
   {
+    // names the support for a load case's own displacement values (cases.NAME.displace.ID)
+    id: Name.optional(),
     where: SelectorLike,
     fix: z
       .array(word(['x', 'y']), { error: expected('a list of directions such as [x, y] or [y]') })
@@ -176,7 +178,7 @@ const SupportLike = mapping(
       .optional(),
     displace: DisplaceLike.optional(),
   },
-  'a support { where: …, fix: [x, y] } or { where: …, displace: [ux, uy] }',
+  'a support { where: …, fix: [x, y] } or { id, where: …, displace: [ux, uy] }',
 ).superRefine(exactlyOne(['fix', 'displace'])).superRefine((value, ctx) => {
   if (value.fix && value.fix.length === 2 && value.fix[0] === value.fix[1]) {
     ctx.addIssue({ code: 'custom', message: `direction ${value.fix[0]} is listed twice`, path: ['fix', 1] });
@@ -259,6 +261,28 @@ const LoadLike = mapping(
     }
   });
 
+// --- load cases and combinations (issue 14 part B; docs/model-format.md, "Load cases") -----------
+/** A case: a list of loads, or { loads, displace } with its own values for supports that prescribe displacements (by support id). */
+const CaseLike = z.union([
+  z.array(LoadLike, { error: expected('a list of loads') }),
+  mapping(
+    {
+      loads: z.array(LoadLike, { error: expected('a list of loads') }).optional(),
+      displace: z.record(Name, DisplaceLike, { error: expected('a mapping of support ids to displacements') }).optional(),
+    },
+    'a load case: a list of loads, or { loads: [...], displace: { support-id: [ux, uy] } }',
+  ),
+], { error: expected('a load case: a list of loads, or { loads, displace }') });
+
+const CasesLike = z.record(Name, CaseLike, { error: expected('a mapping of case names to load cases') })
+  .refine((v) => Object.keys(v).length > 0, { error: () => 'expected at least one load case' });
+
+/** name → linear expression of case names, such as "1.35*dead + 1.5*wind" */
+const CombinationsLike = z.record(Name, z.string({ error: expected('an expression of case names such as "1.35*dead + 1.5*wind"') }), {
+  error: expected('a mapping of combination names to expressions of case names'),
+});
+// --- end of load cases ------------------------------------------------------------------------
+
 const LocalSizeLike = mapping(
   { near: PointLike, size: NumberLike, radius: NumberLike },
   'a local size { near: [x, y], size, radius }',
@@ -333,8 +357,10 @@ export const ModelFileSchema = mapping(
     supports: z.array(SupportLike, { error: expected('a list of supports') }).min(1, {
       error: () => 'expected at least one support; the plate must be held against rigid motion',
     }),
-    // may be empty when a support prescribes displacements (checked in build.ts)
-    loads: z.array(LoadLike, { error: expected('a list of loads') }),
+    // may be empty when a support prescribes displacements, absent with cases (checked in build.ts)
+    loads: z.array(LoadLike, { error: expected('a list of loads') }).optional(),
+    cases: CasesLike.optional(),
+    combinations: CombinationsLike.optional(),
     mesh: MeshLike.optional(),
     study: StudyLike.optional(),
   },

@@ -63,6 +63,8 @@ export type Selector =
 export type Axis = 'x' | 'y';
 
 export interface Support {
+  /** the name a load case uses for its own displacement values (`cases.NAME.displace.ID`), when given */
+  id?: string;
   where: Selector;
   /** the directions held; for a prescribed displacement, the components that are prescribed */
   fix: { x: boolean; y: boolean };
@@ -120,6 +122,30 @@ export type EdgeLoad = Extract<Load, { where: Selector }>;
 
 /** The loads that act over the whole plate: self-weight, rotation, temperature. */
 export type BodyLoad = Exclude<Load, EdgeLoad>;
+
+/**
+ * A named load case (docs/model-format.md, "Load cases"): its loads, and the model's supports with this
+ * case's displacement values. Every case holds the same dofs (only the values differ), so one
+ * factorisation of the stiffness serves all cases.
+ */
+export interface LoadCase {
+  name: string;
+  /** this case's loads, every kind, in file order */
+  loads: Load[];
+  /** the model's supports in order; a support that prescribes displacements carries this case's values */
+  supports: Support[];
+  keyPath: string;
+}
+
+/** A combination: a linear expression of case names, evaluated to one factor per case it names. */
+export interface Combination {
+  name: string;
+  /** the expression as written, e.g. "1.35*dead + 1.5*wind" */
+  expression: string;
+  /** the factor of each case the expression names (non-zero or not), in the model's case order */
+  terms: { case: string; factor: number }[];
+  keyPath: string;
+}
 
 /** The same as `Load` (kept for code written when far-field and pin loads were a separate list). */
 export type AnyLoad = Load;
@@ -201,8 +227,16 @@ export interface Model {
   state: PlaneState;
   plate: Plate;
   supports: Support[];
-  /** every load of the file, all kinds, in file order */
+  /**
+   * every load of the file, all kinds, in file order; with `cases`, the loads of every case together
+   * (for what depends on where loads act: required mesh nodes, point-load sites, selector checks) —
+   * a solve takes each case's own list from `cases`
+   */
   loads: Load[];
+  /** the load cases, when the file has `cases:` (absent: one implicit case holding `loads` and `supports`) */
+  cases?: LoadCase[];
+  /** combinations of the cases (present only with `cases`) */
+  combinations?: Combination[];
   mesh: MeshSettings;
   study: StudySettings;
   /** key path (`loads[1].where`) → 1-based position of that key's value in the file */

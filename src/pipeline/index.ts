@@ -7,3 +7,4 @@ export { baseSizeField, meshAt, solveMesh, solveAt, solveProblem, estimateOf, ty
 export { adaptiveSolve, type AdaptiveOptions, type AdaptiveCycle, type AdaptiveCycleResult, type AdaptiveResult } from './adapt.js';
 export { checkLimits, defaultLimits, defaultFactorBytes, DEFAULT_MAX_DOFS, type SolveLimits } from './limits.js';
 export { modelFromParts, type ModelParts } from './model-parts.js';
+export { combineLevel, superposeSolutions, type LoadSetLevel, type ProblemCase } from './cases.js';

@@ -7,7 +7,9 @@
 import { buildGeometry } from '../geometry/index.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { Mesh } from '../mesh/types.js';
-import type { Load, MeshSettings, Model, Point, StressMeasure, Support } from '../model/types.js';
+import type { Combination, Load, MeshSettings, Model, Point, StressMeasure, Support } from '../model/types.js';
+import { loadCasesOf } from '../model/index.js';
+import type { ProblemCase } from './cases.js';
 import { selectorVertices, type PrescribedDisplacement } from '../fem/index.js';
 import type { ElasticSection } from '../fem/types.js';
 
@@ -17,8 +19,12 @@ export interface Problem {
   geometry: PlateGeometry;
   section: ElasticSection;
   supports: readonly Support[];
-  /** every load, all kinds, in the model's order */
+  /** every load, all kinds, in the model's order (with cases: every case's loads, for where they act) */
   loads: readonly Load[];
+  /** the load cases solved on every mesh (one implicit case without `cases:`), each a right-hand side of one factor */
+  cases: readonly ProblemCase[];
+  /** the combinations, superposed from the case results on every mesh */
+  combinations: readonly Combination[];
   /** points that must be mesh nodes: point-selector targets and selector ends (selectorVertices), then the extra points; each once */
   requiredPoints: readonly Point[];
   /** the mesh settings after the overrides (`size`, `order`) */
@@ -79,6 +85,8 @@ export function problemOf(model: Model, options: ProblemOptions = {}): Problem {
     section: sectionOf(model),
     supports: model.supports,
     loads: model.loads,
+    cases: loadCasesOf(model).map((c) => ({ name: c.name, loads: c.loads, supports: c.supports })),
+    combinations: model.combinations ?? [],
     requiredPoints: uniquePoints(points, SAME_POINT_RELATIVE * geometry.scale),
     meshSettings: { size: options.size ?? model.mesh.size, order: options.order ?? model.mesh.order, local: model.mesh.local },
     measure: model.study.measure,

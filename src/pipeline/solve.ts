@@ -7,13 +7,14 @@
 import { meshPlate, sizeFieldFromSettings } from '../mesh/index.js';
 import type { Mesh, SizeField } from '../mesh/types.js';
 import type { Point } from '../model/types.js';
-import { gaussStresses, solvePlate } from '../fem/index.js';
+import { gaussStresses, solvePlateCases } from '../fem/index.js';
 import type { GaussStresses, Solution } from '../fem/types.js';
 import { dofLimitError, estimateMeshSize } from '../fem/health.js';
 import { estimateError, nodalMeasure, recoverSpr } from '../recovery/index.js';
 import type { ErrorEstimate, NodalStress } from '../recovery/types.js';
 import { checkLimits, type SolveLimits } from './limits.js';
 import { SAME_POINT_RELATIVE, uniquePoints, type Problem } from './problem.js';
+import { combineLevel, type LoadSetLevel } from './cases.js';
 
 /** One mesh of a problem, solved and recovered. */
 export interface SolvedLevel {
@@ -25,6 +26,11 @@ export interface SolvedLevel {
   field: NodalStress;
   /** the problem's measure per node, from `field` */
   nodal: Float64Array;
+  /**
+   * every load case, then every combination, solved on this mesh (one entry, the implicit case, for a
+   * model without cases); `solution`, `gauss`, `field` and `nodal` above are those of the first entry
+   */
+  sets: LoadSetLevel[];
   /** seconds spent meshing (0 on a given mesh) and on Gauss stresses + recovery */
   timings: { meshS: number; recoverS: number };
 }
@@ -86,7 +92,7 @@ function narrowSide(problem: Problem): { narrow: number; lengthUnit: string } {
 /** Solve the problem on a given mesh (factor-memory cap and residual limit from `limits`), then recover. */
 export function solveMesh(problem: Problem, mesh: Mesh, limits: SolveLimits = {}): SolvedLevel {
   checkLimits(limits);
-  const solution = solvePlate({
+  const solutions = solvePlateCases({
     mesh,
     geometry: problem.geometry,
     section: problem.section,
@@ -96,12 +102,18 @@ export function solveMesh(problem: Problem, mesh: Mesh, limits: SolveLimits = {}
     ...(problem.extraLoad ? { extraLoad: problem.extraLoad(mesh) } : {}),
     ...(limits.maxFactorBytes !== undefined ? { maxFactorBytes: limits.maxFactorBytes } : {}),
     ...(limits.residualLimit !== undefined ? { residualLimit: limits.residualLimit } : {}),
-  });
+  }, problem.cases);
   const t0 = now();
-  const gauss = gaussStresses(mesh, solution.u, problem.section, problem.loads);
-  const field = recoverSpr(mesh, gauss, problem.section);
+  const cases: LoadSetLevel[] = problem.cases.map((c, i) => {
+    const solution = solutions[i];
+    const gauss = gaussStresses(mesh, solution.u, problem.section, c.loads);
+    const field = recoverSpr(mesh, gauss, problem.section);
+    return { name: c.name, kind: 'case', solution, gauss, field, nodal: nodalMeasure(field, problem.measure) };
+  });
+  const sets = [...cases, ...problem.combinations.map((c) => combineLevel(mesh, c, cases, (f) => nodalMeasure(f, problem.measure)))];
   const recoverS = now() - t0;
-  return { mesh, solution, gauss, field, nodal: nodalMeasure(field, problem.measure), timings: { meshS: 0, recoverS } };
+  const { solution, gauss, field, nodal } = sets[0];
+  return { mesh, solution, gauss, field, nodal, sets, timings: { meshS: 0, recoverS } };
 }
 
 /** Mesh to `sizeAt` at `order`, solve and recover: one level of a study, one cycle of the adaptive loop. */

@@ -21,6 +21,8 @@ table.facts ul { margin: 0; padding-left: 18px; }
 table.verdicts, table.levels { width: 100%; font-variant-numeric: tabular-nums; }
 table.verdicts th, table.verdicts td, table.levels th, table.levels td { text-align: left; padding: 4px 8px; border-bottom: 1px solid var(--rule); overflow-wrap: break-word; }
 table.verdicts td:nth-child(4) { white-space: nowrap; }
+table.envelope td.governs { background: color-mix(in srgb, var(--accent) 12%, transparent); }
+details.case { margin: 0.5em 0; }
 table.verdicts thead th, table.levels thead th { border-bottom: 2px solid var(--accent); }
 .verdict { display: inline-block; white-space: nowrap; padding: 0 8px; border-radius: 10px; font-size: 12px; font-weight: 700; border: 1.5px solid; }
 .verdict-converging { color: #2b6a3a; border-color: #2b8a3e; background: #ebfbee; }

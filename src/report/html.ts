@@ -28,7 +28,7 @@ export interface ReportCheck {
 }
 
 /** What the report shows of a run: a study's result, or one solve's figures with `sites: []`. */
-export type ReportRun = Pick<StudyResult, 'version' | 'model' | 'units' | 'mesh' | 'solution' | 'measure' | 'sites' | 'warnings' | 'yieldStress'>;
+export type ReportRun = Pick<StudyResult, 'version' | 'model' | 'units' | 'mesh' | 'solution' | 'measure' | 'sites' | 'warnings' | 'yieldStress' | 'cases' | 'envelope'>;
 
 export interface ReportInput {
   model: Model;
@@ -224,10 +224,25 @@ function modelSection(ctx: PageContext): string {
         : `<ul>${model.plate.openings.map((o) => `<li><b>${escapeXml(o.id)}</b>: ${escapeXml(shapeWords(o.shape, L))}</li>`).join('')}</ul>`,
     ),
     row('Supports', `<ul>${model.supports.map((s) => `<li>${escapeXml(describeSupport(s, L))}</li>`).join('')}</ul>`),
-    row('Loads', `<ul>${model.loads.map((l) => `<li>${escapeXml(describeLoad(l, units))}</li>`).join('')}</ul>`),
+    ...loadRows(ctx),
     row('Study', escapeXml(`${measure}; ${model.study.levels} levels, element size ÷ ${formatNumber(model.study.ratio)} per level`)),
   ];
   return `<section id="model"><h2>Model</h2><table class="facts">${rows.join('')}</table></section>`;
+}
+
+/** The Loads row, or with load cases one row per case and one for the combinations. */
+function loadRows(ctx: PageContext): string[] {
+  const { model, units } = ctx;
+  const list = (loads: Model['loads']) => `<ul>${loads.map((l) => `<li>${escapeXml(describeLoad(l, units))}</li>`).join('')}</ul>`;
+  if (!model.cases || model.cases.length === 0) return [row('Loads', list(model.loads))];
+  const rows = model.cases.map((c) => {
+    const displaced = c.supports.filter((s) => s.displace).map((s) => `<li>${escapeXml(describeSupport(s, ctx.L))}</li>`).join('');
+    return row(`Load case ${c.name}`, c.loads.length > 0 || displaced ? `<ul>${c.loads.map((l) => `<li>${escapeXml(describeLoad(l, units))}</li>`).join('')}${displaced}</ul>` : 'no loads');
+  });
+  if (model.combinations && model.combinations.length > 0) {
+    rows.push(row('Combinations', `<ul>${model.combinations.map((c) => `<li><b>${escapeXml(c.name)}</b> = ${escapeXml(c.expression)}</li>`).join('')}</ul>`));
+  }
+  return rows;
 }
 
 function meshSection(ctx: PageContext): string {
@@ -256,7 +271,7 @@ function pictureSection(ctx: PageContext): string {
   const deformScale = ctx.input.deformationScale ?? autoDeformationScale(u, geometry.scale);
   const main = contourSvg(mesh, field, {
     units: `${measure}, ${S}`,
-    title: `${measure} (${S}) over the plate`,
+    title: `${measure} (${S}) over the plate${study.cases?.[0] ? `, load case ${study.cases[0].name}` : ''}`,
     sites: study.sites.map((s) => ({ id: s.id, at: s.at })),
     deformed: deformScale !== undefined ? { u, scale: deformScale } : undefined,
     showMesh: true,
@@ -276,21 +291,69 @@ const VERDICTS_LEGEND =
   'Singular: the peak keeps growing like h^−q as elements shrink; it is a property of the idealised model, not a stress, so use the readouts. ' +
   'Undecided: the levels do not yet tell.';
 
-function verdictsSection(ctx: PageContext): string {
-  const { study, L, S, units, sectionIds } = ctx;
-  const verdictRows = study.sites
+/** The verdict table of some sites; `governs` adds the column naming each site's case (the envelope). */
+function verdictTable(ctx: PageContext, sites: readonly SiteResult[], governs: boolean, link: boolean): string {
+  const { L, S, units, sectionIds } = ctx;
+  const verdictRows = sites
     .map(
       (s, i) =>
-        `<tr><td><a href="#${sectionIds[i]}">${escapeXml(s.id)}</a></td><td>${escapeXml(siteWhere(s, L))}</td>` +
+        `<tr><td>${link ? `<a href="#${sectionIds[i]}">${escapeXml(s.id)}</a>` : escapeXml(s.id)}</td><td>${escapeXml(siteWhere(s, L))}</td>` +
         `<td>${escapeXml(featureLabel(s))}</td><td>${verdictBadge(s.verdict)}</td>` +
+        (governs ? `<td><b>${escapeXml(s.case ?? '')}</b></td>` : '') +
         `<td>${escapeXml(siteValue(s, S))}</td><td>${escapeXml(siteReadout(s, units))}</td></tr>`,
     )
     .join('');
+  const cols = governs ? 7 : 6;
+  return `<table class="verdicts"><thead><tr><th>site</th><th>where</th><th>feature</th><th>verdict</th>${governs ? '<th>governs</th>' : ''}<th>value ± ${BAND_LABEL}</th><th>readouts</th></tr></thead><tbody>${verdictRows || `<tr><td colspan="${cols}">No sites were found.</td></tr>`}</tbody></table>`;
+}
+
+function verdictsSection(ctx: PageContext): string {
+  const { study } = ctx;
+  const envelope = study.envelope !== undefined;
+  const lead = envelope
+    ? `<p class="legend-text">${escapeXml(`The envelope of the load cases and combinations: each site as its governing case or combination gives it (the envelope table below compares them).`)}</p>`
+    : '';
   return `<section id="verdicts"><h2>Verdicts</h2>
-<table class="verdicts"><thead><tr><th>site</th><th>where</th><th>feature</th><th>verdict</th><th>value ± ${BAND_LABEL}</th><th>readouts</th></tr></thead><tbody>${verdictRows || '<tr><td colspan="6">No sites were found.</td></tr>'}</tbody></table>
+${lead}${verdictTable(ctx, study.sites, envelope, true)}
 <p class="legend-text">${escapeXml(VERDICTS_LEGEND)}</p>
 <p class="legend-text">${escapeXml(READOUTS_LEGEND)}</p>
+</section>${envelope ? `\n${envelopeSection(ctx)}\n${casesSection(ctx)}` : ''}`;
+}
+
+/** What the envelope compares, under its table. */
+const ENVELOPE_LEGEND =
+  'Each cell: the verdict initial (c converging, s singular, u undecided) and the value compared — the converged value of a converging site, ' +
+  'the readout at distance of a singular one (a singular peak is not a stress), the finest peak of an undecided one. The largest governs (by magnitude for σxx, σyy, τxy); ' +
+  'a value whose finest peak lies on the rim of the site’s neighbourhood (marked ◦) belongs to a neighbouring peak and does not govern. ' +
+  'A combination is the factored sum of its cases, superposed on every mesh, not solved again.';
+
+function envelopeSection(ctx: PageContext): string {
+  const { study, S, sectionIds } = ctx;
+  const cases = study.cases ?? [];
+  const head = cases.map((c) => `<th>${escapeXml(c.name)}${c.expression ? `<br/><small>${escapeXml(c.expression)}</small>` : ''}</th>`).join('');
+  const rows = (study.envelope ?? []).map((e, i) => {
+    const cells = e.values.map((v) => {
+      const text = `${v.verdict[0]} ${Number.isFinite(v.value) ? formatNumber(v.value, 4) : '—'}${v.rim ? ' ◦' : ''}`;
+      return v.case === e.governing ? `<td class="governs"><b>${escapeXml(text)}</b></td>` : `<td>${escapeXml(text)}</td>`;
+    }).join('');
+    return `<tr><td><a href="#${sectionIds[i]}">${escapeXml(e.site)}</a></td>${cells}<td><b>${escapeXml(e.governing)}</b> (${escapeXml(e.basis)})</td></tr>`;
+  }).join('');
+  return `<section id="envelope"><h2>Envelope</h2>
+<table class="verdicts envelope"><thead><tr><th>site</th>${head}<th>governs</th></tr></thead><tbody>${rows}</tbody></table>
+<p class="legend-text">Values in ${escapeXml(S)}. ${escapeXml(ENVELOPE_LEGEND)}</p>
 </section>`;
+}
+
+/** Every case and combination on its own: its solve and its verdict table, folded. */
+function casesSection(ctx: PageContext): string {
+  const { study, L, units } = ctx;
+  const parts = (study.cases ?? []).map((c) => {
+    const [ax, ay] = c.solution.appliedSum;
+    const facts = `${c.kind === 'combination' ? `combination ${c.expression ?? ''}, superposed; ` : ''}applied (${formatNumber(ax)}, ${formatNumber(ay)}) ${units.force}, largest displacement ${formatNumber(c.solution.maxDisplacement)} ${L}`;
+    return `<details class="case"><summary>${c.kind === 'combination' ? 'Combination' : 'Load case'} <b>${escapeXml(c.name)}</b></summary>` +
+      `<p class="legend-text">${escapeXml(facts)}</p>${verdictTable(ctx, c.sites, false, false)}</details>`;
+  }).join('\n');
+  return `<section id="cases"><h2>Load cases</h2><p class="legend-text">Every site is studied in every case and combination; <code>peakwise study --case NAME</code> prints one.</p>\n${parts}</section>`;
 }
 
 /** The facts table of one site: its value or growth, then every readout with its distance. */
@@ -361,7 +424,7 @@ function siteSection(ctx: PageContext, s: SiteResult, i: number): string {
   const { L, S, measure, sectionIds } = ctx;
   return (
     `<section class="site" id="${sectionIds[i]}">` +
-    `<h3>${escapeXml(s.id)} <span class="where">at ${escapeXml(siteWhere(s, L))}</span> ${verdictBadge(s.verdict)}</h3>` +
+    `<h3>${escapeXml(s.id)} <span class="where">at ${escapeXml(siteWhere(s, L))}</span> ${verdictBadge(s.verdict)}${s.case !== undefined ? ` <span class="where">governed by ${escapeXml(s.case)}</span>` : ''}</h3>` +
     `<p class="feature">${escapeXml(capitalise(s.feature.description || featureLabel(s)))}</p>` +
     `<p class="why"><b>Why:</b> ${escapeXml(s.reason)}</p>` +
     (siteAdvice(s) ? `<p class="advice"><b>Next step:</b> ${escapeXml(siteAdvice(s) ?? '')}</p>` : '') +

@@ -80,7 +80,9 @@ function siteNotes(study: StudyResult, c: Colors): string[] {
 export function studyTable(study: StudyResult, options: TerminalOptions): string {
   const c = pc.createColors(options.color);
   const units = study.units;
-  const header = ['site', 'where', 'feature', 'verdict', `value ± ${BAND_LABEL}`, 'readouts'];
+  // with load cases: the envelope (a column names each site's governing case), or one case (--case)
+  const envelope = study.envelope !== undefined;
+  const header = ['site', 'where', 'feature', 'verdict', ...(envelope ? ['governs'] : []), `value ± ${BAND_LABEL}`, 'readouts'];
   const rows: string[][] = [header];
   for (const site of study.sites) {
     const verdict = stripControl(site.verdict);
@@ -89,6 +91,7 @@ export function studyTable(study: StudyResult, options: TerminalOptions): string
       siteWhere(site, units.length),
       featureLabel(site),
       verdictColour(c, site.verdict)(verdict),
+      ...(envelope ? [c.bold(stripControl(site.case ?? ''))] : []),
       siteValue(site, units.stress),
       siteReadout(site, units),
     ]);
@@ -102,6 +105,8 @@ export function studyTable(study: StudyResult, options: TerminalOptions): string
         `${study.sites.length} site${study.sites.length === 1 ? '' : 's'}`,
     ),
   );
+  const cases = caseLine(study);
+  if (cases) lines.push(c.dim(cases));
   lines.push('');
   if (study.sites.length === 0) lines.push('No sites were found.');
   else {
@@ -112,6 +117,17 @@ export function studyTable(study: StudyResult, options: TerminalOptions): string
   lines.push('');
   lines.push(c.dim(CAUTION));
   return lines.join('\n') + '\n';
+}
+
+/** The line naming the load cases: the envelope's list, or the one case shown; undefined without cases. */
+function caseLine(study: StudyResult): string | undefined {
+  if (study.cases && study.envelope) {
+    const names = study.cases.map((k) => stripControl(k.kind === 'combination' && k.expression ? `${k.name} = ${k.expression}` : k.name));
+    const signed = study.envelope.some((e) => e.byMagnitude) ? ' by magnitude (a signed measure)' : '';
+    return `envelope of ${names.join(', ')}: each site from the case or combination that governs it${signed} (converged value; readout at distance where singular); --case NAME shows one`;
+  }
+  const one = study.sites[0]?.case;
+  return one !== undefined ? `load case ${stripControl(one)} alone` : undefined;
 }
 
 /**

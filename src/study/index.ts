@@ -23,3 +23,4 @@ export { reportedSites, roundToScale, isAboveYield } from './reported.js';
 export { intensityBand, siteProbe, siteReadouts, reportedPosition, withPlateauExtent, DEFAULT_READOUT_FRACTION } from './site-readouts.js';
 export { intensityNorm, reciprocalIntensity, singularTerm, type IntensitySetup, type IntensityNorm } from './stress-intensity.js';
 export { atSupportEnd, isCrackLike, siteAdvice, withCauseAdvice } from './advice.js';
+export { mergeSiteLists, designValue, envelopeOf, envelopeSites, caseStudyResult, caseNames, peakOnRim, SIGNED_MEASURES, EDGE_FRACTION } from './cases.js';

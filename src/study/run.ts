@@ -8,8 +8,9 @@ import type { Solution } from '../fem/types.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { NodalStress } from '../recovery/types.js';
 import { buildPointLocator } from '../recovery/index.js';
-import { baseSizeField, problemOf, solveAt, type SolveLimits, type SolvedLevel } from '../pipeline/index.js';
-import type { LevelResult, SiteResult, StudyResult } from './types.js';
+import { baseSizeField, problemOf, solveAt, type LoadSetLevel, type SolveLimits, type SolvedLevel } from '../pipeline/index.js';
+import type { CaseStudy, LevelResult, SiteResult, StudyResult } from './types.js';
+import { envelopeOf, envelopeSites, mergeSiteLists, peakOnRim } from './cases.js';
 import { findSites, listedSitePoints, type SiteCandidate } from './sites.js';
 import { levelSizeField, probeLevel, rosettePoints, NEIGHBOURHOOD_SIZES, type SiteProbe } from './ladder.js';
 import { judgeSite } from './verdict.js';
@@ -18,7 +19,7 @@ import { coarsenedOuterField } from './far-field.js';
 import { boundaryEdgesAt } from './mesh-tools.js';
 import { reportedSites } from './reported.js';
 import { reportedPosition, siteProbe, siteReadouts, withPlateauExtent } from './site-readouts.js';
-import { bodyFields, selectorWarnings } from '../fem/index.js';
+import { bodyFields, combineBodyFields, selectorWarnings } from '../fem/index.js';
 import { withCauseAdvice } from './advice.js';
 
 export interface StudyOptions {
@@ -44,6 +45,8 @@ export interface BaseSolve {
   field: NodalStress;
   /** the study measure per node */
   nodal: Float64Array;
+  /** every load case and combination on this mesh (one entry without cases); the fields above are the first's */
+  sets: LoadSetLevel[];
 }
 
 const VERSION = '0.1.0';
@@ -100,8 +103,13 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const measure = model.study.measure;
   const problem = problemOf(model, { size, order });
   const { geometry: geom, section } = problem;
-  // body force and thermal strain of the body loads, for the reciprocal-work K (stress-intensity.ts)
-  const body = bodyFields(section, problem.loads);
+  // body force and thermal strain of each case's body loads, for the reciprocal-work K (stress-intensity.ts);
+  // a combination's are the factored sums of its cases' (K is linear in them)
+  const caseBody = problem.cases.map((c) => bodyFields(section, c.loads));
+  const bodyOf = [
+    ...caseBody,
+    ...problem.combinations.map((c) => combineBodyFields(c.terms.map((t) => caseBody[problem.cases.findIndex((pc) => pc.name === t.case)]), c.terms.map((t) => t.factor))),
+  ];
   // the listed sites are vertices of every mesh, the first included (the selector ends are already)
   const listed = listedSitePoints(model, geom, problem.requiredPoints);
   const warnings = selectorWarnings(model, geom);
@@ -113,9 +121,11 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
 
   progress(0, 'first solve');
   const first = solveAt(problem, base, order, limits, { points: listed });
-  opts.onBase?.({ mesh: first.mesh, geometry: geom, solution: first.solution, field: first.field, nodal: first.nodal });
+  opts.onBase?.({ mesh: first.mesh, geometry: geom, solution: first.solution, field: first.field, nodal: first.nodal, sets: first.sets });
   progress(1, 'sites');
-  const cands = findSites({ model, geom, mesh: first.mesh, solution: first.solution, measure: first.nodal, baseSize: base, listed });
+  // the sites of every case and combination, studied in all (docs/study.md, "Load cases and the envelope")
+  const sets = first.sets;
+  const cands = mergeSiteLists(sets.map((set) => findSites({ model, geom, mesh: first.mesh, solution: set.solution, measure: set.nodal, baseSize: base, listed })), base);
   const h0 = cands.map((c) => base(c.at[0], c.at[1]));
   const probes: SiteProbe[] = cands.map((site, i) => {
     let radius = NEIGHBOURHOOD_SIZES * h0[i];
@@ -127,7 +137,8 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   });
   const sitePoints = cands.map((c) => c.at);
   const straight = cands.map((c) => straightFacesAt(first.mesh, geom, c.node));
-  const perSite: LevelResult[][] = cands.map(() => []);
+  // levels per load set, per site
+  const perSet: LevelResult[][][] = sets.map(() => cands.map(() => []));
   let stopped = '';
   let interrupted = false;
   let finest: SolvedLevel | undefined;
@@ -142,9 +153,9 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
       throw e;
     }
     const locator = buildPointLocator(s.mesh);
-    probes.forEach((p, i) => {
-      perSite[i].push(probeLevel(s.mesh, s.field, s.nodal, s.gauss, section, measure, p, h0[i] / Math.pow(ratio, k), s.solution.dofs, locator, s.solution.u, body));
-    });
+    s.sets.forEach((set, j) => probes.forEach((p, i) => {
+      perSet[j][i].push(probeLevel(s.mesh, set.field, set.nodal, set.gauss, section, measure, p, h0[i] / Math.pow(ratio, k), s.solution.dofs, locator, set.solution.u, bodyOf[j]));
+    }));
     progress(2 + k, `level ${k + 1} of ${levels}`);
     if (k === levels - 1) finest = s;
   }
@@ -152,10 +163,10 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   // far-field term (docs/study.md, "Far field"): the finest level again with everything outside the sites'
   // refined cores coarsened; the change of each peak is what the unrefined mesh, the same on every level,
   // contributes. Only solved when some site converges (the term belongs to converging bands alone).
-  let farShift: number[] = [];
-  let farShiftK: number[] = [];
-  const kLast = (perSite[0]?.length ?? 0) - 1;
-  const anyConverging = cands.some((c, i) => judgeSite(perSite[i].map((l) => l.h), perSite[i].map((l) => l.peak), ratio, order, c.theory).verdict === 'converging');
+  const farShift: number[][] = sets.map(() => []);
+  const farShiftK: number[][] = sets.map(() => []);
+  const kLast = (perSet[0][0]?.length ?? 0) - 1;
+  const anyConverging = perSet.some((perSite) => cands.some((c, i) => judgeSite(perSite[i].map((l) => l.h), perSite[i].map((l) => l.peak), ratio, order, c.theory).verdict === 'converging'));
   // a stress intensity converges like a peak and gets the same far-field term
   const anyIntensity = probes.some((p) => p.intensity !== undefined);
   if (!interrupted && !stopped && kLast >= 2 && (anyConverging || anyIntensity) && !opts.shouldStop?.()) {
@@ -165,9 +176,12 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
       const field = coarsenedOuterField(base, cands, h0, ratio, kLast, BAND_RULES.farField.coarsening);
       const s = solveAt(problem, field, order, limits, { points: [...sitePoints, ...seeds] });
       const locator = buildPointLocator(s.mesh);
-      const far = probes.map((p, i) => probeLevel(s.mesh, s.field, s.nodal, s.gauss, section, measure, p, perSite[i][kLast].h, s.solution.dofs, locator, s.solution.u, body));
-      farShift = far.map((l, i) => l.peak - perSite[i][kLast].peak);
-      farShiftK = far.map((l, i) => (l.nsif ?? NaN) - (perSite[i][kLast].nsif ?? NaN));
+      s.sets.forEach((set, j) => {
+        const perSite = perSet[j];
+        const far = probes.map((p, i) => probeLevel(s.mesh, set.field, set.nodal, set.gauss, section, measure, p, perSite[i][kLast].h, s.solution.dofs, locator, set.solution.u, bodyOf[j]));
+        farShift[j] = far.map((l, i) => l.peak - perSite[i][kLast].peak);
+        farShiftK[j] = far.map((l, i) => (l.nsif ?? NaN) - (perSite[i][kLast].nsif ?? NaN));
+      });
     } catch (e) {
       if (!isPeakwiseError(e)) throw e;
     }
@@ -175,11 +189,24 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   }
 
   const stress = stressUnit(model.units);
-  const perSiteResults: SiteResult[] = cands.map((c, i) => {
-    const r = toSiteResult(`S${i + 1}`, c, perSite[i], ratio, order, probes[i], stress, model.units.length, stopped, farShift[i], farShiftK[i]);
-    return finest ? withPlateauExtent(r, c, finest.mesh, finest.nodal) : r;
+  const sitesOf = (j: number): SiteResult[] => {
+    const perSiteResults: SiteResult[] = cands.map((c, i) => {
+      const r = toSiteResult(`S${i + 1}`, c, perSet[j][i], ratio, order, probes[i], stress, model.units.length, stopped, farShift[j][i], farShiftK[j][i]);
+      return finest ? withPlateauExtent(r, c, finest.mesh, finest.sets[j].nodal) : r;
+    });
+    return reportedSites(perSiteResults, { scale: geom.scale, yieldStress: model.material.yield }).map(withCauseAdvice);
+  };
+  const summary = (solution: SolvedLevel['solution']): StudyResult['solution'] => ({
+    dofs: solution.dofs, maxDisplacement: solution.maxDisplacement, reactionSum: solution.reactionSum, appliedSum: solution.appliedSum,
   });
-  const sites: SiteResult[] = reportedSites(perSiteResults, { scale: geom.scale, yieldStress: model.material.yield }).map(withCauseAdvice);
+  // with cases, every case and combination has its sites, and the study's own sites are the envelope
+  const withCases = model.cases !== undefined && model.cases.length > 0;
+  const caseStudies: CaseStudy[] = withCases
+    ? sets.map((set, j) => ({ name: set.name, kind: set.kind, ...(set.expression ? { expression: set.expression } : {}), solution: summary(set.solution), sites: sitesOf(j) }))
+    : [];
+  const onRim = perSet.map((perSite) => perSite.map((levels, i) => peakOnRim(levels, cands[i].at)));
+  const envelope = withCases ? envelopeOf(caseStudies, measure, onRim) : [];
+  const sites: SiteResult[] = withCases ? envelopeSites(caseStudies, envelope) : sitesOf(0);
   const q = meshQuality(first.mesh);
   return {
     tool: 'peakwise',
@@ -187,18 +214,14 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
     model: { title: model.title, file: model.file },
     units: { length: model.units.length, force: model.units.force, stress },
     mesh: { nodes: first.mesh.xy.length / 2, elements: first.mesh.elemNodes.length / first.mesh.nodesPerElem, order, minAngleDeg: q.minAngleDeg },
-    solution: {
-      dofs: first.solution.dofs,
-      maxDisplacement: first.solution.maxDisplacement,
-      reactionSum: first.solution.reactionSum,
-      appliedSum: first.solution.appliedSum,
-    },
+    solution: summary(first.solution),
     measure,
     ...(model.material.yield !== undefined ? { yieldStress: model.material.yield } : {}),
     sites,
     timings: { totalS: (performance.now() - t0) / 1000 },
     ...(interrupted ? { interrupted: true } : {}),
     ...(warnings.length > 0 ? { warnings: warnings.map((w) => `${w.keyPath}: ${w.message}`) } : {}),
+    ...(withCases ? { cases: caseStudies, envelope } : {}),
   };
 }
 

@@ -111,6 +111,45 @@ export interface SiteResult {
    * the linear-elastic result then expects local yielding
    */
   aboveYield?: true;
+  /** with load cases: the case or combination this entry is of (in `StudyResult.sites`, the governing one) */
+  case?: string;
+}
+
+/** What a site's value in one case or combination is (docs/study.md, "Load cases and the envelope"). */
+export type DesignBasis = 'converged value' | 'readout at distance' | 'disk average' | 'finest peak';
+
+/** One site in one case or combination, as the envelope compares it. */
+export interface EnvelopeValue {
+  case: string;
+  verdict: Verdict;
+  /** the converged value (converging), the readout at distance (singular), or the finest peak (undecided) */
+  value: number;
+  basis: DesignBasis;
+  /** the finest peak lies on the rim of the site's neighbourhood: no peak of this case's own here (it does not govern) */
+  rim?: true;
+}
+
+/** The governing case or combination of one site. */
+export interface EnvelopeEntry {
+  site: string;
+  /** the case or combination with the largest value (by magnitude for signed measures) */
+  governing: string;
+  value: number;
+  basis: DesignBasis;
+  /** true when the measure is signed (σxx, σyy, τxy) and the values were compared by magnitude */
+  byMagnitude: boolean;
+  /** every case and combination, in the model's order */
+  values: EnvelopeValue[];
+}
+
+/** The study of one case or combination: its own first solve and its sites (the same ids in every case). */
+export interface CaseStudy {
+  name: string;
+  kind: 'case' | 'combination';
+  /** the combination's expression (combinations only) */
+  expression?: string;
+  solution: StudyResult['solution'];
+  sites: SiteResult[];
 }
 
 export interface StudyResult {
@@ -129,4 +168,12 @@ export interface StudyResult {
   interrupted?: boolean;
   /** health warnings of the model and mesh (printed by the CLI, shown in the report) */
   warnings?: string[];
+  /**
+   * with load cases: every case and combination studied on the same meshes and sites; `sites` and
+   * `solution` above are then the envelope (each site from its governing case, `case` set) and the
+   * first case's solve
+   */
+  cases?: CaseStudy[];
+  /** with load cases: the governing case or combination of every site */
+  envelope?: EnvelopeEntry[];
 }

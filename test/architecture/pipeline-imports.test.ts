@@ -16,7 +16,7 @@ function valueImports(file: string): Set<string> {
 }
 
 const MESHER = ['meshPlate'];
-const SOLVER = ['solvePlate'];
+const SOLVER = ['solvePlate', 'solvePlateCases'];
 const RECOVERY = ['recoverSpr', 'recoverAverage'];
 const usesAny = (names: Set<string>, list: string[]): boolean => list.some((n) => names.has(n));
 const stageOf = (file: string): string => (file.includes('/') ? file.slice(0, file.indexOf('/')) : '');

@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { solvePlate } from '../../src/fem/index.js';
 import { buildGeometry } from '../../src/geometry/index.js';
 import { meshPlate, sizeFieldFromSettings } from '../../src/mesh/index.js';
-import { parseModel } from '../../src/model/index.js';
+import { loadCasesOf, parseModel } from '../../src/model/index.js';
 import type { Model } from '../../src/model/types.js';
 
 /*
@@ -33,12 +33,15 @@ describe('equilibrium on the demo models', () => {
     const sizeAt0 = sizeFieldFromSettings(geometry, model.mesh);
     const mesh = meshPlate(geometry, { sizeAt: (x, y) => 2 * sizeAt0(x, y), order: model.mesh.order, requiredPoints: pointsOf(model) });
     const section = { ...model.material, state: model.state, thickness: model.thickness };
-    const solution = solvePlate({ mesh, geometry, section, supports: model.supports, loads: model.loads });
-    let scale = 0;
-    for (let i = 0; i < solution.load.length; i++) scale += Math.abs(solution.load[i]);
-    expect(scale).toBeGreaterThan(0);
-    expect(Math.abs(solution.reactionSum[0] + solution.appliedSum[0]) / scale).toBeLessThan(1e-9);
-    expect(Math.abs(solution.reactionSum[1] + solution.appliedSum[1]) / scale).toBeLessThan(1e-9);
-    expect(solution.residual).toBeLessThan(1e-10);
+    // every load case of the model (one implicit case without cases:), each on its own
+    for (const c of loadCasesOf(model)) {
+      const solution = solvePlate({ mesh, geometry, section, supports: c.supports, loads: c.loads });
+      let scale = 0;
+      for (let i = 0; i < solution.load.length; i++) scale += Math.abs(solution.load[i]);
+      expect(scale, c.name).toBeGreaterThan(0);
+      expect(Math.abs(solution.reactionSum[0] + solution.appliedSum[0]) / scale, c.name).toBeLessThan(1e-9);
+      expect(Math.abs(solution.reactionSum[1] + solution.appliedSum[1]) / scale, c.name).toBeLessThan(1e-9);
+      expect(solution.residual, c.name).toBeLessThan(1e-10);
+    }
   });
 });

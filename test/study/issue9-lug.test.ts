@@ -5,9 +5,10 @@ import { parseModel } from '../../src/model/index.js';
 import { runStudy } from '../../src/study/index.js';
 
 /*
- * The lug demo (issue 9) runs through the convergence study with its pin force. Statics, no
- * published source: the first solve's reactions balance the applied forces, whose y sum is
- * the pin force's F cos 20° (the flank traction acts in x only).
+ * The lug demo (issue 9) runs through the convergence study with its pin force, in three load cases
+ * and a combination (issue 14). Statics, no published source: in each case the first solve's reactions
+ * balance the applied forces, whose sums are the case's pin force (and the flank traction, in x only);
+ * the combination's are the factored sums.
  */
 const file = fileURLToPath(new URL('../../models/hoist-lug.yaml', import.meta.url));
 
@@ -15,10 +16,25 @@ describe('lug demo through the study', () => {
   it('runs, carries the pin force, and finds a site at the pin hole', () => {
     const model = parseModel(readFileSync(file, 'utf8'), 'models/hoist-lug.yaml');
     const result = runStudy(model, { levels: 2 });
-    const F = 24000 * Math.cos((20 * Math.PI) / 180);
-    expect(Math.abs(result.solution.appliedSum[1] - F) / F).toBeLessThan(1e-9);
-    expect(Math.abs(result.solution.reactionSum[1] + F) / F).toBeLessThan(1e-9);
+    const F = 24000, tilt = (20 * Math.PI) / 180;
+    const flank = -2 * (110 - 44) * 12;
+    const applied: Record<string, [number, number]> = {
+      lift: [0, F], sway: [F / 3, 0], angled: [F * Math.sin(tilt) + flank, F * Math.cos(tilt)], swing: [F / 6, F],
+    };
+    expect(result.cases!.map((c) => c.name)).toEqual(Object.keys(applied));
+    for (const c of result.cases!) {
+      const [fx, fy] = applied[c.name];
+      expect(Math.abs(c.solution.appliedSum[0] - fx) / F, c.name).toBeLessThan(1e-9);
+      expect(Math.abs(c.solution.appliedSum[1] - fy) / F, c.name).toBeLessThan(1e-9);
+      expect(Math.abs(c.solution.reactionSum[0] + fx) / F, c.name).toBeLessThan(1e-9);
+      expect(Math.abs(c.solution.reactionSum[1] + fy) / F, c.name).toBeLessThan(1e-9);
+      // every case studies the same sites
+      expect(c.sites.map((s) => s.id)).toEqual(result.sites.map((s) => s.id));
+    }
     const atHole = result.sites.filter((s) => Math.abs(Math.hypot(s.at[0] - 45, s.at[1] - 70) - 15) < 0.5);
     expect(atHole.length).toBeGreaterThan(0);
+    // the envelope names a governing case for every site, and the site shown is that case's
+    expect(result.envelope!.map((e) => e.site)).toEqual(result.sites.map((s) => s.id));
+    result.envelope!.forEach((e, i) => expect(result.sites[i].case).toBe(e.governing));
   });
 });
