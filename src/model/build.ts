@@ -17,6 +17,7 @@ import { ImportError, MM_PER_UNIT, displacementRows, pointsShape, svgShape, type
 import { parseExpression, namesIn, CONSTANTS } from './expr.js';
 import { DEFAULT_UNITS, PLAUSIBLE_E_MPA, PLAUSIBLE_THICKNESS_MM, lengthToMm, stressToMPa, stressUnit } from './units.js';
 import { levelsRule, ratioRule } from './study-rules.js';
+import { buildReported } from './reported-values.js';
 
 /** Largest number accepted anywhere: beyond it the value is a slip, not a plate. */
 export const MAX_MAGNITUDE = 1e15;
@@ -399,6 +400,8 @@ export function buildModel(
     study,
     sourceMap: valueAt,
   };
+  const reported = buildReported(b, raw.reported, study.measure);
+  if (reported) model.reported = reported;
   if (b.warnings.length > 0) model.warnings = b.warnings;
   return model;
 }
