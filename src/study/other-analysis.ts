@@ -10,7 +10,7 @@
  * warning, up to OTHER_ANALYSIS_RULES.extrapolationLimit times beyond the ladder's ends, and no further.
  */
 import type { Point, ReportedValue, StressMeasure } from '../model/types.js';
-import type { LevelResult, ReportedAssessment, SiteResult } from './types.js';
+import type { ReportedAssessment, SiteResult } from './types.js';
 import type { SiteCandidate } from './sites.js';
 
 /** The stated rules of the comparison (docs/other-analysis.md explains each). */
@@ -50,17 +50,6 @@ export type ValueAtSize =
 const g = (v: number) => String(Number(v.toPrecision(4)));
 const pct = (v: number) => String(Number((100 * v).toPrecision(2)));
 
-/** Least-squares α of φ − φ₀ = α h^p over some levels. */
-function lawCoefficient(levels: readonly LevelResult[], phi0: number, p: number): number {
-  let num = 0, den = 0;
-  for (const l of levels) {
-    const hp = l.h ** p;
-    num += (l.peak - phi0) * hp;
-    den += hp * hp;
-  }
-  return den > 0 ? num / den : 0;
-}
-
 /**
  * The site's peak at element size h from its ladder: interpolated in log h inside [h_finest, h_coarsest],
  * extrapolated with the fitted law up to OTHER_ANALYSIS_RULES.extrapolationLimit beyond, refused further.
@@ -91,18 +80,18 @@ export function valueAtSize(site: Pick<SiteResult, 'levels' | 'verdict' | 'estim
       : 'add refinement levels (study.levels)';
     return { refused: `size ${g(h)}${L} is ${g(factor)}× ${coarser ? 'coarser than the coarsest' : 'finer than the finest'} level (${span}); beyond ${limit}× the fitted law is not trusted: ${fix}` };
   }
-  const near = coarser ? levels.slice(0, 3) : levels.slice(-3);
+  // the law through the ladder's end level (continuous there), with the fitted exponent
+  const end = coarser ? levels[0] : levels[n - 1];
   let value: number, law: string;
   const est = site.estimate;
   if (site.verdict === 'converging' && Number.isFinite(est.value)) {
     // the order capped at the element's formal order, as in the band (band.ts): coarser meshes converge no faster
     const p = Number.isFinite(est.observedOrder) && est.observedOrder > 0 ? Math.min(est.observedOrder, formalOrder) : formalOrder;
-    value = est.value + lawCoefficient(near, est.value, p) * h ** p;
+    value = est.value + (end.peak - est.value) * (h / end.h) ** p;
     law = `φ₀ + αh^${g(p)}`;
-  } else if (site.verdict === 'singular' && Number.isFinite(site.growth.exponent) && near.every((l) => l.peak > 0)) {
+  } else if (site.verdict === 'singular' && Number.isFinite(site.growth.exponent) && end.peak > 0) {
     const q = site.growth.exponent;
-    const b = near.reduce((s, l) => s + Math.log(l.peak) + q * Math.log(l.h), 0) / near.length;
-    value = Math.exp(b - q * Math.log(h));
+    value = end.peak * (h / end.h) ** -q;
     law = `C h^-${g(q)}`;
   } else {
     // undecided: the trend of the ladder's end segment, linear in log h
