@@ -9,6 +9,7 @@ import type { SiteResult, StudyResult } from '../study/types.js';
 import { contourSvg } from './contour.js';
 import { plotCss } from './css.js';
 import { convergencePlotSvg, cutPlotSvg, type CutPlotInput } from './plot.js';
+import { reportedSectionHtml } from './other-analysis.js';
 import { escapeXml, formatFixed, formatNumber, safeId } from './text.js';
 import { singularMaxWarning } from './singular-max.js';
 import {
@@ -28,7 +29,7 @@ export interface ReportCheck {
 }
 
 /** What the report shows of a run: a study's result, or one solve's figures with `sites: []`. */
-export type ReportRun = Pick<StudyResult, 'version' | 'model' | 'units' | 'mesh' | 'solution' | 'measure' | 'sites' | 'warnings' | 'yieldStress'>;
+export type ReportRun = Pick<StudyResult, 'version' | 'model' | 'units' | 'mesh' | 'solution' | 'measure' | 'sites' | 'warnings' | 'yieldStress' | 'reported'>;
 
 export interface ReportInput {
   model: Model;
@@ -290,7 +291,7 @@ function verdictsSection(ctx: PageContext): string {
 <table class="verdicts"><thead><tr><th>site</th><th>where</th><th>feature</th><th>verdict</th><th>value ± ${BAND_LABEL}</th><th>readouts</th></tr></thead><tbody>${verdictRows || '<tr><td colspan="6">No sites were found.</td></tr>'}</tbody></table>
 <p class="legend-text">${escapeXml(VERDICTS_LEGEND)}</p>
 <p class="legend-text">${escapeXml(READOUTS_LEGEND)}</p>
-</section>`;
+</section>${reportedSectionHtml(study, (id) => sectionIds[Math.max(0, study.sites.findIndex((s) => s.id === id))] ?? '')}`;
 }
 
 /** The facts table of one site: its value or growth, then every readout with its distance. */
@@ -366,7 +367,7 @@ function siteSection(ctx: PageContext, s: SiteResult, i: number): string {
     `<p class="why"><b>Why:</b> ${escapeXml(s.reason)}</p>` +
     (siteAdvice(s) ? `<p class="advice"><b>Next step:</b> ${escapeXml(siteAdvice(s) ?? '')}</p>` : '') +
     siteFacts(s, ctx) +
-    `<div class="site-figures"><figure class="plot">${convergencePlotSvg(s, { units: S, lengthUnit: L, measure })}</figure>` +
+    `<div class="site-figures"><figure class="plot">${convergencePlotSvg(s, { units: S, lengthUnit: L, measure, reported: (ctx.study.reported ?? []).filter((a) => a.site === s.id) })}</figure>` +
     `<figure class="inset">${siteInset(ctx, s, i)}</figure></div>` +
     levelsTable(s, L, S) +
     `</section>`

@@ -9,6 +9,7 @@ import type { Mesh } from '../mesh/types.js';
 import type { Model, Point } from '../model/types.js';
 import type { StudyResult, Verdict } from '../study/types.js';
 import { singularMaxWarning } from './singular-max.js';
+import { reportedCell, reportedLines } from './other-analysis.js';
 import { formatNumber, formatPoint, stripControl } from './text.js';
 import {
   BAND_LABEL, CAUTION, aboveYieldNote, atSupportEnd, featureLabel, isCrackLike, siteAdvice, siteReadout, siteValue, siteWhere,
@@ -80,7 +81,9 @@ function siteNotes(study: StudyResult, c: Colors): string[] {
 export function studyTable(study: StudyResult, options: TerminalOptions): string {
   const c = pc.createColors(options.color);
   const units = study.units;
-  const header = ['site', 'where', 'feature', 'verdict', `value ± ${BAND_LABEL}`, 'readouts'];
+  // a column of reported values (issue 15) when the model lists any; readouts stay last
+  const withReported = (study.reported ?? []).length > 0;
+  const header = ['site', 'where', 'feature', 'verdict', `value ± ${BAND_LABEL}`, ...(withReported ? ['reported'] : []), 'readouts'];
   const rows: string[][] = [header];
   for (const site of study.sites) {
     const verdict = stripControl(site.verdict);
@@ -90,6 +93,7 @@ export function studyTable(study: StudyResult, options: TerminalOptions): string
       featureLabel(site),
       verdictColour(c, site.verdict)(verdict),
       siteValue(site, units.stress),
+      ...(withReported ? [reportedCell(study, site.id) || '—'] : []),
       siteReadout(site, units),
     ]);
   }
@@ -109,6 +113,8 @@ export function studyTable(study: StudyResult, options: TerminalOptions): string
     lines.push(c.dim(READOUT_KEY));
   }
   lines.push(...siteNotes(study, c));
+  const rep = reportedLines(study);
+  if (rep.length > 0) lines.push('', ...rep);
   lines.push('');
   lines.push(c.dim(CAUTION));
   return lines.join('\n') + '\n';
