@@ -345,6 +345,8 @@ export interface CutSeries {
   values: ArrayLike<number>;
   /** drawn dashed (a closed-form reference) */
   reference?: boolean;
+  /** results of another analysis: drawn as markers joined by a thin line (issue 15 §5) */
+  other?: boolean;
 }
 
 export interface CutPlotInput {
@@ -385,6 +387,25 @@ export function cutPlotSvg(input: CutPlotInput): string {
       if (!Number.isFinite(v) || !Number.isFinite(s[i])) { pen = false; continue; }
       d += `${pen ? 'L' : 'M'}${c1(ax.at(s[i]))} ${c1(ay.at(v))}`;
       pen = true;
+    }
+    if (ser.other) {
+      const col = REPORTED;
+      parts.push(`<path class="other-line" d="${d}" fill="none" stroke="${col}" stroke-width="1" stroke-dasharray="2 2"/>`);
+      const lx = panel.x + (k % 2) * 240, ly = H - 22 + Math.floor(k / 2) * 14;
+      parts.push(
+        `<path d="M${lx + 11} ${ly - 8}L${lx + 15} ${ly - 4}L${lx + 11} ${ly}L${lx + 7} ${ly - 4}Z" fill="${col}"/>`,
+        `<text x="${lx + 28}" y="${ly}" font-size="10.5" fill="${INK}">${escapeXml(ser.label)}</text>`,
+      );
+      // a marker at every sample where the other analysis has a value, thinned to about 40
+      const have = [];
+      for (let i = 0; i < s.length && i < ser.values.length; i++) if (Number.isFinite(ser.values[i])) have.push(i);
+      const step = Math.max(1, Math.ceil(have.length / 40));
+      for (let j = 0; j < have.length; j += step) {
+        const i = have[j];
+        const X = ax.at(s[i]), Y = ay.at(ser.values[i]);
+        parts.push(`<path class="other-marker" d="M${c1(X)} ${c1(Y - 3.5)}L${c1(X + 3.5)} ${c1(Y)}L${c1(X)} ${c1(Y + 3.5)}L${c1(X - 3.5)} ${c1(Y)}Z" fill="${col}"/>`);
+      }
+      return;
     }
     parts.push(`<path d="${d}" fill="none" stroke="${colour}" stroke-width="${ser.reference ? 1.3 : 1.6}"${ser.reference ? ' stroke-dasharray="5 3"' : ''}/>`);
     const lx = panel.x + (k % 2) * 240, ly = H - 22 + Math.floor(k / 2) * 14;
