@@ -11,3 +11,4 @@ export { closest, editDistance, didYouMean } from './text.js';
 export { boundingBox, shapeArea, MAX_ESTIMATED_TRIANGLES, MAX_MAGNITUDE, DEFAULT_STUDY } from './build.js';
 export { MAX_ALIAS_COUNT, MAX_MODEL_CHARS } from './source.js';
 export { STUDY_LEVELS, STUDY_RATIO, levelsRule, ratioRule } from './study-rules.js';
+export { buildReported, reportedCaseRule, reportedTable, IMPLICIT_CASE } from './reported-values.js';

@@ -9,6 +9,7 @@
  * carries it (φ₀ + α h^p at a converging site, C h^-q at a singular one, the end trend otherwise) with a
  * warning, up to OTHER_ANALYSIS_RULES.extrapolationLimit times beyond the ladder's ends, and no further.
  */
+import { isPeakwiseError } from '../errors.js';
 import type { Point, ReportedValue, StressMeasure } from '../model/types.js';
 import type { ReportedAssessment, SiteResult } from './types.js';
 import type { SiteCandidate } from './sites.js';
@@ -171,7 +172,9 @@ function effectiveOrder(site: SiteResult, r: ReportedValue, ours: NonNullable<Re
   let p = site.estimate.observedOrder;
   let how = 'the observed order of the ladder';
   if (ours.from === 'own solve' && ctx.ownSolve) {
-    const e1 = Math.abs(ours.value - phi0), e2 = Math.abs(ctx.ownSolve(r.size / 2, formal) - phi0);
+    let half = NaN;
+    try { half = ctx.ownSolve(r.size / 2, formal); } catch (e) { if (!isPeakwiseError(e)) throw e; }
+    const e1 = Math.abs(ours.value - phi0), e2 = Math.abs(half - phi0);
     p = e1 > 0 && e2 > 0 ? Math.log2(e1 / e2) : NaN;
     how = `our own solves with ${formal === 1 ? 'linear' : 'quadratic'} elements at h and h/2`;
   }
@@ -224,9 +227,15 @@ export function assessReported(r: ReportedValue, site: SiteResult, distance: num
   let warning: string | undefined;
   if (r.order !== undefined && r.order !== ctx.order && ctx.ownSolve) {
     const f = R.sizeFactor;
-    const v = ctx.ownSolve(r.size, r.order);
-    const band = Math.max(Math.abs(ctx.ownSolve(r.size / f, r.order) - v), Math.abs(ctx.ownSolve(r.size * f, r.order) - v));
-    ours = { value: v, band, from: 'own solve', order: r.order };
+    try {
+      const v = ctx.ownSolve(r.size, r.order);
+      const band = Math.max(Math.abs(ctx.ownSolve(r.size / f, r.order) - v), Math.abs(ctx.ownSolve(r.size * f, r.order) - v));
+      ours = { value: v, band, from: 'own solve', order: r.order };
+    } catch (e) {
+      // a solve the limits refuse (dof cap, factor memory) or a mesh that fails: said, not thrown
+      if (!isPeakwiseError(e)) throw e;
+      return { ...base, words: `not compared: peakwise's own solve with ${r.order === 1 ? 'linear' : 'quadratic'} elements at size ${g(r.size)} ${L} failed (${e.message})` };
+    }
   } else {
     const at = bandedValueAtSize(site, r.size, ctx.order, L);
     if ('refused' in at) return { ...base, words: `not compared: ${at.refused}` };

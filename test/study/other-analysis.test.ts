@@ -116,8 +116,9 @@ describe('a demo fed back: the lamp-rail hanger (models/l-bracket-sharp.yaml)', 
     const a = r.reported![0];
     expect(a.finding).toBe('mesh-dependent');
     expect(a.words).toMatch(/^mesh-dependent/);
-    // measured 0.371 against 2^q − 1 = 0.3713 (the fitted q is 0.4554); the halving between levels 0.5 and 0.25
-    expect(Math.abs(a.halvingIncrease! - (2 ** q - 1))).toBeLessThan(0.02);
+    // measured 0.37108 against 2^q − 1 = 0.37129 (the fitted q is 0.45541 over the finest four levels): the
+    // halving between the levels 0.5 and 0.25; 0.005 leaves room for the level-to-level wobble of the peak
+    expect(Math.abs(a.halvingIncrease! - (2 ** q - 1))).toBeLessThan(0.005);
     expect(a.readouts!.some((x) => x.name.startsWith('stress at r = 0.5'))).toBe(true);
   });
 
