@@ -230,7 +230,7 @@ export function assessReported(r: ReportedValue, site: SiteResult, distance: num
     try {
       const v = ctx.ownSolve(r.size, r.order);
       const band = Math.max(Math.abs(ctx.ownSolve(r.size / f, r.order) - v), Math.abs(ctx.ownSolve(r.size * f, r.order) - v));
-      ours = { value: v, band, from: 'own solve', order: r.order };
+      ours = { value: v, band, from: 'own solve', order: r.order, allowed: band + R.tolerance * Math.abs(v) };
     } catch (e) {
       // a solve the limits refuse (dof cap, factor memory) or a mesh that fails: said, not thrown
       if (!isPeakwiseError(e)) throw e;
@@ -239,12 +239,13 @@ export function assessReported(r: ReportedValue, site: SiteResult, distance: num
   } else {
     const at = bandedValueAtSize(site, r.size, ctx.order, L);
     if ('refused' in at) return { ...base, words: `not compared: ${at.refused}` };
-    ours = { value: at.value, band: at.band ?? 0, from: at.from, order: ctx.order };
+    const band = at.band ?? 0;
+    ours = { value: at.value, band, from: at.from, order: ctx.order, allowed: band + R.tolerance * Math.abs(at.value) };
     warning = at.warning;
   }
   const diff = r.value - ours.value;
   const scale = Math.max(Math.abs(ours.value), Number.MIN_VALUE);
-  const limit = ours.band + R.tolerance * scale;
+  const limit = ours.allowed;
   const withOurs = {
     ...base, ours, difference: diff / scale, ...(warning ? { warning } : {}),
   };

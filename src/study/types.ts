@@ -139,7 +139,11 @@ export interface ReportedAssessment {
   /** the stated tolerance beyond our band before the models differ (fraction) */
   tolerance: number;
   /** our value at the same element size with its band, and where it came from */
-  ours?: { value: number; band: number; from: 'ladder' | 'extrapolated' | 'own solve'; order: 1 | 2 };
+  ours?: {
+    value: number; band: number; from: 'ladder' | 'extrapolated' | 'own solve'; order: 1 | 2;
+    /** the comparison's half-width: band + tolerance × |value|; further apart, the models differ */
+    allowed: number;
+  };
   /** (reported − ours at that size) / |ours| */
   difference?: number;
   /** set when our value at that size was extrapolated beyond the ladder */
