@@ -71,7 +71,8 @@ describe('Kirsch plate (Kirsch 1898: σθ = 3S at (0, ±a)), exact Kirsch bounda
     const value = peakNear(cst, [0, 1], 0.3);
     const model: Model = { ...plate.model, reported: [rep([0, 1], value, size, { order: 1 }, 0), rep([0, -1], value, size, {}, 1)] };
     const r = runStudy(model);
-    console.log(`CST at ${size}: ${value.toFixed(2)}; ${r.reported!.map((a) => `${a.finding} (ours ${a.ours?.value.toFixed(2)} ± ${a.ours?.band.toFixed(2)}, ${a.ours?.from})`).join('; ')}`);
+    // measured: the CST run gives 272.75; our own CST solve at 0.2 gives 262.35 ± 8.00 (allowed ± 21.1),
+    // the LST ladder 294.32 ± 3.20 there (allowed ± 17.9): 21.6 apart
     expect(r.reported![0].finding).not.toBe('models-differ');
     expect(r.reported![0].ours!.from).toBe('own solve');
     expect(r.reported![1].finding).toBe('models-differ');
@@ -85,26 +86,31 @@ describe('a demo fed back: the lamp-rail hanger (models/l-bracket-sharp.yaml)', 
   const study = runStudy(demo, { levels });
   const base = baseSizeField(problemOf(demo));
   // peakwise's own coarse run at the model's settings: the peak near each site and the element size there
-  const coarse = solveProblem(problemOf(demo));
-  const fedBack = (scale: number): ReportedValue[] => study.sites.map((s, i) => {
-    const others = study.sites.filter((o) => o !== s).map((o) => Math.hypot(o.at[0] - s.at[0], o.at[1] - s.at[1]));
-    const radius = Math.min(2 * base(s.at[0], s.at[1]), 0.5 * Math.min(...others));
-    return rep(s.at, scale * peakNear(coarse, s.at, radius), base(s.at[0], s.at[1]), { label: `coarse ${s.id}` }, i);
-  });
+  const fedBack = (model: Model): ReportedValue[] => {
+    const coarse = solveProblem(problemOf(model));
+    return study.sites.map((s, i) => {
+      const others = study.sites.filter((o) => o !== s).map((o) => Math.hypot(o.at[0] - s.at[0], o.at[1] - s.at[1]));
+      const radius = Math.min(2 * base(s.at[0], s.at[1]), 0.5 * Math.min(...others));
+      return rep(s.at, peakNear(coarse, s.at, radius), base(s.at[0], s.at[1]), { label: `coarse ${s.id}` }, i);
+    });
+  };
 
   it('its own coarse run, with its sizes, is consistent (inside band + tolerance) at every site', () => {
-    const r = runStudy({ ...demo, reported: fedBack(1) }, { levels });
+    const r = runStudy({ ...demo, reported: fedBack(demo) }, { levels });
     expect(r.sites.map((s) => s.id)).toEqual(study.sites.map((s) => s.id));
     for (const a of r.reported!) {
       expect(a.finding, a.words).not.toBe('models-differ');
       expect(a.site).toBe(a.label!.slice('coarse '.length));
       expect(Math.abs(a.value - a.ours!.value)).toBeLessThanOrEqual(a.ours!.band + OTHER_ANALYSIS_RULES.tolerance * Math.abs(a.ours!.value));
     }
-    console.log(r.reported!.map((a) => `${a.site} ${a.finding} diff ${(100 * a.difference!).toFixed(2)} % band ${(100 * a.ours!.band / a.ours!.value).toFixed(2)} %`).join('\n'));
+    // measured differences (band): S1 −0.01 % (0.03 %), S2 0.19 % (6.8 %), S3 −3.4 % (10.7 %), S4 −0.01 % (0.01 %),
+    // S5 2.9 % (6.6 %), S6 0.37 % (0.25 %): the coarse run's mesh is not the ladder's first level (no rosettes)
   });
 
   it('the same values from a model with a 20 % larger load: the models differ', () => {
-    const r = runStudy({ ...demo, reported: fedBack(1.2) }, { levels });
+    // the hanger's end shear tau = 6 MPa raised by 20 %, solved coarse like the run above
+    const heavier = parseModel(readFileSync(file, 'utf8'), file, { params: { tau: 7.2 } });
+    const r = runStudy({ ...demo, reported: fedBack(heavier) }, { levels });
     for (const a of r.reported!) expect(a.finding, a.words).toBe('models-differ');
     expect(r.reported![0].words).toMatch(/^the models differ at this spot/);
   });
