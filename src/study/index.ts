@@ -25,3 +25,4 @@ export { intensityNorm, reciprocalIntensity, singularTerm, type IntensitySetup, 
 export {
   assessReported, bandedValueAtSize, matchReported, unmatchedPoints, valueAtSize, OTHER_ANALYSIS_RULES, type AssessContext, type OwnSolve, type ValueAtSize,
 } from './other-analysis.js';
+export { atSupportEnd, isCrackLike, siteAdvice, withCauseAdvice } from './advice.js';

@@ -19,10 +19,11 @@ import { boundaryEdgesAt } from './mesh-tools.js';
 import { reportedSites } from './reported.js';
 import { reportedPosition, siteProbe, siteReadouts, withPlateauExtent } from './site-readouts.js';
 import { selectorWarnings } from '../fem/index.js';
-import { assessReported, matchReported, unmatchedPoints, OTHER_ANALYSIS_RULES } from './other-analysis.js';
+import { assessReported, matchReported, unmatchedPoints } from './other-analysis.js';
 import type { ReportedAssessment } from './types.js';
 import type { Problem } from '../pipeline/index.js';
 import type { ReportedValue } from '../model/types.js';
+import { withCauseAdvice } from './advice.js';
 
 export interface StudyOptions {
   levels?: number;
@@ -185,7 +186,7 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
     const r = toSiteResult(`S${i + 1}`, c, perSite[i], ratio, order, probes[i], stress, model.units.length, stopped, farShift[i], farShiftK[i]);
     return finest ? withPlateauExtent(r, c, finest.mesh, finest.nodal) : r;
   });
-  const sites: SiteResult[] = reportedSites(perSiteResults, { scale: geom.scale, yieldStress: model.material.yield });
+  const sites: SiteResult[] = reportedSites(perSiteResults, { scale: geom.scale, yieldStress: model.material.yield }).map(withCauseAdvice);
   const reported = reportedValues.length > 0 && !interrupted
     ? judgeReported(reportedValues, reportedAt, cands, sites, base, added, { problem, order, limits, measure, stress, length: model.units.length, probes, section })
     : undefined;
