@@ -11,7 +11,9 @@ import type { Model, Point } from '../model/types.js';
 import type { Mesh } from '../mesh/types.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { NodalStress } from '../recovery/types.js';
-import { compareCut, openingCut, parseCutSpec, cutCsv, resolveCompare, sampleCut, type CutTable } from '../sweep/cut.js';
+import { compareCut, cutColumn, openingCut, overlayOtherCut, parseCutSpec, cutCsv, resolveCompare, sampleCut, OTHER_CUT_COLUMNS, type CutTable, type OtherCutColumn } from '../sweep/cut.js';
+import { readFileSync } from 'node:fs';
+import { CsvError, readCsv } from '../model/csv.js';
 import { writeFileAtomic } from './io.js';
 import { capitalise, type CutPlotInput, type CutSeries } from '../report/index.js';
 import { stressUnit } from '../model/index.js';
@@ -26,6 +28,8 @@ export interface CutCliOptions {
   centre?: string;
   innerPressure?: string;
   outerPressure?: string;
+  /** results along the same cut from another analysis: a CSV with x, y and one stress column */
+  cutOther?: string;
 }
 
 /** Adds --cut and the comparison options to a command. */
@@ -39,7 +43,8 @@ export function registerCutOptions(cmd: Command): Command {
     .option('--outer-radius <b>', 'outer radius for --compare lame; default: a circular outline')
     .option('--centre <x,y>', 'centre of the hole or ring; default: the opening')
     .option('--inner-pressure <p>', 'internal pressure for --compare lame (default: the model\'s pressure on that opening)')
-    .option('--outer-pressure <q>', 'external pressure for --compare lame (default: the model\'s pressure on the outline)');
+    .option('--outer-pressure <q>', 'external pressure for --compare lame (default: the model\'s pressure on the outline)')
+    .option('--cut-other <file.csv>', `results along the cut from another analysis (columns x, y and one of ${OTHER_CUT_COLUMNS.join(', ')}): drawn on the cut plot and written to cut.csv with the difference`);
 }
 
 function num(text: string | undefined, option: string): number | undefined {
@@ -60,8 +65,10 @@ function point(text: string | undefined, option: string): Point | undefined {
 export function checkCutOptions(opts: CutCliOptions): void {
   if (opts.cut === undefined) {
     if (opts.compare !== undefined) throw new PeakwiseError('usage', '--compare needs --cut');
+    if (opts.cutOther !== undefined) throw new PeakwiseError('usage', '--cut-other needs --cut');
     return;
   }
+  if (opts.cutOther !== undefined) readOtherCut(opts.cutOther);
   parseCutSpec(opts.cut);
   num(opts.remote, '--remote');
   num(opts.loadAngle, '--load-angle');
@@ -94,7 +101,44 @@ export function cutTable(opts: CutCliOptions, input: { model: Model; mesh: Mesh;
     if (c.kind === 'inglis' && spec.kind !== 'opening') throw new PeakwiseError('usage', '--compare inglis gives the stress on the hole edge only: use --cut opening:<id>');
     table = compareCut(table, c);
   }
+  if (opts.cutOther !== undefined) {
+    const other = readOtherCut(opts.cutOther);
+    // a point of the other analysis may sit up to 1 % of the cut's length off it (its own mesh's nodes)
+    const length = table.samples.length > 0 ? table.samples[table.samples.length - 1].s - table.samples[0].s : 0;
+    table = overlayOtherCut(table, other.points, other.column, opts.cutOther, 0.01 * length);
+  }
   return table;
+}
+
+/** The other analysis's results along the cut: a CSV with a header naming x, y and one stress column. */
+export function readOtherCut(file: string): { column: OtherCutColumn; points: { x: number; y: number; value: number; line: number }[] } {
+  let text: string;
+  try {
+    text = readFileSync(file, 'utf8');
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    throw new PeakwiseError('io', `--cut-other ${file}: ${code === 'ENOENT' ? 'no such file' : `cannot be read (${code ?? 'unknown error'})`}`);
+  }
+  try {
+    const t = readCsv(text, file);
+    if (!t.header) throw new CsvError(`${file}: the first row must be a header naming x, y and one stress column (${OTHER_CUT_COLUMNS.join(', ')})`);
+    const header = t.header;
+    const ix = header.indexOf('x'), iy = header.indexOf('y');
+    const stress = header.filter((h) => (OTHER_CUT_COLUMNS as readonly string[]).includes(h));
+    if (ix < 0 || iy < 0 || stress.length !== 1 || header.length !== 3) {
+      throw new CsvError(`${file}: expected the columns x, y and one stress column (${OTHER_CUT_COLUMNS.join(', ')}), got ${header.map((h) => `'${h}'`).join(', ')}`);
+    }
+    const column = stress[0] as OtherCutColumn;
+    const iv = header.indexOf(column);
+    const points = t.rows.map((r) => {
+      if (r.values.length !== 3) throw new CsvError(`${file}:${r.line}: the row has ${r.values.length} fields, expected 3`);
+      return { x: r.values[ix], y: r.values[iy], value: r.values[iv], line: r.line };
+    });
+    return { column, points };
+  } catch (e) {
+    if (e instanceof CsvError) throw new PeakwiseError('usage', e.message);
+    throw e;
+  }
 }
 
 /**
@@ -111,7 +155,7 @@ export function writeCutOutputs(
   const table = cutTable(opts, input);
   if (!table) return undefined;
   const file = join(outDir, 'cut.csv');
-  writeFileAtomic(file, cutCsv(table, { length: input.model.units.length, stress: stressUnit(input.model.units) }), protect);
+  writeFileAtomic(file, cutCsv(table, { length: input.model.units.length, stress: stressUnit(input.model.units) }), opts.cutOther !== undefined ? [...protect, opts.cutOther] : protect);
   return { file, plot: cutPlotOf(table, opts, input.model) };
 }
 
@@ -124,6 +168,15 @@ export function cutPlotOf(table: CutTable, opts: CutCliOptions, model: Model): C
   const what = onEdge ? 'tangential stress' : 'von Mises stress';
   const series: CutSeries[] = [{ label: `peakwise ${what}`, values: fe }];
   if (ref) series.push({ label: `${opts.compare ?? 'closed form'} ${what}`, values: ref, reference: true });
+  // results of another analysis along the same cut (issue 15 §5), beside peakwise's value of that column
+  const otherKey = Object.keys(table.extra).find((k) => k.startsWith('other_'));
+  if (otherKey) {
+    const column = otherKey.slice('other_'.length) as OtherCutColumn;
+    const plotted = onEdge ? 'tangential' : 'von_mises';
+    const name = column.replace('_', ' ');
+    if (column !== plotted) series.push({ label: `peakwise ${name}`, values: cutColumn(table, column) });
+    series.push({ label: `another analysis ${name}`, values: table.extra[otherKey], other: true });
+  }
   return {
     title: `${capitalise(what)} along ${opts.cut ?? 'the cut'}`,
     s: table.samples.map((p) => p.s),

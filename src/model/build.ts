@@ -19,6 +19,7 @@ import { DEFAULT_UNITS, PLAUSIBLE_E_MPA, PLAUSIBLE_THICKNESS_MM, lengthToMm, str
 import { bodyLoad, physicalConstants, type PhysicalConstants } from './body-loads.js';
 import { levelsRule, ratioRule } from './study-rules.js';
 import { buildCases, buildCombinations } from './cases.js';
+import { buildReported } from './reported-values.js';
 
 /** Largest number accepted anywhere: beyond it the value is a slip, not a plate. */
 export const MAX_MAGNITUDE = 1e15;
@@ -437,6 +438,9 @@ export function buildModel(
     study,
     sourceMap: valueAt,
   };
+  // a reported value's case names a case or combination of the model (IMPLICIT_CASE without cases)
+  const reported = buildReported(b, raw.reported, study.measure, model.cases ? [...model.cases.map((c) => c.name), ...(model.combinations ?? []).map((c) => c.name)] : []);
+  if (reported) model.reported = reported;
   if (b.warnings.length > 0) model.warnings = b.warnings;
   return model;
 }

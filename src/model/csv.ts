@@ -21,7 +21,7 @@ export interface CsvTable {
   rows: { line: number; values: number[] }[];
 }
 
-function splitFields(line: string): string[] {
+export function splitFields(line: string): string[] {
   const sep = line.includes(',') ? ',' : line.includes(';') ? ';' : line.includes('\t') ? '\t' : /\s+/;
   return line.split(sep).map((f) => f.trim().replace(/^"(.*)"$/, '$1').trim());
 }
@@ -45,6 +45,12 @@ function notDecimal(text: string): string | undefined {
   if (/^[\d.]*_[\d._]*(?:e[+-]?\d+)?$/i.test(t) && /\d/.test(t)) return 'a number with _ separators; write it without them';
   if (/^(?:infinity|inf|nan)$/i.test(t)) return 'not a finite number';
   return undefined;
+}
+
+/** A cell as a plain decimal number, or the reason it is not one (for tables that mix text and numbers). */
+export function decimalCell(text: string): number | { reason: string } {
+  if (isNumber(text)) return Number(text);
+  return { reason: notDecimal(text) ?? 'not a number' };
 }
 
 export function readCsv(text: string, file: string): CsvTable {

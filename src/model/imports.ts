@@ -38,6 +38,11 @@ function read(readFile: ReadFile | undefined, file: string): string {
   return text;
 }
 
+/** The text of a file the model refers to (its errors as ImportError, naming the file). */
+export function readImportedText(readFile: ReadFile | undefined, file: string): string {
+  return read(readFile, file);
+}
+
 function wrap<T>(f: () => T): T {
   try {
     return f();

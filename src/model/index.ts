@@ -12,3 +12,4 @@ export { boundingBox, shapeArea, MAX_ESTIMATED_TRIANGLES, MAX_MAGNITUDE, DEFAULT
 export { MAX_ALIAS_COUNT, MAX_MODEL_CHARS } from './source.js';
 export { STUDY_LEVELS, STUDY_RATIO, levelsRule, ratioRule } from './study-rules.js';
 export { IMPLICIT_CASE, linearForm, loadCasesOf, hasCases } from './cases.js';
+export { buildReported, reportedCaseRule, reportedTable } from './reported-values.js';

@@ -333,6 +333,44 @@ const StudyLike = mapping(
   'study settings { measure, levels, ratio, sites, readouts }',
 );
 
+// --- reported values from another analysis (issue 15; docs/model-format.md, "reported") ---
+
+/** Columns of a reported-values CSV (`reported: [ { table: file.csv } ]`); the first four are required. */
+export const REPORTED_COLUMNS = ['x', 'y', 'value', 'size', 'measure', 'case', 'label', 'order'] as const;
+
+/**
+ * One value another analysis reported at a spot: `{ at, value, size, measure?, case?, label?, order? }`,
+ * or `{ table: file.csv }` holding rows of them.
+ */
+const ReportedLike = mapping(
+  {
+    at: PointLike.optional(),
+    value: NumberLike.optional(),
+    size: NumberLike.optional(),
+    measure: word(MEASURES).optional(),
+    case: z.string({ error: expected('the name of a load case or combination') }).min(1, { error: () => 'expected a case name, got an empty text' }).optional(),
+    label: z.string({ error: expected('a label (text, e.g. the run id)') }).optional(),
+    order: NumberLike.optional(),
+    table: FileName.optional(),
+  },
+  'a reported value { at: [x, y], value, size, measure, case, label, order } or { table: file.csv }',
+).superRefine((value, ctx) => {
+  if (value.table !== undefined) {
+    const extra = (['at', 'value', 'size', 'measure', 'case', 'label', 'order'] as const).find((k) => value[k] !== undefined);
+    if (extra) ctx.addIssue({ code: 'custom', message: `${extra} goes in the table's columns; an entry with table: holds nothing else`, path: [extra] });
+    return;
+  }
+  const missing = (['at', 'value', 'size'] as const).filter((k) => value[k] === undefined);
+  if (missing.length > 0) {
+    ctx.addIssue({ code: 'custom', message: `a reported value needs ${missing.join(', ')} (at: [x, y], value, size: the element size there), or table: file.csv`, path: [] });
+  }
+});
+
+const ReportedList = z.array(ReportedLike, { error: expected('a list of reported values { at, value, size } or { table: file.csv }') })
+  .min(1, { error: () => 'expected at least one reported value; leave the key out when there is none' });
+
+// --- end of reported values ---
+
 export const STATES = ['plane-stress', 'plane-strain'] as const;
 
 export const ModelFileSchema = mapping(
@@ -363,6 +401,7 @@ export const ModelFileSchema = mapping(
     combinations: CombinationsLike.optional(),
     mesh: MeshLike.optional(),
     study: StudyLike.optional(),
+    reported: ReportedList.optional(),
   },
   'a model mapping',
 );

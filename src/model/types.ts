@@ -216,6 +216,26 @@ export interface ModelWarning {
   message: string;
 }
 
+/**
+ * A value another analysis reported at a spot (issue 15; docs/other-analysis.md): its peak of `measure`
+ * at `at`, with its typical element edge length `size` there.
+ */
+export interface ReportedValue {
+  at: Point;
+  value: number;
+  /** the other mesh's typical element edge length at `at` */
+  size: number;
+  measure: StressMeasure;
+  /** load case or combination the value belongs to (absent: the model's loads) */
+  case?: string;
+  /** free label, e.g. the other run's id */
+  label?: string;
+  /** element order of the other analysis (1: linear, 2: quadratic); compared with peakwise's own solve of that order */
+  order?: 1 | 2;
+  /** where it was written: `reported[2]` or `reported[0] (other.csv:5)` */
+  keyPath: string;
+}
+
 export interface Model {
   title: string;
   /** file the model was read from ('' when built in code) */
@@ -239,6 +259,8 @@ export interface Model {
   combinations?: Combination[];
   mesh: MeshSettings;
   study: StudySettings;
+  /** values another analysis reported (`reported`), when the file lists any */
+  reported?: ReportedValue[];
   /** key path (`loads[1].where`) → 1-based position of that key's value in the file */
   sourceMap: Record<string, SourcePosition>;
   /** hints the CLI prints on stderr (e.g. E that looks like it is in other units) */

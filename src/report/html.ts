@@ -9,6 +9,7 @@ import type { SiteResult, StudyResult } from '../study/types.js';
 import { contourSvg } from './contour.js';
 import { plotCss } from './css.js';
 import { convergencePlotSvg, cutPlotSvg, type CutPlotInput } from './plot.js';
+import { reportedSectionHtml } from './other-analysis.js';
 import { escapeXml, formatFixed, formatNumber, safeId } from './text.js';
 import { singularMaxWarning } from './singular-max.js';
 import {
@@ -28,7 +29,7 @@ export interface ReportCheck {
 }
 
 /** What the report shows of a run: a study's result, or one solve's figures with `sites: []`. */
-export type ReportRun = Pick<StudyResult, 'version' | 'model' | 'units' | 'mesh' | 'solution' | 'measure' | 'sites' | 'warnings' | 'yieldStress' | 'cases' | 'envelope'>;
+export type ReportRun = Pick<StudyResult, 'version' | 'model' | 'units' | 'mesh' | 'solution' | 'measure' | 'sites' | 'warnings' | 'yieldStress' | 'cases' | 'envelope' | 'reported'>;
 
 export interface ReportInput {
   model: Model;
@@ -308,7 +309,7 @@ function verdictTable(ctx: PageContext, sites: readonly SiteResult[], governs: b
 }
 
 function verdictsSection(ctx: PageContext): string {
-  const { study } = ctx;
+  const { study, sectionIds } = ctx;
   const envelope = study.envelope !== undefined;
   const lead = envelope
     ? `<p class="legend-text">${escapeXml(`The envelope of the load cases and combinations: each site as its governing case or combination gives it (the envelope table below compares them).`)}</p>`
@@ -317,7 +318,7 @@ function verdictsSection(ctx: PageContext): string {
 ${lead}${verdictTable(ctx, study.sites, envelope, true)}
 <p class="legend-text">${escapeXml(VERDICTS_LEGEND)}</p>
 <p class="legend-text">${escapeXml(READOUTS_LEGEND)}</p>
-</section>${envelope ? `\n${envelopeSection(ctx)}\n${casesSection(ctx)}` : ''}`;
+</section>${reportedSectionHtml(study, (id) => sectionIds[Math.max(0, study.sites.findIndex((s) => s.id === id))] ?? '')}${envelope ? `\n${envelopeSection(ctx)}\n${casesSection(ctx)}` : ''}`;
 }
 
 /** What the envelope compares, under its table. */
@@ -429,7 +430,7 @@ function siteSection(ctx: PageContext, s: SiteResult, i: number): string {
     `<p class="why"><b>Why:</b> ${escapeXml(s.reason)}</p>` +
     (siteAdvice(s) ? `<p class="advice"><b>Next step:</b> ${escapeXml(siteAdvice(s) ?? '')}</p>` : '') +
     siteFacts(s, ctx) +
-    `<div class="site-figures"><figure class="plot">${convergencePlotSvg(s, { units: S, lengthUnit: L, measure })}</figure>` +
+    `<div class="site-figures"><figure class="plot">${convergencePlotSvg(s, { units: S, lengthUnit: L, measure, reported: (ctx.study.reported ?? []).filter((a) => a.site === s.id) })}</figure>` +
     `<figure class="inset">${siteInset(ctx, s, i)}</figure></div>` +
     levelsTable(s, L, S) +
     `</section>`

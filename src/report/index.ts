@@ -20,3 +20,4 @@ export { CAUTION, BAND_LABEL, SITE_DETECTION, bandText, capitalise, featureLabel
 export { formatBand } from './text.js';
 export { singularMaxWarning, singularPoints, type SingularPoint } from './singular-max.js';
 export type { Box } from './draw.js';
+export { reportedCell, reportedLines, reportedSectionHtml, reportedShort, REPORTED_CAUTION } from './other-analysis.js';

@@ -4,7 +4,7 @@
  * the fit used, the theory slope as a dashed reference and, for a converging site, the
  * extrapolated value with its uncertainty band.
  */
-import type { SiteResult } from '../study/types.js';
+import type { ReportedAssessment, SiteResult } from '../study/types.js';
 import { VERDICT_RULES } from '../study/verdict.js';
 import { c1, niceTicks } from './draw.js';
 import { escapeXml, formatFixed, formatNumber } from './text.js';
@@ -23,6 +23,8 @@ export interface ConvergencePlotOptions {
    * undecided one, whose growth exponent comes from that window; all when fewer)
    */
   fitLevels?: number;
+  /** values another analysis reported at this site (issue 15): a marker each at (size, value) */
+  reported?: readonly Pick<ReportedAssessment, 'size' | 'value' | 'label' | 'keyPath' | 'finding'>[];
 }
 
 const FONT = "system-ui, -apple-system, 'Segoe UI', Roboto, sans-serif";
@@ -31,6 +33,7 @@ const POINT = '#3b3b98';
 const FIT = '#d9480f';
 const THEORY = '#52606d';
 const BAND = '#2b8a3e';
+const REPORTED = '#c2255c';
 
 /** One axis: value → pixel, either logarithmic (all values > 0) or linear. */
 interface Axis {
@@ -204,7 +207,9 @@ export function convergencePlotSvg(site: SiteResult, opts: ConvergencePlotOption
   const used = Math.min(levels.length, Math.max(2, opts.fitLevels ?? studyWindow));
   const fitSet = levels.slice(-used);
   const hFit0 = Math.max(...fitSet.map((l) => l.h)), hFit1 = Math.min(...fitSet.map((l) => l.h));
-  const hMax = Math.max(...hs), hMin = Math.min(...hs);
+  const reported = (opts.reported ?? []).filter((r) => r.size > 0 && Number.isFinite(r.value));
+  const hAll = [...hs, ...reported.map((r) => r.size)];
+  const hMax = Math.max(...hAll), hMin = Math.min(...hAll);
   const finest = levels[levels.length - 1];
   const converging = site.verdict === 'converging';
   const est = site.estimate;
@@ -239,7 +244,7 @@ export function convergencePlotSvg(site: SiteResult, opts: ConvergencePlotOption
       ? [hMax, hMin].map((h) => [h, finest.peak * (h / finest.h) ** -theory] as [number, number])
       : [];
 
-  const yValues = [...peaks, ...fitCurve.map((p) => p[1]), ...theoryLine.map((p) => p[1])];
+  const yValues = [...peaks, ...fitCurve.map((p) => p[1]), ...theoryLine.map((p) => p[1]), ...reported.map((r) => r.value)];
   const band = converging && Number.isFinite(est.value) && Number.isFinite(est.uncertainty);
   if (band) yValues.push(est.value - Math.abs(est.uncertainty), est.value + Math.abs(est.uncertainty));
   const allowLogY = yValues.every((v) => v > 0);
@@ -278,6 +283,14 @@ export function convergencePlotSvg(site: SiteResult, opts: ConvergencePlotOption
     );
   });
 
+  // reported values: a diamond of their own at (size, value)
+  const diamond = (x: number, y: number, r: number) => `M${c1(x)} ${c1(y - r)}L${c1(x + r)} ${c1(y)}L${c1(x)} ${c1(y + r)}L${c1(x - r)} ${c1(y)}Z`;
+  for (const r of reported) {
+    parts.push(
+      `<path class="reported-marker" data-finding="${escapeXml(r.finding)}" d="${diamond(axH.at(r.size), ayMain.at(r.value), 5.5)}" fill="${REPORTED}" fill-opacity="0.85" stroke="#fff" stroke-width="1"><title>${escapeXml(`${r.label ?? r.keyPath}: ${formatNumber(r.value)} ${units} at h = ${formatNumber(r.size)}${L ? ` ${L}` : ''}`)}</title></path>`,
+    );
+  }
+
   // legend and labels under the main panel
   const ly = main.y + main.h + 50;
   const slope = slopeLabel(site);
@@ -293,6 +306,10 @@ export function convergencePlotSvg(site: SiteResult, opts: ConvergencePlotOption
       (band
         ? `<rect x="${main.x}" y="${ly + 22}" width="18" height="9" fill="${BAND}" fill-opacity="0.2" stroke="${BAND}" stroke-width="0.8"/>` +
           `<text class="estimate-label" x="${main.x + 24}" y="${ly + 31}">${escapeXml(`extrapolated ${bandText(est.value, est.uncertainty, units)} (${BAND_LABEL})`)}</text>`
+        : '') +
+      (reported.length > 0
+        ? `<path d="${diamond(main.x + 300, ly - 4, 5)}" fill="${REPORTED}" fill-opacity="0.85"/>` +
+          `<text class="reported-label" x="${main.x + 310}" y="${ly}">${escapeXml(reported.length === 1 ? 'reported by another analysis' : `${reported.length} values reported by another analysis`)}</text>`
         : '') +
       `</g>`,
   );
@@ -328,6 +345,8 @@ export interface CutSeries {
   values: ArrayLike<number>;
   /** drawn dashed (a closed-form reference) */
   reference?: boolean;
+  /** results of another analysis: drawn as markers joined by a thin line (issue 15 §5) */
+  other?: boolean;
 }
 
 export interface CutPlotInput {
@@ -368,6 +387,25 @@ export function cutPlotSvg(input: CutPlotInput): string {
       if (!Number.isFinite(v) || !Number.isFinite(s[i])) { pen = false; continue; }
       d += `${pen ? 'L' : 'M'}${c1(ax.at(s[i]))} ${c1(ay.at(v))}`;
       pen = true;
+    }
+    if (ser.other) {
+      const col = REPORTED;
+      parts.push(`<path class="other-line" d="${d}" fill="none" stroke="${col}" stroke-width="1" stroke-dasharray="2 2"/>`);
+      const lx = panel.x + (k % 2) * 240, ly = H - 22 + Math.floor(k / 2) * 14;
+      parts.push(
+        `<path d="M${lx + 11} ${ly - 8}L${lx + 15} ${ly - 4}L${lx + 11} ${ly}L${lx + 7} ${ly - 4}Z" fill="${col}"/>`,
+        `<text x="${lx + 28}" y="${ly}" font-size="10.5" fill="${INK}">${escapeXml(ser.label)}</text>`,
+      );
+      // a marker at every sample where the other analysis has a value, thinned to about 40
+      const have = [];
+      for (let i = 0; i < s.length && i < ser.values.length; i++) if (Number.isFinite(ser.values[i])) have.push(i);
+      const step = Math.max(1, Math.ceil(have.length / 40));
+      for (let j = 0; j < have.length; j += step) {
+        const i = have[j];
+        const X = ax.at(s[i]), Y = ay.at(ser.values[i]);
+        parts.push(`<path class="other-marker" d="M${c1(X)} ${c1(Y - 3.5)}L${c1(X + 3.5)} ${c1(Y)}L${c1(X)} ${c1(Y + 3.5)}L${c1(X - 3.5)} ${c1(Y)}Z" fill="${col}"/>`);
+      }
+      return;
     }
     parts.push(`<path d="${d}" fill="none" stroke="${colour}" stroke-width="${ser.reference ? 1.3 : 1.6}"${ser.reference ? ' stroke-dasharray="5 3"' : ''}/>`);
     const lx = panel.x + (k % 2) * 240, ly = H - 22 + Math.floor(k / 2) * 14;

@@ -9,6 +9,7 @@ import type { Mesh } from '../mesh/types.js';
 import type { Model, Point } from '../model/types.js';
 import type { StudyResult, Verdict } from '../study/types.js';
 import { singularMaxWarning } from './singular-max.js';
+import { reportedCell, reportedLines } from './other-analysis.js';
 import { formatNumber, formatPoint, stripControl } from './text.js';
 import {
   BAND_LABEL, CAUTION, aboveYieldNote, atSupportEnd, featureLabel, isCrackLike, siteAdvice, siteReadout, siteValue, siteWhere,
@@ -82,7 +83,9 @@ export function studyTable(study: StudyResult, options: TerminalOptions): string
   const units = study.units;
   // with load cases: the envelope (a column names each site's governing case), or one case (--case)
   const envelope = study.envelope !== undefined;
-  const header = ['site', 'where', 'feature', 'verdict', ...(envelope ? ['governs'] : []), `value ± ${BAND_LABEL}`, 'readouts'];
+  // a column of reported values (issue 15) when the model lists any; readouts stay last
+  const withReported = (study.reported ?? []).length > 0;
+  const header = ['site', 'where', 'feature', 'verdict', ...(envelope ? ['governs'] : []), `value ± ${BAND_LABEL}`, ...(withReported ? ['reported'] : []), 'readouts'];
   const rows: string[][] = [header];
   for (const site of study.sites) {
     const verdict = stripControl(site.verdict);
@@ -93,6 +96,7 @@ export function studyTable(study: StudyResult, options: TerminalOptions): string
       verdictColour(c, site.verdict)(verdict),
       ...(envelope ? [c.bold(stripControl(site.case ?? ''))] : []),
       siteValue(site, units.stress),
+      ...(withReported ? [reportedCell(study, site.id) || '—'] : []),
       siteReadout(site, units),
     ]);
   }
@@ -114,6 +118,8 @@ export function studyTable(study: StudyResult, options: TerminalOptions): string
     lines.push(c.dim(READOUT_KEY));
   }
   lines.push(...siteNotes(study, c));
+  const rep = reportedLines(study);
+  if (rep.length > 0) lines.push('', ...rep);
   lines.push('');
   lines.push(c.dim(CAUTION));
   return lines.join('\n') + '\n';

@@ -22,5 +22,8 @@ export { runStudy, type StudyOptions, type BaseSolve } from './run.js';
 export { reportedSites, roundToScale, isAboveYield } from './reported.js';
 export { intensityBand, siteProbe, siteReadouts, reportedPosition, withPlateauExtent, DEFAULT_READOUT_FRACTION } from './site-readouts.js';
 export { intensityNorm, reciprocalIntensity, singularTerm, type IntensitySetup, type IntensityNorm } from './stress-intensity.js';
+export {
+  assessReported, bandedValueAtSize, matchReported, unmatchedPoints, valueAtSize, OTHER_ANALYSIS_RULES, type AssessContext, type OwnSolve, type ValueAtSize,
+} from './other-analysis.js';
 export { atSupportEnd, isCrackLike, siteAdvice, withCauseAdvice } from './advice.js';
 export { mergeSiteLists, designValue, envelopeOf, envelopeSites, caseStudyResult, caseNames, peakOnRim, SIGNED_MEASURES, EDGE_FRACTION } from './cases.js';

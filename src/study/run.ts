@@ -11,8 +11,8 @@ import { buildPointLocator } from '../recovery/index.js';
 import { baseSizeField, problemOf, solveAt, type LoadSetLevel, type SolveLimits, type SolvedLevel } from '../pipeline/index.js';
 import type { CaseStudy, LevelResult, SiteResult, StudyResult } from './types.js';
 import { envelopeOf, envelopeSites, mergeSiteLists, peakOnRim } from './cases.js';
-import { findSites, listedSitePoints, type SiteCandidate } from './sites.js';
-import { levelSizeField, probeLevel, rosettePoints, NEIGHBOURHOOD_SIZES, type SiteProbe } from './ladder.js';
+import { findSites, listedSitePoints, snapSitePoint, type SiteCandidate } from './sites.js';
+import { levelSizeField, probeLevel, rosettePoints, LADDER_GRADING, NEIGHBOURHOOD_SIZES, type SiteProbe } from './ladder.js';
 import { judgeSite } from './verdict.js';
 import { BAND_RULES } from './band.js';
 import { coarsenedOuterField } from './far-field.js';
@@ -20,6 +20,10 @@ import { boundaryEdgesAt } from './mesh-tools.js';
 import { reportedSites } from './reported.js';
 import { reportedPosition, siteProbe, siteReadouts, withPlateauExtent } from './site-readouts.js';
 import { bodyFields, combineBodyFields, selectorWarnings } from '../fem/index.js';
+import { assessReported, matchReported, unmatchedPoints } from './other-analysis.js';
+import type { ReportedAssessment } from './types.js';
+import type { Problem } from '../pipeline/index.js';
+import type { ReportedValue } from '../model/types.js';
 import { withCauseAdvice } from './advice.js';
 
 export interface StudyOptions {
@@ -112,6 +116,10 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   ];
   // the listed sites are vertices of every mesh, the first included (the selector ends are already)
   const listed = listedSitePoints(model, geom, problem.requiredPoints);
+  // values another analysis reported (issue 15): their points are vertices of the first mesh, so one far
+  // from every found site can be studied where it is
+  const reportedValues = model.reported ?? [];
+  const reportedAt = reportedValues.map((r) => reportedPoint(geom, r, problem.requiredPoints));
   const warnings = selectorWarnings(model, geom);
   const base = baseSizeField(problem);
   const limits: SolveLimits = opts.limits ?? {};
@@ -120,12 +128,14 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const progress = (done: number, label: string) => opts.onProgress?.(done, total, label);
 
   progress(0, 'first solve');
-  const first = solveAt(problem, base, order, limits, { points: listed });
+  const first = solveAt(problem, base, order, limits, { points: [...listed, ...reportedAt] });
   opts.onBase?.({ mesh: first.mesh, geometry: geom, solution: first.solution, field: first.field, nodal: first.nodal, sets: first.sets });
   progress(1, 'sites');
   // the sites of every case and combination, studied in all (docs/study.md, "Load cases and the envelope")
   const sets = first.sets;
-  const cands = mergeSiteLists(sets.map((set) => findSites({ model, geom, mesh: first.mesh, solution: set.solution, measure: set.nodal, baseSize: base, listed })), base);
+  const siteCtx = { model, geom, mesh: first.mesh, solution: first.solution, measure: first.nodal, baseSize: base, listed };
+  const found = mergeSiteLists(sets.map((set) => findSites({ ...siteCtx, solution: set.solution, measure: set.nodal })), base);
+  const { sites: cands, added } = withReportedSites(found, reportedValues, reportedAt, siteCtx, geom.scale);
   const h0 = cands.map((c) => base(c.at[0], c.at[1]));
   const probes: SiteProbe[] = cands.map((site, i) => {
     let radius = NEIGHBOURHOOD_SIZES * h0[i];
@@ -207,6 +217,12 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const onRim = perSet.map((perSite) => perSite.map((levels, i) => peakOnRim(levels, cands[i].at)));
   const envelope = withCases ? envelopeOf(caseStudies, measure, onRim) : [];
   const sites: SiteResult[] = withCases ? envelopeSites(caseStudies, envelope) : sitesOf(0);
+  // a reported value is set beside the sites of its case or combination (the envelope's without one)
+  const setIndexOf = (r: ReportedValue): number => (withCases && r.case !== undefined ? Math.max(0, sets.findIndex((set) => set.name === r.case)) : 0);
+  const reported = reportedValues.length > 0 && !interrupted
+    ? judgeReported(reportedValues, reportedAt, cands, (r) => (withCases && r.case !== undefined ? caseStudies[setIndexOf(r)].sites : sites), setIndexOf, base, added,
+      { problem, order, limits, measure, stress, length: model.units.length, probes, section })
+    : undefined;
   const q = meshQuality(first.mesh);
   return {
     tool: 'peakwise',
@@ -218,6 +234,7 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
     measure,
     ...(model.material.yield !== undefined ? { yieldStress: model.material.yield } : {}),
     sites,
+    ...(reported ? { reported } : {}),
     timings: { totalS: (performance.now() - t0) / 1000 },
     ...(interrupted ? { interrupted: true } : {}),
     ...(warnings.length > 0 ? { warnings: warnings.map((w) => `${w.keyPath}: ${w.message}`) } : {}),
@@ -247,4 +264,88 @@ function toSiteResult(
     history: v.history.map(({ finest, value, uncertainty, observedOrder }) => ({ finest, value, uncertainty, observedOrder })),
     ...(c.direction ? { direction: c.direction } : {}),
   };
+}
+
+/** Where a reported value is studied: snapSitePoint's rules, its errors naming the reported entry. */
+function reportedPoint(geom: PlateGeometry, r: ReportedValue, vertices: readonly Point[]): Point {
+  const keyPath = r.keyPath.includes(' (') ? r.keyPath : `${r.keyPath}.at`;
+  try {
+    return snapSitePoint(geom, r.at, keyPath, vertices);
+  } catch (e) {
+    if (isPeakwiseError(e)) throw new PeakwiseError('study', e.message.replace(/^listed site/, 'reported point').replace(/a site must be/, 'a reported value must be'), keyPath);
+    throw e;
+  }
+}
+
+/**
+ * The found sites plus one listed site at every reported point far from all of them (issue 15 §2:
+ * detection stays on), sorted as findSites sorts; a feature length never reaches past another site.
+ */
+function withReportedSites(
+  found: SiteCandidate[], values: readonly ReportedValue[], at: readonly Point[], ctx: Parameters<typeof findSites>[0], scale: number,
+): { sites: SiteCandidate[]; added: Point[] } {
+  if (values.length === 0) return { sites: found, added: [] };
+  const match = matchReported(at, values.map((v) => v.size), found, ctx.baseSize);
+  const far = unmatchedPoints(at, match, 1e-9 * scale);
+  if (far.length === 0) return { sites: found, added: [] };
+  const extra = findSites({ ...ctx, model: { ...ctx.model, study: { ...ctx.model.study, sites: far } }, listed: far });
+  const tol = 1e-6 * scale;
+  const key = (v: number) => Math.round(v / tol);
+  const all = [...found, ...extra].sort((a, b) => key(a.at[0]) - key(b.at[0]) || key(a.at[1]) - key(b.at[1]));
+  const sites = all.map((c) => {
+    let length = c.featureLength, why = c.featureLengthWhy;
+    for (const o of all) {
+      const d = Math.hypot(o.at[0] - c.at[0], o.at[1] - c.at[1]);
+      if (o !== c && d < length) { length = d; why = `distance to the next site ${Number(d.toPrecision(4))}`; }
+    }
+    return length === c.featureLength ? c : { ...c, featureLength: length, featureLengthWhy: why };
+  });
+  return { sites, added: far };
+}
+
+interface JudgeContext {
+  problem: Problem;
+  order: 1 | 2;
+  limits: SolveLimits;
+  measure: Model['study']['measure'];
+  stress: string;
+  length: string;
+  probes: SiteProbe[];
+  section: Problem['section'];
+}
+
+/**
+ * Each reported value against the site it belongs to (the nearest within the match tolerance; a far
+ * point has its own listed site). With an element order other than the study's, our own solve of that
+ * order at the reported size: the model's mesh with a cone of that size at the site.
+ */
+function judgeReported(
+  values: readonly ReportedValue[], at: readonly Point[], cands: readonly SiteCandidate[],
+  sitesOf: (r: ReportedValue) => readonly SiteResult[], setOf: (r: ReportedValue) => number,
+  base: (x: number, y: number) => number, addedPoints: readonly Point[], j: JudgeContext,
+): ReportedAssessment[] {
+  const match = matchReported(at, values.map((v) => v.size), cands, base);
+  const cache = new Map<string, number>();
+  return values.map((r, i) => {
+    const k = match[i];
+    if (k < 0) throw new PeakwiseError('study', `reported point (${r.at[0]}, ${r.at[1]}) matched no site`, r.keyPath);
+    const site = sitesOf(r)[k], cand = cands[k], set = setOf(r);
+    const ownSolve = (h: number, ord: 1 | 2): number => {
+      const id = `${k}:${h}:${ord}:${set}`;
+      const hit = cache.get(id);
+      if (hit !== undefined) return hit;
+      const field = (x: number, y: number) => Math.min(Math.max(base(x, y), h), h + LADDER_GRADING * Math.hypot(x - cand.at[0], y - cand.at[1]));
+      const s = solveAt(j.problem, field, ord, j.limits, { points: [cand.at] });
+      const probe: SiteProbe = { ...j.probes[k], intensity: undefined };
+      const own = s.sets[set];
+      const v = probeLevel(s.mesh, own.field, own.nodal, own.gauss, j.section, j.measure, probe, h, s.solution.dofs).peak;
+      cache.set(id, v);
+      return v;
+    };
+    const same = 1e-9 * j.problem.geometry.scale;
+    const added = addedPoints.some((p) => Math.hypot(p[0] - cand.at[0], p[1] - cand.at[1]) <= same);
+    return assessReported(r, site, Math.hypot(site.at[0] - r.at[0], site.at[1] - r.at[1]), added, {
+      order: j.order, measure: j.measure, units: { length: j.length, stress: j.stress }, ownSolve,
+    });
+  });
 }

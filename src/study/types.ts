@@ -152,6 +152,54 @@ export interface CaseStudy {
   sites: SiteResult[];
 }
 
+/**
+ * What a value reported by another analysis is worth (issue 15; docs/other-analysis.md), against the
+ * site it belongs to. `finding`: the models differ; converged (inside our band of the converged value),
+ * low or high against it; mesh-dependent (a singular site); undecided; not-compared (`words` say why).
+ */
+export interface ReportedAssessment {
+  keyPath: string;
+  at: Point;
+  value: number;
+  size: number;
+  measure: string;
+  case?: string;
+  label?: string;
+  order?: 1 | 2;
+  /** id of the site it was judged against, and its distance from the reported point */
+  site: string;
+  distance: number;
+  /** the point was far from every found site and was studied as a listed point of its own */
+  added?: true;
+  verdict: Verdict;
+  finding: 'models-differ' | 'converged' | 'low' | 'high' | 'mesh-dependent' | 'undecided' | 'not-compared';
+  /** plain words: the finding first, then what follows from it */
+  words: string;
+  /** the stated tolerance beyond our band before the models differ (fraction) */
+  tolerance: number;
+  /** our value at the same element size with its band, and where it came from */
+  ours?: {
+    value: number; band: number; from: 'ladder' | 'extrapolated' | 'own solve'; order: 1 | 2;
+    /** the comparison's half-width: band + tolerance × |value|; further apart, the models differ */
+    allowed: number;
+  };
+  /** (reported − ours at that size) / |ours| */
+  difference?: number;
+  /** set when our value at that size was extrapolated beyond the ladder */
+  warning?: string;
+  /** converging site: the converged value, the reported value's offset from it (fraction, negative = low) */
+  converged?: { value: number; uncertainty: number };
+  offset?: number;
+  /** element sizes the other mesh needs at this point for 1, 2 and 5 % (null: already within) and the order assumed */
+  neededSize?: { percent: number; size: number | null }[];
+  neededOrder?: number;
+  /** singular site: what halving the element size would add (fraction), and the readouts to use instead */
+  halvingIncrease?: number;
+  readouts?: { name: string; value: number; unit: string }[];
+  /** undecided site: what is needed to tell */
+  needed?: string;
+}
+
 export interface StudyResult {
   tool: 'peakwise';
   version: string;
@@ -163,6 +211,8 @@ export interface StudyResult {
   /** the material's yield stress (`material.yield`, stress units), when the model gives one */
   yieldStress?: number;
   sites: SiteResult[];
+  /** values another analysis reported (model key `reported`), each judged against its site */
+  reported?: ReportedAssessment[];
   timings?: { totalS: number };
   /** set when the study was stopped (Ctrl-C) before every level was solved */
   interrupted?: boolean;

@@ -237,6 +237,63 @@ export function cutCsv(table: CutTable, units?: { length: string; stress: string
   return rows.join('\r\n') + '\r\n';
 }
 
+/** Stress columns a line of results from another analysis may hold (cut.csv's own names). */
+export const OTHER_CUT_COLUMNS = ['sxx', 'syy', 'sxy', 'szz', 's1', 's2', 'von_mises', 'tresca', 'tangential'] as const;
+export type OtherCutColumn = (typeof OTHER_CUT_COLUMNS)[number];
+
+const SAMPLE_KEY: Record<OtherCutColumn, keyof CutSample> = {
+  sxx: 'sxx', syy: 'syy', sxy: 'sxy', szz: 'szz', s1: 's1', s2: 's2', von_mises: 'vonMises', tresca: 'tresca', tangential: 'tangential',
+};
+
+/** The cut's value of one of OTHER_CUT_COLUMNS at every sample. */
+export function cutColumn(table: CutTable, column: OtherCutColumn): number[] {
+  return table.samples.map((p) => p[SAMPLE_KEY[column]] as number);
+}
+
+/**
+ * Results along the cut from another analysis (issue 15 §5): each point (x, y, value) goes to the arc
+ * length of the nearest point of the cut (the polyline through its samples), no farther from it than
+ * `tolerance`; the values are interpolated linearly in s onto the cut's samples (blank outside the span
+ * the points cover; round an opening the span closes on itself) as `other_<column>`, with `diff_other_<column>` = peakwise − other.
+ */
+export function overlayOtherCut(table: CutTable, points: readonly { x: number; y: number; value: number; line: number }[], column: OtherCutColumn, file: string, tolerance: number): CutTable {
+  const smp = table.samples;
+  const located = points.map((p) => {
+    let best = Infinity, s = NaN;
+    for (let k = 0; k + 1 < smp.length; k++) {
+      const a = smp[k], b = smp[k + 1];
+      const dx = b.x - a.x, dy = b.y - a.y, l2 = dx * dx + dy * dy;
+      const t = l2 > 0 ? Math.min(1, Math.max(0, ((p.x - a.x) * dx + (p.y - a.y) * dy) / l2)) : 0;
+      const d = Math.hypot(p.x - a.x - t * dx, p.y - a.y - t * dy);
+      if (d < best) { best = d; s = a.s + t * (b.s - a.s); }
+    }
+    if (!(best <= tolerance)) {
+      throw usage(`${file}:${p.line}: point (${p.x}, ${p.y}) is ${Number(best.toPrecision(3))} from the cut (at most ${Number(tolerance.toPrecision(3))}); the other analysis's points must lie along the same line or edge`);
+    }
+    return { s, value: p.value };
+  });
+  // round an opening the cut is closed: the points repeat one loop length before and after
+  if (table.kind === 'opening' && smp.length > 1) {
+    const loop = smp[smp.length - 1].s - smp[0].s;
+    for (const q of [...located]) located.push({ s: q.s - loop, value: q.value }, { s: q.s + loop, value: q.value });
+  }
+  located.sort((a, b) => a.s - b.s);
+  const other = smp.map((q) => {
+    if (located.length === 0 || q.s < located[0].s - 1e-12 || q.s > located[located.length - 1].s + 1e-12) return NaN;
+    let k = 0;
+    while (k < located.length - 2 && located[k + 1].s < q.s) k++;
+    const a = located[k], b = located[Math.min(k + 1, located.length - 1)];
+    if (b.s === a.s) return a.value;
+    const t = Math.min(1, Math.max(0, (q.s - a.s) / (b.s - a.s)));
+    return a.value + t * (b.value - a.value);
+  });
+  const ours = cutColumn(table, column);
+  return {
+    ...table,
+    extra: { ...table.extra, [`other_${column}`]: other, [`diff_other_${column}`]: other.map((v, k) => ours[k] - v) },
+  };
+}
+
 /** Constants a comparison may take from the command line; missing ones come from the model. */
 export interface CompareInputs {
   kind: string;
