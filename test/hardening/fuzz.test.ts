@@ -41,7 +41,7 @@ function pipeline(text: string, label: string): Outcome {
     const mesh = meshPlate(geometry, { sizeAt, order: model.mesh.order, requiredPoints: required, maxVertices: FUZZ_MAX_VERTICES });
     const problems = validateMesh(mesh, geometry);
     if (problems.length > 0) throw new Error(`invalid mesh: ${problems.slice(0, 3).join('; ')}`);
-    const section = { E: model.material.E, nu: model.material.nu, state: model.state, thickness: model.thickness };
+    const section = { ...model.material, state: model.state, thickness: model.thickness };
     const solution = solvePlate({ mesh, geometry, section, supports: model.supports, loads: model.loads });
     // equilibrium: reactions balance the applied nodal loads. The sums cancel terms of size
     // Σ|f|, so the bound is relative to that scale: 1e-8 is far above round-off (n·ε·Σ|f|)
