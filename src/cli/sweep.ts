@@ -5,7 +5,6 @@
  */
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { Option, type Command } from 'commander';
 import { progressBar } from './progress.js';
 import { CAUTION } from '../report/index.js';
 import pc from 'picocolors';
@@ -57,10 +56,6 @@ export function pointFolderCache(dir: string, protect: string[]): PointCache {
       writeFileAtomic(join(dir, `${key}.json`), toJson(data) + '\n', protect);
     },
   };
-}
-
-function collect(value: string, previous: string[]): string[] {
-  return [...previous, value];
 }
 
 function intOption(text: string | undefined, option: string, lo: number, hi: number): number | undefined {
@@ -193,23 +188,4 @@ export function sweepJson(sweep: SweepResult): unknown {
       })),
     })),
   };
-}
-
-/** Adds the sweep command to the program (called once from buildProgram). */
-export function registerSweep(program: Command, ctx: CliContext): void {
-  program
-    .command('sweep <model>')
-    .description('repeat the study over parameter values (worker threads), resuming from earlier point files')
-    .option('--vary <name=values>', 'a parameter and its values: r=0,2,4 or "r=0..20 by 2" (start..end by step); repeat for a grid', collect, [] as string[])
-    .option('--jobs <n>', 'worker threads (default: one per core)')
-    .option('--levels <n>', 'refinement levels per site (overrides study.levels)')
-    .option('--ratio <r>', 'element size ratio between levels (overrides study.ratio)')
-    .option('--max-dofs <n>', 'cap on degrees of freedom per solve', '2000000')
-    .option('--out <dir>', 'output folder (default out/<model-name>)')
-    .option('--json', 'print the machine-readable result on stdout')
-    .addOption(new Option('--order <n>', 'element order: 1 = 3-node, 2 = 6-node triangles').choices(['1', '2']))
-    .option('--size <h>', 'target element size far from features (overrides mesh.size)')
-    .option('--quiet', 'no progress bar, only the result')
-    .option('--no-color', 'plain text without colours (also honours NO_COLOR)')
-    .action(async (model: string, opts: SweepCliOptions) => runSweepCommand(ctx, model, opts));
 }
