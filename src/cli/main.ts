@@ -42,7 +42,7 @@ export function buildProgram(): Command {
       .command('mesh <model>')
       .description('mesh a model and print counts and quality')
       .option('--svg <file>', 'draw the mesh as SVG (boundary tags coloured)'),
-  ).action(async (model: string, opts) => (await commands()).runMesh(ctx, model, opts));
+  ).action(async (model: string, opts) => (await import('./mesh-command.js')).runMesh(ctx, model, opts));
 
   registerCutOptions(sharedOptions(
     program
