@@ -1,9 +1,13 @@
 /**
  * `npm run bench`: speed and memory figures for this machine (never in tests).
  *
- *   node dist/bench/main.js [--quick] [--skip mesh,holes,solver,pipeline,study,rates]
+ *   node dist/bench/main.js [--quick] [--skip startup,commands,mesh,holes,solver,pipeline,study,rates]
  *
- * 1. mesh      quality mesh of a multi-opening plate (~200 000 triangles) against plain delaunator
+ * 0. startup   `peakwise --version` and `--help` in a fresh process (src/bench/commands.ts)
+ *    commands  whole `study` of every demo and `mesh` of a ~300 000-node plate in a fresh process,
+ *              as ratios to the yardstick (plain delaunator, 1 000 000 random points, this run),
+ *              with the study's breakdown start / mesh / solve / recover / study / write / gc
+ * 1. mesh      quality mesh of a multi-opening plate (~300 000 vertices) against plain delaunator
  *    holes     perforated plate, 400 and 1 600 holes: time ratio (src/bench/holes.ts)
  * 2. solver    sparse Cholesky on clamped-rectangle stiffness matrices (anchor table sizes),
  *              with the anchor library's figures on the same matrices when /tmp/cholmod_mtx exists
@@ -12,6 +16,8 @@
  * 4. study     whole `study` time of each demo model
  * 5. rates     energy-norm error rates at the 270° corner of the L plate: uniform meshes and
  *              the adaptive loop (issue 4)
+ *
+ * Every goal is recorded (src/bench/goals.ts) and printed at the end with its figure and ratio.
  */
 import { readFileSync, readdirSync, existsSync } from 'node:fs';
 import { join } from 'node:path';
@@ -27,6 +33,8 @@ import { holePlateProblem } from './models.js';
 import { parseModel } from '../model/index.js';
 import { runStudy } from '../study/index.js';
 import { lShapeModeIField } from '../reference/index.js';
+import { goalsText, recordGoal } from './goals.js';
+import { benchMeshCommand, benchStartup, benchStudyCommands } from './commands.js';
 
 const args = process.argv.slice(2);
 const quick = args.includes('--quick');
@@ -70,6 +78,13 @@ async function benchPipeline(): Promise<void> {
         process.stdout.write(
           `    anchor (same matrix): ordering ${a.ordering}, analyze ${a.t_analyze.toFixed(3)} s, factor ${a.t_factorize.toFixed(3)} s, nnz(L) ${(a.lnz / 1e6).toFixed(2)} M → ratios: order+factor ${(ours / theirs).toFixed(2)}×, nnz(L) ${(s.nnzL / a.lnz).toFixed(2)}×\n`,
         );
+        if (target >= 200_000) {
+          recordGoal({
+            what: `solver order + factor, hole plate LST ${s.dofs} dofs`,
+            measured: `ours ${ours.toFixed(2)} s (order ${s.timings.orderS.toFixed(2)} s), anchor ${theirs.toFixed(2)} s (analyze ${a.t_analyze.toFixed(2)} s)`,
+            value: ours / theirs, limit: 1, unit: '×', against: 'the anchor (optimised BLAS, 1 thread)',
+          });
+        }
       }
     }
   }
@@ -132,9 +147,18 @@ function benchRates(): void {
 
 async function main(): Promise<void> {
   process.stdout.write(`peakwise benchmark — node ${process.version}, ${quick ? 'quick' : 'full'} run\n`);
+  if (!skip.has('startup')) { heading('start-up (fresh process)'); benchStartup(quick); }
+  if (!skip.has('commands')) {
+    heading('whole commands (fresh process) against the yardstick');
+    benchStudyCommands(quick);
+    benchMeshCommand(quick);
+  }
   if (!skip.has('mesh')) {
     heading('mesher');
-    await benchMesh(quick ? 6 : undefined);
+    const m = await benchMesh(quick ? 6 : 1.5);
+    if (!quick) {
+      recordGoal({ what: `mesher in process, ${m.vertices} vertices`, measured: `${m.meshMs.toFixed(0)} ms (median of 3)`, value: m.ratio, limit: 3, unit: '×', against: `delaunator on the same points (${m.delaunatorMs.toFixed(0)} ms)` });
+    }
   }
   if (!skip.has('holes')) { heading('mesher: many openings (perforated plate)'); benchHoles(quick); }
   if (!skip.has('solver')) {
@@ -145,6 +169,7 @@ async function main(): Promise<void> {
   if (!skip.has('study')) benchStudies();
   if (!skip.has('rates')) benchRates();
   process.stdout.write(`\npeak RSS ${rssMiB().toFixed(0)} MiB\n`);
+  process.stdout.write(goalsText());
 }
 
 main().catch((e: unknown) => {
