@@ -23,7 +23,7 @@ import { readFileSync, readdirSync, existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { benchMesh } from './mesh.js';
 import { benchHoles } from './holes.js';
-import { benchSolver, runAnchor, writeMatrixMarket } from './solver.js';
+import { ANCHOR, benchSolver, runAnchor, writeMatrixMarket } from './solver.js';
 import { L_SECTION, lProblem, lSolve, lTrueError, logSlope, type LField } from './lshape.js';
 import { lShapeMesh } from './lshape-mesh.js';
 import { supportedDofs, assembleStiffness } from '../fem/index.js';
@@ -64,7 +64,7 @@ async function benchPipeline(): Promise<void> {
     rows.push({ dofs: s.dofs, factorS: s.timings.factorS });
     const line = `  ${s.dofs} dofs: mesh ${meshS.toFixed(2)} s, assemble ${s.timings.assembleS.toFixed(2)} s, order ${s.timings.orderS.toFixed(2)} s, factor ${s.timings.factorS.toFixed(2)} s, solve ${s.timings.solveS.toFixed(3)} s, nnz(L) ${(s.nnzL / 1e6).toFixed(2)} M, residual ${s.residual.toExponential(1)}, peak RSS ${rssMiB().toFixed(0)} MiB`;
     process.stdout.write(line + '\n');
-    if (existsSync('/tmp/cholmod_mtx')) {
+    if (existsSync(ANCHOR)) {
       const fixed = supportedDofs(mesh, geometry, supports);
       const keep: number[] = [];
       for (let i = 0; i < fixed.length; i++) if (!fixed[i]) keep.push(i);

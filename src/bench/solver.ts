@@ -191,9 +191,16 @@ export async function writeMatrixMarket(K: Csr, file: string): Promise<void> {
   await once(out, 'finish');
 }
 
+/**
+ * The anchor program (../shared/anchors.md): /tmp/cholmod_mtx, or the one PEAKWISE_ANCHOR names —
+ * e.g. the same source built with CLOCK_PROCESS_CPUTIME_ID in place of CLOCK_MONOTONIC, so that on
+ * a shared, loaded machine it reports CPU seconds to compare with our CPU seconds (docs/linalg.md).
+ */
+export const ANCHOR = process.env.PEAKWISE_ANCHOR ?? '/tmp/cholmod_mtx';
+
 export function runAnchor(file: string): AnchorResult | undefined {
   try {
-    const text = execFileSync('/tmp/cholmod_mtx', [file, 'default', '3'], {
+    const text = execFileSync(ANCHOR, [file, 'default', '3'], {
       env: { ...process.env, OMP_NUM_THREADS: '1', OPENBLAS_NUM_THREADS: '1' },
       encoding: 'utf8',
       maxBuffer: 1 << 20,
@@ -216,7 +223,7 @@ export async function benchSolver(opts: BenchSolverOptions = {}): Promise<object
   const max = opts.max ?? 1e6;
   const order = opts.order ?? 1;
   const log = opts.log ?? true;
-  const useAnchor = (opts.anchor ?? true) && existsSync('/tmp/cholmod_mtx');
+  const useAnchor = (opts.anchor ?? true) && existsSync(ANCHOR);
   const say = (s: string) => { if (log) console.log(s); };
   // ny for ≈ 50k, 200k, 800k dofs (CST; the same node grids for LST use half the elements)
   const sizes = order === 1 ? [112, 224, 448] : [56, 112, 224];
