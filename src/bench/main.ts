@@ -19,15 +19,15 @@
  *
  * Every goal is recorded (src/bench/goals.ts) and printed at the end with its figure and ratio.
  */
-import { readFileSync, readdirSync, existsSync } from 'node:fs';
+import { readFileSync, readdirSync, existsSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { benchMesh } from './mesh.js';
 import { benchHoles } from './holes.js';
-import { ANCHOR, benchSolver, runAnchor, writeMatrixMarket } from './solver.js';
+import { ANCHOR, ANCHOR_CPU, benchSolver, runAnchor, writeMatrixMarket } from './solver.js';
 import { L_SECTION, lProblem, lSolve, lTrueError, logSlope, type LField } from './lshape.js';
 import { lShapeMesh } from './lshape-mesh.js';
 import { supportedDofs, assembleStiffness } from '../fem/index.js';
-import { csrSubmatrix } from '../linalg/index.js';
+import { chooseOrderingDetailed, csrSubmatrix, factorize, symbolicFactor } from '../linalg/index.js';
 import { adaptiveSolve, solveProblem } from '../pipeline/index.js';
 import { holePlateProblem } from './models.js';
 import { parseModel } from '../model/index.js';
@@ -72,16 +72,29 @@ async function benchPipeline(): Promise<void> {
       const file = `/tmp/peakwise-bench-hole-${target}.mtx`;
       await writeMatrixMarket(K, file);
       const a = runAnchor(file);
+      rmSync(file, { force: true });
       if (a) {
-        const ours = s.timings.orderS + s.timings.factorS;
+        // ours again on the very same matrix, in CPU seconds as well (the second factorisation of
+        // this size in the process, as the anchor's analyze + factor follow its reading)
+        const rowXY = new Float64Array(2 * keep.length);
+        keep.forEach((d, k) => { rowXY[2 * k] = mesh.xy[2 * (d >> 1)]; rowXY[2 * k + 1] = mesh.xy[2 * (d >> 1) + 1]; });
+        const c0 = process.cpuUsage();
+        const w0 = performance.now();
+        factorize(K, symbolicFactor(K, chooseOrderingDetailed(K, rowXY).ordering));
+        const oursWall = (performance.now() - w0) / 1000;
+        const cu = process.cpuUsage(c0);
+        const oursCpu = (cu.user + cu.system) / 1e6;
+        const ours = ANCHOR_CPU ? oursCpu : oursWall;
         const theirs = a.t_analyze + a.t_factorize;
+        const clock = ANCHOR_CPU ? 'CPU' : 'wall';
         process.stdout.write(
-          `    anchor (same matrix): ordering ${a.ordering}, analyze ${a.t_analyze.toFixed(3)} s, factor ${a.t_factorize.toFixed(3)} s, nnz(L) ${(a.lnz / 1e6).toFixed(2)} M → ratios: order+factor ${(ours / theirs).toFixed(2)}×, nnz(L) ${(s.nnzL / a.lnz).toFixed(2)}×\n`,
+          `    anchor (same matrix): ordering ${a.ordering}, analyze ${a.t_analyze.toFixed(3)} s, factor ${a.t_factorize.toFixed(3)} s (${clock}), nnz(L) ${(a.lnz / 1e6).toFixed(2)} M; ` +
+            `ours on it order + symbolic + factor ${oursWall.toFixed(3)} s wall, ${oursCpu.toFixed(3)} s CPU → ratios: order+factor ${(ours / theirs).toFixed(2)}× (${clock}), nnz(L) ${(s.nnzL / a.lnz).toFixed(2)}×\n`,
         );
         if (target >= 200_000) {
           recordGoal({
             what: `solver order + factor, hole plate LST ${s.dofs} dofs`,
-            measured: `ours ${ours.toFixed(2)} s (order ${s.timings.orderS.toFixed(2)} s), anchor ${theirs.toFixed(2)} s (analyze ${a.t_analyze.toFixed(2)} s)`,
+            measured: `ours ${ours.toFixed(2)} s, anchor ${theirs.toFixed(2)} s (analyze ${a.t_analyze.toFixed(2)} s, ${a.ordering}; ${clock} seconds)`,
             value: ours / theirs, limit: 1, unit: '×', against: 'the anchor (optimised BLAS, 1 thread)',
           });
         }

@@ -197,6 +197,8 @@ export async function writeMatrixMarket(K: Csr, file: string): Promise<void> {
  * a shared, loaded machine it reports CPU seconds to compare with our CPU seconds (docs/linalg.md).
  */
 export const ANCHOR = process.env.PEAKWISE_ANCHOR ?? '/tmp/cholmod_mtx';
+/** PEAKWISE_ANCHOR_CPU=1: the anchor reports CPU seconds, so goals compare our CPU seconds with them. */
+export const ANCHOR_CPU = process.env.PEAKWISE_ANCHOR_CPU === '1';
 
 export function runAnchor(file: string): AnchorResult | undefined {
   try {
