@@ -29,7 +29,7 @@ const CCW_BOUND = (3 + 16 * EPS) * EPS;
 const ICC_BOUND = (10 + 96 * EPS) * EPS;
 
 /** > 0 when (a, b, c) turn counter-clockwise, < 0 clockwise, 0 collinear (exact sign). */
-function orientCcw(ax: number, ay: number, bx: number, by: number, cx: number, cy: number): number {
+export function orientCcw(ax: number, ay: number, bx: number, by: number, cx: number, cy: number): number {
   const l = (ax - cx) * (by - cy);
   const r = (ay - cy) * (bx - cx);
   const det = l - r;
@@ -38,7 +38,7 @@ function orientCcw(ax: number, ay: number, bx: number, by: number, cx: number, c
 }
 
 /** > 0 when d lies inside the circle through the counter-clockwise a, b, c (exact sign). */
-function inCircle(ax: number, ay: number, bx: number, by: number, cx: number, cy: number, dx: number, dy: number): number {
+export function inCircle(ax: number, ay: number, bx: number, by: number, cx: number, cy: number, dx: number, dy: number): number {
   const adx = ax - dx, ady = ay - dy, bdx = bx - dx, bdy = by - dy, cdx = cx - dx, cdy = cy - dy;
   const bc = bdx * cdy, cb = cdx * bdy, ca = cdx * ady, ac = adx * cdy, ab = adx * bdy, ba = bdx * ady;
   const al = adx * adx + ady * ady, bl = bdx * bdx + bdy * bdy, cl = cdx * cdx + cdy * cdy;
