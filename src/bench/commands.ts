@@ -20,7 +20,8 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { delaunaySeconds, median, recordGoal, yardstick } from './goals.js';
+import Delaunator from 'delaunator';
+import { delaunaySeconds, median, randomPoints, recordGoal, sampleYardstick, yardstick } from './goals.js';
 
 const root = join(import.meta.dirname, '..', '..');
 const bin = join(root, 'dist', 'cli', 'main.js');
@@ -109,6 +110,14 @@ function breakdown(args: string[]): string {
 
 export function benchStartup(quick: boolean): void {
   const n = quick ? 5 : 11;
+  // Node's own start, the floor under any command (on a loaded machine it rises with the rest)
+  const floor: number[] = [];
+  for (let k = 0; k < n; k++) {
+    const t0 = performance.now();
+    spawnSync(process.execPath, ['-e', '0']);
+    floor.push((performance.now() - t0) / 1000);
+  }
+  process.stdout.write(`  node -e 0 (Node's own start): ${(median(floor) * 1000).toFixed(0)} ms (median of ${n})\n`);
   for (const flag of ['--version', '--help']) {
     const s = timeCommand([flag], n);
     process.stdout.write(`  peakwise ${flag}: ${(s * 1000).toFixed(0)} ms (median of ${n})\n`);
@@ -126,24 +135,32 @@ function demoModels(): { file: string; singleCase: boolean }[] {
 }
 
 export function benchStudyCommands(quick: boolean): void {
-  const y = yardstick();
-  process.stdout.write(`  yardstick: plain delaunator on 1 000 000 random points ${y.toFixed(3)} s (median of 3)\n`);
   const out = mkdtempSync(join(tmpdir(), 'peakwise-bench-study-'));
   const runs = quick ? 1 : 3;
+  const timed: { file: string; singleCase: boolean; s: number }[] = [];
   try {
     const demos = demoModels().filter((d) => !quick || d.file === 'models/l-bracket-sharp.yaml');
+    sampleYardstick();
     for (const { file, singleCase } of demos) {
       const args = ['study', file, '--out', join(out, file.replace(/\W/g, '-')), '--quiet'];
+      sampleYardstick(); // one yardstick sample beside every command
       const s = timeCommand(args, runs);
-      const ratio = s / y;
-      process.stdout.write(`  study ${file}: ${s.toFixed(2)} s (median of ${runs}) = ${ratio.toFixed(2)}× the yardstick${singleCase ? '' : ' (several load cases)'}\n`);
+      timed.push({ file, singleCase, s });
+      process.stdout.write(`  study ${file}: ${s.toFixed(2)} s (median of ${runs})${singleCase ? '' : ' (several load cases)'}\n`);
       process.stdout.write(`    breakdown: ${breakdown(args)}\n`);
-      const measured = `${s.toFixed(2)} s (median of ${runs})`;
-      if (file === 'models/l-bracket-sharp.yaml') recordGoal({ what: `study ${file} (whole command)`, measured, value: ratio, limit: 1.2, unit: '×', against: 'the yardstick' });
-      else if (singleCase) recordGoal({ what: `study ${file} (whole command)`, measured, value: ratio, limit: 1.7, unit: '×', against: 'the yardstick' });
     }
+    sampleYardstick();
   } finally {
     rmSync(out, { recursive: true, force: true });
+  }
+  const y = yardstick();
+  process.stdout.write(`  yardstick: plain delaunator on 1 000 000 random points ${y.toFixed(3)} s (median of the samples so far)\n`);
+  for (const { file, singleCase, s } of timed) {
+    const ratio = s / y;
+    process.stdout.write(`  study ${file}: ${ratio.toFixed(2)}× the yardstick\n`);
+    const measured = `${s.toFixed(2)} s (median of ${runs})`;
+    if (file === 'models/l-bracket-sharp.yaml') recordGoal({ what: `study ${file} (whole command)`, measured, value: ratio, limit: 1.2, unit: '×', against: 'the yardstick' });
+    else if (singleCase) recordGoal({ what: `study ${file} (whole command)`, measured, value: ratio, limit: 1.7, unit: '×', against: 'the yardstick' });
   }
 }
 
@@ -178,8 +195,20 @@ export function benchMeshCommand(quick: boolean): void {
     const runs = quick ? 1 : 3;
     const first = runOnce(['mesh', file, '--json']);
     const q = JSON.parse(first.stdout) as { mesh: { nodes: number; minAngleDeg: number } };
-    const s = timeCommand(['mesh', file], runs);
-    const d = delaunaySeconds(q.mesh.nodes);
+    // the command and plain delaunator on as many random points taken in turn, so that both
+    // medians come from the same minutes
+    delaunaySeconds(100_000, 1); // warm-up
+    const pts = randomPoints(q.mesh.nodes);
+    const cmd: number[] = [];
+    const del: number[] = [];
+    for (let k = 0; k < runs; k++) {
+      const t0 = performance.now();
+      new Delaunator(pts);
+      del.push((performance.now() - t0) / 1000);
+      cmd.push(runOnce(['mesh', file]).seconds);
+    }
+    const s = median(cmd);
+    const d = median(del);
     const ratio = s / d;
     process.stdout.write(
       `  peakwise mesh (machine-base plate, ${q.mesh.nodes} nodes, min angle ${q.mesh.minAngleDeg.toFixed(2)}°): ${s.toFixed(3)} s (median of ${runs}), ` +
