@@ -13,6 +13,7 @@ import { execFileSync } from 'node:child_process';
 import { createWriteStream, existsSync, unlinkSync } from 'node:fs';
 import { once } from 'node:events';
 import { fileURLToPath } from 'node:url';
+import { recordGoal } from './goals.js';
 import {
   chooseOrderingDetailed,
   csrFromTriplets,
@@ -191,9 +192,18 @@ export async function writeMatrixMarket(K: Csr, file: string): Promise<void> {
   await once(out, 'finish');
 }
 
+/**
+ * The anchor program (../shared/anchors.md): /tmp/cholmod_mtx, or the one PEAKWISE_ANCHOR names —
+ * e.g. the same source built with CLOCK_PROCESS_CPUTIME_ID in place of CLOCK_MONOTONIC, so that on
+ * a shared, loaded machine it reports CPU seconds to compare with our CPU seconds (docs/linalg.md).
+ */
+export const ANCHOR = process.env.PEAKWISE_ANCHOR ?? '/tmp/cholmod_mtx';
+/** PEAKWISE_ANCHOR_CPU=1: the anchor reports CPU seconds, so goals compare our CPU seconds with them. */
+export const ANCHOR_CPU = process.env.PEAKWISE_ANCHOR_CPU === '1';
+
 export function runAnchor(file: string): AnchorResult | undefined {
   try {
-    const text = execFileSync('/tmp/cholmod_mtx', [file, 'default', '3'], {
+    const text = execFileSync(ANCHOR, [file, 'default', '3'], {
       env: { ...process.env, OMP_NUM_THREADS: '1', OPENBLAS_NUM_THREADS: '1' },
       encoding: 'utf8',
       maxBuffer: 1 << 20,
@@ -216,7 +226,7 @@ export async function benchSolver(opts: BenchSolverOptions = {}): Promise<object
   const max = opts.max ?? 1e6;
   const order = opts.order ?? 1;
   const log = opts.log ?? true;
-  const useAnchor = (opts.anchor ?? true) && existsSync('/tmp/cholmod_mtx');
+  const useAnchor = (opts.anchor ?? true) && existsSync(ANCHOR);
   const say = (s: string) => { if (log) console.log(s); };
   // ny for ≈ 50k, 200k, 800k dofs (CST; the same node grids for LST use half the elements)
   const sizes = order === 1 ? [112, 224, 448] : [56, 112, 224];
@@ -299,17 +309,26 @@ export async function benchSolver(opts: BenchSolverOptions = {}): Promise<object
       const a = runAnchor(file);
       try { unlinkSync(file); } catch { /* already gone */ }
       if (a) {
-        const ours = orderS + symbolicS + factorS;
+        const oursWall = orderS + symbolicS + factorS;
+        const oursCpu = orderCpuS + symbolicCpuS + factorCpuS;
+        const ours = ANCHOR_CPU ? oursCpu : oursWall;
         const theirs = a.t_analyze + a.t_factorize;
         row.anchor = a;
         row.ratioTime = ours / theirs;
-        row.ratioTimeCpu = (orderCpuS + symbolicCpuS + factorCpuS) / theirs;
+        row.ratioTimeCpu = oursCpu / theirs;
         row.ratioNnzL = sym.nnzL / a.lnz;
         say(
           `  anchor: analyze ${a.t_analyze.toFixed(3)} s (${a.ordering}), factor ${a.t_factorize.toFixed(3)} s ` +
             `(repeat ${a.t_factorize2.toFixed(3)} s), solve ${a.t_solve_med.toFixed(3)} s, nnz(L) ${(a.lnz / 1e6).toFixed(2)}M, ` +
-            `RSS ${a.maxrss_MiB.toFixed(0)} MiB → ratio ordering+factor ${(ours / theirs).toFixed(2)} (our cpu ${((orderCpuS + symbolicCpuS + factorCpuS) / theirs).toFixed(2)}), nnz(L) ${(sym.nnzL / a.lnz).toFixed(2)}`,
+            `RSS ${a.maxrss_MiB.toFixed(0)} MiB → ratio ordering+factor ${(oursWall / theirs).toFixed(2)} (our cpu ${(oursCpu / theirs).toFixed(2)}; the anchor's seconds are ${ANCHOR_CPU ? 'CPU' : 'wall'}), nnz(L) ${(sym.nnzL / a.lnz).toFixed(2)}`,
         );
+        if (K.n >= 150_000) {
+          recordGoal({
+            what: `solver order + factor, clamped rectangle ${order === 1 ? 'CST' : 'LST'} ${K.n} dofs`,
+            measured: `ours ${ours.toFixed(2)} s, anchor ${theirs.toFixed(2)} s (${a.ordering}; ${ANCHOR_CPU ? 'CPU' : 'wall'} seconds)`,
+            value: ours / theirs, limit: 1, unit: '×', against: 'the anchor (optimised BLAS, 1 thread)',
+          });
+        }
       } else {
         say('  anchor: run failed');
       }

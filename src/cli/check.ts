@@ -3,7 +3,6 @@
  * verification suite, prints the table (or the JSON), optionally writes an HTML page, and sets
  * exit status 1 when any case fails.
  */
-import type { Command } from 'commander';
 import { progressBar } from './progress.js';
 import { CHECK_CASES, checksHtml, checksJson, checksTable, runChecks, type CheckResult } from '../check/index.js';
 import { PeakwiseError } from '../errors.js';
@@ -47,16 +46,4 @@ export function runCheck(_ctx: CliContext, opts: CheckCliOptions): void {
   if (results.some((r) => !r.pass)) {
     process.exitCode = 1;
   }
-}
-
-export function registerCheck(program: Command, ctx: CliContext): void {
-  program
-    .command('check')
-    .description('run the built-in verification cases against published results and independent FE reference values')
-    .option('--json', 'print { "cases": [...] } on stdout instead of the table')
-    .option('--report <file>', 'also write the table as a self-contained HTML page')
-    .option('--only <ids>', 'run only these cases (comma-separated ids, e.g. kirsch,lame)')
-    .option('--quiet', 'no progress bar')
-    .option('--no-color', 'plain text without colours (also honours NO_COLOR)')
-    .action(async (opts: CheckCliOptions) => runCheck(ctx, opts));
 }

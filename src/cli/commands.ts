@@ -1,15 +1,13 @@
 /**
- * The handlers of `peakwise mesh`, `solve` and `study`: each reads the model, hands it to the
+ * The handlers of `peakwise solve` and `study` (`mesh` is mesh-command.ts): each reads the model, hands it to the
  * pipeline (src/pipeline) or the study, and writes what came back — named steps, no solving here.
  */
 import { join } from 'node:path';
-import pc from 'picocolors';
-import { meshQuality } from '../mesh/index.js';
-import { fieldCsv, meshSvg, reportHtml, studyTable } from '../report/index.js';
+import { fieldCsv, reportHtml, studyTable } from '../report/index.js';
 import { runStudy as runStudyStage, type BaseSolve } from '../study/index.js';
 import type { StudyResult } from '../study/types.js';
 import {
-  adaptiveSolve, baseSizeField, estimateOf, meshAt, problemOf, sectionOf, solveProblem, type AdaptiveCycle, type Problem, type SolveLimits,
+  adaptiveSolve, estimateOf, problemOf, sectionOf, solveProblem, type AdaptiveCycle, type Problem, type SolveLimits,
 } from '../pipeline/index.js';
 import { healthWarnings } from '../fem/health.js';
 import { selectorWarnings } from '../fem/index.js';
@@ -17,7 +15,6 @@ import { progressBar } from './progress.js';
 import { recordedChecks } from './checks-record.js';
 import { checkCutOptions, writeCutOutputs, type CutCliOptions } from './cut.js';
 import { writeFileAtomic } from './io.js';
-import { plain } from './report-error.js';
 import {
   StudyInterrupted, emitWarnings, fieldColumns, fmt, levelsOption, limitsOf, loadModel, modelWarnings, outDirFor, positiveNumber,
   ratioOption, stopRequested, studyJson, useColor, type CliContext, type CommonOptions,
@@ -28,36 +25,6 @@ import { checkCaseOption, levelOfCase, loadSetNames } from './cases.js';
 import { caseStudyResult } from '../study/index.js';
 
 export { StudyInterrupted, setStopFlag, type CliContext, type CommonOptions } from './common.js';
-
-export async function runMesh(ctx: CliContext, file: string, opts: CommonOptions & { svg?: string }): Promise<void> {
-  const model = loadModel(ctx, file, opts);
-  const problem = problemOf(model);
-  const t0 = performance.now();
-  const mesh = meshAt(problem, baseSizeField(problem), problem.meshSettings.order);
-  const meshS = (performance.now() - t0) / 1000;
-  const q = meshQuality(mesh);
-  const { geometry } = problem;
-  if (opts.svg) writeFileAtomic(opts.svg, meshSvg(mesh, geometry, { title: model.title }), [file]);
-  if (opts.json) {
-    const { nodes, elements, order, minAngleDeg, maxAngleDeg, area, minEdge, maxEdge } = q;
-    const out = { mesh: { nodes, elements, order, minAngleDeg, maxAngleDeg, area, exactArea: geometry.area, minEdge, maxEdge }, timings: { meshS } };
-    process.stdout.write(JSON.stringify(out, null, 2) + '\n');
-    return;
-  }
-  const c = useColor(opts) ? pc : pc.createColors(false);
-  const L = model.units.length;
-  const lines = [
-    c.bold(plain(model.title)),
-    `  nodes      ${q.nodes}`,
-    `  elements   ${q.elements} (${q.order === 2 ? '6-node LST' : '3-node CST'})`,
-    `  angles     min ${q.minAngleDeg.toFixed(1)}°, max ${q.maxAngleDeg.toFixed(1)}°`,
-    `  area       ${fmt(q.area)} ${plain(L)}² (exact ${fmt(geometry.area)}, ${((q.area / geometry.area - 1) * 100).toFixed(4)} %)`,
-    `  edge sizes ${fmt(q.minEdge)} … ${fmt(q.maxEdge)} ${plain(L)}`,
-    `  time       ${(meshS * 1000).toFixed(0)} ms`,
-  ];
-  if (opts.svg) lines.push(`  picture    ${opts.svg}`);
-  process.stdout.write(lines.join('\n') + '\n');
-}
 
 export interface SolveOptions extends CommonOptions, CutCliOptions {
   exportMatrix?: string;

@@ -1,11 +1,10 @@
 /**
  * `--cut` for solve and study: the recovered stress along a line or an opening's edge, written to
  * `<out>/cut.csv`, with `--compare kirsch|lame|inglis` adding closed-form columns and the difference.
- * The command wiring calls `registerCutOptions(cmd)` when it builds the command and
+ * The command wiring adds the options with `registerCutOptions(cmd)` (register.ts) and calls
  * `writeCutOutputs(...)` once it has the mesh and the recovered field.
  */
 import { join } from 'node:path';
-import { Option, type Command } from 'commander';
 import { PeakwiseError } from '../errors.js';
 import type { Model, Point } from '../model/types.js';
 import type { Mesh } from '../mesh/types.js';
@@ -30,21 +29,6 @@ export interface CutCliOptions {
   outerPressure?: string;
   /** results along the same cut from another analysis: a CSV with x, y and one stress column */
   cutOther?: string;
-}
-
-/** Adds --cut and the comparison options to a command. */
-export function registerCutOptions(cmd: Command): Command {
-  return cmd
-    .option('--cut <spec>', 'stress along a line x1,y1:x2,y2[:n] (n samples, default 101) or around opening:<id>; writes cut.csv')
-    .addOption(new Option('--compare <form>', 'add a closed-form solution to cut.csv').choices(['kirsch', 'lame', 'inglis']))
-    .option('--remote <S>', 'remote tension for --compare kirsch|inglis')
-    .option('--load-angle <deg>', 'direction of the remote tension from the x axis, degrees (default 0)')
-    .option('--radius <a>', 'hole radius (kirsch) or inner radius (lame); default: the circular opening')
-    .option('--outer-radius <b>', 'outer radius for --compare lame; default: a circular outline')
-    .option('--centre <x,y>', 'centre of the hole or ring; default: the opening')
-    .option('--inner-pressure <p>', 'internal pressure for --compare lame (default: the model\'s pressure on that opening)')
-    .option('--outer-pressure <q>', 'external pressure for --compare lame (default: the model\'s pressure on the outline)')
-    .option('--cut-other <file.csv>', `results along the cut from another analysis (columns x, y and one of ${OTHER_CUT_COLUMNS.join(', ')}): drawn on the cut plot and written to cut.csv with the difference`);
 }
 
 function num(text: string | undefined, option: string): number | undefined {

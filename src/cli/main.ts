@@ -4,19 +4,17 @@
  * files and the console. Errors of ours become one line and exit status 1, never a stack trace.
  */
 import { Command, CommanderError, Option } from 'commander';
-import { isPeakwiseError } from '../errors.js';
-import { describeError } from './report-error.js';
-import { registerCutOptions } from './cut.js';
-import { runMesh, runSolve, runStudy, setStopFlag, StudyInterrupted, type CliContext } from './commands.js';
 import { Worker, isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { writeSync } from 'node:fs';
+import { isPeakwiseError } from '../errors.js';
 import { VERSION } from '../version.js';
-import { registerSweep } from './sweep.js';
-import { registerCheck } from './check.js';
-import { closeOutputSets } from './output-set.js';
-import { adoptWorkerLock, releaseAllLocks } from './lock.js';
 import { maxDofsArgument } from './options.js';
-import { registerResults } from './results.js';
+import { registerCheck, registerCutOptions, registerResults, registerSweep } from './register.js';
+import type { CliContext } from './common.js';
+
+// Only commander and the command definitions load up front: each action imports the modules it
+// needs when it runs, so --version and --help start in well under 0.1 s (docs/speed.md).
+const commands = (): Promise<typeof import('./commands.js')> => import('./commands.js');
 
 const ctx: CliContext = { file: undefined, model: undefined };
 
@@ -44,7 +42,7 @@ export function buildProgram(): Command {
       .command('mesh <model>')
       .description('mesh a model and print counts and quality')
       .option('--svg <file>', 'draw the mesh as SVG (boundary tags coloured)'),
-  ).action(async (model: string, opts) => runMesh(ctx, model, opts));
+  ).action(async (model: string, opts) => (await import('./mesh-command.js')).runMesh(ctx, model, opts));
 
   registerCutOptions(sharedOptions(
     program
@@ -56,7 +54,7 @@ export function buildProgram(): Command {
       .option('--max-dofs <n>', 'cap on degrees of freedom (a whole number)', maxDofsArgument, '2000000')
       .option('--report', 'also write report.html')
       .option('--case <name>', 'show this load case or combination (default: the first case)'),
-  )).action(async (model: string, opts) => runSolve(ctx, model, opts));
+  )).action(async (model: string, opts) => (await commands()).runSolve(ctx, model, opts));
 
   registerCutOptions(sharedOptions(
     program
@@ -66,7 +64,7 @@ export function buildProgram(): Command {
       .option('--ratio <r>', 'element size ratio between levels (overrides study.ratio)')
       .option('--max-dofs <n>', 'cap on degrees of freedom per solve (a whole number)', maxDofsArgument, '2000000')
       .option('--case <name>', 'show this load case or combination instead of the envelope (study.json holds every case)'),
-  )).action(async (model: string, opts) => runStudy(ctx, model, opts));
+  )).action(async (model: string, opts) => (await commands()).runStudy(ctx, model, opts));
 
   registerSweep(program, ctx);
   registerCheck(program, ctx);
@@ -96,13 +94,17 @@ async function main(argv: string[]): Promise<number> {
   const program = buildProgram();
   try {
     await program.parseAsync(argv);
-    closeOutputSets('done'); // the result set's manifest, written last
+    // a command ran, so the output-set module is loaded already; help and version never get here
+    (await import('./output-set.js')).closeOutputSets('done'); // the result set's manifest, written last
     return 0;
   } catch (e) {
     if (e instanceof CommanderError) {
       // help and version are "errors" to commander with exit code 0
       return e.exitCode === 0 ? 0 : 1;
     }
+    const { closeOutputSets } = await import('./output-set.js');
+    const { describeError } = await import('./report-error.js');
+    const { StudyInterrupted } = await import('./common.js');
     if (e instanceof StudyInterrupted) {
       try {
         closeOutputSets('interrupted');
@@ -130,7 +132,8 @@ async function main(argv: string[]): Promise<number> {
  * the first one for a single solve, which has nothing finished to keep — quits at once, and the
  * main thread releases the folder lock the worker reported.
  */
-function runInWorker(argv: string[], graceful: boolean): void {
+async function runInWorker(argv: string[], graceful: boolean): Promise<void> {
+  const { adoptWorkerLock, releaseAllLocks } = await import('./lock.js');
   const flag = new Int32Array(new SharedArrayBuffer(4));
   const worker = new Worker(new URL(import.meta.url), {
     argv: argv.slice(2),
@@ -198,7 +201,7 @@ if (isMainThread) {
   const command = process.argv[2];
   if (command === 'study' || command === 'solve') {
     const adapt = process.argv.some((a) => a === '--adapt' || a.startsWith('--adapt='));
-    runInWorker(process.argv, command === 'study' || adapt);
+    void runInWorker(process.argv, command === 'study' || adapt);
   } else {
     main(process.argv).then((code) => {
       // an action may have set a failure status itself (check: a case failed); keep it
@@ -207,7 +210,7 @@ if (isMainThread) {
   }
 } else {
   const data = workerData as { flag: Int32Array; stdoutTTY: boolean; stderrTTY: boolean; columns?: number };
-  setStopFlag(data.flag);
+  (await import('./common.js')).setStopFlag(data.flag);
   // the worker's streams are pipes to the main thread's; let colours and the progress bar
   // follow the real terminal
   if (data.stdoutTTY) Object.defineProperty(process.stdout, 'isTTY', { value: true });

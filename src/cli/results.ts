@@ -2,7 +2,6 @@
  * `peakwise results <folder>`: does the folder hold one complete result set (every file of its
  * run.json present and carrying the run id)? Exit 0 when complete, 1 when incomplete or empty.
  */
-import type { Command } from 'commander';
 import { statSync } from 'node:fs';
 import { PeakwiseError } from '../errors.js';
 import { join } from 'node:path';
@@ -24,12 +23,4 @@ export function runResults(folder: string, opts: { json?: boolean }): void {
   if (opts.json) process.stdout.write(JSON.stringify({ folder, ...state }, null, 2) + '\n');
   else process.stdout.write(lines.map(plain).join('\n') + '\n');
   if (!complete) process.exitCode = 1;
-}
-
-export function registerResults(program: Command): void {
-  program
-    .command('results <folder>')
-    .description('tell whether a result folder holds one complete result set (exit 1 if not)')
-    .option('--json', 'print the folder state as JSON')
-    .action(async (folder: string, opts: { json?: boolean }) => runResults(folder, opts));
 }

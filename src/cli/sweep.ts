@@ -5,7 +5,6 @@
  */
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { Option, type Command } from 'commander';
 import { progressBar } from './progress.js';
 import { CAUTION } from '../report/index.js';
 import pc from 'picocolors';
@@ -13,19 +12,21 @@ import { PeakwiseError } from '../errors.js';
 import { parseModel, stressUnit } from '../model/index.js';
 import { bandText, formatNumber } from '../report/index.js';
 import {
-  fromJson, memberAt, parseVary, runSweep, sweepCsv, sweepHtml, toJson,
-  type PointCache, type PointOutcome, type SweepResult, type SweepStudyOptions,
+  fromJson, memberAt, parseShard, parseVary, runSweep, sweepCsv, sweepHtml, toJson,
+  type PointCache, type PointOutcome, type Shard, type SweepResult, type SweepStudyOptions,
 } from '../sweep/index.js';
 import type { SiteResult } from '../study/types.js';
 import { StudyInterrupted, levelsOption, limitsOf, outDirFor, ratioOption, useColor, type CliContext, type CommonOptions } from './common.js';
-import { readModelText, writeFileAtomic } from './io.js';
-import { inputFile, noteInput } from './inputs.js';
+import { modelName, readModelText, writeFileAtomic } from './io.js';
+import { inputFile, inputsOfRun, noteInput } from './inputs.js';
+import { checkOutFolder } from './output-set.js';
 import { plain } from './report-error.js';
 
 export interface SweepCliOptions extends CommonOptions {
   vary: string[];
   maxDofs?: string;
   jobs?: string;
+  shard?: string;
   levels?: string;
   ratio?: string;
 }
@@ -59,15 +60,41 @@ export function pointFolderCache(dir: string, protect: string[]): PointCache {
   };
 }
 
-function collect(value: string, previous: string[]): string[] {
-  return [...previous, value];
-}
-
 function intOption(text: string | undefined, option: string, lo: number, hi: number): number | undefined {
   if (text === undefined) return undefined;
   const v = Number(text);
   if (!(Number.isInteger(v) && v >= lo && v <= hi)) throw new PeakwiseError('usage', `${option} must be an integer from ${lo} to ${hi}, got "${text}"`);
   return v;
+}
+
+/** The folder a shard writes its point files under: --out as given, checked like a result folder. */
+function shardOutDir(file: string, opts: SweepCliOptions): string {
+  const outDir = opts.out ?? join('out', modelName(file));
+  checkOutFolder(outDir, inputsOfRun(), file);
+  return outDir;
+}
+
+/** What a shard did: its points, where their files are, and how to merge (stdout; --json: the same as JSON). */
+function writeShardSummary(sweep: SweepResult, shard: Shard, outDir: string, opts: SweepCliOptions): void {
+  const k = shard.index + 1;
+  const n = shard.count;
+  const points = join(outDir, 'points');
+  if (opts.json) {
+    const record = { tool: sweep.tool, version: sweep.version, shard: { k, n }, pointsFolder: points, points: sweep.points.map((p) => ({ index: p.index, params: p.params, key: p.key, reused: p.reused })) };
+    process.stdout.write(toJson(record, 2) + '\n');
+    return;
+  }
+  process.stdout.write(
+    `  shard ${k}/${n}: ${sweep.points.length} points (every ${n === 1 ? '' : `${ordinal(n)} `}point from point ${k}), reused ${sweep.reused}, ${sweep.totalS.toFixed(1)} s\n` +
+    `  point files in ${points}; when every shard has finished, run the same command without --shard on a folder\n` +
+    '  that holds the point files of all shards: it computes nothing more and writes sweep.csv, sweep.html, sweep.json\n',
+  );
+}
+
+function ordinal(n: number): string {
+  const t = n % 100;
+  const suffix = t >= 11 && t <= 13 ? 'th' : n % 10 === 1 ? 'st' : n % 10 === 2 ? 'nd' : n % 10 === 3 ? 'rd' : 'th';
+  return `${n}${suffix}`;
 }
 
 function duration(s: number): string {
@@ -114,6 +141,7 @@ export async function runSweepCommand(ctx: CliContext, file: string, opts: Sweep
   const axes = opts.vary.map(parseVary);
   if (axes.length === 0) throw new PeakwiseError('usage', 'sweep needs at least one --vary name=values, e.g. --vary r=0,2,4');
   const jobs = intOption(opts.jobs, '--jobs', 1, 256);
+  const shard = opts.shard !== undefined ? parseShard(opts.shard) : undefined;
   const options: SweepStudyOptions = {};
   const levels = levelsOption(opts.levels);
   if (levels !== undefined) options.levels = levels;
@@ -128,7 +156,10 @@ export async function runSweepCommand(ctx: CliContext, file: string, opts: Sweep
   // the model as written, for error positions and units (each point re-parses with its params)
   const model = parseModel(text, file);
   ctx.model = model;
-  const outDir = outDirFor(file, opts, 'sweep');
+  // A shard writes point files only, into <out>/points/, and takes no lock: shards on many
+  // machines may share one folder (each point file is written atomically under its own name), and
+  // the run without --shard that merges them is the one that writes the result set.
+  const outDir = shard ? shardOutDir(file, opts) : outDirFor(file, opts, 'sweep');
   const protect = [file];
   const bar = progressBar(opts, 'points');
   let sweep: SweepResult;
@@ -149,10 +180,16 @@ export async function runSweepCommand(ctx: CliContext, file: string, opts: Sweep
       cache: pointFolderCache(join(outDir, 'points'), protect),
       onProgress: (done, total, left) => bar.update(done, total, `${duration(left)} left`),
       shouldStop: () => stop,
+      ...(shard ? { shard } : {}),
     });
   } finally {
     bar.stop();
     process.off('SIGINT', onSigint);
+  }
+  if (shard) {
+    writeShardSummary(sweep, shard, outDir, opts);
+    if (sweep.interrupted) throw new StudyInterrupted();
+    return;
   }
   const unit = stressUnit(model.units);
   writeFileAtomic(join(outDir, 'sweep.csv'), sweepCsv(sweep), protect);
@@ -171,45 +208,26 @@ export async function runSweepCommand(ctx: CliContext, file: string, opts: Sweep
   }
 }
 
-/** sweep.json: the sweep without each point's level-by-level detail (that stays in points/). */
+/**
+ * sweep.json: the sweep without each point's level-by-level detail (that stays in points/). It
+ * holds results only — no wall times, no count of reused points (the terminal says those) — so
+ * one run, a resumed run and a run merged from shards write the same bytes.
+ */
 export function sweepJson(sweep: SweepResult): unknown {
   return {
     tool: sweep.tool,
     version: sweep.version,
     model: sweep.model,
     axes: sweep.axes,
-    reused: sweep.reused,
-    totalS: sweep.totalS,
     ...(sweep.interrupted ? { interrupted: true } : {}),
     families: sweep.families,
     points: sweep.points.map((p) => ({
       index: p.index,
       params: p.params,
       key: p.key,
-      reused: p.reused,
-      seconds: p.seconds,
       sites: p.study.sites.map((s) => ({
         id: s.id, at: s.at, feature: s.feature.kind, verdict: s.verdict, estimate: s.estimate, growth: s.growth, readouts: s.readouts,
       })),
     })),
   };
-}
-
-/** Adds the sweep command to the program (called once from buildProgram). */
-export function registerSweep(program: Command, ctx: CliContext): void {
-  program
-    .command('sweep <model>')
-    .description('repeat the study over parameter values (worker threads), resuming from earlier point files')
-    .option('--vary <name=values>', 'a parameter and its values: r=0,2,4 or "r=0..20 by 2" (start..end by step); repeat for a grid', collect, [] as string[])
-    .option('--jobs <n>', 'worker threads (default: one per core)')
-    .option('--levels <n>', 'refinement levels per site (overrides study.levels)')
-    .option('--ratio <r>', 'element size ratio between levels (overrides study.ratio)')
-    .option('--max-dofs <n>', 'cap on degrees of freedom per solve', '2000000')
-    .option('--out <dir>', 'output folder (default out/<model-name>)')
-    .option('--json', 'print the machine-readable result on stdout')
-    .addOption(new Option('--order <n>', 'element order: 1 = 3-node, 2 = 6-node triangles').choices(['1', '2']))
-    .option('--size <h>', 'target element size far from features (overrides mesh.size)')
-    .option('--quiet', 'no progress bar, only the result')
-    .option('--no-color', 'plain text without colours (also honours NO_COLOR)')
-    .action(async (model: string, opts: SweepCliOptions) => runSweepCommand(ctx, model, opts));
 }

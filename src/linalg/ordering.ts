@@ -123,6 +123,8 @@ class DissectionWork {
   private readonly from: Int32Array;
   private readonly queue: Int32Array;
   private readonly keys: Float64Array[];
+  /** per key: the largest change of that key along any edge of each node (see `separator`) */
+  private readonly reach: Float64Array[];
   private stampNow = 0;
 
   constructor(private readonly g: NodeGraph, nx: Float64Array, ny: Float64Array) {
@@ -139,6 +141,7 @@ class DissectionWork {
       diff[v] = nx[v] - ny[v];
     }
     this.keys = [nx, ny, sum, diff];
+    this.reach = [edgeReach(g, nx), edgeReach(g, ny)];
   }
 
   bisect(nodes: Int32Array): { left: Int32Array; right: Int32Array; sep: Int32Array } {
@@ -146,6 +149,7 @@ class DissectionWork {
     let best: Int32Array | undefined;
     let bestSep: Int32Array | undefined;
     let bestCut = 0;
+    let bestKey = 0;
     let bestScore = Infinity;
     // primary / secondary key pairs x|y and y|x (the two diagonals were tried too: they never
     // gave a smaller fill on the benchmark plates and doubled the time)
@@ -164,17 +168,18 @@ class DissectionWork {
         // separator size over the balance term s(1 − s): the median is charged 4·|S|, a
         // 45/55 cut 4.04·|S|. Scoring by the one-sided layer instead of the cover was tried:
         // cheaper per cut but 1–4 % more fill.
-        const size = this.separator(trial, c).length;
+        const size = this.separator(trial, c, a).length;
         const smaller = Math.min(c, m - c) / m;
         const score = size / (smaller * (1 - smaller));
         if (score < bestScore) {
           best = trial;
           bestCut = c;
+          bestKey = a;
           bestScore = score;
         }
       }
     }
-    bestSep = this.separator(best!, bestCut);
+    bestSep = this.separator(best!, bestCut, bestKey);
     const order = best!;
     const sep = bestSep!;
     const side = this.side;
@@ -203,14 +208,27 @@ class DissectionWork {
    * Z = nodes reachable from unmatched left nodes by alternating paths; cover = (left \ Z) ∪
    * (right ∩ Z). Leaves `side` cleared.
    */
-  private separator(order: Int32Array, half: number): Int32Array {
+  private separator(order: Int32Array, half: number, key: number): Int32Array {
     const { g, side, mate, stamp, from, queue } = this;
     const adjPtr = g.adjPtr, adjIdx = g.adjIdx;
-    for (let t = 0; t < order.length; t++) side[order[t]] = t < half ? 1 : 2;
+    // The cut splits by `key` first: every right node has key ≥ the right side's smallest key, so
+    // a left node whose key plus its edge reach stays below that cannot touch the right side and
+    // its adjacency need not be read (the same boundary list, in the same order, as reading all).
+    const k = this.keys[key], reach = this.reach[key];
+    let rightMin = Infinity;
+    for (let t = 0; t < order.length; t++) {
+      const v = order[t];
+      if (t < half) side[v] = 1;
+      else {
+        side[v] = 2;
+        if (k[v] < rightMin) rightMin = k[v];
+      }
+    }
     // left boundary nodes, and reset mates of the boundary
     const leftB: number[] = [];
     for (let t = 0; t < half; t++) {
       const v = order[t];
+      if (k[v] + reach[v] + 1e-9 * (Math.abs(k[v]) + reach[v]) < rightMin) continue; // margin for rounding
       for (let p = adjPtr[v]; p < adjPtr[v + 1]; p++) {
         if (side[adjIdx[p]] === 2) {
           leftB.push(v);
@@ -284,6 +302,20 @@ class DissectionWork {
     for (let t = 0; t < order.length; t++) side[order[t]] = 0;
     return Int32Array.from(cover);
   }
+}
+
+/** Per node: the largest |key(u) − key(v)| over its neighbours u (0 for an isolated node). */
+function edgeReach(g: NodeGraph, key: Float64Array): Float64Array {
+  const r = new Float64Array(g.n);
+  for (let v = 0; v < g.n; v++) {
+    let m = 0;
+    for (let p = g.adjPtr[v]; p < g.adjPtr[v + 1]; p++) {
+      const d = Math.abs(key[g.adjIdx[p]] - key[v]);
+      if (d > m) m = d;
+    }
+    r[v] = m;
+  }
+  return r;
 }
 
 /** AMD on the subgraph induced by `nodes`, appended to out. */
@@ -373,18 +405,32 @@ export interface ChooseOrderingOptions {
    * against 0.1 s at 200 000 dofs), so below the threshold it would mostly be paid for nothing.
    */
   ndMinRows?: number;
+  /**
+   * From this many rows on (default 600 000), with coordinates, nested dissection alone: AMD is
+   * not computed. Measured (docs/linalg.md): ND's fill is 0.64–0.88 × AMD's on every benchmark
+   * plate from 400 000 rows on (hole 1M 0.85, LST 800k 0.82, CST 800k 0.81), so AMD would be
+   * thrown away, and at 800 000 LST dofs it took 0.5–0.9 s of a 2.3–3.5 s ordering.
+   */
+  ndOnlyRows?: number;
 }
 
 /**
  * Try AMD and, when coordinates are given and the matrix is large enough, nested dissection;
- * keep the one with the smaller predicted nnz(L). The node graph is built once for both, and
+ * keep the one with the smaller predicted nnz(L) — or, above `ndOnlyRows`, nested dissection alone. The node graph is built once for both, and
  * each candidate carries its elimination tree and column counts (computed on the node graph),
  * so the prediction is a sum and `symbolicFactor` starts from the winner's tree.
  */
 export function chooseOrderingDetailed(A: Csr, rowXY?: Float64Array, options: ChooseOrderingOptions = {}): OrderingChoice {
   const ndMinRows = options.ndMinRows ?? 300_000;
+  const ndOnlyRows = options.ndOnlyRows ?? 600_000;
   const candidates: OrderingChoice['candidates'] = [];
   const g = compressGraph(A);
+  if (rowXY && A.n >= Math.max(ndMinRows, ndOnlyRows)) {
+    const nd = orderNestedDissection(A, rowXY, {}, g);
+    const ndNnz = predictNnzL(A, nd);
+    candidates.push({ method: 'nested-dissection', nnzL: ndNnz });
+    return { ordering: nd, nnzL: ndNnz, candidates };
+  }
   const amd = orderAmd(A, g);
   let best = amd;
   let bestNnz = predictNnzL(A, amd);

@@ -35,7 +35,7 @@ const STEINER = -2;
 
 /**
  * Refine `m` in place until no boundary segment is encroached and no triangle is skinny or
- * oversized: encroached segments first, then the triangles in queue order.
+ * oversized: encroached segments first (oldest first), then the triangles, newest first.
  */
 export function refineMesh(m: TriMesh, geom: PlateGeometry, opts: RefineOptions): void {
   const r = new Refinement(m, geom, opts);
@@ -60,7 +60,7 @@ class Refinement {
   /** pieces meeting at a sharp corner → that corner's position */
   private readonly acutePair = new Map<number, readonly [number, number]>();
   private readonly segQ = new IntQueue(1024);
-  private readonly triQ: IntQueue;
+  private readonly triQ: IntStack;
   private readonly pt = [0, 0];
   private readonly sp = [0, 0];
 
@@ -81,7 +81,7 @@ class Refinement {
         this.acutePair.set(c.pieceOut * this.np + c.pieceIn, c.at);
       }
     }
-    this.triQ = new IntQueue(4 * m.nT + 1024);
+    this.triQ = new IntStack(4 * m.nT + 1024);
   }
 
   /** every encroached boundary edge and every triangle of the initial triangulation */
@@ -105,7 +105,7 @@ class Refinement {
         continue;
       }
       if (triQ.size === 0) break;
-      const t = triQ.shift();
+      const t = triQ.pop();
       const cure = this.triangleCure(t);
       if (cure === KEEP) continue;
       if (cure >= 0) {
@@ -349,6 +349,32 @@ class Refinement {
       out[0] = mx + f * (ccx - mx);
       out[1] = my + f * (ccy - my);
     }
+  }
+}
+
+/**
+ * LIFO of integer ids that doubles when full: the triangles to check. The newest triangles are
+ * checked first, while their vertices, neighbours and marks are still in the processor's cache —
+ * the refinement is memory-bound, and taking the triangles first-in first-out visited the mesh in
+ * generations spread over all of it (2.2–2.5× the time on a 300 000-vertex plate, docs/mesh.md).
+ * Ruppert's guarantees (termination, the angle bound, size grading) hold for any order.
+ */
+class IntStack {
+  private buf: Int32Array;
+  size = 0;
+  constructor(cap: number) {
+    this.buf = new Int32Array(Math.max(16, cap));
+  }
+  push(v: number): void {
+    if (this.size === this.buf.length) {
+      const b = new Int32Array(2 * this.buf.length);
+      b.set(this.buf);
+      this.buf = b;
+    }
+    this.buf[this.size++] = v;
+  }
+  pop(): number {
+    return this.buf[--this.size];
   }
 }
 

@@ -238,8 +238,8 @@ export function cutCsv(table: CutTable, units?: { length: string; stress: string
 }
 
 /** Stress columns a line of results from another analysis may hold (cut.csv's own names). */
-export const OTHER_CUT_COLUMNS = ['sxx', 'syy', 'sxy', 'szz', 's1', 's2', 'von_mises', 'tresca', 'tangential'] as const;
-export type OtherCutColumn = (typeof OTHER_CUT_COLUMNS)[number];
+export { OTHER_CUT_COLUMNS, type OtherCutColumn } from './cut-columns.js';
+import type { OtherCutColumn } from './cut-columns.js';
 
 const SAMPLE_KEY: Record<OtherCutColumn, keyof CutSample> = {
   sxx: 'sxx', syy: 'syy', sxy: 'sxy', szz: 'szz', s1: 's1', s2: 's2', von_mises: 'vonMises', tresca: 'tresca', tangential: 'tangential',

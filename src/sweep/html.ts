@@ -212,7 +212,7 @@ export function sweepHtml(sweep: SweepResult, stressUnit: string): string {
 <html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1">
 <title>${title}: parameter sweep</title><style>${PAGE_CSS}</style></head>
 <body><header><p class="muted">peakwise ${escapeXml(sweep.version)} · parameter sweep</p><h1>${title}</h1>
-<p>${axes} — ${sweep.points.length} points (${sweep.reused} reused from earlier runs).</p>
+<p>${axes} — ${sweep.points.length} points.</p>
 <p class="caution">${escapeXml(CAUTION)}</p></header>
 <p class="muted">Sites are followed from point to point by feature and location (a fillet continues the corner it rounds); the family names F1, F2, … are the sweep's own. A singular site has no value, its peak being no stress: it is drawn apart, and its stress at a distance (the point readout) is in the table.</p>
 ${KEY}

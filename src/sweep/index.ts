@@ -5,4 +5,4 @@ export { matchSites, memberAt, featureClass, matchTolerance, MATCH_TOLERANCE_FRA
 export { sweepCsv, FAMILY_COLUMNS } from './csv.js';
 export { sweepHtml, familyPlotSvg, roundTicks, tickLabel } from './html.js';
 export { pointKey, runPoint, toJson, fromJson, type PointTask, type PointOutcome } from './point.js';
-export { runSweep, WORKER_URL, type SweepOptions, type PointCache } from './runner.js';
+export { runSweep, parseShard, WORKER_URL, type SweepOptions, type PointCache, type Shard } from './runner.js';

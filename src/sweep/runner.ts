@@ -12,7 +12,7 @@ import { ModelError, PeakwiseError, type ErrorStage } from '../errors.js';
 import { parseModel } from '../model/index.js';
 import { VERSION } from '../version.js';
 import { matchSites } from './match.js';
-import { fromJson, pointKey, runPoint, type PointOutcome, type PointTask } from './point.js';
+import { fromJson, pointKey, runPoint, toJson, type PointOutcome, type PointTask } from './point.js';
 import type { SweepPoint, SweepResult, SweepStudyOptions, VaryAxis } from './types.js';
 import { cartesian } from './values.js';
 import type { WorkerReply } from './worker.js';
@@ -34,6 +34,29 @@ export interface SweepOptions extends SweepStudyOptions {
   shouldStop?(): boolean;
   /** limits of every solve of every point (dof cap, factor-memory cap, residual limit; default: none) */
   limits?: SolveLimits;
+  /**
+   * Run only the points of one shard: point i (0-based, in cartesian order) belongs to shard
+   * i mod count. The result then holds that shard's points; their point files, together with those
+   * of the other shards, make the whole sweep (docs/sweep.md, "Spreading a sweep over machines").
+   */
+  shard?: Shard;
+}
+
+/** Shard `index` (0-based) of `count`. */
+export interface Shard {
+  index: number;
+  count: number;
+}
+
+/** `k/n` (k from 1 to n) as a shard, or a usage error naming the option. */
+export function parseShard(text: string, option = '--shard'): Shard {
+  const m = /^\s*(\d+)\s*\/\s*(\d+)\s*$/.exec(text);
+  const k = m ? Number(m[1]) : NaN;
+  const n = m ? Number(m[2]) : NaN;
+  if (!(Number.isSafeInteger(n) && n >= 1 && n <= 100_000 && Number.isSafeInteger(k) && k >= 1 && k <= n)) {
+    throw new PeakwiseError('usage', `${option} must be k/n with whole numbers 1 ≤ k ≤ n ≤ 100000 (shard k of n), got "${text}"`);
+  }
+  return { index: k - 1, count: n };
 }
 
 /** The compiled worker next to this file; absent when running from the TypeScript sources. */
@@ -77,11 +100,17 @@ export async function runSweep(text: string, file: string, axes: VaryAxis[], opt
   } catch (e) {
     throw withPointContext(combos[0], e);
   }
-  const total = combos.length;
-  const points: (SweepPoint | undefined)[] = new Array(total);
+  const points: (SweepPoint | undefined)[] = new Array(combos.length);
   const pending: PointTask[] = [];
   let done = 0;
+  const shard = opts.shard;
+  if (shard && !(Number.isInteger(shard.count) && shard.count >= 1 && Number.isInteger(shard.index) && shard.index >= 0 && shard.index < shard.count)) {
+    throw new PeakwiseError('usage', `shard ${shard.index + 1} of ${shard.count} does not exist`);
+  }
+  const mine = (index: number): boolean => !shard || index % shard.count === shard.index;
+  const total = combos.filter((_p, i) => mine(i)).length;
   combos.forEach((params, index) => {
+    if (!mine(index)) return;
     const key = pointKey(text, params, options);
     const hit = opts.cache?.get(key);
     if (hit) {
@@ -113,7 +142,10 @@ export async function runSweep(text: string, file: string, axes: VaryAxis[], opt
       if (opts.shouldStop?.()) break;
       let outcome: PointOutcome;
       try {
-        outcome = runPoint(task);
+        // through the JSON text, as a worker's reply and a point file are: a point computed here
+        // and one read back must be the same value, so that a resumed sweep, or one merged from
+        // shards, writes the same files as one run
+        outcome = fromJson<PointOutcome>(toJson(runPoint(task)));
       } catch (e) {
         throw withPointContext(task.params, e);
       }

@@ -3,7 +3,7 @@ import { Command } from 'commander';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { registerCheck } from '../../src/cli/check.js';
+import { registerCheck } from '../../src/cli/register.js';
 
 /* The `check` command wired on a bare commander program, one fast case only (the full suite runs in checks.test.ts). */
 function program(): Command {

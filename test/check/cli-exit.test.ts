@@ -17,7 +17,7 @@ afterEach(() => {
 
 describe('peakwise check exit status', () => {
   it('a failing case → FAIL in the table and exit status 1, no exception', async () => {
-    const { registerCheck } = await import('../../src/cli/check.js');
+    const { registerCheck } = await import('../../src/cli/register.js');
     let out = '';
     vi.spyOn(process.stdout, 'write').mockImplementation((chunk: string | Uint8Array) => { out += String(chunk); return true; });
     const p = new Command().exitOverride();

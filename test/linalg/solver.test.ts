@@ -149,6 +149,11 @@ describe('orderings', () => {
     const choice = chooseOrderingDetailed(A, rowXY, { ndMinRows: 0 });
     expect(choice.candidates.length).toBe(2);
     expect(choice.nnzL).toBe(Math.min(...choice.candidates.map((c) => c.nnzL)));
+    // above ndOnlyRows nested dissection alone: one candidate, the same permutation and fill as ND
+    const ndOnly = chooseOrderingDetailed(A, rowXY, { ndMinRows: 0, ndOnlyRows: 0 });
+    expect(ndOnly.candidates.map((c) => c.method)).toEqual(['nested-dissection']);
+    expect(Array.from(ndOnly.ordering.perm)).toEqual(Array.from(orderNestedDissection(A, rowXY).perm));
+    expect(ndOnly.nnzL).toBe(nd);
   });
 
   it('symbolic column counts match the numeric pattern (row-subtree check on the dense L)', () => {

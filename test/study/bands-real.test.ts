@@ -106,7 +106,10 @@ study: { measure: von-mises, levels: ${levels} }
 `, 'strap.yaml'));
   const peaks = (levels: number) => {
     const r = strap(levels);
-    const p = r.sites.filter((s) => Math.abs(Math.abs(s.at[0]) - 5) < 1e-9 && Math.abs(s.at[1]) < 1e-9);
+    // the site is the node of the first solve's peak; the peak is flat across (±a, 0) (the hoop
+    // stress varies with the square of the angle there), so the node beside it may hold it: on the
+    // 7-level ladder one site is 0.009 mm (0.1°) off the axis, where σ differs by about 1e−5 relative
+    const p = r.sites.filter((s) => Math.abs(Math.hypot(s.at[0], s.at[1]) - 5) < 1e-4 && Math.abs(s.at[1]) < 0.05);
     expect(p.length).toBe(2);
     return p;
   };

@@ -1,0 +1,224 @@
+/**
+ * Whole commands as a user runs them (the built CLI in a fresh process, dist/cli/main.js):
+ *
+ * - start-up: `--version` and `--help`, median of 11 (goal ≤ 0.1 s each, issue 16);
+ * - `study` of every demo model, median of 3, as a ratio to the yardstick (goals.ts): ≤ 1.2× for
+ *   models/l-bracket-sharp.yaml, ≤ 1.7× for every demo with a single load case; and its breakdown
+ *   (start, mesh, solve, recover, write) from a CPU profile of one more run;
+ * - `mesh` of a plate of about 300 000 nodes, median of 3, against plain delaunator on as many
+ *   random points in this process (goal ≤ 3×).
+ *
+ * The breakdown: one extra run under `node --cpu-prof` (both threads: the command's work runs in a
+ * worker), every sample charged to the innermost frame of ours on its stack, by stage folder:
+ * model parsing, module loading and compilation are "start"; geometry and mesh "mesh"; fem and
+ * linalg "solve"; recovery "recover"; report, output files and the file system "write"; the study's
+ * own logic (sites, fits, verdicts) and the pipeline glue "study"; garbage collection "gc". Idle
+ * time (the main thread waiting for the worker) is left out. The shares are of CPU time; the
+ * profiler slows the run a little, so they are shares, not a second wall time.
+ */
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import Delaunator from 'delaunator';
+import { delaunaySeconds, median, randomPoints, recordGoal, sampleYardstick, yardstick } from './goals.js';
+
+const root = join(import.meta.dirname, '..', '..');
+const bin = join(root, 'dist', 'cli', 'main.js');
+
+function runOnce(args: string[], nodeFlags: string[] = []): { seconds: number; stdout: string; status: number | null } {
+  const t0 = performance.now();
+  const r = spawnSync(process.execPath, [...nodeFlags, bin, ...args], { cwd: root, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' }, maxBuffer: 64 << 20 });
+  const seconds = (performance.now() - t0) / 1000;
+  if (r.status !== 0) throw new Error(`peakwise ${args.join(' ')} failed (status ${r.status}): ${r.stderr}`);
+  return { seconds, stdout: r.stdout, status: r.status };
+}
+
+function timeCommand(args: string[], runs: number): number {
+  const ts: number[] = [];
+  for (let k = 0; k < runs; k++) ts.push(runOnce(args).seconds);
+  return median(ts);
+}
+
+export const PHASES = ['start', 'mesh', 'solve', 'recover', 'study', 'write', 'gc'] as const;
+export type Phase = (typeof PHASES)[number];
+
+interface ProfileNode { id: number; callFrame: { functionName: string; url: string; lineNumber: number }; children?: number[] }
+interface Profile { nodes: ProfileNode[]; samples: number[]; timeDeltas: number[] }
+
+const STAGE_PHASE: Record<string, Phase> = {
+  model: 'start', geometry: 'mesh', mesh: 'mesh', element: 'solve', fem: 'solve', linalg: 'solve', recovery: 'recover',
+  report: 'write', study: 'study', pipeline: 'study', reference: 'study', sweep: 'study', check: 'study',
+};
+
+/** The phase of one stack, innermost frame first. */
+function phaseOf(stack: readonly ProfileNode['callFrame'][]): Phase | 'idle' {
+  const top = stack[0];
+  if (top.functionName === '(idle)') return 'idle';
+  if (top.functionName === '(garbage collector)') return 'gc';
+  for (const f of stack) {
+    const m = /\/dist\/([^/]+)\/([^/]+)\.js$/.exec(f.url);
+    if (!m) continue;
+    if (f.functionName === '' && f.lineNumber === 0) return 'start'; // a module's top-level code
+    const [, stage, file] = m;
+    if (stage === 'cli') return /output|io|results|lock|study-output|solve-output|cut/.test(file) ? 'write' : 'start';
+    return STAGE_PHASE[stage] ?? 'study';
+  }
+  // no frame of ours: module loading and compilation, or the runtime
+  return 'start';
+}
+
+/** CPU milliseconds per phase over every profile file in `dir`. */
+export function profilePhases(dir: string): Record<Phase, number> {
+  const out = Object.fromEntries(PHASES.map((p) => [p, 0])) as Record<Phase, number>;
+  for (const f of readdirSync(dir).filter((n) => n.endsWith('.cpuprofile'))) {
+    const p = JSON.parse(readFileSync(join(dir, f), 'utf8')) as Profile;
+    const byId = new Map(p.nodes.map((n) => [n.id, n]));
+    const parent = new Map<number, number>();
+    for (const n of p.nodes) for (const c of n.children ?? []) parent.set(c, n.id);
+    const cache = new Map<number, Phase | 'idle'>();
+    const phaseOfNode = (id: number): Phase | 'idle' => {
+      let ph = cache.get(id);
+      if (ph === undefined) {
+        const stack: ProfileNode['callFrame'][] = [];
+        for (let at: number | undefined = id; at !== undefined; at = parent.get(at)) stack.push(byId.get(at)!.callFrame);
+        ph = phaseOf(stack);
+        cache.set(id, ph);
+      }
+      return ph;
+    };
+    for (let i = 0; i < p.samples.length; i++) {
+      const ph = phaseOfNode(p.samples[i]);
+      if (ph !== 'idle') out[ph] += (p.timeDeltas[i] ?? 0) / 1000;
+    }
+  }
+  return out;
+}
+
+/** Phase shares of one profiled run of `args`, as text. */
+function breakdown(args: string[]): string {
+  const dir = mkdtempSync(join(tmpdir(), 'peakwise-prof-'));
+  try {
+    runOnce(args, ['--cpu-prof', `--cpu-prof-dir=${dir}`]);
+    const ms = profilePhases(dir);
+    const total = PHASES.reduce((s, p) => s + ms[p], 0);
+    return PHASES.map((p) => `${p} ${((100 * ms[p]) / total).toFixed(0)} %`).join(', ') + ` of ${(total / 1000).toFixed(2)} s CPU`;
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+export function benchStartup(quick: boolean): void {
+  const n = quick ? 5 : 11;
+  // Node's own start, the floor under any command (on a loaded machine it rises with the rest)
+  const floor: number[] = [];
+  for (let k = 0; k < n; k++) {
+    const t0 = performance.now();
+    spawnSync(process.execPath, ['-e', '0']);
+    floor.push((performance.now() - t0) / 1000);
+  }
+  process.stdout.write(`  node -e 0 (Node's own start): ${(median(floor) * 1000).toFixed(0)} ms (median of ${n})\n`);
+  for (const flag of ['--version', '--help']) {
+    const s = timeCommand([flag], n);
+    process.stdout.write(`  peakwise ${flag}: ${(s * 1000).toFixed(0)} ms (median of ${n})\n`);
+    recordGoal({ what: `peakwise ${flag}`, measured: `median of ${n}`, value: s, limit: 0.1, unit: 's' });
+  }
+}
+
+/** The demo models, and whether each has a single load case (no `cases` key). */
+function demoModels(): { file: string; singleCase: boolean }[] {
+  const dir = join(root, 'models');
+  return readdirSync(dir).filter((f) => f.endsWith('.yaml')).sort().map((f) => ({
+    file: `models/${f}`,
+    singleCase: !/^cases\s*:/m.test(readFileSync(join(dir, f), 'utf8')),
+  }));
+}
+
+export function benchStudyCommands(quick: boolean): void {
+  const out = mkdtempSync(join(tmpdir(), 'peakwise-bench-study-'));
+  const runs = quick ? 1 : 3;
+  const timed: { file: string; singleCase: boolean; s: number }[] = [];
+  try {
+    const demos = demoModels().filter((d) => !quick || d.file === 'models/l-bracket-sharp.yaml');
+    sampleYardstick();
+    for (const { file, singleCase } of demos) {
+      const args = ['study', file, '--out', join(out, file.replace(/\W/g, '-')), '--quiet'];
+      sampleYardstick(); // one yardstick sample beside every command
+      const s = timeCommand(args, runs);
+      timed.push({ file, singleCase, s });
+      process.stdout.write(`  study ${file}: ${s.toFixed(2)} s (median of ${runs})${singleCase ? '' : ' (several load cases)'}\n`);
+      process.stdout.write(`    breakdown: ${breakdown(args)}\n`);
+    }
+    sampleYardstick();
+  } finally {
+    rmSync(out, { recursive: true, force: true });
+  }
+  const y = yardstick();
+  process.stdout.write(`  yardstick: plain delaunator on 1 000 000 random points ${y.toFixed(3)} s (median of the samples so far)\n`);
+  for (const { file, singleCase, s } of timed) {
+    const ratio = s / y;
+    process.stdout.write(`  study ${file}: ${ratio.toFixed(2)}× the yardstick\n`);
+    const measured = `${s.toFixed(2)} s (median of ${runs})`;
+    if (file === 'models/l-bracket-sharp.yaml') recordGoal({ what: `study ${file} (whole command)`, measured, value: ratio, limit: 1.2, unit: '×', against: 'the yardstick' });
+    else if (singleCase) recordGoal({ what: `study ${file} (whole command)`, measured, value: ratio, limit: 1.7, unit: '×', against: 'the yardstick' });
+  }
+}
+
+/** An invented machine-base plate (the mesher benchmark's, src/bench/mesh.ts) as a model file, order 1, at element size `size`. */
+export function basePlateModel(size: number): string {
+  return `title: bench machine-base plate
+material: { E: 210000, nu: 0.3 }
+thickness: 10
+plate:
+  outline: { rect: { center: [500, 300], width: 1000, height: 600, round: 30 } }
+  openings:
+    - { id: bolt-a, circle: { center: [120, 120], radius: 22 } }
+    - { id: bolt-b, circle: { center: [880, 120], radius: 22 } }
+    - { id: bolt-c, circle: { center: [120, 480], radius: 22 } }
+    - { id: bolt-d, circle: { center: [880, 480], radius: 22 } }
+    - { id: cable, circle: { center: [640, 300], radius: 60 } }
+    - { id: slot, rect: { center: [330, 300], width: 220, height: 50, round: 24 } }
+supports:
+  - { where: { x: 0 }, fix: [x, y] }
+loads:
+  - { where: { x: 1000 }, traction: [10, 0] }
+mesh: { size: ${size}, order: 1 }
+`;
+}
+
+export function benchMeshCommand(quick: boolean): void {
+  const dir = mkdtempSync(join(tmpdir(), 'peakwise-bench-mesh-'));
+  try {
+    // size 1.5 gives about 306 000 nodes (order 1: nodes = vertices); quick: about 40 000
+    const file = join(dir, 'base-plate.yaml');
+    writeFileSync(file, basePlateModel(quick ? 4 : 1.5));
+    const runs = quick ? 1 : 3;
+    const first = runOnce(['mesh', file, '--json']);
+    const q = JSON.parse(first.stdout) as { mesh: { nodes: number; minAngleDeg: number } };
+    // the command and plain delaunator on as many random points taken in turn, so that both
+    // medians come from the same minutes
+    delaunaySeconds(100_000, 1); // warm-up
+    const pts = randomPoints(q.mesh.nodes);
+    const cmd: number[] = [];
+    const del: number[] = [];
+    for (let k = 0; k < runs; k++) {
+      const t0 = performance.now();
+      new Delaunator(pts);
+      del.push((performance.now() - t0) / 1000);
+      cmd.push(runOnce(['mesh', file]).seconds);
+    }
+    const s = median(cmd);
+    const d = median(del);
+    const ratio = s / d;
+    process.stdout.write(
+      `  peakwise mesh (machine-base plate, ${q.mesh.nodes} nodes, min angle ${q.mesh.minAngleDeg.toFixed(2)}°): ${s.toFixed(3)} s (median of ${runs}), ` +
+        `delaunator on ${q.mesh.nodes} random points ${d.toFixed(3)} s → ${ratio.toFixed(2)}×\n`,
+    );
+    if (!quick) {
+      recordGoal({ what: `peakwise mesh, ${q.mesh.nodes} nodes (whole command)`, measured: `${s.toFixed(2)} s (median of ${runs})`, value: ratio, limit: 3, unit: '×', against: `delaunator on as many random points (${d.toFixed(3)} s)` });
+      recordGoal({ what: 'min angle of that mesh', measured: `${q.mesh.minAngleDeg.toFixed(2)}°`, value: 28 / q.mesh.minAngleDeg, limit: 1, unit: '×', against: '28° / min angle' });
+    }
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
