@@ -63,7 +63,8 @@ export function buildProgram(): Command {
       .description('study the sites (theory features, stress maxima above 1.3 × the median, or the listed points): refine each level after level and give a verdict')
       .option('--levels <n>', 'refinement levels per site (overrides study.levels)')
       .option('--ratio <r>', 'element size ratio between levels (overrides study.ratio)')
-      .option('--max-dofs <n>', 'cap on degrees of freedom per solve (a whole number)', maxDofsArgument, '2000000'),
+      .option('--max-dofs <n>', 'cap on degrees of freedom per solve (a whole number)', maxDofsArgument, '2000000')
+      .option('--jobs <n>', 'worker threads for the levels (default: one per core; 1 solves every level in one thread)'),
   )).action(async (model: string, opts) => runStudy(ctx, model, opts));
 
   registerSweep(program, ctx);
