@@ -1,0 +1,131 @@
+/**
+ * Levels in parallel (issue 16 §1): the ladder's levels on worker threads give the serial study's
+ * result byte for byte — the built binary's study.json (its one clock reading, timings.totalS,
+ * masked), sites.csv and report.html — and the library's stop and failure paths keep the levels a
+ * serial run would keep. Runs the compiled code (dist/): the workers load dist/study/worker.js.
+ */
+import { execFile } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { keptRun } from '../../src/study/parallel.js';
+
+type StudyModule = typeof import('../../src/study/index.js');
+type ModelModule = typeof import('../../src/model/index.js');
+
+const root = join(import.meta.dirname, '..', '..');
+const bin = join(root, 'dist', 'cli', 'main.js');
+const modelFile = join(root, 'models', 'l-bracket-sharp.yaml');
+const out = mkdtempSync(join(tmpdir(), 'peakwise-parallel-'));
+
+function run(args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
+  return new Promise((resolve) => {
+    execFile(process.execPath, [bin, ...args], { cwd: root, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' }, timeout: 240_000 }, (err, stdout, stderr) => {
+      resolve({ code: err ? (typeof err.code === 'number' ? err.code : -1) : 0, stdout, stderr });
+    });
+  });
+}
+
+/** study.json with its one clock reading fixed */
+const maskClock = (text: string): string => text.replace(/"totalS": [0-9.e+-]+/, '"totalS": 0');
+
+afterAll(() => rmSync(out, { recursive: true, force: true }));
+
+describe('the binary: --jobs 1, 2 and 3 write the same bytes', () => {
+  it('study.json (clock masked), sites.csv and report.html of the L-bracket demo are identical', async () => {
+    const runs = await Promise.all([1, 2, 3].map(async (jobs) => {
+      const dir = join(out, `jobs${jobs}`);
+      const r = await run(['study', modelFile, '--out', dir, '--quiet', '--jobs', String(jobs)]);
+      expect(r.stderr).toBe('');
+      expect(r.code).toBe(0);
+      return {
+        json: maskClock(readFileSync(join(dir, 'study.json'), 'utf8')),
+        csv: readFileSync(join(dir, 'sites.csv'), 'utf8'),
+        html: readFileSync(join(dir, 'report.html'), 'utf8'),
+      };
+    }));
+    // the demo exercises every per-level path: six levels, singular and converging sites, the far-field
+    // solve and the flat peaks' extents (from the finest level's boundary trace)
+    const study = JSON.parse(runs[0].json) as { sites: { verdict: string; levels: unknown[]; extent?: unknown }[] };
+    expect(study.sites.some((s) => s.verdict === 'singular')).toBe(true);
+    expect(study.sites.some((s) => s.verdict === 'converging')).toBe(true);
+    expect(study.sites.some((s) => s.extent !== undefined)).toBe(true);
+    expect(study.sites.every((s) => s.levels.length === 6)).toBe(true);
+    for (const r of runs.slice(1)) {
+      expect(r.json).toBe(runs[0].json);
+      expect(r.csv).toBe(runs[0].csv);
+      expect(r.html).toBe(runs[0].html);
+    }
+  });
+
+  it('--jobs must be a whole number from 1 to 256', async () => {
+    const r = await run(['study', modelFile, '--out', join(out, 'bad'), '--quiet', '--jobs', '0']);
+    expect(r.code).toBe(1);
+    expect(r.stderr).toMatch(/--jobs must be a whole number from 1 to 256, got "0"/);
+  });
+});
+
+describe('the library: stop requests and failed levels', () => {
+  let S: StudyModule;
+  let M: ModelModule;
+  const text = readFileSync(modelFile, 'utf8');
+  const model = () => M.parseModel(text, modelFile);
+  let serial: ReturnType<StudyModule['runStudy']>;
+
+  beforeAll(async () => {
+    S = (await import(pathToFileURL(join(root, 'dist', 'study', 'index.js')).href)) as StudyModule;
+    M = (await import(pathToFileURL(join(root, 'dist', 'model', 'index.js')).href)) as ModelModule;
+    serial = S.runStudy(model());
+  });
+
+  it('a stop request keeps the finished levels: the kept run is the finest run of ≥ 3 (else the longest), each level the serial one', async () => {
+    const finished: number[] = [];
+    const stopped = await S.runStudyParallel(model(), {
+      jobs: 2,
+      onProgress: (_d, _t, label) => {
+        const m = /^level (\d+) of/.exec(label);
+        if (m) finished.push(Number(m[1]) - 1);
+      },
+      shouldStop: () => finished.length >= 2,
+    });
+    expect(stopped.interrupted).toBe(true);
+    expect(finished.length).toBeGreaterThanOrEqual(2);
+    const { from, to } = keptRun(finished);
+    expect(to - from).toBeGreaterThanOrEqual(1);
+    stopped.sites.forEach((site, i) => {
+      // a level's readings do not depend on which worker ran it, nor on what ran beside it
+      expect(site.levels).toEqual(serial.sites[i].levels.slice(from, to));
+      expect(site.reason).toMatch(/interrupted/);
+    });
+  });
+
+  it('a stop request before any level ends keeps no level and marks the study interrupted', async () => {
+    const r = await S.runStudyParallel(model(), { jobs: 2, shouldStop: () => true });
+    expect(r.interrupted).toBe(true);
+    expect(r.sites.every((s) => s.levels.length === 0)).toBe(true);
+  });
+
+  it('a dof cap that the finer levels break ends the ladder where a serial run ends it, with the same words', async () => {
+    const dofs = serial.sites[0].levels.map((l) => l.dofs);
+    // between level 3 and level 4 (the cap is checked on an estimate before meshing and on the count after)
+    const limits = { maxDofs: Math.round(0.5 * (dofs[2] + dofs[3])) };
+    const one = S.runStudy(model(), { limits });
+    const two = await S.runStudyParallel(model(), { jobs: 2, limits });
+    expect(one.sites[0].levels.length).toBeLessThan(6);
+    expect(one.sites[0].reason).toMatch(/failed .*fitted on \d levels/);
+    expect(maskClock(JSON.stringify(two, null, 2))).toBe(maskClock(JSON.stringify(one, null, 2)));
+  });
+});
+
+describe('the kept run after a stop request', () => {
+  it('prefers the finest run with the three levels a verdict needs, else the longest run, the finer on a tie', () => {
+    expect(keptRun([])).toEqual({ from: 0, to: 0 });
+    expect(keptRun([5, 4])).toEqual({ from: 4, to: 6 });
+    expect(keptRun([0, 1, 2, 5])).toEqual({ from: 0, to: 3 });
+    expect(keptRun([0, 1, 2, 4, 5, 6])).toEqual({ from: 4, to: 7 });
+    expect(keptRun([0, 3, 4])).toEqual({ from: 3, to: 5 });
+    expect(keptRun([1, 3])).toEqual({ from: 3, to: 4 });
+  });
+});
