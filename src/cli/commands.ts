@@ -165,11 +165,11 @@ export async function studyWithProgress(
   }
 }
 
-export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOptions): Promise<void> {
+export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOptions, pool?: TaskPool): Promise<void> {
   checkCutOptions(opts);
   const model = loadModel(ctx, file, opts);
   const outDir = outDirFor(file, opts, 'study');
-  const { study, base } = await studyWithProgress(model, opts);
+  const { study, base } = await studyWithProgress(model, opts, pool);
   const warnings = modelWarnings(model, file, base ? selectorWarnings(model, base.geometry) : []);
   if (base) {
     warnings.push(...healthWarnings({ section: sectionOf(model), geometry: base.geometry, mesh: base.mesh, size: model.mesh.size, lengthUnit: model.units.length }));
