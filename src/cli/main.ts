@@ -65,7 +65,7 @@ export function buildProgram(): Command {
       .option('--levels <n>', 'refinement levels per site (overrides study.levels)')
       .option('--ratio <r>', 'element size ratio between levels (overrides study.ratio)')
       .option('--max-dofs <n>', 'cap on degrees of freedom per solve (a whole number)', maxDofsArgument, '2000000')
-      .option('--jobs <n>', 'worker threads for the levels (default: one per core; 1 solves every level in one thread)')
+      .option('--jobs <n>', 'worker threads for the levels (default: one per core for a long ladder, else one; 1 solves every level in one thread)')
       .option('--watch', 'stay running: study again whenever the model (or a file it reads) is saved, and serve the report')
       .option('--port <n>', 'with --watch: the local port of the report (default: any free one)'),
   )).action(async (model: string, opts) => (opts.watch ? watchStudy(ctx, model, opts) : runStudy(ctx, model, opts)));

@@ -12,6 +12,7 @@
  * - Stop request: polled while levels run; the running levels are given up, the finished ones
  *   kept, and the fit uses the finest run of consecutive finished levels that has at least three
  *   levels (what a verdict needs), else the longest run (the finer one on a tie).
+ * - Default: with `jobs` not given, a short ladder (AUTO_PARALLEL_DOFS) stays in this thread.
  * - Memory: the limits hold for all workers together. Each level's dofs are estimated from its size
  *   field before it starts (the same estimate the pipeline checks against the dof cap), its factor
  *   bytes from the first solve's factor scaled by n·ln n; a level is started only while the running
@@ -30,7 +31,7 @@ import { PoolCancelled, TaskPool, type PoolRun } from '../pipeline/pool.js';
 import type { StudyResult } from './types.js';
 import { levelSizeField } from './ladder.js';
 import { LEVEL_TASK, type LevelReadings } from './level.js';
-import { failedWords, finishStudy, interruptedWords, levelInput, prepareStudy, runStudy, type LadderOutcome, type StudyOptions, type StudySetup } from './run.js';
+import { failedWords, finishStudy, interruptedWords, levelInput, prepareStudy, runStudy, serialLadder, type LadderOutcome, type StudyOptions, type StudySetup } from './run.js';
 
 /** The compiled worker next to this file; absent when running from the TypeScript sources. */
 export const STUDY_WORKER_URL = new URL('./worker.js', import.meta.url);
@@ -42,7 +43,7 @@ const FIT_LEVELS = 3;
 const STOP_POLL_MS = 25;
 
 export interface ParallelStudyOptions extends StudyOptions {
-  /** worker threads for the levels; default one per core; 1 runs the serial study in this thread */
+  /** worker threads for the levels (1 runs the serial study in this thread); default: see runStudyParallel */
   jobs?: number;
   /** a pool to use (kept open: watch mode keeps its workers warm); otherwise one is made and closed */
   pool?: TaskPool;
@@ -57,26 +58,41 @@ export function studyPool(jobs: number = availableParallelism()): TaskPool {
 }
 
 /**
- * `runStudy` with the levels on `jobs` worker threads (default: one per core). Resolves to the
- * serial study's result; with one job it is the serial study.
+ * Below this many estimated dofs over all levels, a study left to choose (`jobs` not given) solves
+ * its levels in this thread: each worker thread loads and compiles the mesher, the solver and the
+ * recovery afresh (a few tenths of a second of CPU each), which a short ladder does not win back.
+ * A rule of our own, from timing the demo ladders (7–33k dofs a level) with one and two workers.
+ */
+export const AUTO_PARALLEL_DOFS = 300_000;
+
+/**
+ * `runStudy` with the levels on worker threads. `jobs` given: that many (1 runs the serial study in
+ * this thread); a `pool`: its workers (kept open); neither: one per core when the ladder is
+ * estimated at AUTO_PARALLEL_DOFS or more, else serial. Resolves to the serial study's result.
  */
 export async function runStudyParallel(model: Model, opts: ParallelStudyOptions = {}): Promise<StudyResult> {
-  const jobs = opts.pool?.size ?? opts.jobs ?? availableParallelism();
-  if (!(Number.isInteger(jobs) && jobs >= 1)) throw new PeakwiseError('usage', `jobs must be a whole number ≥ 1, got ${jobs}`);
+  const jobs = opts.pool?.size ?? opts.jobs;
+  if (jobs !== undefined && !(Number.isInteger(jobs) && jobs >= 1)) throw new PeakwiseError('usage', `jobs must be a whole number ≥ 1, got ${jobs}`);
   if (jobs === 1 && !opts.pool) return runStudy(model, opts);
-  // started before the first solve, so the workers load their modules while this thread works
-  const pool = opts.pool ?? studyPool(jobs);
+  // a pool asked for is started before the first solve, so the workers load their modules while this thread works
+  let pool = opts.pool ?? (jobs !== undefined ? studyPool(jobs) : undefined);
   try {
     const setup = prepareStudy(model, opts);
+    if (!pool) {
+      const cores = availableParallelism();
+      const total = levelEstimates(setup).reduce((sum, e) => sum + e.dofs, 0);
+      if (cores < 2 || total < AUTO_PARALLEL_DOFS) return finishStudy(setup, serialLadder(setup, opts), opts);
+      pool = studyPool(cores);
+    }
     const ladder = await parallelLadder(setup, pool, opts);
     return finishStudy(setup, ladder, opts);
   } finally {
-    if (!opts.pool) await pool.close();
+    if (pool && !opts.pool) await pool.close();
   }
 }
 
 /** Estimated dofs and factor bytes of each level (for the admission rule), from the first solve. */
-function levelEstimates(setup: StudySetup): { dofs: number; bytes: number }[] {
+export function levelEstimates(setup: StudySetup): { dofs: number; bytes: number }[] {
   const { problem, cands, h0, ratio, order, first, limits } = setup;
   const base = baseSizeField(problem);
   const d0 = Math.max(first.solution.dofs, 2);

@@ -133,7 +133,7 @@ export function levelInput(setup: StudySetup, k: number, farFieldCoarsening?: nu
 }
 
 /** The ladder in this thread, coarsest level first; a stop request is honoured between two levels. */
-function serialLadder(setup: StudySetup, opts: StudyOptions): LadderOutcome {
+export function serialLadder(setup: StudySetup, opts: StudyOptions): LadderOutcome {
   const { levels, cands, total } = setup;
   const readings: LevelReadings[] = [];
   for (let k = 0; k < levels && cands.length > 0; k++) {

@@ -11,6 +11,7 @@ import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { keptRun } from '../../src/study/parallel.js';
+import type { TaskPool } from '../../src/pipeline/pool.js';
 
 type StudyModule = typeof import('../../src/study/index.js');
 type ModelModule = typeof import('../../src/model/index.js');
@@ -116,6 +117,48 @@ describe('the library: stop requests and failed levels', () => {
     expect(one.sites[0].levels.length).toBeLessThan(6);
     expect(one.sites[0].reason).toMatch(/failed .*fitted on \d levels/);
     expect(maskClock(JSON.stringify(two, null, 2))).toBe(maskClock(JSON.stringify(one, null, 2)));
+  });
+});
+
+describe('memory limits hold for all workers together', () => {
+  it('a level starts only while the running levels\' estimates and its own fit the factor-memory cap (or alone); the result is the serial one', async () => {
+    const S = (await import(pathToFileURL(join(root, 'dist', 'study', 'index.js')).href)) as StudyModule;
+    const M = (await import(pathToFileURL(join(root, 'dist', 'model', 'index.js')).href)) as ModelModule;
+    const text = readFileSync(modelFile, 'utf8');
+    const probe = S.prepareStudy(M.parseModel(text, modelFile));
+    const est = S.levelEstimates(probe);
+    // the estimates grow with the level (finer meshes, larger factors)
+    for (let k = 1; k < est.length; k++) expect(est[k].bytes).toBeGreaterThan(est[k - 1].bytes);
+    // room for the finest level alone, or for a few of the coarser ones together
+    const limits = { maxFactorBytes: 1.2 * est[est.length - 1].bytes };
+    const real = S.studyPool(3);
+    const running = new Set<number>();
+    const starts: { k: number; with: number[] }[] = [];
+    const counting = {
+      size: real.size,
+      run(name: string, input: { k: number }) {
+        starts.push({ k: input.k, with: [...running] });
+        running.add(input.k);
+        const r = real.run(name, input);
+        return { result: r.result.finally(() => running.delete(input.k)), cancel: r.cancel };
+      },
+    } as unknown as TaskPool;
+    let two;
+    try {
+      two = await S.runStudyParallel(M.parseModel(text, modelFile), { pool: counting, limits });
+    } finally {
+      await real.close();
+    }
+    const one = S.runStudy(M.parseModel(text, modelFile), { limits });
+    expect(maskClock(JSON.stringify(two, null, 2))).toBe(maskClock(JSON.stringify(one, null, 2)));
+    expect(starts.map((s) => s.k).sort()).toEqual([0, 1, 2, 3, 4, 5]);
+    expect(starts[0].k).toBe(5); // finest first
+    for (const s of starts) {
+      const inFlight = [s.k, ...s.with].reduce((sum, k) => sum + est[k].bytes, 0);
+      if (s.with.length > 0) expect(inFlight, `level ${s.k} beside ${s.with}`).toBeLessThanOrEqual(limits.maxFactorBytes);
+    }
+    // the budget shares out, it does not only serialise: some coarser levels ran side by side
+    expect(starts.some((s) => s.with.length > 0)).toBe(true);
   });
 });
 
