@@ -127,7 +127,11 @@ export async function watchStudy(ctx: CliContext, file: string, opts: WatchOptio
         if (runId) server.announceRun(runId);
         if (!opts.quiet) say(`run ${runId ? runId.slice(0, 12) : ''} written in ${((performance.now() - t0) / 1000).toFixed(2)} s; waiting for changes`);
       } catch (e) {
-        if (e instanceof StudyInterrupted) throw e; // the finished levels are written: main closes the set as interrupted
+        if (e instanceof StudyInterrupted) {
+          // the finished levels are written: complete the set while the lock is still held
+          closeOutputSets('interrupted');
+          throw e;
+        }
         closeOutputSets('failed');
         const line = isPeakwiseError(e) ? describeError(e, ctx.file, ctx.model) : `internal error: ${e instanceof Error ? e.message : String(e)}`;
         process.stderr.write(`peakwise: ${line}\n`);
