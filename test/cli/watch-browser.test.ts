@@ -108,7 +108,7 @@ describe.skipIf(!haveChromium && !inCi)('study --watch in a real browser', () =>
       child.kill('SIGKILL');
     }
     if (dir) rmSync(dir, { recursive: true, force: true });
-  });
+  }, 150_000);
 
   it('edit and save: the table is printed again and the open page reloads with the doubled result', async () => {
     const before = await firstValue();
@@ -127,13 +127,13 @@ describe.skipIf(!haveChromium && !inCi)('study --watch in a real browser', () =>
     expect(stdout.match(/Shelf hanger under watch/g)?.length).toBe(2);
     // the page asked this server for itself and its event stream, nothing else
     expect(requests.every((r) => r.startsWith(url.replace('report.html', '')))).toBe(true);
-  });
+  }, 150_000);
 
   it('meanwhile the folder is locked: another run into it is refused', async () => {
     const other = await runOnce(['study', 'hanger.yaml', '--out', 'out', '--quiet'], dir);
     expect(other.code).toBe(1);
     expect(other.stderr).toMatch(/is writing into this folder/);
-  });
+  }, 150_000);
 
   it('a bad edit prints one line, shows it on the page and the watch goes on; fixing it reloads the page', async () => {
     const id1 = await runId();
@@ -149,7 +149,7 @@ describe.skipIf(!haveChromium && !inCi)('study --watch in a real browser', () =>
     await reloaded;
     await waitFor(/written in/, 3);
     expect(await page.locator('#peakwise-watch-error').count()).toBe(0);
-  });
+  }, 150_000);
 
   it('saving the imported outline starts a run too', async () => {
     const id2 = await runId();
@@ -159,7 +159,7 @@ describe.skipIf(!haveChromium && !inCi)('study --watch in a real browser', () =>
     await waitFor(/outline\.csv changed/, 1);
     await waitFor(/written in/, 4);
     expect(await runId()).not.toBe(id2);
-  });
+  }, 150_000);
 
   it('the report written is the one a plain study writes; Ctrl-C ends the watch and frees the folder', async () => {
     const watched = readFileSync(join(dir, 'out', 'report.html'), 'utf8');
@@ -173,5 +173,5 @@ describe.skipIf(!haveChromium && !inCi)('study --watch in a real browser', () =>
     expect(readFileSync(join(dir, 'plain', 'report.html'), 'utf8')).toBe(watched);
     expect(readFileSync(join(dir, 'plain', 'study.json'), 'utf8').replace(/"totalS": [0-9.e+-]+/, ''))
       .toBe(readFileSync(join(dir, 'out', 'study.json'), 'utf8').replace(/"totalS": [0-9.e+-]+/, ''));
-  });
+  }, 150_000);
 });

@@ -36,17 +36,18 @@ afterAll(() => rmSync(out, { recursive: true, force: true }));
 
 describe('the binary: --jobs 1, 2 and 3 write the same bytes', () => {
   it('study.json (clock masked), sites.csv and report.html of the L-bracket demo are identical', async () => {
-    const runs = await Promise.all([1, 2, 3].map(async (jobs) => {
+    const runs: { json: string; csv: string; html: string }[] = [];
+    for (const jobs of [1, 2, 3]) {
       const dir = join(out, `jobs${jobs}`);
       const r = await run(['study', modelFile, '--out', dir, '--quiet', '--jobs', String(jobs)]);
       expect(r.stderr).toBe('');
       expect(r.code).toBe(0);
-      return {
+      runs.push({
         json: maskClock(readFileSync(join(dir, 'study.json'), 'utf8')),
         csv: readFileSync(join(dir, 'sites.csv'), 'utf8'),
         html: readFileSync(join(dir, 'report.html'), 'utf8'),
-      };
-    }));
+      });
+    }
     // the demo exercises every per-level path: six levels, singular and converging sites, the far-field
     // solve and the flat peaks' extents (from the finest level's boundary trace)
     const study = JSON.parse(runs[0].json) as { sites: { verdict: string; levels: unknown[]; extent?: unknown }[] };
@@ -59,7 +60,7 @@ describe('the binary: --jobs 1, 2 and 3 write the same bytes', () => {
       expect(r.csv).toBe(runs[0].csv);
       expect(r.html).toBe(runs[0].html);
     }
-  });
+  }, 300_000);
 
   it('--jobs must be a whole number from 1 to 256', async () => {
     const r = await run(['study', modelFile, '--out', join(out, 'bad'), '--quiet', '--jobs', '0']);
@@ -159,7 +160,7 @@ describe('memory limits hold for all workers together', () => {
     }
     // the budget shares out, it does not only serialise: some coarser levels ran side by side
     expect(starts.some((s) => s.with.length > 0)).toBe(true);
-  });
+  }, 180_000);
 });
 
 describe('the kept run after a stop request', () => {
