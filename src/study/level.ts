@@ -55,7 +55,7 @@ export interface LevelReadings {
   /** one reading per site, in the sites' order */
   perSite: LevelResult[];
   dofs: number;
-  /** bytes of the level's Cholesky factor */
+  /** bytes of the level's Cholesky factor, from nnz(L) (fem/health.ts factorBytes; the cap counts the padded storage) */
   factorBytes: number;
   trace?: BoundaryTrace;
 }

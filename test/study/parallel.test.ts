@@ -173,3 +173,51 @@ describe('the kept run after a stop request', () => {
     expect(keptRun([1, 3])).toEqual({ from: 3, to: 4 });
   });
 });
+
+describe('a sweep shares the factor-memory cap among its workers', () => {
+  it('with two workers each point gets half: a finest level that fits the whole cap but not half of it fails there', async () => {
+    type SweepModule = typeof import('../../src/sweep/index.js');
+    const S = (await import(pathToFileURL(join(root, 'dist', 'study', 'index.js')).href)) as StudyModule;
+    const M = (await import(pathToFileURL(join(root, 'dist', 'model', 'index.js')).href)) as ModelModule;
+    const W = (await import(pathToFileURL(join(root, 'dist', 'sweep', 'index.js')).href)) as SweepModule;
+    const text = readFileSync(modelFile, 'utf8');
+    // the load changes no mesh: both points have the same factors, the finest level's the largest. Its size as
+    // the solver counts it (stored entries, with the supernodes' padding) is found by bisection on the cap
+    const setup = S.prepareStudy(M.parseModel(text, modelFile), { levels: 3 });
+    const finestFits = (cap: number): boolean => {
+      try {
+        S.studyLevel({ ...S.levelInput(setup, 2), limits: { maxFactorBytes: cap } }, setup.problem);
+        return true;
+      } catch (e) {
+        if (e instanceof Error && /factorising/.test(e.message)) return false;
+        throw e;
+      }
+    };
+    let lo = 1, hi = 1 << 30;
+    while (hi / lo > 1.005) { const mid = Math.sqrt(lo * hi); if (finestFits(mid)) hi = mid; else lo = mid; }
+    // the whole cap holds the finest level (and so every solve); half of it does not
+    const limits = { maxFactorBytes: 1.01 * hi };
+    const axes = [{ name: 'tau', values: [6, 12] }];
+    const alone = await W.runSweep(text, modelFile, axes, { levels: 3, jobs: 1, limits });
+    for (const p of alone.points) expect(p.study.sites.every((s) => s.levels.length === 3)).toBe(true);
+    let shared: Awaited<ReturnType<SweepModule['runSweep']>> | undefined;
+    let failure = '';
+    try {
+      shared = await W.runSweep(text, modelFile, axes, { levels: 3, jobs: 2, limits });
+    } catch (e) {
+      failure = e instanceof Error ? e.message : String(e);
+    }
+    if (shared) {
+      // the coarser solves fit half the cap: the finest level failed, the ladder kept the two below it
+      for (const p of shared.points) {
+        for (const s of p.study.sites) {
+          expect(s.levels.length).toBeLessThan(3);
+          expect(s.reason).toMatch(/level \d failed \(factorising .* above the .* allowed/);
+        }
+      }
+    } else {
+      // or even the first solve needs more than half: the point fails with the memory message
+      expect(failure).toMatch(/factorising .* above the .* allowed/);
+    }
+  }, 240_000);
+});
