@@ -47,7 +47,7 @@ export {
   type Problem, type ProblemOptions, type SolvedLevel, type MeshRequest, type SolveLimits, type ModelParts,
   type AdaptiveOptions, type AdaptiveCycle, type AdaptiveResult,
 } from './pipeline/index.js';
-export { runStudy, findSites, williamsRoots, wedgeTheory, type StudyOptions, type BaseSolve } from './study/index.js';
+export { runStudy, runStudyParallel, findSites, williamsRoots, wedgeTheory, type StudyOptions, type ParallelStudyOptions, type BaseSolve } from './study/index.js';
 export { studyTable, sitesCsv, fieldCsv, reportHtml, meshSvg, contourSvg, convergencePlotSvg, CAUTION, bandText, formatBand } from './report/index.js';
 export { kirschPolar, kirschCartesian, lameRing, inglisKt } from './reference/index.js';
 export {

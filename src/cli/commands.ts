@@ -4,7 +4,8 @@
  */
 import { join } from 'node:path';
 import { fieldCsv, reportHtml, studyTable } from '../report/index.js';
-import { runStudy as runStudyStage, type BaseSolve } from '../study/index.js';
+import { runStudyParallel, type BaseSolve } from '../study/index.js';
+import type { TaskPool } from '../pipeline/pool.js';
 import type { StudyResult } from '../study/types.js';
 import {
   adaptiveSolve, estimateOf, problemOf, sectionOf, solveProblem, type AdaptiveCycle, type Problem, type SolveLimits,
@@ -15,6 +16,7 @@ import { progressBar } from './progress.js';
 import { recordedChecks } from './checks-record.js';
 import { checkCutOptions, writeCutOutputs, type CutCliOptions } from './cut.js';
 import { writeFileAtomic } from './io.js';
+import { PeakwiseError } from '../errors.js';
 import {
   StudyInterrupted, emitWarnings, fieldColumns, fmt, levelsOption, limitsOf, loadModel, modelWarnings, outDirFor, positiveNumber,
   ratioOption, stopRequested, studyJson, useColor, type CliContext, type CommonOptions,
@@ -102,16 +104,32 @@ export interface StudyCliOptions extends CommonOptions, CutCliOptions {
   ratio?: string;
   maxDofs?: string;
   case?: string;
+  jobs?: string;
 }
 
-/** The study with a progress bar; the first solve is kept for the field files and the picture. */
-function studyWithProgress(model: Parameters<typeof runStudyStage>[0], opts: StudyCliOptions): { study: StudyResult; base: BaseSolve | undefined } {
+/** `--jobs`: worker threads for the study's levels (default one per core; 1 = every level in this thread). */
+export function jobsOption(text: string | undefined): number | undefined {
+  if (text === undefined) return undefined;
+  const v = Number(text);
+  if (!(text.trim() !== '' && Number.isInteger(v) && v >= 1 && v <= 256)) throw new PeakwiseError('usage', `--jobs must be a whole number from 1 to 256, got "${text}"`);
+  return v;
+}
+
+/**
+ * The study with a progress bar; the first solve is kept for the field files and the picture. The
+ * levels run on `--jobs` worker threads (or the warm `pool` of watch mode).
+ */
+export async function studyWithProgress(
+  model: Parameters<typeof runStudyParallel>[0], opts: StudyCliOptions, pool?: TaskPool,
+): Promise<{ study: StudyResult; base: BaseSolve | undefined }> {
   const levels = levelsOption(opts.levels);
   const ratio = ratioOption(opts.ratio);
+  const jobs = jobsOption(opts.jobs);
   const bar = progressBar(opts, 'solves');
   let base: BaseSolve | undefined;
   try {
-    const study = runStudyStage(model, {
+    const study = await runStudyParallel(model, {
+      ...(pool ? { pool } : jobs !== undefined ? { jobs } : {}),
       ...(levels !== undefined ? { levels } : {}),
       ...(ratio !== undefined ? { ratio } : {}),
       onProgress: (done, total, label) => bar.update(done, total, label),
@@ -125,12 +143,12 @@ function studyWithProgress(model: Parameters<typeof runStudyStage>[0], opts: Stu
   }
 }
 
-export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOptions): Promise<void> {
+export async function runStudy(ctx: CliContext, file: string, opts: StudyCliOptions, pool?: TaskPool): Promise<void> {
   checkCutOptions(opts);
   const model = loadModel(ctx, file, opts);
   checkCaseOption(model, opts.case);
   const outDir = outDirFor(file, opts, 'study');
-  const { study, base } = studyWithProgress(model, opts);
+  const { study, base } = await studyWithProgress(model, opts, pool);
   const warnings = modelWarnings(model, file, base ? selectorWarnings(model, base.geometry) : []);
   if (base) {
     warnings.push(...healthWarnings({ section: sectionOf(model), geometry: base.geometry, mesh: base.mesh, size: model.mesh.size, lengthUnit: model.units.length }));

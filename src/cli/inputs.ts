@@ -80,7 +80,7 @@ export function inputsOfRun(): readonly InputFile[] {
   return runInputs;
 }
 
-/** For tests: forget the inputs noted so far. */
+/** Forget the inputs noted so far (tests; `study --watch` before each rerun: new bytes, new run id). */
 export function clearInputs(): void {
   runInputs.length = 0;
 }

@@ -63,8 +63,13 @@ export function buildProgram(): Command {
       .option('--levels <n>', 'refinement levels per site (overrides study.levels)')
       .option('--ratio <r>', 'element size ratio between levels (overrides study.ratio)')
       .option('--max-dofs <n>', 'cap on degrees of freedom per solve (a whole number)', maxDofsArgument, '2000000')
-      .option('--case <name>', 'show this load case or combination instead of the envelope (study.json holds every case)'),
-  )).action(async (model: string, opts) => (await commands()).runStudy(ctx, model, opts));
+      .option('--case <name>', 'show this load case or combination instead of the envelope (study.json holds every case)')
+      .option('--jobs <n>', 'worker threads for the levels (default: one per core for a long ladder, else one; 1 solves every level in one thread)')
+      .option('--watch', 'stay running: study again whenever the model (or a file it reads) is saved, and serve the report')
+      .option('--port <n>', 'with --watch: the local port of the report (default: any free one)'),
+  )).action(async (model: string, opts) => (opts.watch
+    ? (await import('./watch.js')).watchStudy(ctx, model, opts)
+    : (await commands()).runStudy(ctx, model, opts)));
 
   registerSweep(program, ctx);
   registerCheck(program, ctx);
@@ -149,7 +154,9 @@ async function runInWorker(argv: string[], graceful: boolean): Promise<void> {
       process.exit(130);
     }
     Atomics.store(flag, 0, 1);
-    process.stderr.write(argv[2] === 'solve'
+    process.stderr.write(argv.includes('--watch')
+      ? '\npeakwise: ending the watch (a study under way stops after its current solve and writes the finished levels; Ctrl-C again to quit at once)\n'
+      : argv[2] === 'solve'
       ? '\npeakwise: stopping after the current cycle and writing the last finished one (Ctrl-C again to quit at once)\n'
       : '\npeakwise: stopping after the current solve and writing the finished levels (Ctrl-C again to quit at once)\n');
   };

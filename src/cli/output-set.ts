@@ -35,8 +35,8 @@ export const MANIFEST_NAME = 'run.json';
 /** Names our commands write into a result folder (files of an older version carry no stamp). */
 export const RESULT_NAMES: readonly string[] = ['study.json', 'sites.csv', 'field.csv', 'report.html', 'cut.csv', 'sweep.csv', 'sweep.html', 'sweep.json'];
 
-/** Options that change no result: where results go, how the terminal looks, how many threads. */
-const NEUTRAL_OPTIONS: ReadonlySet<string> = new Set(['out', 'json', 'quiet', 'color', 'jobs']);
+/** Options that change no result: where results go, how the terminal looks, how many threads, watching and serving. */
+const NEUTRAL_OPTIONS: ReadonlySet<string> = new Set(['out', 'json', 'quiet', 'color', 'jobs', 'watch', 'port']);
 
 export interface RunIdentity {
   command: string;
@@ -360,7 +360,7 @@ export class OutputSet {
     const what = `--out ${opts.outDir}`;
     this.created = makeFolders(this.dir, what, opts.folders);
     try {
-      this.lock = acquireLock(this.dir, opts.identity.command, what, opts.notice, this.created);
+      this.lock = keptLocks.get(this.dir) ?? acquireLock(this.dir, opts.identity.command, what, opts.notice, this.created);
     } catch (e) {
       removeEmptyFolders(this.created);
       throw e;
@@ -428,7 +428,7 @@ export class OutputSet {
   }
 
   private release(): void {
-    releaseLock(this.lock);
+    if (keptLocks.get(this.lock.dir) !== this.lock) releaseLock(this.lock);
     const i = openSets.indexOf(this);
     if (i >= 0) openSets.splice(i, 1);
     if (openSets.length === 0) setClaimedWrite(undefined);
@@ -436,6 +436,38 @@ export class OutputSet {
 }
 
 const openSets: OutputSet[] = [];
+
+/** Folders whose lock this process holds across result sets (`study --watch`), by real path. */
+const keptLocks = new Map<string, HeldLock>();
+
+/**
+ * Take the lock of an output folder for the life of a watching process: the folder rules checked
+ * (with the model file; each run checks its own inputs again), the folder made if missing, the
+ * lock taken and kept — every result set opened there meanwhile writes under it instead of taking
+ * its own, and `release` (or the process's exit hook) lets it go. Returns the folder's real path.
+ */
+export function holdOutputFolder(outDir: string, modelFile: string, command: string, notice: (line: string) => void): { dir: string; release(): void } {
+  const dir = checkOutFolder(outDir, [], modelFile);
+  const what = `--out ${outDir}`;
+  const created = makeFolders(dir, what);
+  let lock: HeldLock;
+  try {
+    lock = acquireLock(dir, command, what, notice, created);
+  } catch (e) {
+    removeEmptyFolders(created);
+    throw e;
+  }
+  keptLocks.set(dir, lock);
+  return {
+    dir,
+    release: () => {
+      if (keptLocks.get(dir) !== lock) return;
+      keptLocks.delete(dir);
+      releaseLock(lock);
+      removeEmptyFolders(created);
+    },
+  };
+}
 
 /** Writes whose folder is an open set's folder become files of that set. */
 function claimedWrite(path: string, content: string | Iterable<string>): boolean {

@@ -18,7 +18,9 @@ export {
 export { wedgeTheory, theoryExponent, type WedgeTheory } from './wedge-theory.js';
 export { findSites, snapSitePoint, listedSitePoints, SITE_RULES, type SiteCandidate } from './sites.js';
 export { levelSizeField, probeLevel, LADDER_GRADING, NEIGHBOURHOOD_SIZES, APEX_SIZES, type SiteProbe } from './ladder.js';
-export { runStudy, type StudyOptions, type BaseSolve } from './run.js';
+export { runStudy, prepareStudy, finishStudy, levelInput, type StudyOptions, type BaseSolve, type StudySetup, type LadderOutcome } from './run.js';
+export { runStudyParallel, studyPool, keptRun, levelEstimates, AUTO_PARALLEL_DOFS, STUDY_WORKER_URL, type ParallelStudyOptions } from './parallel.js';
+export { studyLevel, LEVEL_TASK, type LevelInput, type LevelReadings, type BoundaryTrace } from './level.js';
 export { reportedSites, roundToScale, isAboveYield } from './reported.js';
 export { intensityBand, siteProbe, siteReadouts, reportedPosition, withPlateauExtent, DEFAULT_READOUT_FRACTION } from './site-readouts.js';
 export { intensityNorm, reciprocalIntensity, singularTerm, type IntensitySetup, type IntensityNorm } from './stress-intensity.js';

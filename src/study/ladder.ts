@@ -16,6 +16,9 @@ export const NEIGHBOURHOOD_SIZES = 2;
 /** Readouts closer than this many level sizes to a singular apex at a mirror use the singular term of the level's K. */
 export const APEX_SIZES = 2;
 
+/** Lower bounds of distances are scaled by this before they may skip a candidate (far above rounding, far below 1). */
+const LOWER_BOUND_SLACK = 1 - 1e-9;
+
 /** distance from (x, y) to the segment a–b */
 function segmentDistance(x: number, y: number, ax: number, ay: number, bx: number, by: number): number {
   const dx = bx - ax, dy = by - ay;
@@ -43,13 +46,27 @@ export function levelSizeField(base: SizeField, sites: readonly Pick<SiteCandida
       seg.push(a[0], a[1], b[0], b[1], hk[i]);
     }
   });
+  // a cone or a plateau band can only lower h where a lower bound of its size is below h: the distance is at
+  // least the larger coordinate offset (from a point) or the offset from the segment's bounding box, and a
+  // candidate that cannot win is skipped unevaluated (LOWER_BOUND_SLACK keeps the bound clear of rounding,
+  // so the field's values are exactly those of evaluating every candidate)
+  const box: number[] = [];
+  for (let j = 0; j < seg.length; j += 5) {
+    box.push(Math.min(seg[j], seg[j + 2]), Math.min(seg[j + 1], seg[j + 3]), Math.max(seg[j], seg[j + 2]), Math.max(seg[j + 1], seg[j + 3]));
+  }
+  const g = LADDER_GRADING * LOWER_BOUND_SLACK;
   return (x: number, y: number) => {
     let h = base(x, y);
     for (let i = 0; i < px.length; i++) {
+      const dx = Math.abs(x - px[i]), dy = Math.abs(y - py[i]);
+      if (hk[i] + g * (dx > dy ? dx : dy) >= h) continue;
       const v = hk[i] + LADDER_GRADING * Math.hypot(x - px[i], y - py[i]);
       if (v < h) h = v;
     }
-    for (let j = 0; j < seg.length; j += 5) {
+    for (let j = 0, b = 0; j < seg.length; j += 5, b += 4) {
+      const ox = x < box[b] ? box[b] - x : x > box[b + 2] ? x - box[b + 2] : 0;
+      const oy = y < box[b + 1] ? box[b + 1] - y : y > box[b + 3] ? y - box[b + 3] : 0;
+      if (seg[j + 4] + g * (ox > oy ? ox : oy) >= h) continue;
       const v = seg[j + 4] + LADDER_GRADING * segmentDistance(x, y, seg[j], seg[j + 1], seg[j + 2], seg[j + 3]);
       if (v < h) h = v;
     }
@@ -114,7 +131,10 @@ export function probeLevel(
   const { site, radius, distance: d } = probe;
   const [sx, sy] = site.at;
   let peak = -Infinity, pn = -1;
+  const outside = radius / LOWER_BOUND_SLACK; // a node this far off in x or y is outside for certain
   for (let n = 0; n < mesh.xy.length / 2; n++) {
+    const ox = Math.abs(mesh.xy[2 * n] - sx), oy = Math.abs(mesh.xy[2 * n + 1] - sy);
+    if (ox > outside || oy > outside) continue;
     if (Math.hypot(mesh.xy[2 * n] - sx, mesh.xy[2 * n + 1] - sy) > radius) continue;
     if (nodal[n] > peak || (nodal[n] === peak && n < pn)) { peak = nodal[n]; pn = n; }
   }
@@ -163,7 +183,9 @@ export function probeLevel(
   }
   // area mean over the disk r ≤ d (Gauss points of the raw element stresses)
   let sw = 0, sv = 0;
+  const beyond = d / LOWER_BOUND_SLACK;
   for (let k = 0; k < gauss.weight.length; k++) {
+    if (Math.abs(gauss.xy[2 * k] - sx) > beyond || Math.abs(gauss.xy[2 * k + 1] - sy) > beyond) continue;
     if (Math.hypot(gauss.xy[2 * k] - sx, gauss.xy[2 * k + 1] - sy) > d) continue;
     const a = gauss.stress[3 * k], b = gauss.stress[3 * k + 1], c = gauss.stress[3 * k + 2];
     sv += gauss.weight[k] * measureValue(measure, a, b, c, gauss.szz[k]);

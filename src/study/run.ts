@@ -1,29 +1,24 @@
 import { PeakwiseError, isPeakwiseError } from '../errors.js';
-import { buildGeometry, closestOnCurve, pointInMaterial } from '../geometry/index.js';
 import { meshQuality } from '../mesh/index.js';
 import type { Mesh } from '../mesh/types.js';
-import type { Model, Point } from '../model/types.js';
+import type { Model, Point, ReportedValue } from '../model/types.js';
 import { levelsRule, ratioRule, stressUnit } from '../model/index.js';
 import type { Solution } from '../fem/types.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { NodalStress } from '../recovery/types.js';
-import { buildPointLocator } from '../recovery/index.js';
-import { baseSizeField, problemOf, solveAt, type LoadSetLevel, type SolveLimits, type SolvedLevel } from '../pipeline/index.js';
-import type { CaseStudy, LevelResult, SiteResult, StudyResult } from './types.js';
+import { baseSizeField, problemOf, solveAt, type LoadSetLevel, type Problem, type SolveLimits, type SolvedLevel } from '../pipeline/index.js';
+import type { CaseStudy, LevelResult, ReportedAssessment, SiteResult, StudyResult } from './types.js';
 import { envelopeOf, envelopeSites, mergeSiteLists, peakOnRim } from './cases.js';
 import { findSites, listedSitePoints, snapSitePoint, type SiteCandidate } from './sites.js';
-import { levelSizeField, probeLevel, rosettePoints, LADDER_GRADING, NEIGHBOURHOOD_SIZES, type SiteProbe } from './ladder.js';
+import { probeLevel, LADDER_GRADING, NEIGHBOURHOOD_SIZES, type SiteProbe } from './ladder.js';
 import { judgeSite } from './verdict.js';
 import { BAND_RULES } from './band.js';
-import { coarsenedOuterField } from './far-field.js';
 import { boundaryEdgesAt } from './mesh-tools.js';
 import { reportedSites } from './reported.js';
 import { reportedPosition, siteProbe, siteReadouts, withPlateauExtent } from './site-readouts.js';
-import { bodyFields, combineBodyFields, selectorWarnings } from '../fem/index.js';
+import { studyLevel, type LevelInput, type LevelReadings } from './level.js';
+import { selectorWarnings } from '../fem/index.js';
 import { assessReported, matchReported, unmatchedPoints } from './other-analysis.js';
-import type { ReportedAssessment } from './types.js';
-import type { Problem } from '../pipeline/index.js';
-import type { ReportedValue } from '../model/types.js';
 import { withCauseAdvice } from './advice.js';
 
 export interface StudyOptions {
@@ -56,45 +51,52 @@ export interface BaseSolve {
 const VERSION = '0.1.0';
 
 /** Are the boundary pieces arriving at and leaving a node straight? (incoming, outgoing) */
-function straightFacesAt(mesh: Mesh, geom: ReturnType<typeof buildGeometry>, node: number): [boolean, boolean] {
+function straightFacesAt(mesh: Mesh, geom: PlateGeometry, node: number): [boolean, boolean] {
   const { incoming, outgoing } = boundaryEdgesAt(mesh, node);
   const isLine = (e: number[]) => e.length === 1 && geom.pieces[mesh.boundaryPiece[e[0]]].curve.kind === 'line';
   return [isLine(incoming), isLine(outgoing)];
-}
-
-/**
- * A seed point is used when it lies in the material at least h/2 from every boundary piece, or on a straight
- * piece at least h/2 from that piece's ends (never next to another feature).
- */
-function seedFits(geom: ReturnType<typeof buildGeometry>, p: Point, h: number, site: Point): boolean {
-  const tol = 1e-9 * geom.scale;
-  let onLine = false;
-  for (const piece of geom.pieces) {
-    const c = closestOnCurve(piece.curve, p);
-    if (c.distance <= tol) {
-      if (piece.curve.kind !== 'line') return false;
-      const a = piece.curve.from, b = piece.curve.to;
-      const ends = [a, b].filter((e) => Math.hypot(e[0] - site[0], e[1] - site[1]) > tol);
-      if (ends.some((e) => Math.hypot(e[0] - p[0], e[1] - p[1]) < 0.5 * h)) return false;
-      onLine = true;
-    } else if (c.distance < 0.5 * h) {
-      // near a piece that does not pass through the site itself
-      const passes = closestOnCurve(piece.curve, site).distance <= tol;
-      if (!passes) return false;
-    }
-  }
-  return onLine || pointInMaterial(geom, p);
 }
 
 function check(cond: boolean, message: string, keyPath: string): void {
   if (!cond) throw new PeakwiseError('study', message, keyPath);
 }
 
-/**
- * The convergence study (issue 5): first solve at the model size, sites, one refinement ladder shared by
- * all sites (level k: each site's local size h₀/ratio^k), SPR recovery, per-site convergence fits and verdicts.
- */
-export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
+/** A study up to its ladder: the settings, the problem, the first solve, the sites and their probes. */
+export interface StudySetup {
+  t0: number;
+  model: Model;
+  levels: number;
+  ratio: number;
+  order: 1 | 2;
+  size: number;
+  problem: Problem;
+  limits: SolveLimits;
+  warnings: ReturnType<typeof selectorWarnings>;
+  first: SolvedLevel;
+  cands: SiteCandidate[];
+  h0: number[];
+  probes: SiteProbe[];
+  straight: [boolean, boolean][];
+  /** solves in all: first, levels, far field */
+  total: number;
+  /** the base size field of the problem's mesh settings */
+  base: (x: number, y: number) => number;
+  /** values another analysis reported (issue 15), where each is studied, and the points studied only because of one */
+  reportedValues: readonly ReportedValue[];
+  reportedAt: Point[];
+  added: Point[];
+}
+
+/** The ladder's outcome: the levels kept (consecutive, coarsest first) and why it ended early, if it did. */
+export interface LadderOutcome {
+  readings: LevelReadings[];
+  /** '' when every level was solved; else the words added to each site's reason */
+  stopped: string;
+  interrupted: boolean;
+}
+
+/** Validate the settings, solve at the model size, find the sites and set up their probes. */
+export function prepareStudy(model: Model, opts: StudyOptions = {}): StudySetup {
   const t0 = performance.now();
   const levels = opts.levels ?? model.study.levels;
   const ratio = opts.ratio ?? model.study.ratio;
@@ -104,16 +106,8 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   check(ratioRule(ratio) === undefined, `study ratio ${ratioRule(ratio)}, got ${ratio}`, 'study.ratio');
   check(order === 1 || order === 2, `mesh order must be 1 or 2, got ${order}`, 'mesh.order');
   check(size > 0, `mesh size must be > 0, got ${size}`, 'mesh.size');
-  const measure = model.study.measure;
   const problem = problemOf(model, { size, order });
   const { geometry: geom, section } = problem;
-  // body force and thermal strain of each case's body loads, for the reciprocal-work K (stress-intensity.ts);
-  // a combination's are the factored sums of its cases' (K is linear in them)
-  const caseBody = problem.cases.map((c) => bodyFields(section, c.loads));
-  const bodyOf = [
-    ...caseBody,
-    ...problem.combinations.map((c) => combineBodyFields(c.terms.map((t) => caseBody[problem.cases.findIndex((pc) => pc.name === t.case)]), c.terms.map((t) => t.factor))),
-  ];
   // the listed sites are vertices of every mesh, the first included (the selector ends are already)
   const listed = listedSitePoints(model, geom, problem.requiredPoints);
   // values another analysis reported (issue 15): their points are vertices of the first mesh, so one far
@@ -125,16 +119,14 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const limits: SolveLimits = opts.limits ?? {};
   // one more solve after the ladder: the outer mesh coarsened, for the far-field term
   const total = 2 + levels;
-  const progress = (done: number, label: string) => opts.onProgress?.(done, total, label);
 
-  progress(0, 'first solve');
+  opts.onProgress?.(0, total, 'first solve');
   const first = solveAt(problem, base, order, limits, { points: [...listed, ...reportedAt] });
   opts.onBase?.({ mesh: first.mesh, geometry: geom, solution: first.solution, field: first.field, nodal: first.nodal, sets: first.sets });
-  progress(1, 'sites');
+  opts.onProgress?.(1, total, 'sites');
   // the sites of every case and combination, studied in all (docs/study.md, "Load cases and the envelope")
-  const sets = first.sets;
   const siteCtx = { model, geom, mesh: first.mesh, solution: first.solution, measure: first.nodal, baseSize: base, listed };
-  const found = mergeSiteLists(sets.map((set) => findSites({ ...siteCtx, solution: set.solution, measure: set.nodal })), base);
+  const found = mergeSiteLists(first.sets.map((set) => findSites({ ...siteCtx, solution: set.solution, measure: set.nodal })), base);
   const { sites: cands, added } = withReportedSites(found, reportedValues, reportedAt, siteCtx, geom.scale);
   const h0 = cands.map((c) => base(c.at[0], c.at[1]));
   const probes: SiteProbe[] = cands.map((site, i) => {
@@ -145,30 +137,69 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
     }
     return siteProbe(site, radius, model, section);
   });
-  const sitePoints = cands.map((c) => c.at);
   const straight = cands.map((c) => straightFacesAt(first.mesh, geom, c.node));
-  // levels per load set, per site
-  const perSet: LevelResult[][][] = sets.map(() => cands.map(() => []));
-  let stopped = '';
-  let interrupted = false;
-  let finest: SolvedLevel | undefined;
+  return { t0, model, levels, ratio, order, size, problem, limits, warnings, first, cands, h0, probes, straight, total, base, reportedValues, reportedAt, added };
+}
+
+/** The plain-data input of level k (or of the far-field solve at level k). */
+export function levelInput(setup: StudySetup, k: number, farFieldCoarsening?: number): LevelInput {
+  const { model, size, order, limits, cands, probes, h0, straight, ratio, levels } = setup;
+  return {
+    model, size, order, limits, sites: cands, probes, h0, straight, ratio, k,
+    ...(farFieldCoarsening !== undefined ? { farFieldCoarsening } : { trace: k === levels - 1 && cands.some((c) => c.plateau !== undefined) }),
+  };
+}
+
+/** The ladder in this thread, coarsest level first; a stop request is honoured between two levels. */
+export function serialLadder(setup: StudySetup, opts: StudyOptions): LadderOutcome {
+  const { levels, cands, total } = setup;
+  const readings: LevelReadings[] = [];
   for (let k = 0; k < levels && cands.length > 0; k++) {
-    if (opts.shouldStop?.()) { interrupted = true; stopped = `interrupted after ${k} level${k === 1 ? '' : 's'}`; break; }
-    let s: SolvedLevel;
+    if (opts.shouldStop?.()) return { readings, interrupted: true, stopped: interruptedWords(0, k) };
     try {
-      const seeds = cands.flatMap((c, i) => rosettePoints(c, h0[i] / Math.pow(ratio, k), straight[i]).filter((p) => seedFits(geom, p, h0[i] / Math.pow(ratio, k), c.at)));
-      s = solveAt(problem, levelSizeField(base, cands, h0, ratio, k), order, limits, { points: [...sitePoints, ...seeds] });
+      readings.push(studyLevel(levelInput(setup, k), setup.problem));
     } catch (e) {
-      if (k >= 1 && isPeakwiseError(e)) { stopped = `level ${k + 1} failed (${e.message}); fitted on ${k} levels`; break; }
+      if (k >= 1 && isPeakwiseError(e)) return { readings, interrupted: false, stopped: failedWords(k, e.message) };
       throw e;
     }
-    const locator = buildPointLocator(s.mesh);
-    s.sets.forEach((set, j) => probes.forEach((p, i) => {
-      perSet[j][i].push(probeLevel(s.mesh, set.field, set.nodal, set.gauss, section, measure, p, h0[i] / Math.pow(ratio, k), s.solution.dofs, locator, set.solution.u, bodyOf[j]));
-    }));
-    progress(2 + k, `level ${k + 1} of ${levels}`);
-    if (k === levels - 1) finest = s;
+    opts.onProgress?.(2 + k, total, `level ${k + 1} of ${levels}`);
   }
+  return { readings, interrupted: false, stopped: '' };
+}
+
+/** The reason's words for a ladder that lost level k (0-based) and kept the k below it. */
+export function failedWords(k: number, message: string): string {
+  return `level ${k + 1} failed (${message}); fitted on ${k} levels`;
+}
+
+/** The reason's words for a ladder stopped by a request with levels from..to-1 (0-based) kept. */
+export function interruptedWords(from: number, to: number): string {
+  const n = to - from;
+  if (from === 0) return `interrupted after ${n} level${n === 1 ? '' : 's'}`;
+  return `interrupted: fitted on levels ${from + 1}–${to} (${n} level${n === 1 ? '' : 's'}) of the finished ones`;
+}
+
+/**
+ * The convergence study (issue 5): first solve at the model size, sites, one refinement ladder shared by
+ * all sites (level k: each site's local size h₀/ratio^k), SPR recovery, per-site convergence fits and verdicts.
+ * Every level in this thread; `runStudyParallel` (parallel.ts) gives the same result with the levels on
+ * worker threads.
+ */
+export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
+  const setup = prepareStudy(model, opts);
+  return finishStudy(setup, serialLadder(setup, opts), opts);
+}
+
+/** After the ladder: the far-field solve (when it is wanted), the fits and verdicts, the result. */
+export function finishStudy(setup: StudySetup, ladder: LadderOutcome, opts: StudyOptions = {}): StudyResult {
+  const { model, levels, ratio, order, problem, cands, probes, first, warnings, t0, total, limits } = setup;
+  const geom = problem.geometry;
+  const measure = model.study.measure;
+  const { readings, stopped, interrupted } = ladder;
+  const sets = first.sets;
+  // levels per load set (case or combination), per site
+  const perSet: LevelResult[][][] = sets.map((_, j) => cands.map((_c, i) => readings.map((r) => r.perSet[j][i])));
+  const finest = readings.find((r) => r.k === levels - 1)?.traces;
 
   // far-field term (docs/study.md, "Far field"): the finest level again with everything outside the sites'
   // refined cores coarsened; the change of each peak is what the unrefined mesh, the same on every level,
@@ -181,28 +212,22 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const anyIntensity = probes.some((p) => p.intensity !== undefined);
   if (!interrupted && !stopped && kLast >= 2 && (anyConverging || anyIntensity) && !opts.shouldStop?.()) {
     try {
-      const hk = h0.map((h) => h / Math.pow(ratio, kLast));
-      const seeds = cands.flatMap((c, i) => rosettePoints(c, hk[i], straight[i]).filter((p) => seedFits(geom, p, hk[i], c.at)));
-      const field = coarsenedOuterField(base, cands, h0, ratio, kLast, BAND_RULES.farField.coarsening);
-      const s = solveAt(problem, field, order, limits, { points: [...sitePoints, ...seeds] });
-      const locator = buildPointLocator(s.mesh);
-      s.sets.forEach((set, j) => {
+      studyLevel(levelInput(setup, kLast, BAND_RULES.farField.coarsening), problem).perSet.forEach((far, j) => {
         const perSite = perSet[j];
-        const far = probes.map((p, i) => probeLevel(s.mesh, set.field, set.nodal, set.gauss, section, measure, p, perSite[i][kLast].h, s.solution.dofs, locator, set.solution.u, bodyOf[j]));
         farShift[j] = far.map((l, i) => l.peak - perSite[i][kLast].peak);
         farShiftK[j] = far.map((l, i) => (l.nsif ?? NaN) - (perSite[i][kLast].nsif ?? NaN));
       });
     } catch (e) {
       if (!isPeakwiseError(e)) throw e;
     }
-    progress(2 + levels, 'far field');
+    opts.onProgress?.(2 + levels, total, 'far field');
   }
 
   const stress = stressUnit(model.units);
   const sitesOf = (j: number): SiteResult[] => {
     const perSiteResults: SiteResult[] = cands.map((c, i) => {
       const r = toSiteResult(`S${i + 1}`, c, perSet[j][i], ratio, order, probes[i], stress, model.units.length, stopped, farShift[j][i], farShiftK[j][i]);
-      return finest ? withPlateauExtent(r, c, finest.mesh, finest.sets[j].nodal) : r;
+      return finest ? withPlateauExtent(r, c, finest[j], finest[j].nodal) : r;
     });
     return reportedSites(perSiteResults, { scale: geom.scale, yieldStress: model.material.yield }).map(withCauseAdvice);
   };
@@ -214,14 +239,14 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const caseStudies: CaseStudy[] = withCases
     ? sets.map((set, j) => ({ name: set.name, kind: set.kind, ...(set.expression ? { expression: set.expression } : {}), solution: summary(set.solution), sites: sitesOf(j) }))
     : [];
-  const onRim = perSet.map((perSite) => perSite.map((levels, i) => peakOnRim(levels, cands[i].at)));
+  const onRim = perSet.map((perSite) => perSite.map((lv, i) => peakOnRim(lv, cands[i].at)));
   const envelope = withCases ? envelopeOf(caseStudies, measure, onRim) : [];
   const sites: SiteResult[] = withCases ? envelopeSites(caseStudies, envelope) : sitesOf(0);
   // a reported value is set beside the sites of its case or combination (the envelope's without one)
   const setIndexOf = (r: ReportedValue): number => (withCases && r.case !== undefined ? Math.max(0, sets.findIndex((set) => set.name === r.case)) : 0);
-  const reported = reportedValues.length > 0 && !interrupted
-    ? judgeReported(reportedValues, reportedAt, cands, (r) => (withCases && r.case !== undefined ? caseStudies[setIndexOf(r)].sites : sites), setIndexOf, base, added,
-      { problem, order, limits, measure, stress, length: model.units.length, probes, section })
+  const reported = setup.reportedValues.length > 0 && !interrupted
+    ? judgeReported(setup.reportedValues, setup.reportedAt, cands, (r) => (withCases && r.case !== undefined ? caseStudies[setIndexOf(r)].sites : sites), setIndexOf, setup.base, setup.added,
+      { problem, order, limits, measure, stress, length: model.units.length, probes, section: problem.section })
     : undefined;
   const q = meshQuality(first.mesh);
   return {

@@ -66,7 +66,7 @@ export function intensityBand(
  * the finest level's distance from the converged value and the spread of the finest three peaks (so the
  * node-to-node noise of the finest mesh does not cut the plateau short).
  */
-export function withPlateauExtent(r: SiteResult, c: SiteCandidate, mesh: Mesh, nodal: Float64Array): SiteResult {
+export function withPlateauExtent(r: SiteResult, c: SiteCandidate, mesh: Pick<Mesh, 'xy' | 'boundaryEdges' | 'edgeStride'>, nodal: Float64Array): SiteResult {
   if (!c.plateau || r.verdict !== 'converging' || r.levels.length === 0) return r;
   const last = r.levels[r.levels.length - 1];
   const peaks = r.levels.slice(-3).map((l) => l.peak);

@@ -122,6 +122,11 @@ export async function runSweep(text: string, file: string, axes: VaryAxis[], opt
   });
   const reused = done;
   const jobs = Math.max(0, Math.min(opts.jobs ?? availableParallelism(), pending.length));
+  // the factor-memory cap holds for the workers together: each point's studies get an equal share
+  // (a point is a whole study, solved level after level in its worker; docs/sweep.md, "Threads and memory")
+  if (jobs > 1 && limits?.maxFactorBytes !== undefined) {
+    for (const t of pending) t.limits = { ...limits, maxFactorBytes: limits.maxFactorBytes / jobs };
+  }
   let computeS = 0;
   let computed = 0;
   const tStart = performance.now();
