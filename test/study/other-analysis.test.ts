@@ -111,8 +111,27 @@ describe('a demo fed back: the lamp-rail hanger (models/l-bracket-sharp.yaml)', 
     // the hanger's end shear tau = 6 MPa raised by 20 %, solved coarse like the run above
     const heavier = parseModel(readFileSync(file, 'utf8'), file, { params: { tau: 7.2 } });
     const r = runStudy({ ...demo, reported: fedBack(heavier) }, { levels });
-    for (const a of r.reported!) expect(a.finding, a.words).toBe('models-differ');
-    expect(r.reported![0].words).toMatch(/^the models differ at this spot/);
+    // at a converging site the 20 % shows plainly; at a singular one the comparison half-width holds the
+    // value's change over a ±25 % element size (1.25^q − 1 ≈ 11 % for the 270° corner) plus the 5 %
+    // tolerance, so a 20 % shift of a coarse peak can fall inside it: there the finding must be
+    // mesh-dependent, and "differ" wherever the shift clears the half-width by 10 %
+    let differ = 0;
+    for (const a of r.reported!) {
+      const verdict = r.sites.find((s) => s.id === a.site)!.verdict;
+      const allowed = a.ours!.band + OTHER_ANALYSIS_RULES.tolerance * Math.abs(a.ours!.value);
+      const shift = Math.abs(a.value - a.ours!.value);
+      if (verdict === 'converging' || shift > 1.1 * allowed) {
+        expect(a.finding, a.words).toBe('models-differ');
+        expect(a.words).toMatch(/^the models differ at this spot/);
+        differ++;
+      } else {
+        expect(verdict).toBe('singular');
+        expect(a.finding, a.words).toBe('mesh-dependent');
+      }
+    }
+    // measured (merged build, 2026-12-04): shift / half-width S2 23.1 / 11.8 %, S3 (the 270° corner) 14.8 / 15.7 %
+    // → mesh-dependent, S4 20.0 / 5.0 %, S5 21.5 / 11.6 %, S6 20.0 / 5.2 %: all but S3 read "differ"
+    expect(differ).toBeGreaterThanOrEqual(r.reported!.length - 1);
   });
 
   it('the sharp re-entrant corner: mesh-dependent, halving adds close to 2^q − 1 for Williams q (Williams 1952)', () => {
