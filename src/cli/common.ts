@@ -37,23 +37,25 @@ export function positiveNumber(text: string, option: string): number {
   return v;
 }
 
-/** `--levels` of study and sweep, by the one rule of the model's `study.levels` (model/study-rules.ts). */
-export function levelsOption(text: string | undefined): number | undefined {
-  if (text === undefined) return undefined;
-  const v = Number(text);
-  const broken = text.trim() === '' ? 'must be a whole number' : levelsRule(v);
-  if (broken !== undefined) throw new PeakwiseError('usage', `--levels ${broken}, got "${text}"`);
-  return v;
+/**
+ * A numeric option checked by the one rule the model key uses (model/study-rules.ts), so `--levels`
+ * and `study.levels`, `--ratio` and `study.ratio` can never disagree.
+ */
+function ruleOption(option: string, blank: string, rule: (v: number) => string | undefined) {
+  return (text: string | undefined): number | undefined => {
+    if (text === undefined) return undefined;
+    const v = Number(text);
+    const broken = text.trim() === '' ? blank : rule(v);
+    if (broken !== undefined) throw new PeakwiseError('usage', `${option} ${broken}, got "${text}"`);
+    return v;
+  };
 }
 
-/** `--ratio` of study and sweep, by the one rule of the model's `study.ratio`. */
-export function ratioOption(text: string | undefined): number | undefined {
-  if (text === undefined) return undefined;
-  const v = Number(text);
-  const broken = text.trim() === '' ? 'must be a number' : ratioRule(v);
-  if (broken !== undefined) throw new PeakwiseError('usage', `--ratio ${broken}, got "${text}"`);
-  return v;
-}
+/** `--levels` of study and sweep, by the rule of the model's `study.levels`. */
+export const levelsOption = ruleOption('--levels', 'must be a whole number', levelsRule);
+
+/** `--ratio` of study and sweep, by the rule of the model's `study.ratio`. */
+export const ratioOption = ruleOption('--ratio', 'must be a number', ratioRule);
 
 export function useColor(opts: CommonOptions): boolean {
   if (opts.color === false) return false;

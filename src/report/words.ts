@@ -181,37 +181,7 @@ export const READOUTS_LEGEND =
   'line methods of the theory of critical distances (Taylor 2007) need the material\u2019s critical distance, averaging methods a ' +
   'material volume, notch stress intensity methods K_I itself; set study.readouts.distance to the distance the applicable code or method asks for.';
 
-/** A singular site's corner (or edge end) where a support ends: the singularity belongs to the idealised support. */
-export function atSupportEnd(site: SiteResult): boolean {
-  const f = site.feature;
-  return f.kind === 'support-edge' || (f.kind === 'corner' && (f.faceConditions?.some((c) => c !== 'free') ?? false));
-}
-
-/** A corner whose material angle is that of a crack (a slit closing to a sharp tip). */
-export function isCrackLike(site: SiteResult): boolean {
-  return site.feature.kind === 'corner' && site.feature.interiorAngleDeg >= 350 && !atSupportEnd(site);
-}
-
-/**
- * The next step for a site, in the report's words: for a singular site it depends on what makes it
- * singular (an idealised support, a concentrated load, a crack, a sharp corner); otherwise the
- * study's own advice.
- */
-export function siteAdvice(site: SiteResult): string | undefined {
-  if (site.verdict !== 'singular') return site.advice;
-  const f = site.feature;
-  if (atSupportEnd(site)) {
-    return 'model the real support (the bolts, the contact, the stiffness of the flange or member it is fixed to) rather than a radius: ' +
-      'the singularity comes from a support idealised as rigid up to a sharp end, and its readouts describe that idealisation, ' +
-      'not the real detail; use them only to compare variants with the same support';
-  }
-  if (f.kind === 'point-load') return 'spread the force over its real contact length (a pressure on an edge) or read the stress at a distance from it';
-  if (f.kind === 'point-support') return 'model the support over its real length and stiffness, or read the stress at a distance from it';
-  if (isCrackLike(site)) {
-    return 'this is a crack: it needs a fracture assessment (K_I against the material\u2019s fracture toughness, and crack growth under repeated load, by the applicable code or procedure); the peak stress means nothing here';
-  }
-  return 'do not read the peak as a stress: model the real corner radius, or use the readouts the applicable code asks for';
-}
+export { atSupportEnd, isCrackLike, siteAdvice } from '../study/advice.js';
 
 /** The flag of a converged value above the yield stress. */
 export function aboveYieldNote(site: SiteResult, yieldStress: number | undefined, stressUnit: string): string | undefined {

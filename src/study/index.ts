@@ -22,3 +22,4 @@ export { runStudy, type StudyOptions, type BaseSolve } from './run.js';
 export { reportedSites, roundToScale, isAboveYield } from './reported.js';
 export { intensityBand, siteProbe, siteReadouts, reportedPosition, withPlateauExtent, DEFAULT_READOUT_FRACTION } from './site-readouts.js';
 export { intensityNorm, reciprocalIntensity, singularTerm, type IntensitySetup, type IntensityNorm } from './stress-intensity.js';
+export { atSupportEnd, isCrackLike, siteAdvice, withCauseAdvice } from './advice.js';

@@ -19,6 +19,7 @@ import { boundaryEdgesAt } from './mesh-tools.js';
 import { reportedSites } from './reported.js';
 import { reportedPosition, siteProbe, siteReadouts, withPlateauExtent } from './site-readouts.js';
 import { selectorWarnings } from '../fem/index.js';
+import { withCauseAdvice } from './advice.js';
 
 export interface StudyOptions {
   levels?: number;
@@ -176,7 +177,7 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
     const r = toSiteResult(`S${i + 1}`, c, perSite[i], ratio, order, probes[i], stress, model.units.length, stopped, farShift[i], farShiftK[i]);
     return finest ? withPlateauExtent(r, c, finest.mesh, finest.nodal) : r;
   });
-  const sites: SiteResult[] = reportedSites(perSiteResults, { scale: geom.scale, yieldStress: model.material.yield });
+  const sites: SiteResult[] = reportedSites(perSiteResults, { scale: geom.scale, yieldStress: model.material.yield }).map(withCauseAdvice);
   const q = meshQuality(first.mesh);
   return {
     tool: 'peakwise',

@@ -4,9 +4,9 @@
  * (bytes as UTF-8).
  */
 import { describe, expect, it } from 'vitest';
-import { ModelError } from '../../src/errors.js';
-import { formatModelError, parseModel } from '../../src/model/index.js';
+import { formatModelError } from '../../src/model/index.js';
 import { seededRandom } from '../helpers/random.js';
+import { modelErrorOf } from './helpers.js';
 
 const MODEL = [
   'material: { E: 210000, nu: 0.3 }', 'thickness: 3',
@@ -15,15 +15,7 @@ const MODEL = [
   'loads: [ { where: { x: 120 }, traction: [50, 0] } ]', '',
 ].join('\n');
 
-function line(text: string): string {
-  try {
-    parseModel(text, 'm.yaml');
-  } catch (e) {
-    expect(e).toBeInstanceOf(ModelError);
-    return formatModelError(e as ModelError, 'm.yaml');
-  }
-  throw new Error('expected a ModelError');
-}
+const line = (text: string): string => formatModelError(modelErrorOf(text), 'm.yaml');
 const asRead = (bytes: Buffer): string => bytes.toString('utf8');
 
 describe('model files that are not UTF-8 text', () => {

@@ -5,30 +5,10 @@ import { FemError, ModelError } from '../../src/errors.js';
 import {
   boundingBox, formatModelError, locate, parseModel, shapeArea, stressUnit, type Model,
 } from '../../src/model/index.js';
+import { MINIMAL_MODEL as minimal, modelErrorOf as fails } from './helpers.js';
 
 const modelsDir = fileURLToPath(new URL('../../models/', import.meta.url));
 const demo = (name: string): Model => parseModel(readFileSync(modelsDir + name, 'utf8'), `models/${name}`);
-
-const minimal = `
-material: { E: 210000, nu: 0.3 }
-thickness: 10
-plate:
-  outline: [[0, 0], [100, 0], [100, 50], [0, 50]]
-supports:
-  - { where: { x: 0 }, fix: [x, y] }
-loads:
-  - { where: { x: 100 }, traction: [10, 0] }
-`;
-
-function fails(text: string): ModelError {
-  try {
-    parseModel(text, 'm.yaml');
-  } catch (e) {
-    expect(e).toBeInstanceOf(ModelError);
-    return e as ModelError;
-  }
-  throw new Error('expected a ModelError');
-}
 
 describe('demo models', () => {
   const files = readdirSync(modelsDir).filter((f) => f.endsWith('.yaml'));

@@ -1,26 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { ModelError } from '../../src/errors.js';
 import { parseModel } from '../../src/model/index.js';
-
-const minimal = `
-material: { E: 210000, nu: 0.3 }
-thickness: 10
-plate:
-  outline: [[0, 0], [100, 0], [100, 50], [0, 50]]
-supports:
-  - { where: { x: 0 }, fix: [x, y] }
-loads:
-  - { where: { x: 100 }, traction: [10, 0] }
-`;
-function fails(text: string): ModelError {
-  try {
-    parseModel(text, 'm.yaml');
-  } catch (e) {
-    expect(e).toBeInstanceOf(ModelError);
-    return e as ModelError;
-  }
-  throw new Error('expected a ModelError');
-}
+import { MINIMAL_MODEL as minimal, modelErrorOf as fails } from './helpers.js';
 
 describe('the piece selector (issue 12 §9)', () => {
   it('reads { piece: [x, y] } for loads and supports, with expressions', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { ModelError } from '../../src/errors.js';
 import { parseModel } from '../../src/model/index.js';
+import { modelErrorOf } from './helpers.js';
 
 /* material.yield (issue 17): optional, > 0, in the model's stress units, with a unit-mix warning. */
 const plate = (material: string) => `
@@ -11,15 +11,7 @@ supports: [{ where: { x: 0 }, fix: [x, y] }]
 loads: [{ where: { x: 100 }, traction: [10, 0] }]
 `;
 
-function failure(text: string): ModelError {
-  try {
-    parseModel(text, 'y.yaml');
-  } catch (e) {
-    expect(e).toBeInstanceOf(ModelError);
-    return e as ModelError;
-  }
-  throw new Error('expected a ModelError');
-}
+const failure = (text: string) => modelErrorOf(text, 'y.yaml');
 
 describe('material.yield', () => {
   it('is absent unless given, and read as a number or an expression', () => {
