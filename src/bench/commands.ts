@@ -121,7 +121,7 @@ export function benchStartup(quick: boolean): void {
   for (const flag of ['--version', '--help']) {
     const s = timeCommand([flag], n);
     process.stdout.write(`  peakwise ${flag}: ${(s * 1000).toFixed(0)} ms (median of ${n})\n`);
-    recordGoal({ what: `peakwise ${flag}`, measured: `median of ${n}`, value: s, limit: 0.1, unit: 's' });
+    recordGoal({ what: `peakwise ${flag}`, measured: `median of ${n}; node -e 0 took ${(median(floor) * 1000).toFixed(0)} ms`, value: s, limit: 0.1, unit: 's' });
   }
 }
 

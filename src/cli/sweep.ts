@@ -188,7 +188,10 @@ export async function runSweepCommand(ctx: CliContext, file: string, opts: Sweep
   }
   if (shard) {
     writeShardSummary(sweep, shard, outDir, opts);
-    if (sweep.interrupted) throw new StudyInterrupted();
+    if (sweep.interrupted) {
+      process.stderr.write(`peakwise: interrupted: ${sweep.points.length} finished points of shard ${shard.index + 1}/${shard.count} are in ${join(outDir, 'points')}; run the same shard again to compute the rest\n`);
+      throw new StudyInterrupted();
+    }
     return;
   }
   const unit = stressUnit(model.units);
