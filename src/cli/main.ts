@@ -4,7 +4,7 @@
  * files and the console. Errors of ours become one line and exit status 1, never a stack trace.
  */
 import { Command, CommanderError, Option } from 'commander';
-import { isPeakwiseError } from '../errors.js';
+import { PeakwiseError, isPeakwiseError } from '../errors.js';
 import { describeError } from './report-error.js';
 import { registerCutOptions } from './cut.js';
 import { runMesh, runSolve, runStudy, setStopFlag, StudyInterrupted, type CliContext } from './commands.js';
@@ -68,7 +68,10 @@ export function buildProgram(): Command {
       .option('--jobs <n>', 'worker threads for the levels (default: one per core for a long ladder, else one; 1 solves every level in one thread)')
       .option('--watch', 'stay running: study again whenever the model (or a file it reads) is saved, and serve the report')
       .option('--port <n>', 'with --watch: the local port of the report (default: any free one)'),
-  )).action(async (model: string, opts) => (opts.watch ? watchStudy(ctx, model, opts) : runStudy(ctx, model, opts)));
+  )).action(async (model: string, opts) => {
+    if (opts.port !== undefined && !opts.watch) throw new PeakwiseError('usage', '--port serves the report of --watch; add --watch or leave --port out');
+    return opts.watch ? watchStudy(ctx, model, opts) : runStudy(ctx, model, opts);
+  });
 
   registerSweep(program, ctx);
   registerCheck(program, ctx);
