@@ -17,7 +17,6 @@ import { closeOutputSets } from './output-set.js';
 import { adoptWorkerLock, releaseAllLocks } from './lock.js';
 import { maxDofsArgument } from './options.js';
 import { registerResults } from './results.js';
-import { watchStudy } from './watch.js';
 
 const ctx: CliContext = { file: undefined, model: undefined };
 
@@ -70,7 +69,8 @@ export function buildProgram(): Command {
       .option('--port <n>', 'with --watch: the local port of the report (default: any free one)'),
   )).action(async (model: string, opts) => {
     if (opts.port !== undefined && !opts.watch) throw new PeakwiseError('usage', '--port serves the report of --watch; add --watch or leave --port out');
-    return opts.watch ? watchStudy(ctx, model, opts) : runStudy(ctx, model, opts);
+    // watch mode (and its server) loads only when asked for
+    return opts.watch ? (await import('./watch.js')).watchStudy(ctx, model, opts) : runStudy(ctx, model, opts);
   });
 
   registerSweep(program, ctx);
