@@ -6,7 +6,7 @@
 import { Command, CommanderError, Option } from 'commander';
 import { Worker, isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { writeSync } from 'node:fs';
-import { isPeakwiseError } from '../errors.js';
+import { PeakwiseError, isPeakwiseError } from '../errors.js';
 import { VERSION } from '../version.js';
 import { maxDofsArgument } from './options.js';
 import { registerCheck, registerCutOptions, registerResults, registerSweep } from './register.js';
@@ -67,9 +67,11 @@ export function buildProgram(): Command {
       .option('--jobs <n>', 'worker threads for the levels (default: one per core for a long ladder, else one; 1 solves every level in one thread)')
       .option('--watch', 'stay running: study again whenever the model (or a file it reads) is saved, and serve the report')
       .option('--port <n>', 'with --watch: the local port of the report (default: any free one)'),
-  )).action(async (model: string, opts) => (opts.watch
-    ? (await import('./watch.js')).watchStudy(ctx, model, opts)
-    : (await commands()).runStudy(ctx, model, opts)));
+  )).action(async (model: string, opts) => {
+    if (opts.port !== undefined && !opts.watch) throw new PeakwiseError('usage', '--port serves the report of --watch; add --watch or leave --port out');
+    // watch mode (and its server) loads only when asked for
+    return opts.watch ? (await import('./watch.js')).watchStudy(ctx, model, opts) : (await commands()).runStudy(ctx, model, opts);
+  });
 
   registerSweep(program, ctx);
   registerCheck(program, ctx);

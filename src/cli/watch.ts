@@ -111,7 +111,13 @@ export async function watchStudy(ctx: CliContext, file: string, opts: WatchOptio
   try {
     // warm workers for every rerun (one job: each level in this thread, itself warm)
     pool = jobs > 1 ? studyPool(jobs) : undefined;
-    server = await serveFolder(held.dir, port);
+    try {
+      server = await serveFolder(held.dir, port);
+    } catch (e) {
+      const code = (e as NodeJS.ErrnoException).code;
+      const why = code === 'EADDRINUSE' ? 'is in use' : code === 'EACCES' ? 'may not be opened by this user' : `cannot be opened (${code ?? String(e)})`;
+      throw new PeakwiseError('usage', `--port ${port}: that port on 127.0.0.1 ${why}; choose another, or leave --port out for any free one`);
+    }
     say(`watching ${file} (and the files it reads); the report is at ${server.url}report.html — Ctrl-C ends the watch`);
     let files = new Map<string, FileState>();
     let reason = '';
