@@ -3,6 +3,7 @@ import type { GaussStresses, ElasticSection } from '../fem/types.js';
 import type { NodalStress } from '../recovery/types.js';
 import type { Point, StressMeasure } from '../model/types.js';
 import { buildPointLocator, measureValue, stressAt, type PointLocator } from '../recovery/index.js';
+import { outOfPlaneStress, type BodyFields } from '../fem/index.js';
 import type { LevelResult } from './types.js';
 import type { SiteCandidate } from './sites.js';
 import { sampledAverage } from './readouts.js';
@@ -102,12 +103,13 @@ export interface SiteProbe {
  * 0 ≤ r ≤ 4d (line method: point at L/2 and line over 2L, Taylor 2007, with L = 2d), the Gauss-point area
  * mean over the disk r ≤ d, with a critical distance L the point and line methods at L/2 and over 2L, and
  * the stress intensity by the reciprocal work integral (from the displacements u) when the annulus of its
- * domain is at least two element sizes h from the apex (NaN on coarser levels).
+ * domain is at least two element sizes h from the apex (NaN on coarser levels); `body` holds the body force
+ * and thermal strain of the model's body loads, which that integral needs (stress-intensity.ts).
  */
 export function probeLevel(
   mesh: Mesh, field: NodalStress, nodal: Float64Array, gauss: GaussStresses, section: ElasticSection,
   measure: StressMeasure, probe: SiteProbe, h: number, dofs: number, locator: PointLocator = buildPointLocator(mesh),
-  u?: Float64Array,
+  u?: Float64Array, body: BodyFields = {},
 ): LevelResult {
   const { site, radius, distance: d } = probe;
   const [sx, sy] = site.at;
@@ -118,7 +120,7 @@ export function probeLevel(
   }
   const out: LevelResult = { h, dofs, peak, peakAt: [mesh.xy[2 * pn], mesh.xy[2 * pn + 1]], radius };
   const K = probe.intensity;
-  if (K && u && K.innerRadius >= 2 * h) out.nsif = reciprocalIntensity(mesh, u, section, K, K.norm);
+  if (K && u && K.innerRadius >= 2 * h) out.nsif = reciprocalIntensity(mesh, u, section, K, K.norm, body);
   const dir = site.direction;
   if (dir) {
     // within APEX_SIZES·h of a singular apex the elements cannot follow r^(λ−1): at a mirror, where the field
@@ -128,8 +130,9 @@ export function probeLevel(
     const singular = K && K.mirrorFactor > 1 && out.nsif !== undefined && Number.isFinite(out.nsif) ? singularTerm(K, out.nsif, section) : undefined;
     const at = (r: number) => {
       if (singular && r < APEX_SIZES * h) {
+        // the singular term is a mechanical field (no thermal strain), so its σzz is ν(σxx + σyy) in plane strain
         const p = singular(r);
-        return measureValue(measure, p.sxx, p.syy, p.sxy, section.state === 'plane-strain' ? section.nu * (p.sxx + p.syy) : 0);
+        return measureValue(measure, p.sxx, p.syy, p.sxy, outOfPlaneStress(section, p.sxx, p.syy));
       }
       const p = stressAt(mesh, field, sx + r * dir[0], sy + r * dir[1], locator);
       return p ? measureValue(measure, p.sxx, p.syy, p.sxy, p.szz) : NaN;
@@ -160,12 +163,10 @@ export function probeLevel(
   }
   // area mean over the disk r ≤ d (Gauss points of the raw element stresses)
   let sw = 0, sv = 0;
-  const plainStrain = section.state === 'plane-strain';
   for (let k = 0; k < gauss.weight.length; k++) {
     if (Math.hypot(gauss.xy[2 * k] - sx, gauss.xy[2 * k + 1] - sy) > d) continue;
     const a = gauss.stress[3 * k], b = gauss.stress[3 * k + 1], c = gauss.stress[3 * k + 2];
-    const szz = plainStrain ? section.nu * (a + b) : 0;
-    sv += gauss.weight[k] * measureValue(measure, a, b, c, szz);
+    sv += gauss.weight[k] * measureValue(measure, a, b, c, gauss.szz[k]);
     sw += gauss.weight[k];
   }
   if (sw > 0) out.average = sv / sw;

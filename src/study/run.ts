@@ -10,7 +10,7 @@ import type { NodalStress } from '../recovery/types.js';
 import { buildPointLocator } from '../recovery/index.js';
 import { baseSizeField, problemOf, solveAt, type LoadSetLevel, type SolveLimits, type SolvedLevel } from '../pipeline/index.js';
 import type { CaseStudy, LevelResult, SiteResult, StudyResult } from './types.js';
-import { envelopeOf, envelopeSites, mergeSiteLists, peakOnRim } from './cases.js';
+import { combinedBodyFields, envelopeOf, envelopeSites, mergeSiteLists, peakOnRim } from './cases.js';
 import { findSites, listedSitePoints, type SiteCandidate } from './sites.js';
 import { levelSizeField, probeLevel, rosettePoints, NEIGHBOURHOOD_SIZES, type SiteProbe } from './ladder.js';
 import { judgeSite } from './verdict.js';
@@ -19,7 +19,7 @@ import { coarsenedOuterField } from './far-field.js';
 import { boundaryEdgesAt } from './mesh-tools.js';
 import { reportedSites } from './reported.js';
 import { reportedPosition, siteProbe, siteReadouts, withPlateauExtent } from './site-readouts.js';
-import { selectorWarnings } from '../fem/index.js';
+import { bodyFields, selectorWarnings } from '../fem/index.js';
 
 export interface StudyOptions {
   levels?: number;
@@ -102,6 +102,10 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const measure = model.study.measure;
   const problem = problemOf(model, { size, order });
   const { geometry: geom, section } = problem;
+  // body force and thermal strain of each case's body loads (a combination's: the factored sum), for the
+  // reciprocal-work K (stress-intensity.ts)
+  const caseBodies = problem.cases.map((c) => bodyFields(section, c.loads));
+  const bodies = [...caseBodies, ...problem.combinations.map((c) => combinedBodyFields(c.terms.map((t) => caseBodies[problem.cases.findIndex((k) => k.name === t.case)]), c.terms.map((t) => t.factor)))];
   // the listed sites are vertices of every mesh, the first included (the selector ends are already)
   const listed = listedSitePoints(model, geom, problem.requiredPoints);
   const warnings = selectorWarnings(model, geom);
@@ -146,7 +150,7 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
     }
     const locator = buildPointLocator(s.mesh);
     s.sets.forEach((set, j) => probes.forEach((p, i) => {
-      perSet[j][i].push(probeLevel(s.mesh, set.field, set.nodal, set.gauss, section, measure, p, h0[i] / Math.pow(ratio, k), s.solution.dofs, locator, set.solution.u));
+      perSet[j][i].push(probeLevel(s.mesh, set.field, set.nodal, set.gauss, section, measure, p, h0[i] / Math.pow(ratio, k), s.solution.dofs, locator, set.solution.u, bodies[j]));
     }));
     progress(2 + k, `level ${k + 1} of ${levels}`);
     if (k === levels - 1) finest = s;
@@ -170,7 +174,7 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
       const locator = buildPointLocator(s.mesh);
       s.sets.forEach((set, j) => {
         const perSite = perSet[j];
-        const far = probes.map((p, i) => probeLevel(s.mesh, set.field, set.nodal, set.gauss, section, measure, p, perSite[i][kLast].h, s.solution.dofs, locator, set.solution.u));
+        const far = probes.map((p, i) => probeLevel(s.mesh, set.field, set.nodal, set.gauss, section, measure, p, perSite[i][kLast].h, s.solution.dofs, locator, set.solution.u, bodies[j]));
         farShift[j] = far.map((l, i) => l.peak - perSite[i][kLast].peak);
         farShiftK[j] = far.map((l, i) => (l.nsif ?? NaN) - (perSite[i][kLast].nsif ?? NaN));
       });
