@@ -49,7 +49,7 @@ describe('report with load cases', () => {
 
   it('the terminal table and sites.csv name the governing case', () => {
     expect(studyTable(study, { color: false })).toContain('envelope of pull, lift, both = pull + lift');
-    const csv = sitesCsv(study).split('\n');
+    const csv = sitesCsv(study).split(/\r?\n/);
     expect(csv[0].endsWith(',"case"')).toBe(true);
     expect(csv[1].endsWith(`,"${study.sites[0].case}"`)).toBe(true);
   });
