@@ -34,7 +34,7 @@ export type * from './sweep/types.js';
 export { parseModel, formatModelError, stressUnit, type ParseOptions } from './model/index.js';
 export { buildGeometry, pointInMaterial } from './geometry/index.js';
 export { meshPlate, meshQuality, validateMesh, sizeFieldFromSettings } from './mesh/index.js';
-export { solvePlate, gaussStresses, assembleStiffness, appliedResultant, selectorVertices, selectorWarnings, type PlateProblem } from './fem/index.js';
+export { solvePlate, solvePlateCases, gaussStresses, assembleStiffness, appliedResultant, selectorVertices, selectorWarnings, type PlateProblem } from './fem/index.js';
 export { analyze, factorize, solveFactor, solveSpd, residualNorm, toMatrixMarket } from './linalg/index.js';
 export {
   recoverSpr, recoverAverage, estimateError, nodalMeasure, measureValue, principal, vonMises, tresca,
@@ -45,9 +45,10 @@ export {
   problemOf, sectionOf, baseSizeField, meshAt, solveMesh, solveAt, solveProblem, estimateOf, adaptiveSolve, modelFromParts,
   checkLimits, defaultLimits, DEFAULT_MAX_DOFS,
   type Problem, type ProblemOptions, type SolvedLevel, type MeshRequest, type SolveLimits, type ModelParts,
-  type AdaptiveOptions, type AdaptiveCycle, type AdaptiveResult,
+  type AdaptiveOptions, type AdaptiveCycle, type AdaptiveResult, type LoadSetLevel,
 } from './pipeline/index.js';
-export { runStudy, runStudyParallel, findSites, williamsRoots, wedgeTheory, type StudyOptions, type ParallelStudyOptions, type BaseSolve } from './study/index.js';
+export { runStudy, runStudyParallel, findSites, williamsRoots, wedgeTheory, caseStudyResult, envelopeOf, type StudyOptions, type ParallelStudyOptions, type BaseSolve } from './study/index.js';
+export { loadCasesOf, linearForm } from './model/index.js';
 export { studyTable, sitesCsv, fieldCsv, reportHtml, meshSvg, contourSvg, convergencePlotSvg, CAUTION, bandText, formatBand } from './report/index.js';
 export { kirschPolar, kirschCartesian, lameRing, inglisKt } from './reference/index.js';
 export {

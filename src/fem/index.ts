@@ -14,7 +14,7 @@ export { selectorVertices, verticesOfSelector } from './required-points.js';
 export { appliedResultant, loadVector } from './loads.js';
 export { edgeTractionLoad, pressureLoad, type TractionField } from './edge-load.js';
 export { bodyForceLoad, type BodyForceField } from './body-load.js';
-export { bodyFields, combineBodyFields, temperatureField, thermalLoad, thermalStrainPerDegree, type BodyFields, type TemperatureField } from './thermal.js';
+export { bodyFields, temperatureField, thermalLoad, thermalStrainPerDegree, type BodyFields, type TemperatureField } from './thermal.js';
 export { checkRigidRestraint, supportedDofs } from './supports.js';
 export { validateSolverMesh, validateSection } from './validate.js';
 export { solvePlate, solvePlateCases, largestDisplacement, type PlateProblem, type PlateCase, type PrescribedDisplacement } from './solve.js';

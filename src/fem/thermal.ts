@@ -183,26 +183,3 @@ export function bodyFields(section: Pick<ElasticSection, 'nu' | 'state' | 'densi
   }
   return out;
 }
-
-/**
- * The body fields of a combination Σ factor·case: body force and thermal strain are linear in the
- * loads, so each is the factored sum of the cases' (a case without one contributes nothing).
- */
-export function combineBodyFields(parts: readonly BodyFields[], factors: readonly number[]): BodyFields {
-  const out: BodyFields = {};
-  const forces = parts.map((p, t) => ({ f: p.force, k: factors[t] })).filter((p) => p.f !== undefined && p.k !== 0);
-  const strains = parts.map((p, t) => ({ f: p.strain, k: factors[t] })).filter((p) => p.f !== undefined && p.k !== 0);
-  if (forces.length > 0) {
-    out.force = (x, y) => {
-      let bx = 0, by = 0;
-      for (const { f, k } of forces) {
-        const [fx, fy] = f!(x, y);
-        bx += k * fx;
-        by += k * fy;
-      }
-      return [bx, by];
-    };
-  }
-  if (strains.length > 0) out.strain = (x, y) => strains.reduce((sum, { f, k }) => sum + k * f!(x, y), 0);
-  return out;
-}

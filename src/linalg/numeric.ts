@@ -344,19 +344,30 @@ export function solveWithFactor(F: Factor, b: ArrayLike<number>): Float64Array {
 }
 
 /**
- * Solve L Lᵀ (P X) = P B for several right-hand sides at once. The sides go in groups of four whose
- * rows are interleaved (row k of the four side by side), and the sweep over the factor for a group
- * keeps the four values of the current column in registers: each entry of L and each row index is
- * read once for four sides (src/bench/cases.ts measures it against single solves). A last group of
- * one to three sides takes the general loop. Each column's arithmetic is that of `solveWithFactor`,
- * in the same order, so every result equals the single solve of its side to the last bit.
+ * Solve L Lᵀ (P X) = P B for several right-hand sides at once. The sides go in groups of twelve,
+ * eight or four whose rows are interleaved (row k of the group side by side), and the sweep over the
+ * factor for a group keeps the group's values of the current column in locals: each entry of L and
+ * each row index is read once for the whole group, and a scattered row of the group is one or two
+ * cache lines, about what one side's row costs. At 200k dofs twelve sides in one sweep cost about
+ * three single solves (src/bench/cases.ts). A short last group is padded with zero sides; a single
+ * side is a plain solve. Each column's arithmetic is that of `solveWithFactor`, in the same order, so
+ * every result equals the single solve of its side to the last bit.
  */
 export function solveWithFactorMany(F: Factor, bs: readonly ArrayLike<number>[]): Float64Array[] {
   const out: Float64Array[] = [];
-  for (let g = 0; g < bs.length; g += 4) {
-    const group = bs.slice(g, g + 4);
-    if (group.length === 1) out.push(solveWithFactor(F, group[0]));
-    else out.push(...(group.length === 4 ? sweepFour(F, group) : sweepInterleaved(F, group)));
+  for (let g = 0; g < bs.length;) {
+    const left = bs.length - g;
+    if (left === 1) {
+      out.push(solveWithFactor(F, bs[g]));
+      break;
+    }
+    // a short last group is padded with zero sides: a group costs about the same however full it is
+    const size = left >= 9 ? 12 : left >= 5 ? 8 : 4;
+    const group = bs.slice(g, g + size);
+    const taken = group.length;
+    while (group.length < size) group.push(new Float64Array(F.n));
+    out.push(...(size === 12 ? sweepTwelve(F, group) : size === 8 ? sweepEight(F, group) : sweepFour(F, group)).slice(0, taken));
+    g += taken;
   }
   return out;
 }
@@ -442,13 +453,11 @@ function sweepFour(F: Factor, bs: readonly ArrayLike<number>[]): Float64Array[] 
   return scatterSides(F, y, 4);
 }
 
-/** Any number of sides, interleaved, a loop over the sides inside (the last group of two or three). */
-function sweepInterleaved(F: Factor, bs: readonly ArrayLike<number>[]): Float64Array[] {
-  const m = bs.length;
+/** Eight sides, interleaved by eight, the column's eight values held in locals. */
+function sweepEight(F: Factor, bs: readonly ArrayLike<number>[]): Float64Array[] {
   const { nSuper, superStart, superRowPtr, superRows, superValPtr } = F.symbolic;
   const L = F.values;
   const y = gatherSides(F, bs);
-  // forward: L Y = P B
   for (let s = 0; s < nSuper; s++) {
     const f = superStart[s];
     const nc = superStart[s + 1] - f;
@@ -458,22 +467,23 @@ function sweepInterleaved(F: Factor, bs: readonly ArrayLike<number>[]): Float64A
     for (let j = 0; j < nc; j++) {
       const cj = base + j * nr;
       const d = L[cj + j];
-      const yj = (f + j) * m;
-      for (let r = 0; r < m; r++) y[yj + r] /= d;
+      const yj = (f + j) << 3;
+      const a0 = (y[yj] /= d), a1 = (y[yj + 1] /= d), a2 = (y[yj + 2] /= d), a3 = (y[yj + 3] /= d);
+      const a4 = (y[yj + 4] /= d), a5 = (y[yj + 5] /= d), a6 = (y[yj + 6] /= d), a7 = (y[yj + 7] /= d);
       for (let i = j + 1; i < nc; i++) {
         const l = L[cj + i];
-        const yi = (f + i) * m;
-        for (let r = 0; r < m; r++) y[yi + r] -= l * y[yj + r];
+        const yi = (f + i) << 3;
+        y[yi] -= l * a0; y[yi + 1] -= l * a1; y[yi + 2] -= l * a2; y[yi + 3] -= l * a3;
+        y[yi + 4] -= l * a4; y[yi + 5] -= l * a5; y[yi + 6] -= l * a6; y[yi + 7] -= l * a7;
       }
       for (let i = nc; i < nr; i++) {
         const l = L[cj + i];
-        const yi = superRows[rp + i] * m;
-        for (let r = 0; r < m; r++) y[yi + r] -= l * y[yj + r];
+        const yi = superRows[rp + i] << 3;
+        y[yi] -= l * a0; y[yi + 1] -= l * a1; y[yi + 2] -= l * a2; y[yi + 3] -= l * a3;
+        y[yi + 4] -= l * a4; y[yi + 5] -= l * a5; y[yi + 6] -= l * a6; y[yi + 7] -= l * a7;
       }
     }
   }
-  // backward: Lᵀ X = Y
-  const sum = new Float64Array(m);
   for (let s = nSuper - 1; s >= 0; s--) {
     const f = superStart[s];
     const nc = superStart[s + 1] - f;
@@ -482,21 +492,94 @@ function sweepInterleaved(F: Factor, bs: readonly ArrayLike<number>[]): Float64A
     const base = superValPtr[s];
     for (let j = nc - 1; j >= 0; j--) {
       const cj = base + j * nr;
-      const yj = (f + j) * m;
-      for (let r = 0; r < m; r++) sum[r] = y[yj + r];
+      const yj = (f + j) << 3;
+      let s0 = y[yj], s1 = y[yj + 1], s2 = y[yj + 2], s3 = y[yj + 3];
+      let s4 = y[yj + 4], s5 = y[yj + 5], s6 = y[yj + 6], s7 = y[yj + 7];
       for (let i = j + 1; i < nc; i++) {
         const l = L[cj + i];
-        const yi = (f + i) * m;
-        for (let r = 0; r < m; r++) sum[r] -= l * y[yi + r];
+        const yi = (f + i) << 3;
+        s0 -= l * y[yi]; s1 -= l * y[yi + 1]; s2 -= l * y[yi + 2]; s3 -= l * y[yi + 3];
+        s4 -= l * y[yi + 4]; s5 -= l * y[yi + 5]; s6 -= l * y[yi + 6]; s7 -= l * y[yi + 7];
       }
       for (let i = nc; i < nr; i++) {
         const l = L[cj + i];
-        const yi = superRows[rp + i] * m;
-        for (let r = 0; r < m; r++) sum[r] -= l * y[yi + r];
+        const yi = superRows[rp + i] << 3;
+        s0 -= l * y[yi]; s1 -= l * y[yi + 1]; s2 -= l * y[yi + 2]; s3 -= l * y[yi + 3];
+        s4 -= l * y[yi + 4]; s5 -= l * y[yi + 5]; s6 -= l * y[yi + 6]; s7 -= l * y[yi + 7];
       }
       const d = L[cj + j];
-      for (let r = 0; r < m; r++) y[yj + r] = sum[r] / d;
+      y[yj] = s0 / d; y[yj + 1] = s1 / d; y[yj + 2] = s2 / d; y[yj + 3] = s3 / d;
+      y[yj + 4] = s4 / d; y[yj + 5] = s5 / d; y[yj + 6] = s6 / d; y[yj + 7] = s7 / d;
     }
   }
-  return scatterSides(F, y, m);
+  return scatterSides(F, y, 8);
+}
+
+/** Twelve sides, interleaved by twelve, the column's twelve values held in locals (the pattern of sweepFour). */
+function sweepTwelve(F: Factor, bs: readonly ArrayLike<number>[]): Float64Array[] {
+  const { nSuper, superStart, superRowPtr, superRows, superValPtr } = F.symbolic;
+  const L = F.values;
+  const y = gatherSides(F, bs);
+  for (let s = 0; s < nSuper; s++) {
+    const f = superStart[s];
+    const nc = superStart[s + 1] - f;
+    const rp = superRowPtr[s];
+    const nr = superRowPtr[s + 1] - rp;
+    const base = superValPtr[s];
+    for (let j = 0; j < nc; j++) {
+      const cj = base + j * nr;
+      const d = L[cj + j];
+      const yj = (f + j) * 12;
+      const a0 = (y[yj + 0] /= d), a1 = (y[yj + 1] /= d), a2 = (y[yj + 2] /= d), a3 = (y[yj + 3] /= d);
+      const a4 = (y[yj + 4] /= d), a5 = (y[yj + 5] /= d), a6 = (y[yj + 6] /= d), a7 = (y[yj + 7] /= d);
+      const a8 = (y[yj + 8] /= d), a9 = (y[yj + 9] /= d), a10 = (y[yj + 10] /= d), a11 = (y[yj + 11] /= d);
+      for (let i = j + 1; i < nc; i++) {
+        const l = L[cj + i];
+        const yi = (f + i) * 12;
+        y[yi + 0] -= l * a0; y[yi + 1] -= l * a1; y[yi + 2] -= l * a2; y[yi + 3] -= l * a3;
+        y[yi + 4] -= l * a4; y[yi + 5] -= l * a5; y[yi + 6] -= l * a6; y[yi + 7] -= l * a7;
+        y[yi + 8] -= l * a8; y[yi + 9] -= l * a9; y[yi + 10] -= l * a10; y[yi + 11] -= l * a11;
+      }
+      for (let i = nc; i < nr; i++) {
+        const l = L[cj + i];
+        const yi = superRows[rp + i] * 12;
+        y[yi + 0] -= l * a0; y[yi + 1] -= l * a1; y[yi + 2] -= l * a2; y[yi + 3] -= l * a3;
+        y[yi + 4] -= l * a4; y[yi + 5] -= l * a5; y[yi + 6] -= l * a6; y[yi + 7] -= l * a7;
+        y[yi + 8] -= l * a8; y[yi + 9] -= l * a9; y[yi + 10] -= l * a10; y[yi + 11] -= l * a11;
+      }
+    }
+  }
+  for (let s = nSuper - 1; s >= 0; s--) {
+    const f = superStart[s];
+    const nc = superStart[s + 1] - f;
+    const rp = superRowPtr[s];
+    const nr = superRowPtr[s + 1] - rp;
+    const base = superValPtr[s];
+    for (let j = nc - 1; j >= 0; j--) {
+      const cj = base + j * nr;
+      const yj = (f + j) * 12;
+      let s0 = y[yj + 0], s1 = y[yj + 1], s2 = y[yj + 2], s3 = y[yj + 3];
+      let s4 = y[yj + 4], s5 = y[yj + 5], s6 = y[yj + 6], s7 = y[yj + 7];
+      let s8 = y[yj + 8], s9 = y[yj + 9], s10 = y[yj + 10], s11 = y[yj + 11];
+      for (let i = j + 1; i < nc; i++) {
+        const l = L[cj + i];
+        const yi = (f + i) * 12;
+        s0 -= l * y[yi + 0]; s1 -= l * y[yi + 1]; s2 -= l * y[yi + 2]; s3 -= l * y[yi + 3];
+        s4 -= l * y[yi + 4]; s5 -= l * y[yi + 5]; s6 -= l * y[yi + 6]; s7 -= l * y[yi + 7];
+        s8 -= l * y[yi + 8]; s9 -= l * y[yi + 9]; s10 -= l * y[yi + 10]; s11 -= l * y[yi + 11];
+      }
+      for (let i = nc; i < nr; i++) {
+        const l = L[cj + i];
+        const yi = superRows[rp + i] * 12;
+        s0 -= l * y[yi + 0]; s1 -= l * y[yi + 1]; s2 -= l * y[yi + 2]; s3 -= l * y[yi + 3];
+        s4 -= l * y[yi + 4]; s5 -= l * y[yi + 5]; s6 -= l * y[yi + 6]; s7 -= l * y[yi + 7];
+        s8 -= l * y[yi + 8]; s9 -= l * y[yi + 9]; s10 -= l * y[yi + 10]; s11 -= l * y[yi + 11];
+      }
+      const d = L[cj + j];
+      y[yj + 0] = s0 / d; y[yj + 1] = s1 / d; y[yj + 2] = s2 / d; y[yj + 3] = s3 / d;
+      y[yj + 4] = s4 / d; y[yj + 5] = s5 / d; y[yj + 6] = s6 / d; y[yj + 7] = s7 / d;
+      y[yj + 8] = s8 / d; y[yj + 9] = s9 / d; y[yj + 10] = s10 / d; y[yj + 11] = s11 / d;
+    }
+  }
+  return scatterSides(F, y, 12);
 }

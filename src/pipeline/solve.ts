@@ -106,6 +106,7 @@ export function solveMesh(problem: Problem, mesh: Mesh, limits: SolveLimits = {}
   const t0 = now();
   const cases: LoadSetLevel[] = problem.cases.map((c, i) => {
     const solution = solutions[i];
+    // the case's own loads: a temperature load's thermal strain is taken out of its stresses
     const gauss = gaussStresses(mesh, solution.u, problem.section, c.loads);
     const field = recoverSpr(mesh, gauss, problem.section);
     return { name: c.name, kind: 'case', solution, gauss, field, nodal: nodalMeasure(field, problem.measure) };

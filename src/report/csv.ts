@@ -52,7 +52,10 @@ export function sitesCsv(study: StudyResult): string {
     'site', columnName('x', L), columnName('y', L), 'feature', 'verdict', 'above_yield', 'level', columnName('h', L), 'dofs',
     columnName('peak', S), columnName('at_distance', S), columnName('readout_distance', L),
     columnName('value', S), columnName('discretisation_band', S), 'growth_exponent', 'theory_exponent',
+    // with load cases: the case or combination each row is of (the governing one in the envelope)
+    ...(study.sites.some((s) => s.case !== undefined) ? ['case'] : []),
   ];
+  const withCase = study.sites.some((s) => s.case !== undefined);
   const out: string[] = [header.map(csvText).join(',')];
   for (const site of study.sites) {
     const value = site.verdict === 'singular' ? undefined : site.estimate.value;
@@ -75,6 +78,7 @@ export function sitesCsv(study: StudyResult): string {
           csvNumber(site.verdict === 'singular' ? undefined : site.estimate.uncertainty),
           csvNumber(site.growth.exponent),
           csvNumber(site.growth.theory),
+          ...(withCase ? [csvText(site.case ?? '')] : []),
         ].join(','),
       );
     });

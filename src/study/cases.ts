@@ -4,6 +4,7 @@
  * governing one per site. Pure functions on the study's own results; run.ts drives them.
  */
 import type { SizeField } from '../mesh/types.js';
+import type { BodyFields } from '../fem/index.js';
 import type { SiteCandidate } from './sites.js';
 import type { Point, StressMeasure } from '../model/types.js';
 import type { CaseStudy, DesignBasis, EnvelopeEntry, EnvelopeValue, LevelResult, SiteResult, StudyResult } from './types.js';
@@ -112,4 +113,24 @@ export function caseStudyResult(study: StudyResult, name: string): StudyResult |
 /** The names of a study's cases and combinations (empty without cases). */
 export function caseNames(study: Pick<StudyResult, 'cases'>): string[] {
   return (study.cases ?? []).map((c) => c.name);
+}
+
+/** The body fields of a combination: the factored sum of its cases' body force and thermal strain (linear). */
+export function combinedBodyFields(parts: readonly BodyFields[], factors: readonly number[]): BodyFields {
+  const out: BodyFields = {};
+  const forces = parts.map((p, t) => ({ f: p.force, k: factors[t] })).filter((p) => p.f !== undefined);
+  const strains = parts.map((p, t) => ({ f: p.strain, k: factors[t] })).filter((p) => p.f !== undefined);
+  if (forces.length > 0) {
+    out.force = (x, y) => {
+      let bx = 0, by = 0;
+      for (const { f, k } of forces) {
+        const [fx, fy] = f!(x, y);
+        bx += k * fx;
+        by += k * fy;
+      }
+      return [bx, by];
+    };
+  }
+  if (strains.length > 0) out.strain = (x, y) => strains.reduce((s, { f, k }) => s + k * f!(x, y), 0);
+  return out;
 }

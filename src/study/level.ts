@@ -14,7 +14,8 @@ import type { Model, Point } from '../model/types.js';
 import { buildPointLocator } from '../recovery/index.js';
 import { baseSizeField, problemOf, solveAt, type Problem, type SolveLimits } from '../pipeline/index.js';
 import { factorBytes } from '../fem/health.js';
-import { bodyFields, combineBodyFields, type BodyFields } from '../fem/index.js';
+import { bodyFields, type BodyFields } from '../fem/index.js';
+import { combinedBodyFields } from './cases.js';
 import type { LevelResult } from './types.js';
 import type { SiteCandidate } from './sites.js';
 import { levelSizeField, probeLevel, rosettePoints, type SiteProbe } from './ladder.js';
@@ -115,7 +116,7 @@ export function loadSetBodyFields(problem: Problem): BodyFields[] {
   const caseBody = problem.cases.map((c) => bodyFields(problem.section, c.loads));
   return [
     ...caseBody,
-    ...problem.combinations.map((c) => combineBodyFields(c.terms.map((t) => caseBody[problem.cases.findIndex((pc) => pc.name === t.case)]), c.terms.map((t) => t.factor))),
+    ...problem.combinations.map((c) => combinedBodyFields(c.terms.map((t) => caseBody[problem.cases.findIndex((pc) => pc.name === t.case)]), c.terms.map((t) => t.factor))),
   ];
 }
 

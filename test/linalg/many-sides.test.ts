@@ -1,6 +1,6 @@
 /**
- * Several right-hand sides on one factor (issue 14 part B): the block sweeps (groups of four, then the
- * general interleaved loop) do each column's arithmetic in the order of the single solve, so every
+ * Several right-hand sides on one factor (issue 14 part B): the block sweeps (groups of twelve, eight or
+ * four, a short group padded with zero sides) do each column's arithmetic in the order of the single solve, so every
  * result must equal `solveFactor` of its side bit for bit; and each solves A x = b (residual check).
  */
 import { describe, expect, it } from 'vitest';
@@ -11,9 +11,9 @@ describe('solveFactorMany', () => {
   const { A, rowXY } = gridKronecker(30, 20);
   const F = factorize(A, analyze(A, undefined, { rowXY }));
   const rand = seededRandom(7);
-  const sides = Array.from({ length: 11 }, () => Float64Array.from({ length: A.n }, () => rand() - 0.5));
+  const sides = Array.from({ length: 21 }, () => Float64Array.from({ length: A.n }, () => rand() - 0.5));
 
-  for (const m of [0, 1, 2, 3, 4, 5, 8, 11]) {
+  for (const m of [0, 1, 2, 3, 4, 5, 8, 9, 11, 12, 13, 21]) {
     it(`${m} sides equal ${m} single solves bit for bit`, () => {
       const many = solveFactorMany(F, sides.slice(0, m));
       expect(many.length).toBe(m);

@@ -2,7 +2,8 @@ import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { parseModel } from '../../src/model/index.js';
-import { runStudy } from '../../src/study/index.js';
+import { runStudy, type BaseSolve } from '../../src/study/index.js';
+import { reportHtml } from '../../src/report/index.js';
 
 /*
  * The lug demo (issue 9) runs through the convergence study with its pin force, in three load cases
@@ -15,7 +16,8 @@ const file = fileURLToPath(new URL('../../models/hoist-lug.yaml', import.meta.ur
 describe('lug demo through the study', () => {
   it('runs, carries the pin force, and finds a site at the pin hole', () => {
     const model = parseModel(readFileSync(file, 'utf8'), 'models/hoist-lug.yaml');
-    const result = runStudy(model, { levels: 2 });
+    let base: BaseSolve | undefined;
+    const result = runStudy(model, { levels: 2, onBase: (b) => { base = b; } });
     const F = 24000, tilt = (20 * Math.PI) / 180;
     const flank = -2 * (110 - 44) * 12;
     const applied: Record<string, [number, number]> = {
@@ -36,5 +38,10 @@ describe('lug demo through the study', () => {
     // the envelope names a governing case for every site, and the site shown is that case's
     expect(result.envelope!.map((e) => e.site)).toEqual(result.sites.map((s) => s.id));
     result.envelope!.forEach((e, i) => expect(result.sites[i].case).toBe(e.governing));
+    // the demo's report shows the envelope, one column per case and combination
+    const html = reportHtml({ model, study: result, mesh: base!.mesh, geometry: base!.geometry, field: base!.nodal, u: base!.solution.u });
+    expect(html).toContain('<section id="envelope">');
+    for (const name of ['lift', 'sway', 'angled']) expect(html).toContain(`<th>${name}</th>`);
+    expect(html).toContain('swing<br/><small>lift + 0.5*sway</small>');
   });
 });
