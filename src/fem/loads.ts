@@ -7,6 +7,7 @@ import { FemError } from '../errors.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { Mesh } from '../mesh/types.js';
 import type { Load } from '../model/types.js';
+import { revolvedPressureLoad, revolvedTractionLoad } from './axisymmetric-loads.js';
 import { edgeTractionLoad, pressureLoad } from './edge-load.js';
 import { farFieldStressLoad } from './farfield.js';
 import { pinForceLoad } from './pin-force.js';
@@ -15,15 +16,19 @@ import type { ElasticSection } from './types.js';
 
 /**
  * Global load vector (whole thickness) of the model loads: tractions and pressures integrated
- * consistently over the selected edges, concentrated forces at the selected node.
+ * consistently over the selected edges, concentrated forces at the selected node. In an
+ * axisymmetric section the loads are for the whole revolution (fem/axisymmetric-loads.ts): a
+ * concentrated force is the total force of a ring load at that point.
  */
 export function loadVector(
   mesh: Pick<Mesh, 'xy' | 'boundaryEdges' | 'edgeStride' | 'boundaryPiece'>,
   geom: Pick<PlateGeometry, 'pieces' | 'loops' | 'scale'>,
-  section: Pick<ElasticSection, 'thickness'>,
+  section: Pick<ElasticSection, 'thickness'> & Partial<Pick<ElasticSection, 'state'>>,
   loads: readonly Load[],
 ): Float64Array {
   const f = new Float64Array(mesh.xy.length);
+  // an axisymmetric section: surface loads per area of the revolved surface, forces for the whole ring
+  const axisymmetric = section.state === 'axisymmetric';
   loads.forEach((load, i) => {
     const keyPath = load.keyPath || `loads[${i}]`;
     const where = `${keyPath}.where`;
@@ -43,6 +48,17 @@ export function loadVector(
       throw new FemError(`a ${load.kind} acts on boundary edges, not at a point; use a force for a concentrated load`, where);
     }
     const { edges } = selectBoundary(mesh, geom, load.where, where);
+    if (axisymmetric) {
+      if (load.kind === 'traction') revolvedTractionLoad(mesh, edges, load.traction, f);
+      else if (load.kind === 'pressure') revolvedPressureLoad(mesh, edges, load.pressure, f);
+      else {
+        throw new FemError(
+          `a ${load.kind === 'stress' ? 'far-field stress' : 'pin force'} is not available in an axisymmetric section; use a traction or a pressure on the revolved surface`,
+          keyPath,
+        );
+      }
+      return;
+    }
     if (load.kind === 'stress') {
       farFieldStressLoad(mesh, farFieldEdges(mesh, geom, load.where, edges), section.thickness, load, f);
     } else if (load.kind === 'pinForce') {

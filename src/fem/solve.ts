@@ -16,6 +16,7 @@ import { supportConstraints } from './prescribe.js';
 import { assembleStiffness, csrMultiply, stiffnessPattern, type StiffnessPattern } from './assembly.js';
 import { appliedResultant, loadVector } from './loads.js';
 import { checkRigidRestraint } from './supports.js';
+import { checkAxialRestraint, holdAxisNodes } from './axisymmetric.js';
 import type { ElasticSection, Solution } from './types.js';
 import { validateSolverMesh, validateSection } from './validate.js';
 import { RESIDUAL_LIMIT, checkResidual, factorBytes, memoryLimitError, sectionCulprit } from './health.js';
@@ -75,7 +76,11 @@ export function solvePlate(input: PlateProblem): Solution {
     fixed[p.dof] = 1;
     uFixed[p.dof] = p.value;
   }
-  checkRigidRestraint(mesh.xy, fixed, geometry.scale);
+  if (section.state === 'axisymmetric') {
+    // the axis r = 0 holds u_r = 0 by itself; only a translation along the axis is a rigid motion
+    holdAxisNodes(mesh.xy, geometry.scale, fixed, uFixed);
+    checkAxialRestraint(fixed);
+  } else checkRigidRestraint(mesh.xy, fixed, geometry.scale);
   const f = loadVector(mesh, geometry, section, input.loads);
   if (input.extraLoad) {
     if (input.extraLoad.length !== nDof) throw new FemError(`extra load has ${input.extraLoad.length} entries; the mesh has ${nDof} dofs`);

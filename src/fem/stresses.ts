@@ -1,4 +1,5 @@
 import type { Mesh } from '../mesh/types.js';
+import { axisymmetricGaussStresses } from './axisymmetric.js';
 import { elasticityMatrix } from './elasticity.js';
 import { TRI_3, lstShape } from '../element/index.js';
 import { cstGradients, gatherElementXY, lstGradients } from './shape.js';
@@ -15,6 +16,8 @@ export function gaussStresses(
   u: Float64Array,
   section: Pick<ElasticSection, 'E' | 'nu' | 'state'>,
 ): GaussStresses {
+  // an axisymmetric section: (σr, σz, τrz) in stress, σθ beside them (fem/axisymmetric.ts)
+  if (section.state === 'axisymmetric') return axisymmetricGaussStresses(mesh, u, section);
   const D = elasticityMatrix(section);
   const npe = mesh.nodesPerElem;
   const nElem = mesh.elemNodes.length / npe;

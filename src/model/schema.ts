@@ -282,7 +282,7 @@ const StudyLike = mapping(
   'study settings { measure, levels, ratio, sites, readouts }',
 );
 
-export const STATES = ['plane-stress', 'plane-strain'] as const;
+export const STATES = ['plane-stress', 'plane-strain', 'axisymmetric'] as const;
 
 export const ModelFileSchema = mapping(
   {
@@ -291,7 +291,8 @@ export const ModelFileSchema = mapping(
     units: mapping({ length: Label.optional(), force: Label.optional() }, 'units { length, force }').optional(),
     params: z.record(z.string(), NumberLike, { error: expected('a mapping of names to numbers') }).optional(),
     material: mapping({ E: NumberLike, nu: NumberLike, yield: NumberLike.optional() }, 'a material { E, nu, yield }'),
-    thickness: NumberLike,
+    // optional only in an axisymmetric section (build.ts asks for it otherwise)
+    thickness: NumberLike.optional(),
     state: word(STATES).optional(),
     plate: mapping(
       {

@@ -158,7 +158,7 @@ export interface Material {
   yield?: number;
 }
 
-export type PlaneState = 'plane-stress' | 'plane-strain';
+export type PlaneState = 'plane-stress' | 'plane-strain' | 'axisymmetric';
 
 export interface SourcePosition {
   line: number;
