@@ -17,7 +17,7 @@ import { FemError, SolveError } from '../errors.js';
 import type { Mesh } from '../mesh/types.js';
 import { TRI_3, TRI_7, cstShape, lstShape, type TriangleRule } from '../element/index.js';
 import { cstGradients, gatherElementXY, lstGradients } from './shape.js';
-import type { ElasticSection } from './types.js';
+import type { ElasticSection, GaussStresses } from './types.js';
 
 /** The factor of a whole revolution: integrals over the section are multiplied by 2π r. */
 export const REVOLUTION = 2 * Math.PI;
@@ -138,26 +138,18 @@ export function axisymmetricStiffness(
   return out;
 }
 
-/** Gauss-point stresses of an axisymmetric section: (σr, σz, τrz) in `stress`, σθ in `hoop`. */
-export interface AxisymmetricGaussStresses {
-  nGauss: number;
-  xy: Float64Array;
-  stress: Float64Array;
-  /** σθ (hoop) per Gauss point */
-  hoop: Float64Array;
-  weight: Float64Array;
-}
-
 /**
  * Stresses σ = D·B·u_e at the same sampling points as the plane elements (fem/stresses.ts): the
  * centroid for CST, the interior 3-point rule for LST — interior, so u_r/r is evaluated at r > 0.
- * weight = |J|·w/2, the area weight of the section (as for plates).
+ * weight = |J|·w/2, the area weight of the section (as for plates). (σr, σz, τrz) go in `stress`
+ * (the places of σxx, σyy, τxy) and the hoop stress σθ in `szz`, the out-of-plane normal stress
+ * every invariant already includes (contracts §1).
  */
 export function axisymmetricGaussStresses(
   mesh: Pick<Mesh, 'xy' | 'elemNodes' | 'nodesPerElem'>,
   u: Float64Array,
   section: Pick<ElasticSection, 'E' | 'nu'>,
-): AxisymmetricGaussStresses {
+): GaussStresses {
   const D = axisymmetricMatrix(section);
   const npe = mesh.nodesPerElem;
   const nElem = mesh.elemNodes.length / npe;
@@ -166,7 +158,7 @@ export function axisymmetricGaussStresses(
   const nPts = nElem * nGauss;
   const xy = new Float64Array(2 * nPts);
   const stress = new Float64Array(3 * nPts);
-  const hoop = new Float64Array(nPts);
+  const szz = new Float64Array(nPts);
   const weight = new Float64Array(nPts);
   const exy = new Float64Array(2 * npe);
   const ue = new Float64Array(2 * npe);
@@ -199,10 +191,10 @@ export function axisymmetricGaussStresses(
       stress[3 * k] = D[0] * er + D[1] * ez + D[3] * et;
       stress[3 * k + 1] = D[4] * er + D[5] * ez + D[7] * et;
       stress[3 * k + 2] = D[10] * grz;
-      hoop[k] = D[12] * er + D[13] * ez + D[15] * et;
+      szz[k] = D[12] * er + D[13] * ez + D[15] * et;
     }
   }
-  return { nGauss, xy, stress, hoop, weight };
+  return { nGauss, xy, stress, szz, weight };
 }
 
 /** Nodes closer to the axis than this fraction of the model size lie on it. */

@@ -31,8 +31,9 @@ export function elasticityMatrix(section: Pick<ElasticSection, 'E' | 'nu' | 'sta
 }
 
 /**
- * Out-of-plane normal stress implied by the in-plane stresses: 0 in plane stress,
- * ν(σx + σy) in plane strain (εz = 0).
+ * Out-of-plane normal stress implied by the in-plane stresses of a purely mechanical field: 0 in plane
+ * stress, ν(σx + σy) in plane strain (εz = 0). With a temperature change, σz = ν(σx + σy) − EαΔT: use
+ * the Gauss-point `GaussStresses.szz` (fem/stresses.ts) or the recovered `NodalStress.szz` instead.
  */
 export function outOfPlaneStress(section: Pick<ElasticSection, 'nu' | 'state'>, sxx: number, syy: number): number {
   return section.state === 'plane-strain' ? section.nu * (sxx + syy) : 0;

@@ -1,7 +1,7 @@
 import { FemError } from '../errors.js';
 import { closestOnCurve, pointInMaterial } from '../geometry/index.js';
 import type { PlateGeometry } from '../geometry/types.js';
-import type { AnyLoad, Point, Selector, Support } from '../model/types.js';
+import type { Point, Selector, Support } from '../model/types.js';
 import { SELECTOR_TOLERANCE, nearestBoundaryPoint } from './selectors.js';
 
 /**
@@ -89,19 +89,22 @@ export function verticesOfSelector(geom: Pick<PlateGeometry, 'pieces' | 'loops' 
 export function selectorVertices(
   model: {
     supports: readonly (Pick<Support, 'where'> & { keyPath?: string })[];
-    loads: readonly (Pick<AnyLoad, 'where'> & { keyPath?: string })[];
-    fieldLoads?: readonly (Pick<AnyLoad, 'where'> & { keyPath?: string })[];
+    /** every load; a body load (no selector) adds no point */
+    loads: readonly { where?: Selector; keyPath?: string }[];
+    fieldLoads?: readonly { where?: Selector; keyPath?: string }[];
   },
   geom: PlateGeometry,
 ): Point[] {
-  for (const item of [...model.supports, ...model.loads, ...(model.fieldLoads ?? [])]) checkPointSelector(geom, item.where, item.keyPath);
+  for (const item of [...model.supports, ...model.loads, ...(model.fieldLoads ?? [])]) {
+    if (item.where) checkPointSelector(geom, item.where, item.keyPath);
+  }
   const out: Point[] = [];
   const same = 1e-9 * geom.scale;
   const add = (p: Point) => {
     if (!out.some((q) => Math.hypot(q[0] - p[0], q[1] - p[1]) <= same)) out.push(p);
   };
   for (const s of model.supports) for (const p of verticesOfSelector(geom, s.where)) add(p);
-  for (const l of model.loads) for (const p of verticesOfSelector(geom, l.where)) add(p);
-  for (const l of model.fieldLoads ?? []) for (const p of verticesOfSelector(geom, l.where)) add(p);
+  for (const l of model.loads) if (l.where) for (const p of verticesOfSelector(geom, l.where)) add(p);
+  for (const l of model.fieldLoads ?? []) if (l.where) for (const p of verticesOfSelector(geom, l.where)) add(p);
   return out;
 }

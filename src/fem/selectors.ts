@@ -268,20 +268,28 @@ export function farFieldEdges(mesh: Pick<Mesh, 'boundaryPiece'>, geom: Pick<Plat
   return kept.length > 0 ? kept : edges;
 }
 
+/** A load as the selector checks see it: its selector, absent for a body load (gravity, spin, temperature). */
+export interface SelectedLoad {
+  kind: string;
+  keyPath: string;
+  where?: Selector;
+}
+
 /**
  * Selector warnings that need the geometry (issue 12 §4, §10), with the key they concern: a point selector whose
  * point is off the boundary (the nearest boundary point is used), and a far-field stress on the outline that
  * leaves notch, slit or crack faces free — or, selected explicitly, loads them.
  */
 export function selectorWarnings(
-  model: { supports: readonly Pick<Support, 'where' | 'keyPath'>[]; loads: readonly Pick<AnyLoad, 'where' | 'keyPath' | 'kind'>[]; fieldLoads?: readonly Pick<AnyLoad, 'where' | 'keyPath' | 'kind'>[] },
+  model: { supports: readonly Pick<Support, 'where' | 'keyPath'>[]; loads: readonly SelectedLoad[]; fieldLoads?: readonly SelectedLoad[] },
   geom: Pick<PlateGeometry, 'pieces' | 'loops' | 'scale'>,
 ): ModelWarning[] {
   const out: ModelWarning[] = [];
   const tol = SELECTOR_TOLERANCE * geom.scale;
   const all = [...model.supports.map((s) => ({ ...s, kind: 'support' as const })), ...model.loads, ...(model.fieldLoads ?? [])];
   for (const item of all) {
-    if (item.where.kind !== 'point') continue;
+    // body loads (gravity, spin, temperature) select nothing
+    if (item.where?.kind !== 'point') continue;
     const hit = nearestBoundaryPoint(geom, item.where.at);
     if (hit.distance > tol && pointInMaterial(geom as PlateGeometry, item.where.at)) {
       out.push({
@@ -292,7 +300,7 @@ export function selectorWarnings(
   }
   let far: Set<number> | undefined;
   for (const l of [...model.loads, ...(model.fieldLoads ?? [])]) {
-    if (l.kind !== 'stress') continue;
+    if (l.kind !== 'stress' || l.where === undefined) continue;
     far ??= outlineFarPieces(geom);
     const outline = geom.loops.find((lp) => !lp.hole);
     const faces = (outline?.pieces ?? []).filter((id) => !far!.has(id));

@@ -1,6 +1,8 @@
 import type { Mesh } from '../mesh/types.js';
+import type { Load } from '../model/types.js';
 import { axisymmetricGaussStresses } from './axisymmetric.js';
 import { elasticityMatrix } from './elasticity.js';
+import { expansionOf, temperatureField, thermalStrainPerDegree } from './thermal.js';
 import { TRI_3, lstShape } from '../element/index.js';
 import { cstGradients, gatherElementXY, lstGradients } from './shape.js';
 import type { ElasticSection, GaussStresses } from './types.js';
@@ -10,15 +12,27 @@ import type { ElasticSection, GaussStresses } from './types.js';
  * the interior 3-point rule for LST (weight = |J|·w). These are the sampling points of the
  * element's most accurate stresses (Barlow, "Optimal stress locations in finite element models",
  * IJNME 10, 1976) and the ones the patch recovery fits.
+ *
+ * These are the stresses in the material: with a `temperature` load in `loads` the thermal strain
+ * c·ΔT·(1, 1, 0) (c = α in plane stress, (1 + ν)α in plane strain; fem/thermal.ts) is subtracted from
+ * the total strain first, ΔT taken at the Gauss point. `szz` is σzz: 0 in plane stress,
+ * ν(σxx + σyy) − EαΔT in plane strain (εzz = 0).
  */
 export function gaussStresses(
   mesh: Pick<Mesh, 'xy' | 'elemNodes' | 'nodesPerElem'>,
   u: Float64Array,
-  section: Pick<ElasticSection, 'E' | 'nu' | 'state'>,
+  section: Pick<ElasticSection, 'E' | 'nu' | 'state' | 'expansion'>,
+  loads: readonly Load[] = [],
 ): GaussStresses {
   // an axisymmetric section: (σr, σz, τrz) in stress, σθ beside them (fem/axisymmetric.ts)
   if (section.state === 'axisymmetric') return axisymmetricGaussStresses(mesh, u, section);
   const D = elasticityMatrix(section);
+  const deltaT = temperatureField(loads);
+  const firstThermal = loads.findIndex((l) => l.kind === 'temperature');
+  const alpha = deltaT ? expansionOf(section, loads[firstThermal].keyPath || `loads[${firstThermal}]`) : 0;
+  const strainPerDegree = thermalStrainPerDegree(section, alpha);
+  const plainStrain = section.state === 'plane-strain';
+  const { nu, E } = section;
   const npe = mesh.nodesPerElem;
   const nElem = mesh.elemNodes.length / npe;
   const nGauss = npe === 3 ? 1 : 3;
@@ -26,6 +40,7 @@ export function gaussStresses(
   const xy = new Float64Array(2 * nPts);
   const stress = new Float64Array(3 * nPts);
   const weight = new Float64Array(nPts);
+  const szz = new Float64Array(nPts);
   const exy = new Float64Array(2 * npe);
   const dNdx = new Float64Array(6);
   const dNdy = new Float64Array(6);
@@ -68,12 +83,21 @@ export function gaussStresses(
         ey += dNdy[i] * vi;
         gxy += dNdy[i] * ui + dNdx[i] * vi;
       }
+      // temperature change at the Gauss point, and the thermal strain taken off the total strain
+      const dT = deltaT ? deltaT(px, py) : 0;
+      if (dT !== 0) {
+        ex -= strainPerDegree * dT;
+        ey -= strainPerDegree * dT;
+      }
       xy[2 * k] = px;
       xy[2 * k + 1] = py;
-      stress[3 * k] = D[0] * ex + D[1] * ey + D[2] * gxy;
-      stress[3 * k + 1] = D[3] * ex + D[4] * ey + D[5] * gxy;
+      const sxx = D[0] * ex + D[1] * ey + D[2] * gxy;
+      const syy = D[3] * ex + D[4] * ey + D[5] * gxy;
+      stress[3 * k] = sxx;
+      stress[3 * k + 1] = syy;
       stress[3 * k + 2] = D[6] * ex + D[7] * ey + D[8] * gxy;
+      if (plainStrain) szz[k] = dT !== 0 ? nu * (sxx + syy) - E * alpha * dT : nu * (sxx + syy);
     }
   }
-  return { nGauss, xy, stress, weight };
+  return { nGauss, xy, stress, weight, szz };
 }

@@ -8,13 +8,17 @@ export interface ElasticSection extends Material {
 /**
  * Stresses at the Gauss points of every element: `nGauss` points per element
  * (1 for CST, 3 for LST). Point g of element e is at index k = nGauss·e + g:
- * xy[2k, 2k+1], stress[3k..3k+2] = (σxx, σyy, τxy), weight[k] = |J|·w (area weight, no thickness).
+ * xy[2k, 2k+1], stress[3k..3k+2] = (σxx, σyy, τxy), weight[k] = |J|·w (area weight, no thickness),
+ * szz[k] = σzz, the out-of-plane normal stress: 0 in plane stress, ν(σxx + σyy) − EαΔT in plane
+ * strain (εzz = 0 with the thermal strain αΔT of a temperature load). Every invariant uses it.
+ * The stresses are those in the material: total strain minus thermal strain (fem/thermal.ts).
  */
 export interface GaussStresses {
   nGauss: number;
   xy: Float64Array;
   stress: Float64Array;
   weight: Float64Array;
+  szz: Float64Array;
 }
 
 /** Result of one linear solve. */

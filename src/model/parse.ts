@@ -61,7 +61,7 @@ export function pointKeyPath(model: Pick<Model, 'loads' | 'supports' | 'study'>,
     const d = Math.hypot(p[0] - at[0], p[1] - at[1]);
     if (d <= tol && d < bestD) { bestD = d; best = keyPath; }
   };
-  model.loads.forEach((l, i) => { if (l.where.kind === 'point') consider(l.where.at, `${l.keyPath || `loads[${i}]`}.where.point`); });
+  model.loads.forEach((l, i) => { if ('where' in l && l.where.kind === 'point') consider(l.where.at, `${l.keyPath || `loads[${i}]`}.where.point`); });
   model.supports.forEach((s, i) => { if (s.where.kind === 'point') consider(s.where.at, `${s.keyPath || `supports[${i}]`}.where.point`); });
   if (Array.isArray(model.study.sites)) model.study.sites.forEach((p, i) => consider(p, `study.sites[${i}]`));
   return best;

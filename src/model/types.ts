@@ -71,8 +71,11 @@ export interface Support {
   displace?: PrescribedMotion;
 }
 
+/** A value over the plate: a number, or an expression of the point's x and y (and params). */
+export type FieldValue = number | { expression: string; params: Record<string, number> };
+
 /** A displacement component: a number, or an expression of the node's x and y (and params). */
-export type DisplacementValue = number | { expression: string; params: Record<string, number> };
+export type DisplacementValue = FieldValue;
 
 export type PrescribedMotion =
   /** per component; an absent component is free */
@@ -104,7 +107,19 @@ export type Load =
       gradient: { sxx: Point; syy: Point; sxy: Point }; about: Point; keyPath: string;
     }
   /** pin force: cosine pressure on the half of an opening facing the force, resultant = force */
-  | { kind: 'pinForce'; where: Selector & { kind: 'opening' }; force: Point; keyPath: string };
+  | { kind: 'pinForce'; where: Selector & { kind: 'opening' }; force: Point; keyPath: string }
+  /** self-weight: body force ρ·g over the whole plate (acceleration vector, length/time²; needs material.density) */
+  | { kind: 'gravity'; gravity: Point; keyPath: string }
+  /** rotation at ω (rad/time) about the point `about`: centrifugal body force ρ·ω²·(p − about) (needs material.density) */
+  | { kind: 'spin'; about: Point; omega: number; keyPath: string }
+  /** temperature change ΔT over the plate, a number or an expression of x and y (needs material.expansion) */
+  | { kind: 'temperature'; temperature: FieldValue; keyPath: string };
+
+/** The loads that act on the boundary (through a selector), as opposed to the body loads above. */
+export type EdgeLoad = Extract<Load, { where: Selector }>;
+
+/** The loads that act over the whole plate: self-weight, rotation, temperature. */
+export type BodyLoad = Exclude<Load, EdgeLoad>;
 
 /** The same as `Load` (kept for code written when far-field and pin loads were a separate list). */
 export type AnyLoad = Load;
@@ -156,6 +171,10 @@ export interface Material {
    * flagged (the linear-elastic result then expects local yielding)
    */
   yield?: number;
+  /** mass per unit volume in the model's consistent units (e.g. tonne/mm³ with N and mm), for gravity and spin loads */
+  density?: number;
+  /** thermal expansion coefficient α (strain per unit of temperature), for temperature loads */
+  expansion?: number;
 }
 
 export type PlaneState = 'plane-stress' | 'plane-strain' | 'axisymmetric';

@@ -98,7 +98,7 @@ export function solveMesh(problem: Problem, mesh: Mesh, limits: SolveLimits = {}
     ...(limits.residualLimit !== undefined ? { residualLimit: limits.residualLimit } : {}),
   });
   const t0 = now();
-  const gauss = gaussStresses(mesh, solution.u, problem.section);
+  const gauss = gaussStresses(mesh, solution.u, problem.section, problem.loads);
   const field = recoverSpr(mesh, gauss, problem.section);
   const recoverS = now() - t0;
   return { mesh, solution, gauss, field, nodal: nodalMeasure(field, problem.measure), timings: { meshS: 0, recoverS } };

@@ -6,15 +6,42 @@ import { boundaryNodeFlags, buildNodeElements, type NodeElements } from './topol
 import type { NodalStress } from './types.js';
 import { checkGauss, checkSection } from './validate.js';
 
-/** σzz per node: ν(σxx + σyy) in plane strain (εzz = 0), 0 in plane stress. */
-function outOfPlane(stress: Float64Array, section: ElasticSection): Float64Array {
+/**
+ * Nodal σzz recovered from the Gauss-point σzz (`gauss.szz`) by the same recovery as the in-plane
+ * components. The recovery is linear, so it is split: the plane-strain part ν(σxx + σyy) comes from the
+ * recovered in-plane stresses (as before there was a Gauss σzz, bit for bit), and the rest of the Gauss
+ * σzz — −EαΔT of a temperature load, or the whole σzz of a section whose σzz is not ν(σxx + σyy) —
+ * is recovered on its own and added. Without a remainder nothing is added.
+ */
+function outOfPlane(
+  stress: Float64Array, gauss: GaussStresses, section: ElasticSection,
+  recover: (g: GaussStresses) => NodalStress,
+): Float64Array {
   const n = stress.length / 3;
   const szz = new Float64Array(n);
-  if (section.state === 'plane-strain') {
+  const plainStrain = section.state === 'plane-strain';
+  if (plainStrain) {
     for (let i = 0; i < n; i++) szz[i] = section.nu * (stress[3 * i] + stress[3 * i + 1]);
+  }
+  const nPts = gauss.weight.length;
+  let rest: Float64Array | undefined;
+  for (let k = 0; k < nPts; k++) {
+    const base = plainStrain ? section.nu * (gauss.stress[3 * k] + gauss.stress[3 * k + 1]) : 0;
+    const r = gauss.szz[k] - base;
+    if (r === 0) continue;
+    // the remainder as the σxx of a stand-in field, recovered by the same method
+    rest ??= new Float64Array(3 * nPts);
+    rest[3 * k] = r;
+  }
+  if (rest) {
+    const part = recover({ nGauss: gauss.nGauss, xy: gauss.xy, weight: gauss.weight, stress: rest, szz: new Float64Array(nPts) });
+    for (let i = 0; i < n; i++) szz[i] += part.stress[3 * i];
   }
   return szz;
 }
+
+/** The section a stand-in field is recovered with: plane stress, so its own σzz stays 0. */
+const standIn = (section: ElasticSection): ElasticSection => ({ ...section, state: 'plane-stress' });
 
 /**
  * Nodal stresses by area-weighted averaging of the element values at each node. CST: the
@@ -48,7 +75,7 @@ export function recoverAverage(mesh: Mesh, gauss: GaussStresses, section: Elasti
       sum[3 * n + 2] /= wsum[n];
     }
   }
-  return { stress: sum, szz: outOfPlane(sum, section), method: 'average' };
+  return { stress: sum, szz: outOfPlane(sum, gauss, section, (g) => recoverAverage(mesh, g, standIn(section))), method: 'average' };
 }
 
 /** Relative pivot below which a patch's normal matrix counts as rank-deficient. */
@@ -326,5 +353,5 @@ export function recoverSpr(mesh: Mesh, gauss: GaussStresses, section: ElasticSec
       sum[3 * n + 2] /= c;
     }
   }
-  return { stress: sum, szz: outOfPlane(sum, section), method: 'spr' };
+  return { stress: sum, szz: outOfPlane(sum, gauss, section, (g) => recoverSpr(mesh, g, standIn(section))), method: 'spr' };
 }

@@ -22,9 +22,9 @@ export function checkGauss(mesh: Mesh, gauss: GaussStresses): number {
   if (!(Number.isInteger(ng) && ng >= 1)) throw new TypeError(`gauss.nGauss must be a positive integer, got ${ng}`);
   if (ng === 2) throw new RangeError('gauss.nGauss = 2 cannot define a linear stress field in a triangle');
   const nPts = ng * nElem;
-  if (gauss.xy.length !== 2 * nPts || gauss.stress.length !== 3 * nPts || gauss.weight.length !== nPts) {
+  if (gauss.xy.length !== 2 * nPts || gauss.stress.length !== 3 * nPts || gauss.weight.length !== nPts || gauss.szz?.length !== nPts) {
     throw new TypeError(
-      `gauss arrays do not match ${nElem} elements × ${ng} points (xy ${gauss.xy.length}, stress ${gauss.stress.length}, weight ${gauss.weight.length})`,
+      `gauss arrays do not match ${nElem} elements × ${ng} points (xy ${gauss.xy.length}, stress ${gauss.stress.length}, weight ${gauss.weight.length}, szz ${gauss.szz?.length})`,
     );
   }
   return nElem;

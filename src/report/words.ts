@@ -2,7 +2,7 @@
  * Plain-language descriptions shared by the terminal and the HTML page: the caution, verdict
  * wording, and loads / supports in words.
  */
-import type { AnyLoad, DisplacementValue, Model, Selector, Support } from '../model/types.js';
+import type { AnyLoad, DisplacementValue, EdgeLoad, Model, Selector, Support } from '../model/types.js';
 import type { SiteResult, StudyResult } from '../study/types.js';
 import { formatBand, formatFixed, formatNumber, stripControl } from './text.js';
 
@@ -51,6 +51,22 @@ export function describeSupport(support: Support, lengthUnit: string): string {
 }
 
 export function describeLoad(load: AnyLoad, units: { length: string; force: string; stress: string }): string {
+  const len = stripControl(units.length);
+  switch (load.kind) {
+    case 'gravity':
+      return `Self-weight: gravity (${formatNumber(load.gravity[0])}, ${formatNumber(load.gravity[1])}) ${len}/time² over the whole plate.`;
+    case 'spin':
+      return `Rotation at ω = ${formatNumber(load.omega)} rad/time about (${formatNumber(load.about[0])}, ${formatNumber(load.about[1])}) ${len}: centrifugal load ρω²r.`;
+    case 'temperature': {
+      const t = load.temperature;
+      return `Temperature change ΔT = ${typeof t === 'number' ? formatNumber(t) : t.expression} over the plate.`;
+    }
+    default:
+      return describeEdgeLoad(load, units);
+  }
+}
+
+function describeEdgeLoad(load: EdgeLoad, units: { length: string; force: string; stress: string }): string {
   const where = describeSelector(load.where, units.length);
   const s = stripControl(units.stress);
   const f = stripControl(units.force);

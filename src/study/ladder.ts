@@ -3,6 +3,7 @@ import type { GaussStresses, ElasticSection } from '../fem/types.js';
 import type { NodalStress } from '../recovery/types.js';
 import type { Point, StressMeasure } from '../model/types.js';
 import { buildPointLocator, measureValue, stressAt, type PointLocator } from '../recovery/index.js';
+import { outOfPlaneStress } from '../fem/index.js';
 import type { LevelResult } from './types.js';
 import type { SiteCandidate } from './sites.js';
 import { sampledAverage } from './readouts.js';
@@ -128,8 +129,9 @@ export function probeLevel(
     const singular = K && K.mirrorFactor > 1 && out.nsif !== undefined && Number.isFinite(out.nsif) ? singularTerm(K, out.nsif, section) : undefined;
     const at = (r: number) => {
       if (singular && r < APEX_SIZES * h) {
+        // the singular term is a mechanical field (no thermal strain), so its σzz is ν(σxx + σyy) in plane strain
         const p = singular(r);
-        return measureValue(measure, p.sxx, p.syy, p.sxy, section.state === 'plane-strain' ? section.nu * (p.sxx + p.syy) : 0);
+        return measureValue(measure, p.sxx, p.syy, p.sxy, outOfPlaneStress(section, p.sxx, p.syy));
       }
       const p = stressAt(mesh, field, sx + r * dir[0], sy + r * dir[1], locator);
       return p ? measureValue(measure, p.sxx, p.syy, p.sxy, p.szz) : NaN;
@@ -160,12 +162,10 @@ export function probeLevel(
   }
   // area mean over the disk r ≤ d (Gauss points of the raw element stresses)
   let sw = 0, sv = 0;
-  const plainStrain = section.state === 'plane-strain';
   for (let k = 0; k < gauss.weight.length; k++) {
     if (Math.hypot(gauss.xy[2 * k] - sx, gauss.xy[2 * k + 1] - sy) > d) continue;
     const a = gauss.stress[3 * k], b = gauss.stress[3 * k + 1], c = gauss.stress[3 * k + 2];
-    const szz = plainStrain ? section.nu * (a + b) : 0;
-    sv += gauss.weight[k] * measureValue(measure, a, b, c, szz);
+    sv += gauss.weight[k] * measureValue(measure, a, b, c, gauss.szz[k]);
     sw += gauss.weight[k];
   }
   if (sw > 0) out.average = sv / sw;

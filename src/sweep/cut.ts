@@ -6,7 +6,7 @@
 import { PeakwiseError } from '../errors.js';
 import type { Mesh } from '../mesh/types.js';
 import type { PlateGeometry } from '../geometry/types.js';
-import type { Model, PlaneState, Point } from '../model/types.js';
+import type { Model, PlaneState, Point, Selector } from '../model/types.js';
 import type { NodalStress } from '../recovery/types.js';
 import { boundaryTangentialStress, buildPointLocator, principal, stressAt, tresca, vonMises } from '../recovery/index.js';
 import { kirschCartesian, lameRing } from '../reference/index.js';
@@ -289,8 +289,8 @@ export function resolveCompare(input: CompareInputs, model: Pick<Model, 'plate' 
     if (!center) throw usage('--compare lame needs --centre x,y');
     // pressures default to the model's own pressure loads on the bore and on the outline
     const holeId = input.opening ?? openings.find((o) => o.shape === hole)?.id;
-    const pressureOn = (test: (w: Model['loads'][number]['where']) => boolean) =>
-      model.loads.filter((l) => l.kind === 'pressure' && test(l.where)).reduce((s, l) => s + (l.kind === 'pressure' ? l.pressure : 0), 0);
+    const pressureOn = (test: (w: Selector) => boolean) =>
+      model.loads.reduce((s, l) => s + (l.kind === 'pressure' && test(l.where) ? l.pressure : 0), 0);
     return {
       kind, center,
       inner: need(input.radius ?? hole?.radius, '--radius (inner radius)', kind),

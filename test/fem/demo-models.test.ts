@@ -18,7 +18,7 @@ const files = readdirSync(modelsDir).filter((f) => f.endsWith('.yaml'));
 function pointsOf(model: Model): Array<[number, number]> {
   const pts: Array<[number, number]> = [];
   for (const s of model.supports) if (s.where.kind === 'point') pts.push([s.where.at[0], s.where.at[1]]);
-  for (const l of model.loads) if (l.where.kind === 'point') pts.push([l.where.at[0], l.where.at[1]]);
+  for (const l of model.loads) if ('where' in l && l.where.kind === 'point') pts.push([l.where.at[0], l.where.at[1]]);
   return pts;
 }
 

@@ -10,7 +10,7 @@ export function solveModel(model: Model) {
   const sizeAt = sizeFieldFromSettings(geometry, model.mesh);
   const required: [number, number][] = [];
   for (const s of model.supports) if (s.where.kind === 'point') required.push([s.where.at[0], s.where.at[1]]);
-  for (const l of model.loads) if (l.where.kind === 'point') required.push([l.where.at[0], l.where.at[1]]);
+  for (const l of model.loads) if ('where' in l && l.where.kind === 'point') required.push([l.where.at[0], l.where.at[1]]);
   const mesh = meshPlate(geometry, { sizeAt, order: model.mesh.order, requiredPoints: required });
   const section = { ...model.material, state: model.state, thickness: model.thickness };
   const solution = solvePlate({ mesh, geometry, section, supports: model.supports, loads: model.loads });

@@ -36,7 +36,7 @@ function pipeline(text: string, label: string): Outcome {
     const geometry = buildGeometry(model.plate);
     const sizeAt = sizeFieldFromSettings(geometry, model.mesh);
     const required: [number, number][] = [];
-    for (const l of model.loads) if (l.where.kind === 'point') required.push([l.where.at[0], l.where.at[1]]);
+    for (const l of model.loads) if ('where' in l && l.where.kind === 'point') required.push([l.where.at[0], l.where.at[1]]);
     for (const s of model.supports) if (s.where.kind === 'point') required.push([s.where.at[0], s.where.at[1]]);
     const mesh = meshPlate(geometry, { sizeAt, order: model.mesh.order, requiredPoints: required, maxVertices: FUZZ_MAX_VERTICES });
     const problems = validateMesh(mesh, geometry);

@@ -217,7 +217,7 @@ study:
     expect(m.loads.map((l) => l.kind)).toEqual(['traction', 'pressure', 'force', 'traction']);
     expect(m.loads[1]).toMatchObject({ where: { kind: 'opening', id: 'pin' }, pressure: 5 });
     expect(m.loads[2]).toMatchObject({ where: { kind: 'point', at: [400, 400] } });
-    expect(m.loads[3].where).toEqual({ kind: 'y', value: 400 });
+    expect(m.loads[3]).toHaveProperty('where', { kind: 'y', value: 400 });
     expect(m.mesh).toEqual({ size: 25, order: 1, local: [{ near: [250, 125], size: 2, radius: 60 }] });
     expect(m.study).toEqual({ measure: 'max-principal', levels: 4, ratio: 1.5, sites: [[400, 200], [0, 0]], readouts: { distance: 0.5 } });
   });

@@ -3,7 +3,7 @@
  * optional jitter of the interior nodes), CST or LST, in the layout of src/mesh/types.ts.
  * Independent of the mesher so the recovery can be checked on its own.
  */
-import type { GaussStresses } from '../../src/fem/types.js';
+import type { ElasticSection, GaussStresses } from '../../src/fem/types.js';
 import type { Mesh } from '../../src/mesh/types.js';
 import { seededRandom as rng } from '../helpers/random.js';
 
@@ -96,9 +96,10 @@ export type StressFn = (x: number, y: number) => [number, number, number];
 
 /**
  * Gauss stresses sampled from a given stress function: CST at the centroid (1 point), LST at
- * the three interior points (1/6, 1/6, 2/3) of the straight-sided triangle.
+ * the three interior points (1/6, 1/6, 2/3) of the straight-sided triangle; σzz from `section`
+ * (plane stress when absent).
  */
-export function sampledGauss(mesh: Mesh, fn: StressFn): GaussStresses {
+export function sampledGauss(mesh: Mesh, fn: StressFn, section?: Pick<ElasticSection, 'nu' | 'state'>): GaussStresses {
   const npe = mesh.nodesPerElem;
   const nElem = mesh.elemNodes.length / npe;
   const pts: [number, number, number][] =
@@ -128,5 +129,8 @@ export function sampledGauss(mesh: Mesh, fn: StressFn): GaussStresses {
       weight[k] = area / ng;
     });
   }
-  return { nGauss: ng, xy, stress, weight };
+  // σzz of a mechanical field: ν(σxx + σyy) in plane strain, 0 otherwise (fem/stresses.ts)
+  const szz = new Float64Array(ng * nElem);
+  if (section?.state === 'plane-strain') for (let k = 0; k < szz.length; k++) szz[k] = section.nu * (stress[3 * k] + stress[3 * k + 1]);
+  return { nGauss: ng, xy, stress, weight, szz };
 }

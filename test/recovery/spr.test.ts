@@ -74,7 +74,8 @@ describe('SPR polynomial reproduction', () => {
   it('plane strain: σzz = ν(σxx + σyy) at each node (Hooke\'s law, plane strain)', () => {
     const mesh = rectMesh(4, 4, 1, 1, 1, 0.3, 5);
     const fn = () => [-1, 5 / 3, 0] as [number, number, number];
-    const field = recoverSpr(mesh, sampledGauss(mesh, fn), { ...steel, state: 'plane-strain' });
+    const strain = { ...steel, state: 'plane-strain' as const };
+    const field = recoverSpr(mesh, sampledGauss(mesh, fn, strain), strain);
     for (const szz of field.szz) expect(Math.abs(szz - 0.2)).toBeLessThan(1e-12);
   });
 });

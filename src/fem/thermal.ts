@@ -1,0 +1,141 @@
+/**
+ * Temperature loads: the temperature change ΔT(x, y) of a model's `temperature` loads, the thermal
+ * strain it causes, and the consistent nodal forces of that strain (docs/fem.md, "Temperature").
+ */
+import { FemError } from '../errors.js';
+import type { Mesh } from '../mesh/types.js';
+import { ExpressionError, evaluateTree, parseExpression } from '../model/expr.js';
+import type { Load } from '../model/types.js';
+import { TRI_7, cstShape, lstShape } from '../element/index.js';
+import { elasticityMatrix } from './elasticity.js';
+import { cstGradients, gatherElementXY, lstGradients } from './shape.js';
+import type { ElasticSection } from './types.js';
+
+/** ΔT at a point (temperature units) */
+export type TemperatureField = (x: number, y: number) => number;
+
+const fmt = (v: number): string => Number(v.toPrecision(6)).toString();
+
+/**
+ * ΔT(x, y) of every `temperature` load in `loads` (several add up), or undefined when there is none.
+ * An expression is parsed once and evaluated with the load's params and the point's x, y; a value
+ * that is not finite at some point is a FemError on the load's key path.
+ */
+export function temperatureField(loads: readonly Load[]): TemperatureField | undefined {
+  const parts: TemperatureField[] = [];
+  loads.forEach((load, i) => {
+    if (load.kind !== 'temperature') return;
+    const value = load.temperature;
+    if (typeof value === 'number') {
+      parts.push(() => value);
+      return;
+    }
+    const keyPath = `${load.keyPath || `loads[${i}]`}.temperature`;
+    const names: Record<string, number> = { ...value.params, x: 0, y: 0 };
+    let tree: ReturnType<typeof parseExpression>;
+    try {
+      tree = parseExpression(value.expression);
+    } catch (e) {
+      if (e instanceof ExpressionError) throw new FemError(`temperature '${value.expression}': ${e.message}`, keyPath);
+      throw e;
+    }
+    parts.push((x, y) => {
+      names.x = x;
+      names.y = y;
+      try {
+        return evaluateTree(tree, names);
+      } catch (e) {
+        if (e instanceof ExpressionError) {
+          throw new FemError(`temperature '${value.expression}' at (${fmt(x)}, ${fmt(y)}): ${e.message}`, keyPath);
+        }
+        throw e;
+      }
+    });
+  });
+  if (parts.length === 0) return undefined;
+  if (parts.length === 1) return parts[0];
+  return (x, y) => {
+    let sum = 0;
+    for (const p of parts) sum += p(x, y);
+    return sum;
+  };
+}
+
+/** The material's expansion coefficient α, or a FemError naming the load that needs it. */
+export function expansionOf(section: Pick<ElasticSection, 'expansion'>, keyPath: string): number {
+  const alpha = section.expansion;
+  if (alpha === undefined || !Number.isFinite(alpha)) {
+    throw new FemError('a temperature load needs the thermal expansion coefficient material.expansion (α, strain per unit of temperature)', keyPath);
+  }
+  return alpha;
+}
+
+/**
+ * In-plane thermal strain per unit ΔT, the same in x and y (no shear): α in plane stress, (1 + ν)α in
+ * plane strain, where holding εzz = 0 turns part of the out-of-plane expansion into in-plane strain
+ * (derived in docs/fem.md, "Temperature", from Hooke's law with the free thermal strain αΔT).
+ */
+export function thermalStrainPerDegree(section: Pick<ElasticSection, 'nu' | 'state'>, alpha: number): number {
+  return section.state === 'plane-strain' ? (1 + section.nu) * alpha : alpha;
+}
+
+/**
+ * Consistent nodal forces of a thermal strain ε₀ = c·ΔT·(1, 1, 0), c = thermalStrainPerDegree:
+ * f_e = t ∫ Bᵀ D ε₀ dA over every element, from the stationary potential ½∫(ε − ε₀)ᵀD(ε − ε₀) dV,
+ * with the 7-point degree-5 rule through the element's own map (exact for ΔT up to degree 4 on a
+ * straight CST, degree 3 on a straight LST). Adds into `out` and returns it.
+ */
+export function thermalLoad(
+  mesh: Pick<Mesh, 'xy' | 'elemNodes' | 'nodesPerElem'>,
+  section: Pick<ElasticSection, 'E' | 'nu' | 'state' | 'thickness'>,
+  strainPerDegree: number,
+  deltaT: TemperatureField,
+  out: Float64Array = new Float64Array(mesh.xy.length),
+): Float64Array {
+  const D = elasticityMatrix(section);
+  // D·(1, 1, 0): the stress a unit in-plane strain in both directions would need
+  const s0x = D[0] + D[1];
+  const s0y = D[3] + D[4];
+  const s0s = D[6] + D[7];
+  const npe = mesh.nodesPerElem;
+  const exy = new Float64Array(2 * npe);
+  const N = new Float64Array(6);
+  const dx = new Float64Array(6);
+  const dy = new Float64Array(6);
+  const nElem = mesh.elemNodes.length / npe;
+  for (let e = 0; e < nElem; e++) {
+    gatherElementXY(mesh.xy, mesh.elemNodes, npe, e, exy);
+    for (let g = 0; g < TRI_7.w.length; g++) {
+      const xi = TRI_7.xi[g];
+      const eta = TRI_7.eta[g];
+      let det: number;
+      if (npe === 3) {
+        det = cstGradients(exy, dx, dy);
+        cstShape(xi, eta, N);
+      } else {
+        det = lstGradients(exy, xi, eta, dx, dy);
+        lstShape(xi, eta, N);
+      }
+      let x = 0;
+      let y = 0;
+      for (let i = 0; i < npe; i++) {
+        x += N[i] * exy[2 * i];
+        y += N[i] * exy[2 * i + 1];
+      }
+      const eps = strainPerDegree * deltaT(x, y);
+      if (eps === 0) continue;
+      // weight × |J|/2 (element/rules.ts convention), times the thickness
+      const w = 0.5 * TRI_7.w[g] * det * section.thickness * eps;
+      const sx = w * s0x;
+      const sy = w * s0y;
+      const ss = w * s0s;
+      for (let i = 0; i < npe; i++) {
+        const n = mesh.elemNodes[npe * e + i];
+        // Bᵀσ₀ for node i: (∂N/∂x σx + ∂N/∂y τ, ∂N/∂y σy + ∂N/∂x τ)
+        out[2 * n] += dx[i] * sx + dy[i] * ss;
+        out[2 * n + 1] += dy[i] * sy + dx[i] * ss;
+      }
+    }
+  }
+  return out;
+}
