@@ -159,14 +159,22 @@ export function solvePlate(input: PlateProblem): Solution {
     fixed,
     dofs: nDof,
     freeDofs: nFree,
-    appliedSum: appliedResultant(f),
-    reactionSum: appliedResultant(reaction),
+    appliedSum: axialOnly(section, appliedResultant(f)),
+    reactionSum: axialOnly(section, appliedResultant(reaction)),
     maxDisplacement,
     maxDisplacementAt: [mesh.xy[2 * maxNode], mesh.xy[2 * maxNode + 1]],
     nnzL,
     residual,
     timings: { assembleS: t1 - t0, orderS: t2 - t1, factorS: t3 - t2, solveS: t4 - t3 },
   };
+}
+
+/**
+ * The resultant of an axisymmetric section's forces is axial only: ring forces in r cancel around
+ * the circle (their nodal sum is not a resultant and need not balance), so the r entry is 0.
+ */
+function axialOnly(section: ElasticSection, sum: [number, number]): [number, number] {
+  return section.state === 'axisymmetric' ? [0, sum[1]] : sum;
 }
 
 /**
