@@ -11,12 +11,13 @@ import type { ModelFile, RawPoint, RawVertex } from './schema.js';
 import { didYouMean, formatNumber, quote } from './text.js';
 import type {
   PlaneState,
-  CriticalDistance, DisplacementValue, Load, LocalSize, Model, ModelWarning, Opening, Point, PolygonVertex, PrescribedMotion, Selector, Shape,
+  CriticalDistance, DisplacementValue, FieldValue, Load, LocalSize, Model, ModelWarning, Opening, Point, PolygonVertex, PrescribedMotion, Selector, Shape,
   SourcePosition, StudySettings, Support,
 } from './types.js';
 import { ImportError, MM_PER_UNIT, displacementRows, pointsShape, svgShape, type ReadFile } from './imports.js';
 import { parseExpression, namesIn, CONSTANTS } from './expr.js';
 import { DEFAULT_UNITS, PLAUSIBLE_E_MPA, PLAUSIBLE_THICKNESS_MM, lengthToMm, stressToMPa, stressUnit } from './units.js';
+import { bodyLoad, physicalConstants, type PhysicalConstants } from './body-loads.js';
 import { levelsRule, ratioRule } from './study-rules.js';
 
 /** Largest number accepted anywhere: beyond it the value is a slip, not a plate. */
@@ -69,7 +70,12 @@ export class Builder {
 
   /** A displacement component: number, expression of x, y and params (checked now, evaluated per node later). */
   displacementValue(raw: number | string, keyPath: string): DisplacementValue {
-    if (typeof raw === 'number' || !/[A-Za-z_]/.test(raw)) return this.num(raw, keyPath, 'displacement');
+    return this.fieldValue(raw, keyPath, 'displacement');
+  }
+
+  /** A value over the plate (displacement, temperature): number, or expression of x, y and params evaluated per point later. */
+  fieldValue(raw: number | string, keyPath: string, quantity: string): FieldValue {
+    if (typeof raw === 'number' || !/[A-Za-z_]/.test(raw)) return this.num(raw, keyPath, quantity);
     let names: string[];
     try {
       names = namesIn(parseExpression(raw));
@@ -78,11 +84,11 @@ export class Builder {
       throw e;
     }
     const usesXY = names.includes('x') || names.includes('y');
-    if (!usesXY) return this.num(raw, keyPath, 'displacement');
+    if (!usesXY) return this.num(raw, keyPath, quantity);
     const known = new Set([...Object.keys(this.params), 'x', 'y', ...Object.keys(CONSTANTS)]);
     const unknown = names.find((n) => !known.has(n));
     if (unknown !== undefined) {
-      this.fail(`expression ${quote(raw)}: unknown name ${quote(unknown)}${didYouMean(unknown, [...known])}; a displacement may use x, y and the params`, keyPath);
+      this.fail(`expression ${quote(raw)}: unknown name ${quote(unknown)}${didYouMean(unknown, [...known])}; a ${quantity} may use x, y and the params`, keyPath);
     }
     return { expression: raw, params: { ...this.params } };
   }
@@ -182,7 +188,7 @@ export class Builder {
     return { kind: 'polygon', vertices: (raw.polygon ?? []).map((v, i) => this.vertex(v, joinPath(p, i))) };
   }
 
-  selector(raw: ModelFile['loads'][number]['where'], keyPath: string, openingIds: readonly string[]): Selector {
+  selector(raw: NonNullable<ModelFile['loads'][number]['where']>, keyPath: string, openingIds: readonly string[]): Selector {
     if (raw.x !== undefined) return { kind: 'x', value: this.num(raw.x, joinPath(keyPath, 'x'), 'x') };
     if (raw.y !== undefined) return { kind: 'y', value: this.num(raw.y, joinPath(keyPath, 'y'), 'y') };
     if (raw.segment !== undefined) {
@@ -265,6 +271,7 @@ export function buildModel(
       });
     }
   }
+  const physical: PhysicalConstants = physicalConstants(b, raw.material, units);
   const state = raw.state ?? 'plane-stress';
   const thickness = axisymmetricThickness(b, raw.thickness, state) ?? b.length(raw.thickness!, 'thickness', 'plate thickness');
   const mmPer = lengthToMm(units.length);
@@ -313,7 +320,13 @@ export function buildModel(
   const loads: Load[] = [];
   raw.loads.forEach((l, i) => {
     const keyPath = joinPath('loads', i);
-    const where = b.selector(l.where, joinPath(keyPath, 'where'), ids);
+    const body = bodyLoad(b, l, keyPath, physical, units);
+    if (body) {
+      loads.push(body);
+      return;
+    }
+    // the schema holds where on every load that acts on the boundary
+    const where = b.selector(l.where!, joinPath(keyPath, 'where'), ids);
     if (l.traction !== undefined) loads.push({ kind: 'traction', where, traction: b.point(l.traction, joinPath(keyPath, 'traction')), keyPath });
     else if (l.pressure !== undefined) loads.push({ kind: 'pressure', where, pressure: b.num(l.pressure, joinPath(keyPath, 'pressure'), 'pressure'), keyPath });
     else if (l.force !== undefined) loads.push({ kind: 'force', where, force: b.point(l.force, joinPath(keyPath, 'force')), keyPath });
@@ -392,7 +405,11 @@ export function buildModel(
     file,
     units,
     params: { ...params },
-    material: { E, nu, ...(yieldStress !== undefined ? { yield: yieldStress } : {}) },
+    material: {
+      E, nu, ...(yieldStress !== undefined ? { yield: yieldStress } : {}),
+      ...(physical.density !== undefined ? { density: physical.density } : {}),
+      ...(physical.expansion !== undefined ? { expansion: physical.expansion } : {}),
+    },
     thickness,
     state,
     plate: { outline, openings },

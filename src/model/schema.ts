@@ -183,11 +183,16 @@ const SupportLike = mapping(
   }
 });
 
-export const LOAD_KINDS = ['traction', 'pressure', 'force', 'stress', 'pinForce'] as const;
+export const LOAD_KINDS = ['traction', 'pressure', 'force', 'stress', 'pinForce', 'gravity', 'spin', 'temperature'] as const;
+
+/** The load kinds that act over the whole plate (issue 14): they take no `where`. */
+export const BODY_LOAD_KINDS = ['gravity', 'spin', 'temperature'] as const;
+
+const SpinLike = mapping({ about: PointLike, omega: NumberLike }, 'a rotation { about: [x, y], omega }');
 
 const LoadLike = mapping(
   {
-    where: SelectorLike,
+    where: SelectorLike.optional(),
     traction: PointLike.optional(),
     pressure: NumberLike.optional(),
     force: PointLike.optional(),
@@ -198,11 +203,33 @@ const LoadLike = mapping(
     ).optional(),
     about: PointLike.optional(),
     pinForce: PointLike.optional(),
+    gravity: z.tuple([NumberLike, NumberLike], { error: expected('an acceleration vector [gx, gy]') }).optional(),
+    spin: SpinLike.optional(),
+    temperature: NumberLike.optional(),
   },
-  'a load { where: …, traction | pressure | force | stress | pinForce: … }',
+  'a load { where: …, traction | pressure | force | stress | pinForce: … } or { gravity | spin | temperature: … }',
 )
   .superRefine(exactlyOne(LOAD_KINDS))
   .superRefine((value, ctx) => {
+    const body = BODY_LOAD_KINDS.find((k) => value[k] !== undefined);
+    if (body !== undefined) {
+      if (value.where !== undefined) {
+        ctx.addIssue({ code: 'custom', message: `a ${body} load acts over the whole plate; drop where`, path: ['where'] });
+      }
+      for (const k of ['gradient', 'about'] as const) {
+        if (value[k] !== undefined) {
+          const hint = body === 'spin' && k === 'about' ? '; the centre of a rotation goes inside it: spin: { about: [x, y], omega }' : '';
+          ctx.addIssue({ code: 'custom', message: `${k} goes with stress: [sxx, syy, sxy]${hint}`, path: [k] });
+        }
+      }
+      return;
+    }
+    if (value.where === undefined) {
+      if (LOAD_KINDS.some((k) => value[k] !== undefined)) {
+        ctx.addIssue({ code: 'custom', message: 'expected where: the boundary this load acts on (a selector)', path: [] });
+      }
+      return;
+    }
     const atPoint = value.where.point !== undefined;
     for (const k of ['gradient', 'about'] as const) {
       if (value[k] !== undefined && value.stress === undefined) {
@@ -290,7 +317,10 @@ export const ModelFileSchema = mapping(
     title: z.string({ error: expected('a title (text)') }).optional(),
     units: mapping({ length: Label.optional(), force: Label.optional() }, 'units { length, force }').optional(),
     params: z.record(z.string(), NumberLike, { error: expected('a mapping of names to numbers') }).optional(),
-    material: mapping({ E: NumberLike, nu: NumberLike, yield: NumberLike.optional() }, 'a material { E, nu, yield }'),
+    material: mapping(
+      { E: NumberLike, nu: NumberLike, yield: NumberLike.optional(), density: NumberLike.optional(), expansion: NumberLike.optional() },
+      'a material { E, nu, yield, density, expansion }',
+    ),
     // optional only in an axisymmetric section (build.ts asks for it otherwise)
     thickness: NumberLike.optional(),
     state: word(STATES).optional(),

@@ -45,9 +45,14 @@ export interface ProblemOptions {
 /** Relative tolerance (of the plate's size) under which two required points are one. */
 export const SAME_POINT_RELATIVE = 1e-9;
 
-/** The elastic section of a model: material, plane state, thickness. */
+/** The elastic section of a model: material, plane state, thickness (density and expansion when given, for body loads). */
 export function sectionOf(model: Pick<Model, 'material' | 'state' | 'thickness'>): ElasticSection {
-  return { E: model.material.E, nu: model.material.nu, state: model.state, thickness: model.thickness };
+  const { density, expansion } = model.material;
+  return {
+    E: model.material.E, nu: model.material.nu, state: model.state, thickness: model.thickness,
+    ...(density !== undefined ? { density } : {}),
+    ...(expansion !== undefined ? { expansion } : {}),
+  };
 }
 
 /**
