@@ -43,12 +43,12 @@ export function revolvedPressureLoad(
  * body-force primitive of fem/body-load.ts with thickness 2π and the force weighted by r.
  * - gravity: self-weight ρg along the axis only (`gravity: [0, g_z]`; a radial component would
  *   not be axisymmetric);
- * - spin: rotation about the axis (`about: [0, z]`, any z), centrifugal force ρω²r radially;
- * - temperature: not yet available in an axisymmetric section (an error naming the load).
+ * - spin: rotation about the axis (`about: [0, z]`, any z), centrifugal force ρω²r radially.
+ * Temperature loads are not handled here: all of them at once by axisymmetricThermalLoad.
  */
 export function revolvedBodyLoad(
   mesh: Pick<Mesh, 'xy' | 'elemNodes' | 'nodesPerElem'>,
-  load: Extract<Load, { kind: 'gravity' | 'spin' | 'temperature' }>,
+  load: Extract<Load, { kind: 'gravity' | 'spin' }>,
   density: () => number,
   keyPath: string,
   out: Float64Array,
@@ -60,12 +60,9 @@ export function revolvedBodyLoad(
     const bz = density() * load.gravity[1];
     return bodyForceLoad(mesh, REVOLUTION, (r) => [0, r * bz], out);
   }
-  if (load.kind === 'spin') {
-    if (load.about[0] !== 0) {
-      throw new FemError('in an axisymmetric section the rotation is about the axis: give about as [0, z] (the axis is x = 0)', `${keyPath}.about`);
-    }
-    const c = density() * load.omega * load.omega;
-    return bodyForceLoad(mesh, REVOLUTION, (r) => [c * r * r, 0], out);
+  if (load.about[0] !== 0) {
+    throw new FemError('in an axisymmetric section the rotation is about the axis: give about as [0, z] (the axis is x = 0)', `${keyPath}.spin.about`);
   }
-  throw new FemError('a temperature load is not yet available in an axisymmetric section', keyPath);
+  const c = density() * load.omega * load.omega;
+  return bodyForceLoad(mesh, REVOLUTION, (r) => [c * r * r, 0], out);
 }

@@ -17,6 +17,8 @@ import { FemError, SolveError } from '../errors.js';
 import type { Mesh } from '../mesh/types.js';
 import { TRI_3, TRI_7, cstShape, lstShape, type TriangleRule } from '../element/index.js';
 import { cstGradients, gatherElementXY, lstGradients } from './shape.js';
+import type { Load } from '../model/types.js';
+import { expansionOf, temperatureField, type TemperatureField } from './thermal.js';
 import type { ElasticSection, GaussStresses } from './types.js';
 
 /** The factor of a whole revolution: integrals over the section are multiplied by 2π r. */
@@ -148,9 +150,12 @@ export function axisymmetricStiffness(
 export function axisymmetricGaussStresses(
   mesh: Pick<Mesh, 'xy' | 'elemNodes' | 'nodesPerElem'>,
   u: Float64Array,
-  section: Pick<ElasticSection, 'E' | 'nu'>,
+  section: Pick<ElasticSection, 'E' | 'nu' | 'expansion'>,
+  loads: readonly Load[] = [],
 ): GaussStresses {
   const D = axisymmetricMatrix(section);
+  // a temperature change: σ = D(ε − αΔT(1, 1, 0, 1)), and D·(1, 1, 0, 1) = E/(1 − 2ν) on each normal stress
+  const thermal = thermalOf(section, loads);
   const npe = mesh.nodesPerElem;
   const nElem = mesh.elemNodes.length / npe;
   const rule = npe === 3 ? { xi: [1 / 3], eta: [1 / 3], w: [1] } : TRI_3;
@@ -185,13 +190,14 @@ export function axisymmetricGaussStresses(
         ur += N[i] * ui;
       }
       const et = ur / r;
+      const s0 = thermal ? thermal.stressPerDegree * thermal.deltaT(r, z) : 0;
       weight[k] = 0.5 * rule.w[g] * det;
       xy[2 * k] = r;
       xy[2 * k + 1] = z;
-      stress[3 * k] = D[0] * er + D[1] * ez + D[3] * et;
-      stress[3 * k + 1] = D[4] * er + D[5] * ez + D[7] * et;
+      stress[3 * k] = D[0] * er + D[1] * ez + D[3] * et - s0;
+      stress[3 * k + 1] = D[4] * er + D[5] * ez + D[7] * et - s0;
       stress[3 * k + 2] = D[10] * grz;
-      szz[k] = D[12] * er + D[13] * ez + D[15] * et;
+      szz[k] = D[12] * er + D[13] * ez + D[15] * et - s0;
     }
   }
   return { nGauss, xy, stress, szz, weight };
@@ -230,4 +236,55 @@ export function checkAxialRestraint(fixed: Uint8Array): void {
     'the section is free to move along the axis (no support fixes z = y); add a support that fixes y, e.g. on a face normal to the axis',
     'supports',
   );
+}
+
+/**
+ * The temperature change of `loads` in an axisymmetric section, or undefined without one: ΔT(r, z) and
+ * the stress a unit ΔT would need to be held, D·α(1, 1, 0, 1) = αE/(1 − 2ν) on each normal stress (the
+ * free thermal strain αΔT acts in r, z and θ alike).
+ */
+function thermalOf(section: Pick<ElasticSection, 'E' | 'nu' | 'expansion'>, loads: readonly Load[]): { deltaT: TemperatureField; stressPerDegree: number } | undefined {
+  const deltaT = temperatureField(loads);
+  if (!deltaT) return undefined;
+  const first = loads.findIndex((l) => l.kind === 'temperature');
+  const alpha = expansionOf(section, loads[first].keyPath || `loads[${first}]`);
+  return { deltaT, stressPerDegree: (alpha * section.E) / (1 - 2 * section.nu) };
+}
+
+/**
+ * Consistent nodal forces of the temperature loads in an axisymmetric section, for the whole
+ * revolution: f = 2π ∫ Bᵀ D ε₀ r dA with ε₀ = αΔT(1, 1, 0, 1), on the element's stiffness rule
+ * (interior points, r > 0). Bᵀσ₀ for node i with σ₀ = s(1, 1, 0, 1): (s(∂N/∂r + N/r), s ∂N/∂z).
+ * Adds into `out` and returns it.
+ */
+export function axisymmetricThermalLoad(
+  mesh: Pick<Mesh, 'xy' | 'elemNodes' | 'nodesPerElem'>,
+  section: Pick<ElasticSection, 'E' | 'nu' | 'expansion'>,
+  loads: readonly Load[],
+  out: Float64Array,
+): Float64Array {
+  const thermal = thermalOf(section, loads);
+  if (!thermal) return out;
+  const npe = mesh.nodesPerElem;
+  const rule = npe === 3 ? AXISYMMETRIC_RULE_CST : AXISYMMETRIC_RULE_LST;
+  const exy = new Float64Array(2 * npe);
+  const { dx, dy, N } = scratch;
+  const nElem = mesh.elemNodes.length / npe;
+  for (let e = 0; e < nElem; e++) {
+    gatherElementXY(mesh.xy, mesh.elemNodes, npe, e, exy);
+    for (let g = 0; g < rule.w.length; g++) {
+      const { det, r } = pointOf(npe, exy, rule.xi[g], rule.eta[g]);
+      let z = 0;
+      for (let i = 0; i < npe; i++) z += N[i] * exy[2 * i + 1];
+      const s0 = thermal.stressPerDegree * thermal.deltaT(r, z);
+      if (s0 === 0) continue;
+      const w = 0.5 * rule.w[g] * det * REVOLUTION * r * s0;
+      for (let i = 0; i < npe; i++) {
+        const n = mesh.elemNodes[npe * e + i];
+        out[2 * n] += w * (dx[i] + N[i] / r);
+        out[2 * n + 1] += w * dy[i];
+      }
+    }
+  }
+  return out;
 }

@@ -7,6 +7,7 @@ import { FemError } from '../errors.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { Mesh } from '../mesh/types.js';
 import type { Load } from '../model/types.js';
+import { axisymmetricThermalLoad } from './axisymmetric.js';
 import { revolvedBodyLoad, revolvedPressureLoad, revolvedTractionLoad } from './axisymmetric-loads.js';
 import { edgeTractionLoad, pressureLoad } from './edge-load.js';
 import { farFieldStressLoad } from './farfield.js';
@@ -45,7 +46,7 @@ export function loadVector(
   const axisymmetric = section.state === 'axisymmetric';
   loads.forEach((load, i) => {
     const keyPath = load.keyPath || `loads[${i}]`;
-    if (axisymmetric && (load.kind === 'gravity' || load.kind === 'spin' || load.kind === 'temperature')) {
+    if (axisymmetric && (load.kind === 'gravity' || load.kind === 'spin')) {
       revolvedBodyLoad(mesh, load, () => densityOf(section, load.kind, keyPath), keyPath, f);
       return;
     }
@@ -105,7 +106,11 @@ export function loadVector(
       pressureLoad(mesh, edges, section.thickness, load.pressure, f);
     }
   });
-  if (thermalAt >= 0) {
+  if (thermalAt >= 0 && axisymmetric) {
+    const { E, nu } = section;
+    if (E === undefined || nu === undefined) throw new TypeError('a temperature load needs the section\'s E and nu');
+    axisymmetricThermalLoad(mesh, { E, nu, expansion: expansionOf(section, loads[thermalAt].keyPath || `loads[${thermalAt}]`) }, loads, f);
+  } else if (thermalAt >= 0) {
     // every temperature load at once: their ΔT add, so one integration (the Gauss-point stresses do the same)
     const alpha = expansionOf(section, loads[thermalAt].keyPath || `loads[${thermalAt}]`);
     const { E, nu, state, thickness } = section;

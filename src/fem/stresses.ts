@@ -25,7 +25,7 @@ export function gaussStresses(
   loads: readonly Load[] = [],
 ): GaussStresses {
   // an axisymmetric section: (σr, σz, τrz) in stress, σθ beside them (fem/axisymmetric.ts)
-  if (section.state === 'axisymmetric') return axisymmetricGaussStresses(mesh, u, section);
+  if (section.state === 'axisymmetric') return axisymmetricGaussStresses(mesh, u, section, loads);
   const D = elasticityMatrix(section);
   const deltaT = temperatureField(loads);
   const firstThermal = loads.findIndex((l) => l.kind === 'temperature');

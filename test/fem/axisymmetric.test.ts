@@ -210,3 +210,92 @@ describe('spherical cavity under axial tension (Goodier 1933)', () => {
     expect(Math.abs(field.szz[n] - hoop * S) / S).toBeLessThan(3e-3);
   });
 });
+
+/*
+ * Rotating solid disc of uniform thickness t, radius b, in plane stress (thin disc): Timoshenko & Goodier
+ * (1970) §32: σr = (3 + ν)/8 ρω²(b² − r²), σθ = (3 + ν)/8 ρω²b² − (1 + 3ν)/8 ρω²r². Modelled as a short
+ * solid cylinder with free faces: the meridian half-section 0 ≤ r ≤ b, 0 ≤ z ≤ t/2, the mid-plane z = 0
+ * held in z (symmetry), spin about the axis. The plane-stress solution neglects σz and the variation
+ * through the thickness, both of relative order (t/b)²; the mid-plane values are compared with it.
+ */
+describe('rotating solid disc (thin-disc plane-stress solution)', () => {
+  const b = 100, rho = 7.85e-9, omega = 1000, nu = 0.3;
+  const q = rho * omega * omega * b * b; // 78.5 MPa
+  const discText = (t: number) => `
+material: { E: 210000, nu: ${nu}, density: ${rho} }
+state: axisymmetric
+plate:
+  outline: [[0, 0], [${b}, 0], [${b}, ${t / 2}], [0, ${t / 2}]]
+supports:
+  - { where: { y: 0 }, fix: [y] }
+loads:
+  - { spin: { about: [0, 0], omega: ${omega} } }
+mesh: { size: ${t / 8}, order: 2 }
+`;
+  function midPlaneError(t: number): number {
+    const { level } = solveText(discText(t));
+    let worst = 0;
+    for (let n = 0; n < level.mesh.xy.length / 2; n++) {
+      if (level.mesh.xy[2 * n + 1] !== 0) continue;
+      const r = level.mesh.xy[2 * n];
+      const sr = ((3 + nu) / 8) * q * (1 - (r / b) ** 2);
+      const st = ((3 + nu) / 8) * q - ((1 + 3 * nu) / 8) * q * (r / b) ** 2;
+      worst = Math.max(worst, Math.abs(level.field.stress[3 * n] - sr), Math.abs(level.field.szz[n] - st));
+    }
+    return worst / q;
+  }
+  // measured largest mid-plane departure / ρω²b²: 2.4e-4 at t/b = 0.1, 3.8e-3 at t/b = 0.4 — a ratio of 15.9
+  // for (t/b)² = 16: the thin-disc solution holds to about 0.024 (t/b)² ρω²b² (0.1 % of σ(0) at t/b = 0.2)
+  it('mid-plane σr, σθ against the plane-stress disc: within 8e-4 ρω²b² at t/b = 0.1, departing like (t/b)²', () => {
+    const thin = midPlaneError(10);
+    const thick = midPlaneError(40);
+    expect(thin).toBeLessThan(8e-4);
+    expect(thick / thin).toBeGreaterThan(10);
+    expect(thick / thin).toBeLessThan(25);
+  });
+});
+
+/*
+ * Temperature in an axisymmetric section (Hooke's law with the free thermal strain αΔT in r, z and θ):
+ * a solid cylinder free to expand stays unstressed, u_r = αΔT r, u_z = αΔT z; held between two rigid
+ * planes (u_z = 0 on both ends, free radially) it carries σz = −EαΔT with σr = σθ = 0 and
+ * u_r = (1 + ν)αΔT r. Both fields are linear, so CST and LST reproduce them to round-off.
+ */
+describe('uniform temperature change in an axisymmetric section', () => {
+  const E = 210000, nu = 0.3, alpha = 1.2e-5, dT = 50;
+  const text = (held: boolean, order: 1 | 2) => `
+material: { E: ${E}, nu: ${nu}, expansion: ${alpha} }
+state: axisymmetric
+plate:
+  outline: [[0, 0], [20, 0], [20, 30], [0, 30]]
+supports:
+  - { where: { y: 0 }, fix: [y] }${held ? '\n  - { where: { y: 30 }, fix: [y] }' : ''}
+loads:
+  - { temperature: ${dT} }
+mesh: { size: 4, order: ${order} }
+`;
+  it.each([1, 2] as const)('order %i: free and held cylinders, exact fields', (order) => {
+    const free = solveText(text(false, order));
+    const held = solveText(text(true, order));
+    const e0 = alpha * dT;
+    for (let n = 0; n < free.level.mesh.xy.length / 2; n++) {
+      const r = free.level.mesh.xy[2 * n], z = free.level.mesh.xy[2 * n + 1];
+      expect(Math.abs(free.level.solution.u[2 * n] - e0 * r)).toBeLessThan(1e-12);
+      expect(Math.abs(free.level.solution.u[2 * n + 1] - e0 * z)).toBeLessThan(1e-12);
+    }
+    for (let n = 0; n < held.level.mesh.xy.length / 2; n++) {
+      const r = held.level.mesh.xy[2 * n];
+      expect(Math.abs(held.level.solution.u[2 * n] - (1 + nu) * e0 * r)).toBeLessThan(1e-12);
+    }
+    const gFree = free.level.gauss, gHeld = held.level.gauss;
+    for (let k = 0; k < gFree.weight.length; k++) {
+      for (const c of [0, 1, 2]) expect(Math.abs(gFree.stress[3 * k + c])).toBeLessThan(1e-8);
+      expect(Math.abs(gFree.szz[k])).toBeLessThan(1e-8);
+    }
+    for (let k = 0; k < gHeld.weight.length; k++) {
+      expect(Math.abs(gHeld.stress[3 * k])).toBeLessThan(1e-8);
+      expect(Math.abs(gHeld.stress[3 * k + 1] / (-E * e0) - 1)).toBeLessThan(1e-10);
+      expect(Math.abs(gHeld.szz[k])).toBeLessThan(1e-8);
+    }
+  });
+});
