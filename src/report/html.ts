@@ -214,7 +214,9 @@ function modelSection(ctx: PageContext): string {
     row('Model file', model.file ? `<code>${escapeXml(model.file)}</code>` : '(built in code)'),
     row('Units', `length ${escapeXml(units.length)}, force ${escapeXml(units.force)}, stress ${escapeXml(units.stress)}`),
     row('Material', escapeXml(materialLine(model, S))),
-    row('Thickness', `${escapeXml(formatNumber(model.thickness))} ${escapeXml(L)}`),
+    model.state === 'axisymmetric'
+      ? row('Section', 'axisymmetric: the meridian section of a body of revolution, drawn in (r, z) = (x, y) about the axis r = 0; no thickness (forces are for the whole revolution)')
+      : row('Thickness', `${escapeXml(formatNumber(model.thickness))} ${escapeXml(L)}`),
     row('State', escapeXml(model.state.replace('-', ' '))),
     row('Outline', escapeXml(capitalise(shapeWords(model.plate.outline, L)))),
     row(
@@ -241,7 +243,7 @@ function meshSection(ctx: PageContext): string {
     row('Element edges', `${escapeXml(formatNumber(stats.minEdge))} to ${escapeXml(formatNumber(stats.maxEdge))} ${escapeXml(L)}`),
     row('Smallest angle', `${escapeXml(formatNumber(study.mesh.minAngleDeg, 3))}°`),
     row('Boundary', `${int(stats.boundaryEdges)} edges on ${geometry.pieces.length} pieces, ${geometry.loops.length} loop${geometry.loops.length === 1 ? '' : 's'}`),
-    row('Plate area', `${escapeXml(formatNumber(geometry.area, 6))} ${escapeXml(L)}²`),
+    row(ctx.model.state === 'axisymmetric' ? 'Section area' : 'Plate area', `${escapeXml(formatNumber(geometry.area, 6))} ${escapeXml(L)}²`),
     row(
       'Base solve',
       `${int(study.solution.dofs)} dofs, largest displacement ${escapeXml(formatNumber(study.solution.maxDisplacement))} ${escapeXml(L)}`,
@@ -256,7 +258,7 @@ function pictureSection(ctx: PageContext): string {
   const deformScale = ctx.input.deformationScale ?? autoDeformationScale(u, geometry.scale);
   const main = contourSvg(mesh, field, {
     units: `${measure}, ${S}`,
-    title: `${measure} (${S}) over the plate`,
+    title: `${measure} (${S}) over the ${ctx.model.state === 'axisymmetric' ? 'section, r = x, z = y' : 'plate'}`,
     sites: study.sites.map((s) => ({ id: s.id, at: s.at })),
     deformed: deformScale !== undefined ? { u, scale: deformScale } : undefined,
     showMesh: true,
@@ -287,7 +289,7 @@ function verdictsSection(ctx: PageContext): string {
     )
     .join('');
   return `<section id="verdicts"><h2>Verdicts</h2>
-<table class="verdicts"><thead><tr><th>site</th><th>where</th><th>feature</th><th>verdict</th><th>value ± ${BAND_LABEL}</th><th>readouts</th></tr></thead><tbody>${verdictRows || '<tr><td colspan="6">No sites were found.</td></tr>'}</tbody></table>
+<table class="verdicts"><thead><tr><th>site</th><th>${ctx.model.state === 'axisymmetric' ? 'where (r, z)' : 'where'}</th><th>feature</th><th>verdict</th><th>value ± ${BAND_LABEL}</th><th>readouts</th></tr></thead><tbody>${verdictRows || '<tr><td colspan="6">No sites were found.</td></tr>'}</tbody></table>
 <p class="legend-text">${escapeXml(VERDICTS_LEGEND)}</p>
 <p class="legend-text">${escapeXml(READOUTS_LEGEND)}</p>
 </section>`;
@@ -361,7 +363,7 @@ function siteSection(ctx: PageContext, s: SiteResult, i: number): string {
   const { L, S, measure, sectionIds } = ctx;
   return (
     `<section class="site" id="${sectionIds[i]}">` +
-    `<h3>${escapeXml(s.id)} <span class="where">at ${escapeXml(siteWhere(s, L))}</span> ${verdictBadge(s.verdict)}</h3>` +
+    `<h3>${escapeXml(s.id)} <span class="where">at ${ctx.model.state === 'axisymmetric' ? '(r, z) = ' : ''}${escapeXml(siteWhere(s, L))}</span> ${verdictBadge(s.verdict)}</h3>` +
     `<p class="feature">${escapeXml(capitalise(s.feature.description || featureLabel(s)))}</p>` +
     `<p class="why"><b>Why:</b> ${escapeXml(s.reason)}</p>` +
     (siteAdvice(s) ? `<p class="advice"><b>Next step:</b> ${escapeXml(siteAdvice(s) ?? '')}</p>` : '') +

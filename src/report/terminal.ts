@@ -80,7 +80,8 @@ function siteNotes(study: StudyResult, c: Colors): string[] {
 export function studyTable(study: StudyResult, options: TerminalOptions): string {
   const c = pc.createColors(options.color);
   const units = study.units;
-  const header = ['site', 'where', 'feature', 'verdict', `value ± ${BAND_LABEL}`, 'readouts'];
+  const section = study.model.state === 'axisymmetric';
+  const header = ['site', section ? 'where (r, z)' : 'where', 'feature', 'verdict', `value ± ${BAND_LABEL}`, 'readouts'];
   const rows: string[][] = [header];
   for (const site of study.sites) {
     const verdict = stripControl(site.verdict);
@@ -99,6 +100,7 @@ export function studyTable(study: StudyResult, options: TerminalOptions): string
   lines.push(
     c.dim(
       `${stripControl(study.measure)} in ${stripControl(units.stress)} · ${study.mesh.order === 2 ? 'LST' : 'CST'} · ` +
+        (section ? 'axisymmetric section · ' : '') +
         `${study.sites.length} site${study.sites.length === 1 ? '' : 's'}`,
     ),
   );
