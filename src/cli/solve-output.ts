@@ -57,13 +57,13 @@ export function nodalMax(mesh: Mesh, values: Float64Array): { value: number; at:
   return { value: best, at: [mesh.xy[2 * node], mesh.xy[2 * node + 1]], node };
 }
 
-/** Largest Gauss-point von Mises stress (raw element values, before recovery). */
+/** Largest Gauss-point von Mises stress (raw element values, before recovery; with the Gauss σzz). */
 export function gaussMax(g: GaussStresses): { value: number; at: [number, number] } {
   let best = -Infinity;
   let k = 0;
   const n = g.weight.length;
   for (let i = 0; i < n; i++) {
-    const v = vonMises(g.stress[3 * i], g.stress[3 * i + 1], g.stress[3 * i + 2], 0);
+    const v = vonMises(g.stress[3 * i], g.stress[3 * i + 1], g.stress[3 * i + 2], g.szz[i]);
     if (v > best) { best = v; k = i; }
   }
   return { value: best, at: [g.xy[2 * k], g.xy[2 * k + 1]] };

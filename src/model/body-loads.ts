@@ -32,6 +32,9 @@ const POSITIVE = { test: (v: number) => v > 0, text: 'must be > 0' };
 const METRES: Readonly<Record<string, number>> = { mm: 1e-3, cm: 1e-2, m: 1, in: 0.0254, ft: 0.3048 };
 const NEWTONS: Readonly<Record<string, number>> = { N: 1, kN: 1e3, MN: 1e6, lbf: 4.4482216152605, kip: 4448.2216152605 };
 
+/** Names of the consistent mass unit force·s²/length, where it has one. */
+const MASS_UNITS: Readonly<Record<string, string>> = { 'N/mm': 'tonne', 'N/m': 'kg', 'kN/m': 'tonne' };
+
 /**
  * kg/m³ per unit of density in these units (mass unit force·s²/length over length³: f/l⁴ with the
  * force f in N and the length l in m), when both labels are known.
@@ -63,13 +66,13 @@ export function physicalConstants(b: ValueReader, raw: ModelFile['material'], un
       const kg = rho * toKg;
       const [lo, hi] = PLAUSIBLE_DENSITY_KG_M3;
       if (kg < lo || kg > hi) {
-        const mass = `${units.force}·s²/${units.length}`;
+        const mass = MASS_UNITS[`${units.force}/${units.length}`] ?? `${units.force}·s²/${units.length}`;
         const steel = formatNumber(7850 / toKg);
         const looks = rho >= 500 && rho <= 25000 ? ' It looks like kg/m³.' : rho >= 0.5 && rho <= 30 ? ' It looks like g/cm³.' : '';
         b.warnings.push({
           keyPath: 'material.density',
-          message: `density ${formatNumber(rho)} is ${formatNumber(kg)} kg/m³ in the model's units (mass in ${mass}, per ${units.length}³), `
-            + `outside the range of solids.${looks} Units are not converted: give the density in ${mass} per ${units.length}³; steel is about ${steel}`,
+          message: `density ${formatNumber(rho)} ${mass}/${units.length}³ is ${formatNumber(kg)} kg/m³, outside the range of solids.${looks} `
+            + `Units are not converted: give the density in ${mass}/${units.length}³ (mass = force·s²/length); steel is about ${steel}`,
         });
       }
     }

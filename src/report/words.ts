@@ -245,5 +245,8 @@ export const SITE_DETECTION =
 /** Model-level summary lines (used in HTML). */
 export function materialLine(model: Model, stressUnit: string): string {
   const y = model.material.yield !== undefined ? `, yield ${formatNumber(model.material.yield)} ${stripControl(stressUnit)}` : '';
-  return `E = ${formatNumber(model.material.E)} ${stripControl(stressUnit)}, ν = ${formatNumber(model.material.nu)}${y}`;
+  const { density, expansion } = model.material;
+  const rho = density !== undefined ? `, density ${formatNumber(density)}` : '';
+  const alpha = expansion !== undefined ? `, α = ${formatNumber(expansion)} per degree` : '';
+  return `E = ${formatNumber(model.material.E)} ${stripControl(stressUnit)}, ν = ${formatNumber(model.material.nu)}${y}${rho}${alpha}`;
 }
