@@ -66,3 +66,38 @@ describe('stepped shaft in tension, axisymmetric section', () => {
     expect(Math.abs(corner!.growth!.exponent - 0.455516)).toBeLessThan(0.1);
   });
 });
+
+/*
+ * Concentrated forces in a section: off the axis a force is a ring load, locally a line load of the body
+ * with the 1/ρ field of Flamant (1892), q = 1; on the axis it is a point force of the body, whose field
+ * falls like 1/ρ² (Boussinesq 1885), q = 2. A solid cylinder pressed at the centre of its end face and
+ * pushed radially by a ring load on its side.
+ */
+describe('point forces in an axisymmetric section', () => {
+  it('on the axis: singular with q = 2 (Boussinesq); off the axis: q = 1 (Flamant)', () => {
+    const model = parseModel(`
+material: { E: 210000, nu: 0.3 }
+state: axisymmetric
+plate:
+  outline: [[0, 0], [20, 0], [20, 40], [0, 40]]
+supports:
+  - { where: { y: 0 }, fix: [y] }
+loads:
+  - { where: { point: [0, 40] }, force: [0, -1000] }
+  - { where: { point: [20, 20] }, force: [-1000, 0] }
+mesh: { size: 4, order: 2 }
+study: { levels: 3, measure: von-mises }
+`, 'point-forces.yaml');
+    const result = runStudy(model);
+    const onAxis = result.sites.find((s) => s.at[0] === 0 && s.at[1] === 40);
+    const ring = result.sites.find((s) => s.at[0] === 20 && s.at[1] === 20);
+    expect(onAxis?.verdict).toBe('singular');
+    expect(ring?.verdict).toBe('singular');
+    expect(onAxis!.growth!.theory).toBe(2);
+    expect(ring!.growth!.theory).toBe(1);
+    // measured (four levels, h = 2 → 0.25): q = 2.000 and 1.011 — the peak is the nodal force over an element
+    // area (on the axis, the revolved area ∝ h²) or length (off it)
+    expect(Math.abs(onAxis!.growth!.exponent - 2)).toBeLessThan(0.1);
+    expect(Math.abs(ring!.growth!.exponent - 1)).toBeLessThan(0.1);
+  });
+});
