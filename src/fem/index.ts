@@ -14,6 +14,7 @@ export { selectorVertices, verticesOfSelector } from './required-points.js';
 export { appliedResultant, loadVector } from './loads.js';
 export { edgeTractionLoad, pressureLoad, type TractionField } from './edge-load.js';
 export { bodyForceLoad, type BodyForceField } from './body-load.js';
+export { bodyFields, temperatureField, thermalLoad, thermalStrainPerDegree, type BodyFields, type TemperatureField } from './thermal.js';
 export { checkRigidRestraint, supportedDofs } from './supports.js';
 export { validateSolverMesh, validateSection } from './validate.js';
 export { solvePlate, type PlateProblem, type PrescribedDisplacement } from './solve.js';

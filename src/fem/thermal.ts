@@ -139,3 +139,50 @@ export function thermalLoad(
   }
   return out;
 }
+
+/**
+ * The fields a model's body loads put inside the plate, for integrals over the domain (the study's
+ * reciprocal-work K): the body force per volume b(x, y) of every gravity and spin load (summed), and
+ * the in-plane thermal strain c·ΔT(x, y) of the temperature loads (c = thermalStrainPerDegree). Each
+ * is undefined when no load of that kind is present.
+ */
+export interface BodyFields {
+  force?: (x: number, y: number) => [number, number];
+  strain?: (x: number, y: number) => number;
+}
+
+export function bodyFields(section: Pick<ElasticSection, 'nu' | 'state' | 'density' | 'expansion'>, loads: readonly Load[]): BodyFields {
+  const out: BodyFields = {};
+  const axisymmetric = section.state === 'axisymmetric';
+  let gx = 0, gy = 0, any = false;
+  const spins: { c: number; ax: number; ay: number }[] = [];
+  loads.forEach((l, i) => {
+    if (l.kind !== 'gravity' && l.kind !== 'spin') return;
+    const rho = section.density;
+    if (rho === undefined) throw new FemError(`a ${l.kind} load needs the material's mass per volume, material.density`, l.keyPath || `loads[${i}]`);
+    any = true;
+    if (l.kind === 'gravity') {
+      gx += rho * l.gravity[0];
+      gy += rho * l.gravity[1];
+    } else spins.push({ c: rho * l.omega * l.omega, ax: l.about[0], ay: l.about[1] });
+  });
+  if (any) {
+    out.force = (x, y) => {
+      let bx = gx, by = gy;
+      for (const s of spins) {
+        bx += s.c * (x - s.ax);
+        // an axisymmetric section spins about its axis: the centrifugal force is radial only
+        if (!axisymmetric) by += s.c * (y - s.ay);
+      }
+      return [bx, by];
+    };
+  }
+  const deltaT = temperatureField(loads);
+  if (deltaT) {
+    const k = loads.findIndex((l) => l.kind === 'temperature');
+    // a corner of an axisymmetric section is locally in plane strain (docs/study.md): (1 + ν)α
+    const c = thermalStrainPerDegree(axisymmetric ? { ...section, state: 'plane-strain' } : section, expansionOf(section, loads[k].keyPath || `loads[${k}]`));
+    out.strain = (x, y) => c * deltaT(x, y);
+  }
+  return out;
+}

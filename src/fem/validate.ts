@@ -16,6 +16,13 @@ export function validateSection(section: ElasticSection): void {
   if (state !== 'plane-stress' && state !== 'plane-strain' && state !== 'axisymmetric') {
     throw new FemError(`state must be plane-stress, plane-strain or axisymmetric, got ${String(state)}`, 'state');
   }
+  const { density, expansion } = section;
+  if (density !== undefined && !(Number.isFinite(density) && density > 0)) {
+    throw new FemError(`density must be a positive number, got ${density}`, 'material.density');
+  }
+  if (expansion !== undefined && !Number.isFinite(expansion)) {
+    throw new FemError(`thermal expansion coefficient must be a finite number, got ${expansion}`, 'material.expansion');
+  }
 }
 
 /**

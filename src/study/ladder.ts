@@ -3,7 +3,7 @@ import type { GaussStresses, ElasticSection } from '../fem/types.js';
 import type { NodalStress } from '../recovery/types.js';
 import type { Point, StressMeasure } from '../model/types.js';
 import { buildPointLocator, measureValue, stressAt, type PointLocator } from '../recovery/index.js';
-import { outOfPlaneStress } from '../fem/index.js';
+import { outOfPlaneStress, type BodyFields } from '../fem/index.js';
 import type { LevelResult } from './types.js';
 import type { SiteCandidate } from './sites.js';
 import { sampledAverage } from './readouts.js';
@@ -103,12 +103,13 @@ export interface SiteProbe {
  * 0 ≤ r ≤ 4d (line method: point at L/2 and line over 2L, Taylor 2007, with L = 2d), the Gauss-point area
  * mean over the disk r ≤ d, with a critical distance L the point and line methods at L/2 and over 2L, and
  * the stress intensity by the reciprocal work integral (from the displacements u) when the annulus of its
- * domain is at least two element sizes h from the apex (NaN on coarser levels).
+ * domain is at least two element sizes h from the apex (NaN on coarser levels); `body` holds the body force
+ * and thermal strain of the model's body loads, which that integral needs (stress-intensity.ts).
  */
 export function probeLevel(
   mesh: Mesh, field: NodalStress, nodal: Float64Array, gauss: GaussStresses, section: ElasticSection,
   measure: StressMeasure, probe: SiteProbe, h: number, dofs: number, locator: PointLocator = buildPointLocator(mesh),
-  u?: Float64Array,
+  u?: Float64Array, body: BodyFields = {},
 ): LevelResult {
   const { site, radius, distance: d } = probe;
   const [sx, sy] = site.at;
@@ -119,7 +120,7 @@ export function probeLevel(
   }
   const out: LevelResult = { h, dofs, peak, peakAt: [mesh.xy[2 * pn], mesh.xy[2 * pn + 1]], radius };
   const K = probe.intensity;
-  if (K && u && K.innerRadius >= 2 * h) out.nsif = reciprocalIntensity(mesh, u, section, K, K.norm);
+  if (K && u && K.innerRadius >= 2 * h) out.nsif = reciprocalIntensity(mesh, u, section, K, K.norm, body);
   const dir = site.direction;
   if (dir) {
     // within APEX_SIZES·h of a singular apex the elements cannot follow r^(λ−1): at a mirror, where the field

@@ -18,7 +18,7 @@ import { coarsenedOuterField } from './far-field.js';
 import { boundaryEdgesAt } from './mesh-tools.js';
 import { reportedSites } from './reported.js';
 import { reportedPosition, siteProbe, siteReadouts, withPlateauExtent } from './site-readouts.js';
-import { selectorWarnings } from '../fem/index.js';
+import { bodyFields, selectorWarnings } from '../fem/index.js';
 
 export interface StudyOptions {
   levels?: number;
@@ -99,6 +99,8 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
   const measure = model.study.measure;
   const problem = problemOf(model, { size, order });
   const { geometry: geom, section } = problem;
+  // body force and thermal strain of the body loads, for the reciprocal-work K (stress-intensity.ts)
+  const body = bodyFields(section, problem.loads);
   // the listed sites are vertices of every mesh, the first included (the selector ends are already)
   const listed = listedSitePoints(model, geom, problem.requiredPoints);
   const warnings = selectorWarnings(model, geom);
@@ -140,7 +142,7 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
     }
     const locator = buildPointLocator(s.mesh);
     probes.forEach((p, i) => {
-      perSite[i].push(probeLevel(s.mesh, s.field, s.nodal, s.gauss, section, measure, p, h0[i] / Math.pow(ratio, k), s.solution.dofs, locator, s.solution.u));
+      perSite[i].push(probeLevel(s.mesh, s.field, s.nodal, s.gauss, section, measure, p, h0[i] / Math.pow(ratio, k), s.solution.dofs, locator, s.solution.u, body));
     });
     progress(2 + k, `level ${k + 1} of ${levels}`);
     if (k === levels - 1) finest = s;
@@ -162,7 +164,7 @@ export function runStudy(model: Model, opts: StudyOptions = {}): StudyResult {
       const field = coarsenedOuterField(base, cands, h0, ratio, kLast, BAND_RULES.farField.coarsening);
       const s = solveAt(problem, field, order, limits, { points: [...sitePoints, ...seeds] });
       const locator = buildPointLocator(s.mesh);
-      const far = probes.map((p, i) => probeLevel(s.mesh, s.field, s.nodal, s.gauss, section, measure, p, perSite[i][kLast].h, s.solution.dofs, locator, s.solution.u));
+      const far = probes.map((p, i) => probeLevel(s.mesh, s.field, s.nodal, s.gauss, section, measure, p, perSite[i][kLast].h, s.solution.dofs, locator, s.solution.u, body));
       farShift = far.map((l, i) => l.peak - perSite[i][kLast].peak);
       farShiftK = far.map((l, i) => (l.nsif ?? NaN) - (perSite[i][kLast].nsif ?? NaN));
     } catch (e) {

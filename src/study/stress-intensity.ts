@@ -23,6 +23,16 @@
  * (Gross & Mendelson 1972): K = K₁ · H_FE / H₁, with H₁ the same integral between the unit eigenfunction and
  * its dual (by quadrature over the arc r = 1) and K₁ that eigenfunction's own K.
  *
+ * Body loads (issue 14). With a body force b and a thermal strain ε₀ = c·(1, 1, 0) in the plate, the FE field
+ * satisfies div σ + b = 0 with σ = D(ε − ε₀), so the integrand F_j = σ_ij u*_i − σ*_ij u_i is no longer
+ * divergence-free: div F = −(b·u* + ε₀:σ*). The contour integral as the arc shrinks to the apex (which is what
+ * K measures) is then H = −∫ F·∇q dA + ∫ q (b·u* + c tr σ*) dA, σ the stress in the material. The second
+ * integral covers the whole disk r ≤ R₂, apex included, where tr σ* ~ r^(−λ−1) defeats quadrature; so c is
+ * split into its apex value c₀ and the rest: tr σ* = div(σ*·ξ) (ξ = x − apex, div σ* = 0) turns
+ * ∫ q c₀ tr σ* dA into −c₀ ∫ σ*_ij ξ_i ∂q/∂x_j dA over the annulus (no boundary terms: q = 0 outside,
+ * σ*·n = 0 on the faces, σ*·ξ·r → 0 at the apex), and (c − c₀) tr σ* ~ r^(−λ) and b·u* ~ r^(−λ) are
+ * integrable by the element rule. Without body loads the integral is exactly the one above.
+ *
  * A mirror (a straight face whose normal displacement is held: a symmetry line) is a face of the mirrored
  * wedge's bisector: both fields are symmetric, so t·u* − t*·u vanishes on it, the integral over the real
  * (half) wedge is exactly half the mirrored wedge's, and K is 2·(half integral)·K₁/H₁.
@@ -30,7 +40,7 @@
 import type { Mesh } from '../mesh/types.js';
 import type { Point } from '../model/types.js';
 import type { ElasticSection } from '../fem/types.js';
-import { cstGradients, elasticityMatrix, gatherElementXY, lstGradients, lstShape } from '../fem/index.js';
+import { cstGradients, elasticityMatrix, gatherElementXY, lstGradients, lstShape, type BodyFields } from '../fem/index.js';
 import { wedgeModeIField } from '../reference/index.js';
 import { TRI_7 } from '../element/index.js';
 
@@ -94,7 +104,7 @@ export function intensityNorm(alphaDeg: number, lambda: number, section: Pick<El
  */
 export function reciprocalIntensity(
   mesh: Pick<Mesh, 'xy' | 'elemNodes' | 'nodesPerElem'>, u: Float64Array, section: Pick<ElasticSection, 'E' | 'nu' | 'state'>,
-  setup: IntensitySetup, norm: IntensityNorm,
+  setup: IntensitySetup, norm: IntensityNorm, body: BodyFields = {},
 ): number {
   const { apex, innerRadius: R1, outerRadius: R2 } = setup;
   const D = elasticityMatrix(section);
@@ -106,15 +116,20 @@ export function reciprocalIntensity(
     const r = Math.hypot(x - apex[0], y - apex[1]);
     return r <= R1 ? 1 : r >= R2 ? 0 : (R2 - r) / (R2 - R1);
   };
+  const { force, strain } = body;
+  const c0 = strain ? strain(apex[0], apex[1]) : 0;
   let H = 0;
   for (let e = 0; e < nElem; e++) {
     gatherElementXY(mesh.xy, mesh.elemNodes, npe, e, exy);
     let varies = false;
+    let inside = false;
     for (let i = 0; i < npe; i++) {
       qe[i] = qAt(exy[2 * i], exy[2 * i + 1]);
       if (qe[i] !== qe[0]) varies = true;
+      if (qe[i] > 0) inside = true;
     }
-    if (!varies) continue;
+    // elements with q constant add to the body-load integral only (where q = 1)
+    if (!varies && !((force || strain) && inside)) continue;
     let det = 0;
     if (npe === 3) det = cstGradients(exy, dNdx, dNdy);
     for (let g = 0; g < RULE.w.length; g++) {
@@ -125,23 +140,43 @@ export function reciprocalIntensity(
         det = lstGradients(exy, xi, eta, dNdx, dNdy);
         lstShape(xi, eta, N);
       }
-      let px = 0, py = 0, ux = 0, uy = 0, ex = 0, ey = 0, gxy = 0, qx = 0, qy = 0;
+      let px = 0, py = 0, ux = 0, uy = 0, ex = 0, ey = 0, gxy = 0, qx = 0, qy = 0, q = 0;
       for (let i = 0; i < npe; i++) {
         const n = mesh.elemNodes[npe * e + i];
         const ui = u[2 * n], vi = u[2 * n + 1];
         px += N[i] * exy[2 * i]; py += N[i] * exy[2 * i + 1];
         ux += N[i] * ui; uy += N[i] * vi;
         ex += dNdx[i] * ui; ey += dNdy[i] * vi; gxy += dNdy[i] * ui + dNdx[i] * vi;
-        qx += dNdx[i] * qe[i]; qy += dNdy[i] * qe[i];
+        qx += dNdx[i] * qe[i]; qy += dNdy[i] * qe[i]; q += N[i] * qe[i];
+      }
+      // the stress in the material: the thermal strain off the total strain
+      const c = strain ? strain(px, py) : 0;
+      if (c !== 0) {
+        ex -= c;
+        ey -= c;
       }
       const sxx = D[0] * ex + D[1] * ey + D[2] * gxy;
       const syy = D[3] * ex + D[4] * ey + D[5] * gxy;
       const sxy = D[6] * ex + D[7] * ey + D[8] * gxy;
-      const b = dual(px - apex[0], py - apex[1]);
-      const Fx = sxx * b.ux + sxy * b.uy - (b.sxx * ux + b.sxy * uy);
-      const Fy = sxy * b.ux + syy * b.uy - (b.sxy * ux + b.syy * uy);
+      const dx = px - apex[0], dy = py - apex[1];
+      const b = dual(dx, dy);
+      let Fx = sxx * b.ux + sxy * b.uy - (b.sxx * ux + b.sxy * uy);
+      let Fy = sxy * b.ux + syy * b.uy - (b.sxy * ux + b.syy * uy);
+      // c₀ tr σ* as −σ*·ξ·∇q (see above): F gains −c₀ σ*_ij ξ_i, so the −F·∇q below carries it
+      if (c0 !== 0) {
+        Fx += c0 * (b.sxx * dx + b.sxy * dy);
+        Fy += c0 * (b.sxy * dx + b.syy * dy);
+      }
       // weights sum to 1: the area factor is |J|/2
       H -= (Fx * qx + Fy * qy) * RULE.w[g] * det * 0.5;
+      if (q !== 0 && (force || strain)) {
+        let src = (c - c0) * (b.sxx + b.syy);
+        if (force) {
+          const [bx, by] = force(px, py);
+          src += bx * b.ux + by * b.uy;
+        }
+        H += q * src * RULE.w[g] * det * 0.5;
+      }
     }
   }
   return (setup.mirrorFactor * H * norm.K1) / norm.H1;

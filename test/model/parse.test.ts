@@ -32,10 +32,10 @@ function fails(text: string): ModelError {
 
 describe('demo models', () => {
   const files = readdirSync(modelsDir).filter((f) => f.endsWith('.yaml'));
-  it('has the eight demo models', () => {
+  it('has the nine demo models', () => {
     expect(files.sort()).toEqual([
-      'edge-slit.yaml', 'ellipse-hole.yaml', 'hanger-rod-shoulder.yaml', 'hoist-lug.yaml', 'l-bracket-fillet.yaml', 'l-bracket-sharp.yaml',
-      'strap-pin-hole.yaml', 'web-opening.yaml',
+      'edge-slit.yaml', 'ellipse-hole.yaml', 'flywheel-web.yaml', 'hanger-rod-shoulder.yaml', 'hoist-lug.yaml', 'l-bracket-fillet.yaml',
+      'l-bracket-sharp.yaml', 'strap-pin-hole.yaml', 'web-opening.yaml',
     ]);
   });
 
