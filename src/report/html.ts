@@ -3,6 +3,7 @@
  * requests) that reads on screen and prints to A4 or letter. All model text is escaped.
  */
 import type { PlateGeometry } from '../geometry/types.js';
+import { mirroredSection } from './mirror.js';
 import type { Mesh } from '../mesh/types.js';
 import type { Model, Shape } from '../model/types.js';
 import type { SiteResult, StudyResult } from '../study/types.js';
@@ -258,7 +259,7 @@ function pictureSection(ctx: PageContext): string {
   const deformScale = ctx.input.deformationScale ?? autoDeformationScale(u, geometry.scale);
   const main = contourSvg(mesh, field, {
     units: `${measure}, ${S}`,
-    title: `${measure} (${S}) over the ${ctx.model.state === 'axisymmetric' ? 'section, r = x, z = y' : 'plate'}`,
+    title: `${measure} (${S}) over the ${ctx.model.state === 'axisymmetric' ? 'section' : 'plate'}`,
     sites: study.sites.map((s) => ({ id: s.id, at: s.at })),
     deformed: deformScale !== undefined ? { u, scale: deformScale } : undefined,
     showMesh: true,
@@ -266,9 +267,22 @@ function pictureSection(ctx: PageContext): string {
     className: 'contour-main',
     lengthUnit: L,
   });
+  // an axisymmetric section: also the section with its image about the axis (a cut along the body's axis)
+  const mirrored = ctx.model.state === 'axisymmetric' ? mirroredSection(mesh, field) : undefined;
+  const whole = mirrored
+    ? `\n<figure class="figure">${contourSvg(mirrored.mesh, mirrored.values, {
+      units: `${measure}, ${S}`,
+      title: `${measure} (${S}), mirrored about the axis`,
+      sites: [],
+      showMesh: false,
+      idPrefix: 'mirror',
+      className: 'contour-mirror',
+      lengthUnit: L,
+    })}</figure>`
+    : '';
   return `<section id="picture"><h2>Stress picture</h2>
 <p class="toggle-row"><label for="show-mesh" class="toggle">show element edges</label></p>
-<figure class="figure">${main}</figure></section>`;
+<figure class="figure">${main}</figure>${whole}</section>`;
 }
 
 /** What each verdict means, under the verdict table. */
