@@ -18,6 +18,7 @@ import { caseModel, nearestNode, nodesWhere, relError, solveModel, type Solved }
 import { EXACT_PLATE_STRESS, exactNeighbourhoodPeak, inglisPlate, kirschPlate, type ExactPlate } from './exact-plates.js';
 import { extrapolateK, feddersenCentreCrackK, tadaCentreCrackK } from './crack.js';
 import type { CheckCase, CheckResult } from './types.js';
+import { BODY_LOAD_CASES } from './body-loads.js';
 
 type Draft = Omit<CheckResult, 'pass' | 'seconds'>;
 
@@ -714,4 +715,5 @@ export const CHECK_CASES: readonly CheckCase[] = [
   { id: 'williams-crack', run: williamsCrackCase },
   { id: 'study-hole', run: studyHoleCase },
   { id: 'centre-crack', run: centreCrackCase },
+  ...BODY_LOAD_CASES,
 ];

@@ -83,9 +83,14 @@ export function checksMarkdown(json: ChecksJson, meta: { version: string; comman
     '  half-length 1.5; K_I by displacement extrapolation, K(r) = (E\'/4)√(2π/r)·u_y(r) on the crack-face',
     '  nodes, a straight line fitted over 0.1a ≤ r ≤ 0.5a and taken to r = 0. Independently, the energy',
     '  release rate from the strain energy at a ± 0.1a (fixed load) against Irwin\'s G = K²/E.',
+    '- **Body loads** (`src/check/body-loads.ts`): a steel annulus a = 20, b = 100 spinning at 1000 rad/s',
+    '  (local size 2 at the bore) and a solid disc, against the rotating-disk stresses of Timoshenko &',
+    '  Goodier (1970); a 100 × 200 plate clamped on its top edge and hanging under its own weight, σyy = ρgy',
+    '  at 1.5 widths from the clamp; a plate restrained on all edges and warmed uniformly by 80, in plane',
+    '  stress and plane strain (σzz too), to round-off.',
     '',
     'Tolerances are a few times the error measured when each case was set (the reason is written beside',
-    'each case in `src/check/cases.ts`); they guard against regressions and rest on no published rule.',
+    'each case in `src/check/cases.ts` and `src/check/body-loads.ts`); they guard against regressions and rest on no published rule.',
     '',
   ];
   return lines.join('\n');

@@ -41,7 +41,7 @@ function pipeline(text: string, label: string): Outcome {
     const mesh = meshPlate(geometry, { sizeAt, order: model.mesh.order, requiredPoints: required, maxVertices: FUZZ_MAX_VERTICES });
     const problems = validateMesh(mesh, geometry);
     if (problems.length > 0) throw new Error(`invalid mesh: ${problems.slice(0, 3).join('; ')}`);
-    const section = { E: model.material.E, nu: model.material.nu, state: model.state, thickness: model.thickness };
+    const section = { ...model.material, state: model.state, thickness: model.thickness };
     const solution = solvePlate({ mesh, geometry, section, supports: model.supports, loads: model.loads });
     // equilibrium: reactions balance the applied nodal loads. The sums cancel terms of size
     // Σ|f|, so the bound is relative to that scale: 1e-8 is far above round-off (n·ε·Σ|f|)
@@ -101,7 +101,7 @@ const modelArb = fc
     state: fc.constantFrom('plane-stress', 'plane-strain'),
     order: fc.constantFrom(1, 2),
     fine: num(6, 14),
-    load: fc.constantFrom('traction', 'pressure', 'force', 'shear'),
+    load: fc.constantFrom('traction', 'pressure', 'force', 'shear', 'gravity', 'spin', 'warm'),
     support: fc.constantFrom('clamped', 'roller-pin'),
   })
   .map(({ plate, nu, state, order, fine, load, support }) => {
@@ -118,10 +118,14 @@ const modelArb = fc
       shear: `  - { where: { y: ${H} }, traction: [3, -2] }`,
       pressure: plate.openings.length > 0 ? '  - { where: { opening: o0 }, pressure: 5 }' : `  - { where: { y: 0 }, pressure: 5 }`,
       force: `  - { where: { point: [${W}, 0] }, force: [0, -100] }`,
+      // body loads (issue 14): self-weight, rotation about the plate's middle, a temperature change varying in x
+      gravity: '  - gravity: [0, -9806.65]',
+      spin: `  - spin: { about: [${(W / 2).toFixed(3)}, ${(H / 2).toFixed(3)}], omega: 2000 }`,
+      warm: `  - temperature: "20 + 40 * x / ${W}"`,
     }[load];
     return [
       'title: fuzzed bracket',
-      'material: { E: 70000, nu: ' + nu + ' }',
+      'material: { E: 70000, nu: ' + nu + ', density: 2.7e-9, expansion: 2.3e-5 }',
       'thickness: 4',
       `state: ${state}`,
       'plate:',
