@@ -101,3 +101,21 @@ study: { levels: 3, measure: von-mises }
     expect(Math.abs(ring!.growth!.exponent - 1)).toBeLessThan(0.1);
   });
 });
+
+/*
+ * How the Williams theory treats a corner of a section: as a plane-strain wedge (docs/study.md). The
+ * clamped–free roots depend on κ, so a 90° clamped–free wedge (a face held in both directions meeting a
+ * free face) tells the states apart: node /work/shared/tools/williams.mjs --bc=all [--plane-strain] --nu=0.3 90
+ * prints λ = 0.711173 in plane strain and 0.758349 in plane stress; the section must take the first.
+ */
+describe('Williams theory at a corner of a section', () => {
+  it('κ = 3 − 4ν, the plane-strain wedge', async () => {
+    const { kolosovKappa } = await import('../../src/study/index.js');
+    const { wedgeTheory } = await import('../../src/study/wedge-theory.js');
+    expect(kolosovKappa(0.3, 'axisymmetric')).toBeCloseTo(1.8, 14);
+    const axi = wedgeTheory(90, ['clamped', 'free'], 0.3, 'axisymmetric');
+    const stress = wedgeTheory(90, ['clamped', 'free'], 0.3, 'plane-stress');
+    expect(axi.lambda).toBeCloseTo(0.711173, 5);
+    expect(stress.lambda).toBeCloseTo(0.758349, 5);
+  });
+});
