@@ -216,7 +216,7 @@ function modelSection(ctx: PageContext): string {
     row('Units', `length ${escapeXml(units.length)}, force ${escapeXml(units.force)}, stress ${escapeXml(units.stress)}`),
     row('Material', escapeXml(materialLine(model, S))),
     model.state === 'axisymmetric'
-      ? row('Section', 'axisymmetric: the meridian section of a body of revolution, drawn in (r, z) = (x, y) about the axis r = 0; no thickness (forces are for the whole revolution)')
+      ? row('Section', 'axisymmetric: the meridian section of a body of revolution, drawn in (r, z) = (x, y) about the axis r = 0, whose nodes are held radially by the section itself; no thickness (forces are for the whole revolution)')
       : row('Thickness', `${escapeXml(formatNumber(model.thickness))} ${escapeXml(L)}`),
     row('State', escapeXml(model.state.replace('-', ' '))),
     row('Outline', escapeXml(capitalise(shapeWords(model.plate.outline, L)))),
