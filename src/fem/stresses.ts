@@ -31,7 +31,7 @@ export function gaussStresses(
   const firstThermal = loads.findIndex((l) => l.kind === 'temperature');
   const alpha = deltaT ? expansionOf(section, loads[firstThermal].keyPath || `loads[${firstThermal}]`) : 0;
   const strainPerDegree = thermalStrainPerDegree(section, alpha);
-  const plainStrain = section.state === 'plane-strain';
+  const planeStrain = section.state === 'plane-strain';
   const { nu, E } = section;
   const npe = mesh.nodesPerElem;
   const nElem = mesh.elemNodes.length / npe;
@@ -96,7 +96,7 @@ export function gaussStresses(
       stress[3 * k] = sxx;
       stress[3 * k + 1] = syy;
       stress[3 * k + 2] = D[6] * ex + D[7] * ey + D[8] * gxy;
-      if (plainStrain) szz[k] = dT !== 0 ? nu * (sxx + syy) - E * alpha * dT : nu * (sxx + syy);
+      if (planeStrain) szz[k] = dT !== 0 ? nu * (sxx + syy) - E * alpha * dT : nu * (sxx + syy);
     }
   }
   return { nGauss, xy, stress, weight, szz };

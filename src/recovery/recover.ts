@@ -19,14 +19,14 @@ function outOfPlane(
 ): Float64Array {
   const n = stress.length / 3;
   const szz = new Float64Array(n);
-  const plainStrain = section.state === 'plane-strain';
-  if (plainStrain) {
+  const planeStrain = section.state === 'plane-strain';
+  if (planeStrain) {
     for (let i = 0; i < n; i++) szz[i] = section.nu * (stress[3 * i] + stress[3 * i + 1]);
   }
   const nPts = gauss.weight.length;
   let rest: Float64Array | undefined;
   for (let k = 0; k < nPts; k++) {
-    const base = plainStrain ? section.nu * (gauss.stress[3 * k] + gauss.stress[3 * k + 1]) : 0;
+    const base = planeStrain ? section.nu * (gauss.stress[3 * k] + gauss.stress[3 * k + 1]) : 0;
     const r = gauss.szz[k] - base;
     if (r === 0) continue;
     // the remainder as the σxx of a stand-in field, recovered by the same method
