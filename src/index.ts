@@ -35,6 +35,7 @@ export { parseModel, formatModelError, stressUnit, type ParseOptions } from './m
 export { buildGeometry, pointInMaterial } from './geometry/index.js';
 export { meshPlate, meshQuality, validateMesh, sizeFieldFromSettings } from './mesh/index.js';
 export { solvePlate, solvePlateCases, gaussStresses, assembleStiffness, appliedResultant, selectorVertices, selectorWarnings, type PlateProblem } from './fem/index.js';
+export { axisymmetricStiffness, axisymmetricGaussStresses, revolvedTractionLoad, revolvedPressureLoad } from './fem/index.js';
 export { analyze, factorize, solveFactor, solveSpd, residualNorm, toMatrixMarket } from './linalg/index.js';
 export {
   recoverSpr, recoverAverage, estimateError, nodalMeasure, measureValue, principal, vonMises, tresca,

@@ -139,13 +139,17 @@ function refuseOutputsOntoInputs(opts: CommonOptions): void {
   }
 }
 
-/** field.csv columns of a recovered field: σxx, σyy, τxy, σzz in plane strain, von Mises. */
+/**
+ * field.csv columns of a recovered field: σxx, σyy, τxy, σzz in plane strain, von Mises. In an
+ * axisymmetric section x, y are r, z, the first three are σr, σz, τrz and `stheta` is the hoop stress.
+ */
 export function fieldColumns(model: Pick<Model, 'state'>, field: NodalStress): Record<string, Float64Array> {
   const n = field.stress.length / 3;
   const sxx = new Float64Array(n), syy = new Float64Array(n), sxy = new Float64Array(n);
   for (let i = 0; i < n; i++) { sxx[i] = field.stress[3 * i]; syy[i] = field.stress[3 * i + 1]; sxy[i] = field.stress[3 * i + 2]; }
   const columns: Record<string, Float64Array> = { sxx, syy, sxy };
   if (model.state === 'plane-strain') columns.szz = field.szz;
+  if (model.state === 'axisymmetric') columns.stheta = field.szz;
   columns.von_mises = nodalMeasure(field, 'von-mises');
   return columns;
 }

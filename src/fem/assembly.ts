@@ -1,5 +1,6 @@
 import type { Csr } from '../linalg/types.js';
 import type { Mesh } from '../mesh/types.js';
+import { axisymmetricMatrix, axisymmetricStiffness } from './axisymmetric.js';
 import { elasticityMatrix } from './elasticity.js';
 import { elementStiffnessCst, elementStiffnessLst } from './elements.js';
 import { gatherElementXY } from './shape.js';
@@ -112,7 +113,8 @@ function neighbourOffset(pattern: StiffnessPattern, n: number, m: number): numbe
 }
 
 /**
- * Global stiffness K (whole thickness: element matrices are multiplied by t) written into
+ * Global stiffness K (whole thickness: element matrices are multiplied by t; an axisymmetric
+ * section: the whole revolution, thickness unused) written into
  * the pattern by position. The returned Csr shares rowPtr/colIdx with the pattern.
  */
 export function assembleStiffness(
@@ -120,7 +122,9 @@ export function assembleStiffness(
   section: ElasticSection,
   pattern: StiffnessPattern = stiffnessPattern(mesh),
 ): Csr {
-  const D = elasticityMatrix(section);
+  // an axisymmetric section: ring elements for the whole revolution (fem/axisymmetric.ts)
+  const axisymmetric = section.state === 'axisymmetric';
+  const D = axisymmetric ? axisymmetricMatrix(section) : elasticityMatrix(section);
   const npe = mesh.nodesPerElem;
   const nd = 2 * npe;
   const { elemNodes, xy } = mesh;
@@ -132,7 +136,8 @@ export function assembleStiffness(
   const t = section.thickness;
   for (let e = 0; e < nElem; e++) {
     gatherElementXY(xy, elemNodes, npe, e, exy);
-    if (npe === 3) elementStiffnessCst(exy, D, t, ke);
+    if (axisymmetric) axisymmetricStiffness(exy, npe, D, ke);
+    else if (npe === 3) elementStiffnessCst(exy, D, t, ke);
     else elementStiffnessLst(exy, D, t, ke);
     const base = npe * e;
     for (let i = 0; i < npe; i++) {

@@ -37,10 +37,10 @@ export function checkResidual(residual: number, limit = RESIDUAL_LIMIT): void {
  */
 export function sectionCulprit(section: Pick<ElasticSection, 'E' | 'nu' | 'thickness' | 'state'>): SolveError | undefined {
   const { E, nu, thickness, state } = section;
-  if (state === 'plane-strain' && 1 - 2 * nu < 1e-6) {
+  if ((state === 'plane-strain' || state === 'axisymmetric') && 1 - 2 * nu < 1e-6) {
     const ratio = (2 * (1 + nu)) / (3 * (1 - 2 * nu));
     return new SolveError(
-      `nu = ${nu} in plane strain makes the material almost incompressible: its bulk stiffness is ${ratio.toExponential(1).replace('e+', 'e')} times `
+      `nu = ${nu} in ${state === 'axisymmetric' ? 'an axisymmetric section' : 'plane strain'} makes the material almost incompressible: its bulk stiffness is ${ratio.toExponential(1).replace('e+', 'e')} times `
         + 'its shear stiffness, more than the solver resolves in double precision; use nu ≤ 0.4999 (or plane stress), '
         + 'the supports are not the cause',
       'material.nu',
@@ -222,9 +222,9 @@ export function healthWarnings(input: HealthInput): string[] {
   const { section, geometry, mesh, size } = input;
   const L = input.lengthUnit ?? '';
   const out: string[] = [];
-  if (section.state === 'plane-strain' && section.nu > LOCKING_NU && mesh.order === 1) {
+  if ((section.state === 'plane-strain' || section.state === 'axisymmetric') && section.nu > LOCKING_NU && mesh.order === 1) {
     out.push(
-      `plane strain with nu = ${section.nu} on 3-node triangles: volumetric locking risk (stresses too low and oscillating); ` +
+      `${section.state === 'axisymmetric' ? 'an axisymmetric section' : 'plane strain'} with nu = ${section.nu} on 3-node triangles: volumetric locking risk (stresses too low and oscillating); ` +
         'use mesh.order 2 (6-node triangles) or --order 2',
     );
   }

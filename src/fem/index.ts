@@ -21,3 +21,7 @@ export { solvePlate, solvePlateCases, largestDisplacement, type PlateProblem, ty
 export { farFieldStressLoad } from './farfield.js';
 export { pinForceLoad } from './pin-force.js';
 export { prescribedFromSupports, supportConstraints, interpolateTable, TABLE_TOLERANCE_RELATIVE, type PrescribedValue, type SupportConstraints } from './prescribe.js';
+export {
+  axisymmetricMatrix, axisymmetricStiffness, axisymmetricGaussStresses, axisymmetricThermalLoad, holdAxisNodes, checkAxialRestraint, REVOLUTION,
+} from './axisymmetric.js';
+export { revolvedTractionLoad, revolvedPressureLoad, revolvedBodyLoad } from './axisymmetric-loads.js';

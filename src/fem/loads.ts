@@ -7,6 +7,8 @@ import { FemError } from '../errors.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { Mesh } from '../mesh/types.js';
 import type { Load } from '../model/types.js';
+import { axisymmetricThermalLoad } from './axisymmetric.js';
+import { revolvedBodyLoad, revolvedPressureLoad, revolvedTractionLoad } from './axisymmetric-loads.js';
 import { edgeTractionLoad, pressureLoad } from './edge-load.js';
 import { farFieldStressLoad } from './farfield.js';
 import { pinForceLoad } from './pin-force.js';
@@ -28,7 +30,9 @@ function densityOf(section: Pick<ElasticSection, 'density'>, kind: string, keyPa
  * Global load vector (whole thickness) of the model loads: tractions and pressures integrated
  * consistently over the selected edges, concentrated forces at the selected node, self-weight ρg and
  * rotation ρω²r as consistent body forces over every element, and the thermal forces ∫Bᵀ D ε₀ dA·t of
- * every temperature load (their ΔT added up first).
+ * every temperature load (their ΔT added up first). In an axisymmetric section the loads are for
+ * the whole revolution (fem/axisymmetric-loads.ts): a concentrated force is the total force of a
+ * ring load at that point.
  */
 export function loadVector(
   mesh: Pick<Mesh, 'xy' | 'boundaryEdges' | 'edgeStride' | 'boundaryPiece' | 'elemNodes' | 'nodesPerElem'>,
@@ -38,8 +42,14 @@ export function loadVector(
 ): Float64Array {
   const f = new Float64Array(mesh.xy.length);
   let thermalAt = -1;
+  // an axisymmetric section: loads per area of the revolved surface or per volume, forces for the whole ring
+  const axisymmetric = section.state === 'axisymmetric';
   loads.forEach((load, i) => {
     const keyPath = load.keyPath || `loads[${i}]`;
+    if (axisymmetric && (load.kind === 'gravity' || load.kind === 'spin')) {
+      revolvedBodyLoad(mesh, load, () => densityOf(section, load.kind, keyPath), keyPath, f);
+      return;
+    }
     if (load.kind === 'gravity') {
       const rho = densityOf(section, 'gravity', keyPath);
       const b: readonly [number, number] = [rho * load.gravity[0], rho * load.gravity[1]];
@@ -74,6 +84,17 @@ export function loadVector(
       throw new FemError(`a ${load.kind} acts on boundary edges, not at a point; use a force for a concentrated load`, where);
     }
     const { edges } = selectBoundary(mesh, geom, load.where, where);
+    if (axisymmetric) {
+      if (load.kind === 'traction') revolvedTractionLoad(mesh, edges, load.traction, f);
+      else if (load.kind === 'pressure') revolvedPressureLoad(mesh, edges, load.pressure, f);
+      else {
+        throw new FemError(
+          `a ${load.kind === 'stress' ? 'far-field stress' : 'pin force'} is not available in an axisymmetric section; use a traction or a pressure on the revolved surface`,
+          keyPath,
+        );
+      }
+      return;
+    }
     if (load.kind === 'stress') {
       farFieldStressLoad(mesh, farFieldEdges(mesh, geom, load.where, edges), section.thickness, load, f);
     } else if (load.kind === 'pinForce') {
@@ -85,7 +106,11 @@ export function loadVector(
       pressureLoad(mesh, edges, section.thickness, load.pressure, f);
     }
   });
-  if (thermalAt >= 0) {
+  if (thermalAt >= 0 && axisymmetric) {
+    const { E, nu } = section;
+    if (E === undefined || nu === undefined) throw new TypeError('a temperature load needs the section\'s E and nu');
+    axisymmetricThermalLoad(mesh, { E, nu, expansion: expansionOf(section, loads[thermalAt].keyPath || `loads[${thermalAt}]`) }, loads, f);
+  } else if (thermalAt >= 0) {
     // every temperature load at once: their ΔT add, so one integration (the Gauss-point stresses do the same)
     const alpha = expansionOf(section, loads[thermalAt].keyPath || `loads[${thermalAt}]`);
     const { E, nu, state, thickness } = section;

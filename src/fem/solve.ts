@@ -17,6 +17,7 @@ import { supportConstraints } from './prescribe.js';
 import { assembleStiffness, csrMultiply, stiffnessPattern, type StiffnessPattern } from './assembly.js';
 import { appliedResultant, loadVector } from './loads.js';
 import { checkRigidRestraint } from './supports.js';
+import { checkAxialRestraint, holdAxisNodes } from './axisymmetric.js';
 import type { ElasticSection, Solution } from './types.js';
 import { validateSolverMesh, validateSection } from './validate.js';
 import { RESIDUAL_LIMIT, checkResidual, factorBytes, memoryLimitError, sectionCulprit } from './health.js';
@@ -104,7 +105,11 @@ export function solvePlateCases(input: PlateProblem, cases: readonly PlateCase[]
       if (other[i] !== fixed[i]) throw new FemError(`load case ${c + 1} holds dof ${i} (node ${i >> 1}) and case 1 does not; every case must hold the same dofs`, 'cases');
     }
   }
-  checkRigidRestraint(mesh.xy, fixed, geometry.scale);
+  if (section.state === 'axisymmetric') {
+    // the axis r = 0 holds u_r = 0 by itself (in every case, at zero); only a translation along the axis is a rigid motion
+    for (const c of constraints) holdAxisNodes(mesh.xy, geometry.scale, c.fixed, c.value);
+    checkAxialRestraint(fixed);
+  } else checkRigidRestraint(mesh.xy, fixed, geometry.scale);
   const forces = cases.map((c) => {
     const f = loadVector(mesh, geometry, section, c.loads);
     if (input.extraLoad) {
@@ -190,8 +195,8 @@ export function solvePlateCases(input: PlateProblem, cases: readonly PlateCase[]
       fixed: c === 0 ? fixed : constraints[c].fixed,
       dofs: nDof,
       freeDofs: nFree,
-      appliedSum: appliedResultant(f),
-      reactionSum: appliedResultant(reaction),
+      appliedSum: axialOnly(section, appliedResultant(f)),
+      reactionSum: axialOnly(section, appliedResultant(reaction)),
       maxDisplacement,
       maxDisplacementAt,
       nnzL,
@@ -213,6 +218,14 @@ export function largestDisplacement(xy: Float64Array, u: Float64Array): { maxDis
     }
   }
   return { maxDisplacement, maxDisplacementAt: [xy[2 * maxNode], xy[2 * maxNode + 1]] };
+}
+
+/**
+ * The resultant of an axisymmetric section's forces is axial only: ring forces in r cancel around
+ * the circle (their nodal sum is not a resultant and need not balance), so the r entry is 0.
+ */
+function axialOnly(section: ElasticSection, sum: [number, number]): [number, number] {
+  return section.state === 'axisymmetric' ? [0, sum[1]] : sum;
 }
 
 /**

@@ -1,5 +1,6 @@
 import type { Mesh } from '../mesh/types.js';
 import type { Load } from '../model/types.js';
+import { axisymmetricGaussStresses } from './axisymmetric.js';
 import { elasticityMatrix } from './elasticity.js';
 import { expansionOf, temperatureField, thermalStrainPerDegree } from './thermal.js';
 import { TRI_3, lstShape } from '../element/index.js';
@@ -23,6 +24,8 @@ export function gaussStresses(
   section: Pick<ElasticSection, 'E' | 'nu' | 'state' | 'expansion'>,
   loads: readonly Load[] = [],
 ): GaussStresses {
+  // an axisymmetric section: (σr, σz, τrz) in stress, σθ beside them (fem/axisymmetric.ts)
+  if (section.state === 'axisymmetric') return axisymmetricGaussStresses(mesh, u, section, loads);
   const D = elasticityMatrix(section);
   const deltaT = temperatureField(loads);
   const firstThermal = loads.findIndex((l) => l.kind === 'temperature');

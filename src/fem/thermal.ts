@@ -153,6 +153,7 @@ export interface BodyFields {
 
 export function bodyFields(section: Pick<ElasticSection, 'nu' | 'state' | 'density' | 'expansion'>, loads: readonly Load[]): BodyFields {
   const out: BodyFields = {};
+  const axisymmetric = section.state === 'axisymmetric';
   let gx = 0, gy = 0, any = false;
   const spins: { c: number; ax: number; ay: number }[] = [];
   loads.forEach((l, i) => {
@@ -170,7 +171,8 @@ export function bodyFields(section: Pick<ElasticSection, 'nu' | 'state' | 'densi
       let bx = gx, by = gy;
       for (const s of spins) {
         bx += s.c * (x - s.ax);
-        by += s.c * (y - s.ay);
+        // an axisymmetric section spins about its axis: the centrifugal force is radial only
+        if (!axisymmetric) by += s.c * (y - s.ay);
       }
       return [bx, by];
     };
@@ -178,7 +180,8 @@ export function bodyFields(section: Pick<ElasticSection, 'nu' | 'state' | 'densi
   const deltaT = temperatureField(loads);
   if (deltaT) {
     const k = loads.findIndex((l) => l.kind === 'temperature');
-    const c = thermalStrainPerDegree(section, expansionOf(section, loads[k].keyPath || `loads[${k}]`));
+    // a corner of an axisymmetric section is locally in plane strain (docs/study.md): (1 + ν)α
+    const c = thermalStrainPerDegree(axisymmetric ? { ...section, state: 'plane-strain' } : section, expansionOf(section, loads[k].keyPath || `loads[${k}]`));
     out.strain = (x, y) => c * deltaT(x, y);
   }
   return out;

@@ -13,8 +13,8 @@ export function validateSection(section: ElasticSection): void {
     throw new FemError(`Poisson's ratio nu must lie in (-1, 0.5), got ${nu}`, 'material.nu');
   }
   if (!(Number.isFinite(thickness) && thickness > 0)) throw new FemError(`thickness must be > 0, got ${thickness}`, 'thickness');
-  if (state !== 'plane-stress' && state !== 'plane-strain') {
-    throw new FemError(`state must be plane-stress or plane-strain, got ${String(state)}`, 'state');
+  if (state !== 'plane-stress' && state !== 'plane-strain' && state !== 'axisymmetric') {
+    throw new FemError(`state must be plane-stress, plane-strain or axisymmetric, got ${String(state)}`, 'state');
   }
   const { density, expansion } = section;
   if (density !== undefined && !(Number.isFinite(density) && density > 0)) {

@@ -10,6 +10,7 @@ import { nearest } from './issues.js';
 import type { ModelFile, RawPoint, RawVertex } from './schema.js';
 import { didYouMean, formatNumber, quote } from './text.js';
 import type {
+  PlaneState,
   CriticalDistance, DisplacementValue, FieldValue, Load, LocalSize, Model, ModelWarning, Opening, Point, PolygonVertex, PrescribedMotion, Selector, Shape,
   SourcePosition, StudySettings, Support,
 } from './types.js';
@@ -273,9 +274,10 @@ export function buildModel(
     }
   }
   const physical: PhysicalConstants = physicalConstants(b, raw.material, units);
-  const thickness = b.length(raw.thickness, 'thickness', 'plate thickness');
+  const state = raw.state ?? 'plane-stress';
+  const thickness = axisymmetricThickness(b, raw.thickness, state) ?? b.length(raw.thickness!, 'thickness', 'plate thickness');
   const mmPer = lengthToMm(units.length);
-  if (mmPer !== undefined) {
+  if (mmPer !== undefined && state !== 'axisymmetric') {
     const tMm = thickness * mmPer;
     const [lo, hi] = PLAUSIBLE_THICKNESS_MM;
     if (tMm < lo || tMm > hi) {
@@ -290,6 +292,7 @@ export function buildModel(
   const outline: Shape = Array.isArray(raw.plate.outline)
     ? { kind: 'polygon', vertices: raw.plate.outline.map((v, i) => b.vertex(v, joinPath('plate.outline', i))) }
     : b.shape(raw.plate.outline, 'plate.outline');
+  if (state === 'axisymmetric') checkMeridianSection(b, outline, units.length);
 
   const openings: Opening[] = [];
   const firstUse = new Map<string, string>();
@@ -426,7 +429,7 @@ export function buildModel(
       ...(physical.expansion !== undefined ? { expansion: physical.expansion } : {}),
     },
     thickness,
-    state: raw.state ?? 'plane-stress',
+    state,
     plate: { outline, openings },
     supports,
     loads,
@@ -448,6 +451,40 @@ export function buildModel(
 /** Is `keyPath` an item of the list at `list` (`cases.lift[2]` under `cases.lift`)? */
 function isUnder(keyPath: string, list: string): boolean {
   return keyPath.startsWith(`${list}[`) && /^\[\d+\]$/.test(keyPath.slice(list.length));
+}
+
+/**
+ * Thickness in an axisymmetric section (issue 18): not used (the section is revolved about the
+ * axis), so it may be left out (then 1, a placeholder nothing reads); when given it is checked
+ * like any length and a warning says it is ignored. Undefined for the plane states.
+ */
+function axisymmetricThickness(b: Builder, raw: ModelFile['thickness'], state: PlaneState): number | undefined {
+  if (raw === undefined) {
+    if (state === 'axisymmetric') return 1;
+    b.fail('required key "thickness" is missing (expected the plate thickness, a positive length)', 'thickness');
+  }
+  if (state !== 'axisymmetric') return undefined;
+  const t = b.length(raw, 'thickness', 'plate thickness');
+  b.warnings.push({ keyPath: 'thickness', message: 'thickness is not used in an axisymmetric section (the section is revolved about the axis r = x = 0); leave it out' });
+  return t;
+}
+
+/**
+ * An axisymmetric section is the meridian section in (r, z) = (x, y): its material lies at r ≥ 0.
+ * A vertex (or a shape) reaching r < 0 is an error naming it; a tolerance of 1e-9 of the
+ * section's size lets a vertex written as a rounded 0 sit on the axis.
+ */
+function checkMeridianSection(b: Builder, outline: Shape, unit: string): void {
+  const box = boundingBox(outline);
+  const tol = 1e-9 * Math.max(box.width, box.height, Math.abs(box.minX));
+  if (!(box.minX < -tol)) return;
+  const where = outline.kind === 'polygon'
+    ? joinPath(joinPath('plate.outline', outline.vertices.findIndex((v) => v.at[0] < -tol)), 0)
+    : 'plate.outline';
+  b.fail(
+    `an axisymmetric section lies at r = x ≥ 0 (the axis is x = 0); this reaches x = ${formatNumber(box.minX)} ${unit}`,
+    where,
+  );
 }
 
 function checkTriangleCount(b: Builder, estimate: number, size: number, keyPath: string, unit: string): void {

@@ -371,7 +371,7 @@ const ReportedList = z.array(ReportedLike, { error: expected('a list of reported
 
 // --- end of reported values ---
 
-export const STATES = ['plane-stress', 'plane-strain'] as const;
+export const STATES = ['plane-stress', 'plane-strain', 'axisymmetric'] as const;
 
 export const ModelFileSchema = mapping(
   {
@@ -383,7 +383,8 @@ export const ModelFileSchema = mapping(
       { E: NumberLike, nu: NumberLike, yield: NumberLike.optional(), density: NumberLike.optional(), expansion: NumberLike.optional() },
       'a material { E, nu, yield, density, expansion }',
     ),
-    thickness: NumberLike,
+    // optional only in an axisymmetric section (build.ts asks for it otherwise)
+    thickness: NumberLike.optional(),
     state: word(STATES).optional(),
     plate: mapping(
       {

@@ -203,7 +203,7 @@ export interface Material {
   expansion?: number;
 }
 
-export type PlaneState = 'plane-stress' | 'plane-strain';
+export type PlaneState = 'plane-stress' | 'plane-strain' | 'axisymmetric';
 
 export interface SourcePosition {
   line: number;

@@ -8,7 +8,7 @@
  */
 import type { Combination, Load, Support } from '../model/types.js';
 import type { GaussStresses, Solution } from '../fem/types.js';
-import { appliedResultant, largestDisplacement } from '../fem/index.js';
+import { largestDisplacement } from '../fem/index.js';
 import type { NodalStress } from '../recovery/types.js';
 
 /** One load case as the pipeline solves it. */
@@ -61,6 +61,13 @@ function superposeStresses<T extends { stress: Float64Array }>(parts: readonly T
   return out;
 }
 
+/** Σ factor·pair. */
+function factoredSum(pairs: readonly (readonly [number, number])[], factors: readonly number[]): [number, number] {
+  let a = 0, b = 0;
+  pairs.forEach((p, t) => { a += factors[t] * p[0]; b += factors[t] * p[1]; });
+  return [a, b];
+}
+
 /** The superposed solution Σ factor·case: u, reactions, loads and their sums; the factor data of the first. */
 export function superposeSolutions(mesh: { xy: Float64Array }, parts: readonly Solution[], factors: readonly number[]): Solution {
   const u = sumOf(parts.map((p) => p.u), factors);
@@ -72,8 +79,9 @@ export function superposeSolutions(mesh: { xy: Float64Array }, parts: readonly S
     u,
     reaction,
     load,
-    appliedSum: appliedResultant(load),
-    reactionSum: appliedResultant(reaction),
+    // the factored sums of the cases' sums (linear; an axisymmetric section's are axial only)
+    appliedSum: factoredSum(parts.map((p) => p.appliedSum), factors),
+    reactionSum: factoredSum(parts.map((p) => p.reactionSum), factors),
     ...largestDisplacement(mesh.xy, u),
     residual: Math.max(...parts.map((p) => p.residual)),
     timings: { assembleS: 0, orderS: 0, factorS: 0, solveS: 0 },

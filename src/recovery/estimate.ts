@@ -1,6 +1,6 @@
 import type { ElasticSection, GaussStresses } from '../fem/types.js';
 import type { Mesh } from '../mesh/types.js';
-import { complianceForm } from './compliance.js';
+import { complianceForm, revolvedComplianceForm } from './compliance.js';
 import { TRI_3, TRI_7, type TriangleRule } from '../element/index.js';
 import { ElementScratch } from './element.js';
 import { evalElementField, fitElementFields } from './element-fit.js';
@@ -21,11 +21,16 @@ function elementDifferenceSq(
   gauss: GaussStresses,
   section: ElasticSection,
   other: (e: number, N: Float64Array, x: number, y: number, out: Float64Array) => void,
+  otherHoop?: (e: number, N: Float64Array) => number,
 ): Float64Array {
   const nElem = checkGauss(mesh, gauss);
   checkSection(section);
   const form = complianceForm(section);
   const fields = fitElementFields(gauss, nElem);
+  // an axisymmetric section with a recovered hoop stress: the 3-D form with σθ, weighted by r
+  const hoop = section.state === 'axisymmetric' && otherHoop ? hoopFields(gauss, nElem) : undefined;
+  const form4 = hoop ? revolvedComplianceForm(section) : undefined;
+  const th = new Float64Array(3);
   const rule: TriangleRule = mesh.order === 1 ? TRI_3 : TRI_7;
   const s = new ElementScratch(mesh.nodesPerElem);
   const m = new Float64Array(6);
@@ -40,7 +45,10 @@ function elementDifferenceSq(
       evalElementField(fields, e, m[0], m[1], sh);
       other(e, s.N, m[0], m[1], sa);
       // weight × |J|/2 (element/rules.ts convention)
-      sum += 0.5 * Math.abs(J) * rule.w[q] * form(sa[0] - sh[0], sa[1] - sh[1], sa[2] - sh[2]);
+      if (hoop && form4 && otherHoop) {
+        evalElementField(hoop, e, m[0], m[1], th);
+        sum += 0.5 * Math.abs(J) * rule.w[q] * m[0] * form4(sa[0] - sh[0], sa[1] - sh[1], sa[2] - sh[2], otherHoop(e, s.N) - th[0]);
+      } else sum += 0.5 * Math.abs(J) * rule.w[q] * form(sa[0] - sh[0], sa[1] - sh[1], sa[2] - sh[2]);
     }
     out[e] = sum;
   }
@@ -51,6 +59,14 @@ function elementDifferenceSq(
 export function energyNormSq(gauss: GaussStresses, section: ElasticSection): number {
   const form = complianceForm(section);
   let energy = 0;
+  if (section.state === 'axisymmetric') {
+    // per radian of the revolved body: σᵀD⁻¹σ with σθ, weighted by r (the 2π cancels in η)
+    const form4 = revolvedComplianceForm(section);
+    for (let k = 0; k < gauss.weight.length; k++) {
+      energy += gauss.weight[k] * gauss.xy[2 * k] * form4(gauss.stress[3 * k], gauss.stress[3 * k + 1], gauss.stress[3 * k + 2], gauss.szz[k]);
+    }
+    return energy;
+  }
   for (let k = 0; k < gauss.weight.length; k++) {
     energy += gauss.weight[k] * form(gauss.stress[3 * k], gauss.stress[3 * k + 1], gauss.stress[3 * k + 2]);
   }
@@ -89,8 +105,20 @@ export function estimateError(mesh: Mesh, gauss: GaussStresses, nodal: NodalStre
     out[0] = a;
     out[1] = b;
     out[2] = c;
+  }, (e, N) => {
+    let t = 0;
+    for (let i = 0; i < npe; i++) t += N[i] * nodal.szz[mesh.elemNodes[npe * e + i]];
+    return t;
   });
   return summarise(elemErrorSq, energyNormSq(gauss, section));
+}
+
+/** The raw element field of the Gauss-point σzz (σθ of a section), fitted like the other components (slot 0). */
+function hoopFields(gauss: GaussStresses, nElem: number) {
+  const n = gauss.weight.length;
+  const stress = new Float64Array(3 * n);
+  for (let k = 0; k < n; k++) stress[3 * k] = gauss.szz[k];
+  return fitElementFields({ ...gauss, stress }, nElem);
 }
 
 /**

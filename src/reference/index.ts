@@ -1,7 +1,7 @@
 /** Closed-form solutions used to check the solver and the study (pure functions). */
 export { kolosov } from './elastic.js';
 export { kirschPolar, kirschCartesian, kirschDisplacement, kirschHoopAtEdge, KIRSCH_KT } from './kirsch.js';
-export { lameRing } from './lame.js';
+export { lameRing, lameClosedCylinder } from './lame.js';
 export { inglisKt, inglisKtFromRadius, inglisField } from './inglis.js';
 export {
   heywoodKtn, heywoodKtg, netToGross, grossToNet, howlandKtg, HOWLAND_KTG_FROM_MEMORY, petersonFitKtn, roarkKtn,

@@ -25,3 +25,18 @@ export function lameRing(
   const ur = ((1 - nu) * A * r + ((1 + nu) * B) / r) / E;
   return { sr, st, sz: 0, ur };
 }
+
+/**
+ * Thick cylinder a ≤ r ≤ b with closed ends under internal pressure p (a body of revolution, the
+ * end caps' pull carried by the wall): Lamé (1852); Timoshenko & Goodier (1970) §33; Young & Budynas,
+ * Roark's Formulas for Stress and Strain, 7th ed. (2002) Table 13.5. σr = A − B/r², σθ = A + B/r²,
+ * σz = A with A = p a²/(b² − a²), B = p a² b²/(b² − a²); u_r = r(σθ − ν(σr + σz))/E.
+ */
+export function lameClosedCylinder(a: number, b: number, p: number, r: number, E: number, nu: number): { sr: number; st: number; sz: number; ur: number } {
+  const d = b * b - a * a;
+  const A = (p * a * a) / d;
+  const B = (p * a * a * b * b) / d;
+  const sr = A - B / (r * r);
+  const st = A + B / (r * r);
+  return { sr, st, sz: A, ur: (r * (st - nu * (sr + A))) / E };
+}

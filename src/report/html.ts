@@ -3,6 +3,7 @@
  * requests) that reads on screen and prints to A4 or letter. All model text is escaped.
  */
 import type { PlateGeometry } from '../geometry/types.js';
+import { mirroredSection } from './mirror.js';
 import type { Mesh } from '../mesh/types.js';
 import type { Model, Shape } from '../model/types.js';
 import type { SiteResult, StudyResult } from '../study/types.js';
@@ -215,7 +216,9 @@ function modelSection(ctx: PageContext): string {
     row('Model file', model.file ? `<code>${escapeXml(model.file)}</code>` : '(built in code)'),
     row('Units', `length ${escapeXml(units.length)}, force ${escapeXml(units.force)}, stress ${escapeXml(units.stress)}`),
     row('Material', escapeXml(materialLine(model, S))),
-    row('Thickness', `${escapeXml(formatNumber(model.thickness))} ${escapeXml(L)}`),
+    model.state === 'axisymmetric'
+      ? row('Section', 'axisymmetric: the meridian section of a body of revolution, drawn in (r, z) = (x, y) about the axis r = 0, whose nodes are held radially by the section itself; no thickness (forces are for the whole revolution)')
+      : row('Thickness', `${escapeXml(formatNumber(model.thickness))} ${escapeXml(L)}`),
     row('State', escapeXml(model.state.replace('-', ' '))),
     row('Outline', escapeXml(capitalise(shapeWords(model.plate.outline, L)))),
     row(
@@ -257,7 +260,7 @@ function meshSection(ctx: PageContext): string {
     row('Element edges', `${escapeXml(formatNumber(stats.minEdge))} to ${escapeXml(formatNumber(stats.maxEdge))} ${escapeXml(L)}`),
     row('Smallest angle', `${escapeXml(formatNumber(study.mesh.minAngleDeg, 3))}°`),
     row('Boundary', `${int(stats.boundaryEdges)} edges on ${geometry.pieces.length} pieces, ${geometry.loops.length} loop${geometry.loops.length === 1 ? '' : 's'}`),
-    row('Plate area', `${escapeXml(formatNumber(geometry.area, 6))} ${escapeXml(L)}²`),
+    row(ctx.model.state === 'axisymmetric' ? 'Section area' : 'Plate area', `${escapeXml(formatNumber(geometry.area, 6))} ${escapeXml(L)}²`),
     row(
       'Base solve',
       `${int(study.solution.dofs)} dofs, largest displacement ${escapeXml(formatNumber(study.solution.maxDisplacement))} ${escapeXml(L)}`,
@@ -272,7 +275,7 @@ function pictureSection(ctx: PageContext): string {
   const deformScale = ctx.input.deformationScale ?? autoDeformationScale(u, geometry.scale);
   const main = contourSvg(mesh, field, {
     units: `${measure}, ${S}`,
-    title: `${measure} (${S}) over the plate${study.cases?.[0] ? `, load case ${study.cases[0].name}` : ''}`,
+    title: `${measure} (${S}) over the ${ctx.model.state === 'axisymmetric' ? 'section' : 'plate'}${study.cases?.[0] ? `, load case ${study.cases[0].name}` : ''}`,
     sites: study.sites.map((s) => ({ id: s.id, at: s.at })),
     deformed: deformScale !== undefined ? { u, scale: deformScale } : undefined,
     showMesh: true,
@@ -280,9 +283,22 @@ function pictureSection(ctx: PageContext): string {
     className: 'contour-main',
     lengthUnit: L,
   });
+  // an axisymmetric section: also the section with its image about the axis (a cut along the body's axis)
+  const mirrored = ctx.model.state === 'axisymmetric' ? mirroredSection(mesh, field) : undefined;
+  const whole = mirrored
+    ? `\n<figure class="figure">${contourSvg(mirrored.mesh, mirrored.values, {
+      units: `${measure}, ${S}`,
+      title: `${measure} (${S}), mirrored about the axis`,
+      sites: [],
+      showMesh: false,
+      idPrefix: 'mirror',
+      className: 'contour-mirror',
+      lengthUnit: L,
+    })}</figure>`
+    : '';
   return `<section id="picture"><h2>Stress picture</h2>
 <p class="toggle-row"><label for="show-mesh" class="toggle">show element edges</label></p>
-<figure class="figure">${main}</figure></section>`;
+<figure class="figure">${main}</figure>${whole}</section>`;
 }
 
 /** What each verdict means, under the verdict table. */
@@ -305,7 +321,7 @@ function verdictTable(ctx: PageContext, sites: readonly SiteResult[], governs: b
     )
     .join('');
   const cols = governs ? 7 : 6;
-  return `<table class="verdicts"><thead><tr><th>site</th><th>where</th><th>feature</th><th>verdict</th>${governs ? '<th>governs</th>' : ''}<th>value ± ${BAND_LABEL}</th><th>readouts</th></tr></thead><tbody>${verdictRows || `<tr><td colspan="${cols}">No sites were found.</td></tr>`}</tbody></table>`;
+  return `<table class="verdicts"><thead><tr><th>site</th><th>${ctx.model.state === 'axisymmetric' ? 'where (r, z)' : 'where'}</th><th>feature</th><th>verdict</th>${governs ? '<th>governs</th>' : ''}<th>value ± ${BAND_LABEL}</th><th>readouts</th></tr></thead><tbody>${verdictRows || `<tr><td colspan="${cols}">No sites were found.</td></tr>`}</tbody></table>`;
 }
 
 function verdictsSection(ctx: PageContext): string {
@@ -425,7 +441,7 @@ function siteSection(ctx: PageContext, s: SiteResult, i: number): string {
   const { L, S, measure, sectionIds } = ctx;
   return (
     `<section class="site" id="${sectionIds[i]}">` +
-    `<h3>${escapeXml(s.id)} <span class="where">at ${escapeXml(siteWhere(s, L))}</span> ${verdictBadge(s.verdict)}${s.case !== undefined ? ` <span class="where">governed by ${escapeXml(s.case)}</span>` : ''}</h3>` +
+    `<h3>${escapeXml(s.id)} <span class="where">at ${ctx.model.state === 'axisymmetric' ? '(r, z) = ' : ''}${escapeXml(siteWhere(s, L))}</span> ${verdictBadge(s.verdict)}${s.case !== undefined ? ` <span class="where">governed by ${escapeXml(s.case)}</span>` : ''}</h3>` +
     `<p class="feature">${escapeXml(capitalise(s.feature.description || featureLabel(s)))}</p>` +
     `<p class="why"><b>Why:</b> ${escapeXml(s.reason)}</p>` +
     (siteAdvice(s) ? `<p class="advice"><b>Next step:</b> ${escapeXml(siteAdvice(s) ?? '')}</p>` : '') +

@@ -85,7 +85,8 @@ export function studyTable(study: StudyResult, options: TerminalOptions): string
   const envelope = study.envelope !== undefined;
   // a column of reported values (issue 15) when the model lists any; readouts stay last
   const withReported = (study.reported ?? []).length > 0;
-  const header = ['site', 'where', 'feature', 'verdict', ...(envelope ? ['governs'] : []), `value ± ${BAND_LABEL}`, ...(withReported ? ['reported'] : []), 'readouts'];
+  const section = study.model.state === 'axisymmetric';
+  const header = ['site', section ? 'where (r, z)' : 'where', 'feature', 'verdict', ...(envelope ? ['governs'] : []), `value ± ${BAND_LABEL}`, ...(withReported ? ['reported'] : []), 'readouts'];
   const rows: string[][] = [header];
   for (const site of study.sites) {
     const verdict = stripControl(site.verdict);
@@ -106,6 +107,7 @@ export function studyTable(study: StudyResult, options: TerminalOptions): string
   lines.push(
     c.dim(
       `${stripControl(study.measure)} in ${stripControl(units.stress)} · ${study.mesh.order === 2 ? 'LST' : 'CST'} · ` +
+        (section ? 'axisymmetric section · ' : '') +
         `${study.sites.length} site${study.sites.length === 1 ? '' : 's'}`,
     ),
   );

@@ -252,7 +252,7 @@ export function finishStudy(setup: StudySetup, ladder: LadderOutcome, opts: Stud
   return {
     tool: 'peakwise',
     version: VERSION,
-    model: { title: model.title, file: model.file },
+    model: { title: model.title, file: model.file, ...(model.state === 'axisymmetric' ? { state: 'axisymmetric' as const } : {}) },
     units: { length: model.units.length, force: model.units.force, stress },
     mesh: { nodes: first.mesh.xy.length / 2, elements: first.mesh.elemNodes.length / first.mesh.nodesPerElem, order, minAngleDeg: q.minAngleDeg },
     solution: summary(first.solution),

@@ -295,8 +295,12 @@ export function findSites(ctx: Ctx): SiteCandidate[] {
     const at: Point = [mesh.xy[2 * node], mesh.xy[2 * node + 1]];
     const w = wedgeOfNode(node);
     const prev = features.findIndex((f) => f.node === node);
+    // in an axisymmetric section a force at a point off the axis is a ring load (locally a line load, the
+    // 1/ρ Flamant field); on the axis it is a point force of the body: Boussinesq's field, σ ∝ 1/ρ² (q = 2)
+    const onAxis = model.state === 'axisymmetric' && Math.abs(at[0]) <= tol;
     const cand: SiteDraft = {
-      at, node, theory: 1, theoryWhy: why, direction: w?.bisector, bisector: w?.bisector, firstPeak: measure[node], origin: 'feature',
+      at, node, theory: onAxis ? 2 : 1, theoryWhy: onAxis ? `${why} on the axis (a point force of the body: Boussinesq 1885, σ ∝ 1/ρ²)` : why,
+      direction: w?.bisector, bisector: w?.bisector, firstPeak: measure[node], origin: 'feature',
       feature: { kind, interiorAngleDeg: w?.angleDeg ?? 0, radius: 0, description: why },
     };
     if (prev >= 0) features[prev] = cand; // the 1/r field of a point force dominates any wedge there

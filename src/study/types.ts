@@ -203,7 +203,8 @@ export interface ReportedAssessment {
 export interface StudyResult {
   tool: 'peakwise';
   version: string;
-  model: { title: string; file: string };
+  /** `state` only for an axisymmetric section (the report then says "section" and shows r, z) */
+  model: { title: string; file: string; state?: 'axisymmetric' };
   units: { length: string; force: string; stress: string };
   mesh: { nodes: number; elements: number; order: 1 | 2; minAngleDeg: number };
   solution: { dofs: number; maxDisplacement: number; reactionSum: [number, number]; appliedSum: [number, number] };

@@ -236,7 +236,12 @@ export function williamsRoots(alphaDeg: number, faces: WedgeFaces = 'free-free',
   };
 }
 
-/** Kolosov constant: (3 − ν)/(1 + ν) in plane stress, 3 − 4ν in plane strain. */
-export function kolosovKappa(nu: number, state: 'plane-stress' | 'plane-strain'): number {
-  return state === 'plane-strain' ? 3 - 4 * nu : (3 - nu) / (1 + nu);
+/**
+ * Kolosov constant: (3 − ν)/(1 + ν) in plane stress, 3 − 4ν in plane strain. An axisymmetric
+ * section takes the plane-strain value: near a corner off the axis, at distances ρ ≪ r from it,
+ * the hoop strain u_r/r is bounded while the in-plane strains grow like ρ^(λ−1), so the corner
+ * field is the plane-strain wedge field (docs/study.md, "Axisymmetric sections").
+ */
+export function kolosovKappa(nu: number, state: 'plane-stress' | 'plane-strain' | 'axisymmetric'): number {
+  return state === 'plane-stress' ? (3 - nu) / (1 + nu) : 3 - 4 * nu;
 }

@@ -325,6 +325,8 @@ function need(v: number | undefined, option: string, kind: string): number {
  */
 export function resolveCompare(input: CompareInputs, model: Pick<Model, 'plate' | 'material' | 'state' | 'loads'>): CutCompare {
   const kind = input.kind;
+  // the closed forms here are plane solutions; a body of revolution has its own (docs/fem.md)
+  if (model.state === 'axisymmetric') throw usage(`--compare ${kind} is a plane closed form; it does not describe an axisymmetric section`);
   const openings = model.plate.openings;
   const pick = (shape: 'circle' | 'ellipse') => {
     const named = input.opening ? openings.find((o) => o.id === input.opening) : undefined;

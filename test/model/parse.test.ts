@@ -12,10 +12,10 @@ const demo = (name: string): Model => parseModel(readFileSync(modelsDir + name, 
 
 describe('demo models', () => {
   const files = readdirSync(modelsDir).filter((f) => f.endsWith('.yaml'));
-  it('has the eight demo models', () => {
+  it('has the nine demo models', () => {
     expect(files.sort()).toEqual([
-      'edge-slit.yaml', 'ellipse-hole.yaml', 'flywheel-web.yaml', 'hoist-lug.yaml', 'l-bracket-fillet.yaml', 'l-bracket-sharp.yaml', 'strap-pin-hole.yaml',
-      'web-opening.yaml',
+      'edge-slit.yaml', 'ellipse-hole.yaml', 'flywheel-web.yaml', 'hanger-rod-shoulder.yaml', 'hoist-lug.yaml', 'l-bracket-fillet.yaml',
+      'l-bracket-sharp.yaml', 'strap-pin-hole.yaml', 'web-opening.yaml',
     ]);
   });
 
