@@ -97,6 +97,31 @@ describe('thick cylinder, closed ends (Lamé)', () => {
 });
 
 /*
+ * The same cylinder with open ends (no end cap): Lamé's σr and σθ as above, σz = 0 (the ends are free,
+ * the section held in z on z = 0 only), u_r(a) = a (σθ − ν σr)/E (Timoshenko & Goodier 1970, §33).
+ */
+describe('thick cylinder, open ends (Lamé)', () => {
+  // measured largest errors / p (LST, h = 1.25): 2.4e-3 (σr next to the bore), σz 1.6e-3; u_r(a) 6.1e-5
+  it('LST: σr, σθ at both radii, σz = 0, u_r(a); no axial force on the ends', () => {
+    const text = cylinderText(2, 1.25).replace(/^ {2}- \{ where: \{ y: [^}]*\}, traction: .*\n/m, '');
+    expect(text).not.toMatch(/traction/);
+    const { level, g } = solveText(text);
+    for (const r0 of [cyl.a, cyl.b]) {
+      const k = nearestGauss(g.xy, r0, cyl.L / 2);
+      const r = g.xy[2 * k];
+      expect(Math.abs(g.szz[k] - (lameA + lameB / r ** 2)) / cyl.p).toBeLessThan(5e-3);
+      expect(Math.abs(g.stress[3 * k] - (lameA - lameB / r ** 2)) / cyl.p).toBeLessThan(5e-3);
+      expect(Math.abs(g.stress[3 * k + 1]) / cyl.p).toBeLessThan(5e-3);
+    }
+    expect(Math.abs(level.solution.appliedSum[1])).toBeLessThan(1e-9 * cyl.p * cyl.a ** 2);
+    const ua = (cyl.a * (lameA + lameB / cyl.a ** 2 - cyl.nu * (lameA - lameB / cyl.a ** 2))) / cyl.E;
+    let n = 0;
+    for (let i = 0; i < level.mesh.xy.length / 2; i++) if (level.mesh.xy[2 * i] === cyl.a && level.mesh.xy[2 * i + 1] === 0) n = i;
+    expect(Math.abs(level.solution.u[2 * n] / ua - 1)).toBeLessThan(3e-4);
+  });
+});
+
+/*
  * Thick sphere under internal pressure: Lamé's solution for the sphere; Timoshenko & Goodier (1970)
  * §137: σr = C(1 − b³/r³), σθ = C(1 + b³/(2r³)), C = p a³/(b³ − a³), so σθ(a) = p(b³ + 2a³)/(2(b³ − a³))
  * and σθ(b) = 3C/2. Meridian section: the quarter annulus a ≤ ρ ≤ b in r, z ≥ 0, the axis edge r = 0 held
