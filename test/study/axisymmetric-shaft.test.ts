@@ -54,7 +54,7 @@ describe('stepped shaft in tension, axisymmetric section', () => {
 
   it('sharp shoulder (r = 0): a 270° free–free corner of the section, singular with q ≈ 0.456 (Williams 1952)', () => {
     const model = parseModel(text.replace(/^ {2}r: 3\.2 /m, '  r: 0   '), 'models/hanger-rod-shoulder.yaml');
-    const result = runStudy(model, { levels: 3 });
+    const result = runStudy(model, { levels: 5 });
     const corner = result.sites.find((s) => s.feature.kind === 'corner' && Math.hypot(s.at[0] - 16, s.at[1] - 60) < 1e-6);
     expect(corner).toBeDefined();
     expect(corner!.feature.interiorAngleDeg).toBeCloseTo(270, 6);
@@ -62,8 +62,9 @@ describe('stepped shaft in tension, axisymmetric section', () => {
     // node /work/shared/tools/williams.mjs 270: λ = 0.544484, σ ∝ r^−0.455516 (free–free roots do not depend
     // on ν or the state; the section corner takes the plane-strain κ, docs/study.md)
     expect(corner!.growth!.theory).toBeCloseTo(0.455516, 4);
-    // measured q = 0.509 over three levels (the plates' L-corner gives the same excess on so few levels)
-    expect(Math.abs(corner!.growth!.exponent - 0.455516)).toBeLessThan(0.1);
+    // measured q = 0.509 over three levels, 0.479 over four, 0.460 over five (the excess of a short ladder, as
+    // at the plates' L-corner): five levels, tolerance about 4× the measured 0.005
+    expect(Math.abs(corner!.growth!.exponent - 0.455516)).toBeLessThan(0.02);
   });
 });
 
