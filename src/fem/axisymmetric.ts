@@ -15,8 +15,8 @@
  */
 import { FemError, SolveError } from '../errors.js';
 import type { Mesh } from '../mesh/types.js';
-import { TRI_3, TRI_7, cstShape, lstShape, type TriangleRule } from '../element/index.js';
-import { cstGradients, gatherElementXY, lstGradients } from './shape.js';
+import { TRI_3, TRI_7, type TriangleRule } from '../element/index.js';
+import { gatherElementXY, shapeAt } from './shape.js';
 import type { Load } from '../model/types.js';
 import { expansionOf, temperatureField, type TemperatureField } from './thermal.js';
 import type { ElasticSection, GaussStresses } from './types.js';
@@ -66,14 +66,7 @@ const scratch = {
  */
 function pointOf(npe: number, xy: ArrayLike<number>, xi: number, eta: number): { det: number; r: number } {
   const { dx, dy, N } = scratch;
-  let det: number;
-  if (npe === 3) {
-    det = cstGradients(xy, dx, dy);
-    cstShape(xi, eta, N);
-  } else {
-    det = lstGradients(xy, xi, eta, dx, dy);
-    lstShape(xi, eta, N);
-  }
+  const det = shapeAt(npe, xy, xi, eta, N, dx, dy);
   let r = 0;
   for (let i = 0; i < npe; i++) r += N[i] * xy[2 * i];
   if (!(r > 0)) {

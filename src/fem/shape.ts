@@ -2,7 +2,7 @@
  * Cartesian derivatives of the element shape functions: the reference functions and rules are
  * the element module's (src/element), these map them onto an element's own node coordinates.
  */
-import { lstParametricDerivatives } from '../element/index.js';
+import { cstShape, lstParametricDerivatives, lstShape, type TriangleRule } from '../element/index.js';
 
 /**
  * Cartesian derivatives of the LST shape functions at (ξ, η) for an element with node
@@ -76,5 +76,66 @@ export function gatherElementXY(
     const n = elemNodes[base + i];
     out[2 * i] = xy[2 * n];
     out[2 * i + 1] = xy[2 * n + 1];
+  }
+}
+
+/**
+ * Shape functions N and their Cartesian derivatives at (ξ, η) of a 3- or 6-node element with node
+ * coordinates `xy` (isoparametric map); returns det J.
+ */
+export function shapeAt(
+  nodesPerElem: number, xy: ArrayLike<number>, xi: number, eta: number, N: Float64Array, dNdx: Float64Array, dNdy: Float64Array,
+): number {
+  if (nodesPerElem === 3) {
+    cstShape(xi, eta, N);
+    return cstGradients(xy, dNdx, dNdy);
+  }
+  lstShape(xi, eta, N);
+  return lstGradients(xy, xi, eta, dNdx, dNdy);
+}
+
+/** What a visitor of forEachRulePoint sees at one integration point (scratch arrays, reused). */
+export interface RulePoint {
+  /** element and its node numbers' offset in elemNodes (nodesPerElem · e) */
+  e: number;
+  x: number;
+  y: number;
+  /** the rule's weight × |J|/2 (element/rules.ts convention): the area the point stands for */
+  area: number;
+  N: Float64Array;
+  dNdx: Float64Array;
+  dNdy: Float64Array;
+}
+
+/**
+ * Every integration point of a rule in every element, in element order: its position through the
+ * element's own map, its area weight, N and the Cartesian derivatives. The one loop the load
+ * integrals (body force, thermal strain) share.
+ */
+export function forEachRulePoint(
+  mesh: { xy: Float64Array; elemNodes: Uint32Array; nodesPerElem: number },
+  rule: TriangleRule,
+  visit: (p: RulePoint) => void,
+): void {
+  const npe = mesh.nodesPerElem;
+  const exy = new Float64Array(2 * npe);
+  const p: RulePoint = { e: 0, x: 0, y: 0, area: 0, N: new Float64Array(6), dNdx: new Float64Array(6), dNdy: new Float64Array(6) };
+  const nElem = mesh.elemNodes.length / npe;
+  for (let e = 0; e < nElem; e++) {
+    gatherElementXY(mesh.xy, mesh.elemNodes, npe, e, exy);
+    p.e = e;
+    for (let g = 0; g < rule.w.length; g++) {
+      const det = shapeAt(npe, exy, rule.xi[g], rule.eta[g], p.N, p.dNdx, p.dNdy);
+      let x = 0;
+      let y = 0;
+      for (let i = 0; i < npe; i++) {
+        x += p.N[i] * exy[2 * i];
+        y += p.N[i] * exy[2 * i + 1];
+      }
+      p.x = x;
+      p.y = y;
+      p.area = 0.5 * rule.w[g] * det;
+      visit(p);
+    }
   }
 }

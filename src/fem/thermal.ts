@@ -6,9 +6,9 @@ import { FemError } from '../errors.js';
 import type { Mesh } from '../mesh/types.js';
 import { ExpressionError, evaluateTree, parseExpression } from '../model/expr.js';
 import type { Load } from '../model/types.js';
-import { TRI_7, cstShape, lstShape } from '../element/index.js';
+import { TRI_7 } from '../element/index.js';
 import { elasticityMatrix } from './elasticity.js';
-import { cstGradients, gatherElementXY, lstGradients } from './shape.js';
+import { forEachRulePoint } from './shape.js';
 import type { ElasticSection } from './types.js';
 
 /** ΔT at a point (temperature units) */
@@ -98,45 +98,21 @@ export function thermalLoad(
   const s0y = D[3] + D[4];
   const s0s = D[6] + D[7];
   const npe = mesh.nodesPerElem;
-  const exy = new Float64Array(2 * npe);
-  const N = new Float64Array(6);
-  const dx = new Float64Array(6);
-  const dy = new Float64Array(6);
-  const nElem = mesh.elemNodes.length / npe;
-  for (let e = 0; e < nElem; e++) {
-    gatherElementXY(mesh.xy, mesh.elemNodes, npe, e, exy);
-    for (let g = 0; g < TRI_7.w.length; g++) {
-      const xi = TRI_7.xi[g];
-      const eta = TRI_7.eta[g];
-      let det: number;
-      if (npe === 3) {
-        det = cstGradients(exy, dx, dy);
-        cstShape(xi, eta, N);
-      } else {
-        det = lstGradients(exy, xi, eta, dx, dy);
-        lstShape(xi, eta, N);
-      }
-      let x = 0;
-      let y = 0;
-      for (let i = 0; i < npe; i++) {
-        x += N[i] * exy[2 * i];
-        y += N[i] * exy[2 * i + 1];
-      }
-      const eps = strainPerDegree * deltaT(x, y);
-      if (eps === 0) continue;
-      // weight × |J|/2 (element/rules.ts convention), times the thickness
-      const w = 0.5 * TRI_7.w[g] * det * section.thickness * eps;
-      const sx = w * s0x;
-      const sy = w * s0y;
-      const ss = w * s0s;
-      for (let i = 0; i < npe; i++) {
-        const n = mesh.elemNodes[npe * e + i];
-        // Bᵀσ₀ for node i: (∂N/∂x σx + ∂N/∂y τ, ∂N/∂y σy + ∂N/∂x τ)
-        out[2 * n] += dx[i] * sx + dy[i] * ss;
-        out[2 * n + 1] += dy[i] * sy + dx[i] * ss;
-      }
+  forEachRulePoint(mesh, TRI_7, ({ e, x, y, area, dNdx, dNdy }) => {
+    const eps = strainPerDegree * deltaT(x, y);
+    if (eps === 0) return;
+    // the point's area times the thickness
+    const w = area * section.thickness * eps;
+    const sx = w * s0x;
+    const sy = w * s0y;
+    const ss = w * s0s;
+    for (let i = 0; i < npe; i++) {
+      const n = mesh.elemNodes[npe * e + i];
+      // Bᵀσ₀ for node i: (∂N/∂x σx + ∂N/∂y τ, ∂N/∂y σy + ∂N/∂x τ)
+      out[2 * n] += dNdx[i] * sx + dNdy[i] * ss;
+      out[2 * n + 1] += dNdy[i] * sy + dNdx[i] * ss;
     }
-  }
+  });
   return out;
 }
 
