@@ -47,7 +47,7 @@ const GONE = 0x7fffffff;
 
 /**
  * Quotient graph and the working arrays of one ordering. All lists live in `store`: vertex v
- * owns store[start[v] … start[v] + length[v]); a variable's first `elementCount[v]` entries are
+ * owns store[lists[3 * v] … lists[3 * v] + lists[3 * v + 1]); a variable's first `lists[3 * v + 2]` entries are
  * elements, the rest variables; an element's entries are variables. Entries of vertices that
  * left (merged, absorbed) stay in lists until the list is next rewritten; scans skip them
  * (elements by `state`, variables by `tag`).
@@ -57,9 +57,11 @@ interface QuotientGraph {
   store: Int32Array;
   /** first free slot of store */
   storeEnd: number;
-  readonly start: Int32Array;
-  readonly length: Int32Array;
-  readonly elementCount: Int32Array;
+  /**
+   * Per vertex v, side by side (one memory fetch): [3v] = start of its list in store, [3v + 1] =
+   * its length, [3v + 2] = how many of its first entries are elements
+   */
+  readonly lists: Int32Array;
   readonly state: Uint8Array;
   /** rows a (super)variable stands for; kept by pivots and merged variables for the record */
   readonly weight: Int32Array;
@@ -289,15 +291,15 @@ function quotientGraphOf(
   const q = emptyQuotientGraph(n, capacity, weights);
   if (symmetricPattern) {
     q.store.set(adjIdx.subarray(0, nnz));
-    const { start, length } = q;
+    const { lists } = q;
     for (let i = 0; i < n; i++) {
-      start[i] = adjPtr[i];
-      length[i] = adjPtr[i + 1] - adjPtr[i];
+      lists[3 * i] = adjPtr[i];
+      lists[3 * i + 1] = adjPtr[i + 1] - adjPtr[i];
     }
   } else {
-    symmetricLists(n, adjPtr, adjIdx, q.store, q.start, q.length);
+    symmetricLists(n, adjPtr, adjIdx, q.store, q.lists);
   }
-  q.storeEnd = q.start[n - 1] + q.length[n - 1];
+  q.storeEnd = q.lists[3 * (n - 1)] + q.lists[3 * (n - 1) + 1];
   let total = 0;
   for (let i = 0; i < n; i++) total += q.weight[i];
   if (total > 0x3fffffff) throw new RangeError(`amdOrder: total vertex weight ${total} exceeds 2^30`);
@@ -314,9 +316,7 @@ function emptyQuotientGraph(n: number, capacity: number, weights: Int32Array | u
     n,
     store: new Int32Array(capacity),
     storeEnd: 0,
-    start: new Int32Array(n),
-    length: new Int32Array(n),
-    elementCount: new Int32Array(n),
+    lists: new Int32Array(3 * n),
     state: new Uint8Array(n), // all VARIABLE
     weight: weights ? weights.slice() : new Int32Array(n).fill(1),
     degree: new Int32Array(n),
@@ -349,7 +349,7 @@ function identity(n: number): Int32Array {
 }
 
 /** Lists of A + Aᵀ without self loops or repeats: row i of A merged with row i of Aᵀ. */
-function symmetricLists(n: number, adjPtr: Int32Array, adjIdx: Int32Array, store: Int32Array, start: Int32Array, length: Int32Array): void {
+function symmetricLists(n: number, adjPtr: Int32Array, adjIdx: Int32Array, store: Int32Array, lists: Int32Array): void {
   const nnz = adjPtr[n];
   const tPtr = new Int32Array(n + 1);
   for (let p = 0; p < nnz; p++) tPtr[adjIdx[p] + 1]++;
@@ -360,7 +360,7 @@ function symmetricLists(n: number, adjPtr: Int32Array, adjIdx: Int32Array, store
   const seen = new Int32Array(n).fill(NONE);
   let w = 0;
   for (let i = 0; i < n; i++) {
-    start[i] = w;
+    lists[3 * i] = w;
     seen[i] = i;
     for (let p = adjPtr[i]; p < adjPtr[i + 1]; p++) {
       const j = adjIdx[p];
@@ -370,7 +370,7 @@ function symmetricLists(n: number, adjPtr: Int32Array, adjIdx: Int32Array, store
       const j = tIdx[p];
       if (seen[j] !== i) { seen[j] = i; store[w++] = j; }
     }
-    length[i] = w - start[i];
+    lists[3 * i + 1] = w - lists[3 * i];
   }
 }
 
@@ -401,7 +401,7 @@ function newStamp(q: QuotientGraph): number {
 function withholdDense(q: QuotientGraph): void {
   const limit = Math.max(16, Math.floor(10 * Math.sqrt(q.n)));
   for (let i = 0; i < q.n; i++) {
-    if (q.length[i] > limit) {
+    if (q.lists[3 * i + 1] > limit) {
       q.state[i] = DENSE;
       q.tag[i] = GONE;
       q.weightLeft -= q.weight[i];
@@ -418,13 +418,13 @@ function withholdDense(q: QuotientGraph): void {
  * j and i gains j's weight) and takes j's weight off i's own degree.
  */
 function degreesAndTwins(q: QuotientGraph): void {
-  const { store, start, length, state, weight, degree, hashHead, hashNext } = q;
+  const { store, lists, state, weight, degree, hashHead, hashNext } = q;
   const mask = hashHead.length - 1;
   for (let i = q.n - 1; i >= 0; i--) {
     if (state[i] !== VARIABLE) continue;
     let h = i;
     let d = 0;
-    for (let p = start[i], end = p + length[i]; p < end; p++) {
+    for (let p = lists[3 * i], end = p + lists[3 * i + 1]; p < end; p++) {
       const j = store[p];
       h = (h + j) | 0;
       if (state[j] === VARIABLE) d += weight[j];
@@ -444,20 +444,20 @@ function degreesAndTwins(q: QuotientGraph): void {
 
 /** Compare the closed neighbourhoods of one hash bucket's vertices pairwise; merge the equal. */
 function mergeTwinsOfBucket(q: QuotientGraph, first: number): void {
-  const { store, start, length, state, weight, degree, tag, listMark, hashNext } = q;
+  const { store, lists, state, weight, degree, tag, listMark, hashNext } = q;
   for (let i = first; i !== NONE; i = hashNext[i]) {
     if (state[i] !== VARIABLE) continue;
     let s = 0;
     for (let j = hashNext[i]; j !== NONE; j = hashNext[j]) {
-      if (state[j] !== VARIABLE || length[j] !== length[i]) continue;
+      if (state[j] !== VARIABLE || lists[3 * j + 1] !== lists[3 * i + 1]) continue;
       if (s === 0) {
         s = newStamp(q);
         listMark[i] = s;
-        for (let p = start[i], end = p + length[i]; p < end; p++) listMark[store[p]] = s;
+        for (let p = lists[3 * i], end = p + lists[3 * i + 1]; p < end; p++) listMark[store[p]] = s;
       }
       if (listMark[j] !== s) continue;
       let same = true;
-      for (let p = start[j], end = p + length[j]; p < end && same; p++) same = listMark[store[p]] === s;
+      for (let p = lists[3 * j], end = p + lists[3 * j + 1]; p < end && same; p++) same = listMark[store[p]] === s;
       if (!same) continue;
       degree[i] -= weight[j];
       weight[i] += weight[j];
@@ -516,11 +516,11 @@ function takeMinDegree(q: QuotientGraph, b: DegreeBuckets): number {
 
 /** Entries L_p can have at most: A_p plus the lists of the elements of E_p. */
 function pivotListBound(q: QuotientGraph, p: number): number {
-  const { store, start, length, elementCount, state } = q;
-  let bound = length[p] - elementCount[p];
-  for (let t = start[p], end = t + elementCount[p]; t < end; t++) {
+  const { store, lists, state } = q;
+  let bound = lists[3 * p + 1] - lists[3 * p + 2];
+  for (let t = lists[3 * p], end = t + lists[3 * p + 2]; t < end; t++) {
     const e = store[t];
-    if (state[e] === ELEMENT) bound += length[e];
+    if (state[e] === ELEMENT) bound += lists[3 * e + 1];
   }
   return bound;
 }
@@ -533,22 +533,22 @@ function pivotListBound(q: QuotientGraph, p: number): number {
  */
 function reserveStore(q: QuotientGraph, needed: number): void {
   if (q.storeEnd + needed <= q.store.length) return;
-  const { n, start, length, elementCount, state } = q;
+  const { n, lists, state } = q;
   const old = q.store;
   let live = 0;
-  for (let v = 0; v < n; v++) if (state[v] === VARIABLE || state[v] === ELEMENT) live += length[v];
+  for (let v = 0; v < n; v++) if (state[v] === VARIABLE || state[v] === ELEMENT) live += lists[3 * v + 1];
   const capacity = Math.ceil(1.5 * (live + needed)) + n;
   const store = new Int32Array(capacity);
   let w = 0;
   for (let v = 0; v < n; v++) {
     const s = state[v];
     if (s !== VARIABLE && s !== ELEMENT) continue;
-    const from = start[v], nElements = s === VARIABLE ? elementCount[v] : 0;
-    start[v] = w;
+    const from = lists[3 * v], nElements = s === VARIABLE ? lists[3 * v + 2] : 0;
+    lists[3 * v] = w;
     for (let t = from; t < from + nElements; t++) if (state[old[t]] === ELEMENT) store[w++] = old[t];
-    if (s === VARIABLE) elementCount[v] = w - start[v];
-    for (let t = from + nElements; t < from + length[v]; t++) if (state[old[t]] === VARIABLE) store[w++] = old[t];
-    length[v] = w - start[v];
+    if (s === VARIABLE) lists[3 * v + 2] = w - lists[3 * v];
+    for (let t = from + nElements; t < from + lists[3 * v + 1]; t++) if (state[old[t]] === VARIABLE) store[w++] = old[t];
+    lists[3 * v + 1] = w - lists[3 * v];
   }
   q.store = store;
   q.storeEnd = w;
@@ -563,7 +563,7 @@ function reserveStore(q: QuotientGraph, needed: number): void {
  * off.
  */
 function formPivotElement(q: QuotientGraph, p: number): void {
-  const { store, start, length, elementCount, state, weight, parent, tag } = q;
+  const { store, lists, state, weight, parent, tag } = q;
   const inPivot = newStamp(q);
   state[p] = ELEMENT;
   tag[p] = GONE;
@@ -571,11 +571,11 @@ function formPivotElement(q: QuotientGraph, p: number): void {
   const listStart = q.storeEnd;
   let w = listStart;
   let formedWeight = 0;
-  const pStart = start[p], pElements = elementCount[p], pEnd = pStart + length[p];
+  const pStart = lists[3 * p], pElements = lists[3 * p + 2], pEnd = pStart + lists[3 * p + 1];
   for (let t = pStart; t < pStart + pElements; t++) {
     const e = store[t];
     if (state[e] !== ELEMENT) continue;
-    for (let u = start[e], end = u + length[e]; u < end; u++) {
+    for (let u = lists[3 * e], end = u + lists[3 * e + 1]; u < end; u++) {
       const i = store[u];
       if (tag[i] >= inPivot) continue; // in L_p already, or no longer a variable
       tag[i] = inPivot;
@@ -599,9 +599,9 @@ function formPivotElement(q: QuotientGraph, p: number): void {
   q.pivotLength = w - listStart;
   q.pivotStamp = inPivot;
   q.storeEnd = w;
-  start[p] = listStart;
-  length[p] = w - listStart;
-  elementCount[p] = 0;
+  lists[3 * p] = listStart;
+  lists[3 * p + 1] = w - listStart;
+  lists[3 * p + 2] = 0;
 }
 
 /**
@@ -610,9 +610,9 @@ function formPivotElement(q: QuotientGraph, p: number): void {
  * met here are about to be absorbed; their values are never read.
  */
 function takeOffOutside(q: QuotientGraph, i: number, stamp: number): void {
-  const { store, start, elementCount, state, weight, outside } = q;
+  const { store, lists, state, weight, outside } = q;
   const wi = weight[i];
-  for (let u = start[i], end = u + elementCount[i]; u < end; u++) {
+  for (let u = lists[3 * i], end = u + lists[3 * i + 2]; u < end; u++) {
     const e = store[u];
     if (state[e] !== ELEMENT) continue;
     if (outside[3 * e] !== stamp) {
@@ -636,13 +636,13 @@ function takeOffOutside(q: QuotientGraph, i: number, stamp: number): void {
  * back one slot: the write position then never passes the read position.
  */
 function updateVariableLists(q: QuotientGraph, p: number): number {
-  const { store, start, length, elementCount, state, weight, partialDegree, outside, parent, tag, candidates, candidateHash } = q;
+  const { store, lists, state, weight, partialDegree, outside, parent, tag, candidates, candidateHash } = q;
   const inPivot = q.pivotStamp;
   let massWeight = 0;
   let count = 0;
   for (let t = q.pivotStart, end = t + q.pivotLength; t < end; t++) {
     const i = store[t];
-    const from = start[i], to = from + length[i], elementsEnd = from + elementCount[i];
+    const from = lists[3 * i], to = from + lists[3 * i + 1], elementsEnd = from + lists[3 * i + 2];
     let w = from;
     let held = p;
     let sum = 0;
@@ -684,8 +684,8 @@ function updateVariableLists(q: QuotientGraph, p: number): number {
     // a list that did not shrink means a mirror entry was missing: the graph was not symmetric
     if (w >= to) throw new Error(`amdOrder: internal error, list of vertex ${i} did not shrink at pivot ${p}`);
     store[w++] = held;
-    length[i] = kept + 1;
-    elementCount[i] = elementsKept + 1;
+    lists[3 * i + 1] = kept + 1;
+    lists[3 * i + 2] = elementsKept + 1;
     partialDegree[i] = sum;
     candidates[count] = i;
     candidateHash[count++] = h;
@@ -738,20 +738,20 @@ function sortByHash(ids: Int32Array, keys: Int32Array, count: number): void {
 
 /** Pairwise comparison within candidates[a…b) (equal hashes); merge the equal lists. */
 function mergeRun(q: QuotientGraph, a: number, b: number): void {
-  const { store, start, length, elementCount, state, weight, tag, listMark, candidates } = q;
+  const { store, lists, state, weight, tag, listMark, candidates } = q;
   for (let x = a; x < b; x++) {
     const i = candidates[x];
     if (state[i] !== VARIABLE) continue;
     let s = 0;
     for (let y = x + 1; y < b; y++) {
       const j = candidates[y];
-      if (state[j] !== VARIABLE || length[j] !== length[i] || elementCount[j] !== elementCount[i]) continue;
+      if (state[j] !== VARIABLE || lists[3 * j + 1] !== lists[3 * i + 1] || lists[3 * j + 2] !== lists[3 * i + 2]) continue;
       if (s === 0) {
         s = newStamp(q);
-        for (let u = start[i], uEnd = u + length[i]; u < uEnd; u++) listMark[store[u]] = s;
+        for (let u = lists[3 * i], uEnd = u + lists[3 * i + 1]; u < uEnd; u++) listMark[store[u]] = s;
       }
       let same = true;
-      for (let u = start[j], uEnd = u + length[j]; u < uEnd && same; u++) same = listMark[store[u]] === s;
+      for (let u = lists[3 * j], uEnd = u + lists[3 * j + 1]; u < uEnd && same; u++) same = listMark[store[u]] === s;
       if (!same) continue;
       weight[i] += weight[j];
       joinMembers(q, i, j);
@@ -795,7 +795,7 @@ function finishPivot(q: QuotientGraph, buckets: DegreeBuckets, p: number, massWe
       addToBucket(buckets, i, d);
     }
   }
-  q.length[p] = w - from;
+  q.lists[3 * p + 1] = w - from;
   q.storeEnd = w;
 }
 
