@@ -47,7 +47,7 @@ const GONE = 0x7fffffff;
 
 /**
  * Quotient graph and the working arrays of one ordering. All lists live in `store`: vertex v
- * owns store[lists[3 * v] … lists[3 * v] + lists[3 * v + 1]); a variable's first `lists[3 * v + 2]` entries are
+ * owns store[lists[5 * v] … lists[5 * v] + lists[5 * v + 1]); a variable's first `lists[5 * v + 2]` entries are
  * elements, the rest variables; an element's entries are variables. Entries of vertices that
  * left (merged, absorbed) stay in lists until the list is next rewritten; scans skip them
  * (elements by `state`, variables by `tag`).
@@ -58,13 +58,16 @@ interface QuotientGraph {
   /** first free slot of store */
   storeEnd: number;
   /**
-   * Per vertex v, side by side (one memory fetch): [3v] = start of its list in store, [3v + 1] =
-   * its length, [3v + 2] = how many of its first entries are elements
+   * Per vertex v, side by side (one memory fetch for what a scan reads of a vertex):
+   * [5v] = start of its list in store, [5v + 1] = its length, [5v + 2] = how many of its first
+   * entries are elements, [5v + 3] = its tag (below), [5v + 4] = its weight: the rows a
+   * (super)variable stands for, kept by pivots and merged variables for the record
    */
   readonly lists: Int32Array;
   readonly state: Uint8Array;
-  /** rows a (super)variable stands for; kept by pivots and merged variables for the record */
-  readonly weight: Int32Array;
+  /* Tag (lists[5v + 3]): variable v is in the current L_p when its tag is the step's stamp; GONE
+   * once v is no longer a variable. So one test, tag ≥ stamp, skips both in every scan of the
+   * current step. */
   /** approximate external degree d̄_i of each variable (weights of its neighbours) */
   readonly degree: Int32Array;
   /** |A_i| + Σ |L_e \ L_p| of the variables of the current L_p (step 4) */
@@ -82,11 +85,6 @@ interface QuotientGraph {
    */
   readonly memberNext: Int32Array;
   readonly memberTail: Int32Array;
-  /**
-   * Variable v is in the current L_p when tag[v] = the step's stamp; GONE once v is no longer a
-   * variable. So one test, tag[v] ≥ stamp, skips both in every scan of the current step.
-   */
-  readonly tag: Int32Array;
   /** stamp marks for comparing two lists (steps 5 and the initial twins) */
   readonly listMark: Int32Array;
   stamp: number;
@@ -293,15 +291,15 @@ function quotientGraphOf(
     q.store.set(adjIdx.subarray(0, nnz));
     const { lists } = q;
     for (let i = 0; i < n; i++) {
-      lists[3 * i] = adjPtr[i];
-      lists[3 * i + 1] = adjPtr[i + 1] - adjPtr[i];
+      lists[5 * i] = adjPtr[i];
+      lists[5 * i + 1] = adjPtr[i + 1] - adjPtr[i];
     }
   } else {
     symmetricLists(n, adjPtr, adjIdx, q.store, q.lists);
   }
-  q.storeEnd = q.lists[3 * (n - 1)] + q.lists[3 * (n - 1) + 1];
+  q.storeEnd = q.lists[5 * (n - 1)] + q.lists[5 * (n - 1) + 1];
   let total = 0;
-  for (let i = 0; i < n; i++) total += q.weight[i];
+  for (let i = 0; i < n; i++) total += q.lists[5 * i + 4];
   if (total > 0x3fffffff) throw new RangeError(`amdOrder: total vertex weight ${total} exceeds 2^30`);
   q.weightLeft = total;
   return q;
@@ -316,16 +314,14 @@ function emptyQuotientGraph(n: number, capacity: number, weights: Int32Array | u
     n,
     store: new Int32Array(capacity),
     storeEnd: 0,
-    lists: new Int32Array(3 * n),
+    lists: vertexRecords(n, weights),
     state: new Uint8Array(n), // all VARIABLE
-    weight: weights ? weights.slice() : new Int32Array(n).fill(1),
     degree: new Int32Array(n),
     partialDegree: new Int32Array(n),
     outside: new Int32Array(3 * n),
     parent: new Int32Array(n).fill(NONE),
     memberNext: new Int32Array(n).fill(NONE),
     memberTail: identity(n),
-    tag: new Int32Array(n),
     listMark: new Int32Array(n),
     stamp: 0,
     hashHead: new Int32Array(hashSize(n)).fill(NONE),
@@ -340,6 +336,13 @@ function emptyQuotientGraph(n: number, capacity: number, weights: Int32Array | u
     pivotStamp: 0,
     pivotWeight: 0,
   };
+}
+
+/** The per-vertex records of `lists`: lists empty, tags 0, weights given (default 1). */
+function vertexRecords(n: number, weights: Int32Array | undefined): Int32Array {
+  const records = new Int32Array(5 * n);
+  for (let v = 0; v < n; v++) records[5 * v + 4] = weights ? weights[v] : 1;
+  return records;
 }
 
 function identity(n: number): Int32Array {
@@ -360,7 +363,7 @@ function symmetricLists(n: number, adjPtr: Int32Array, adjIdx: Int32Array, store
   const seen = new Int32Array(n).fill(NONE);
   let w = 0;
   for (let i = 0; i < n; i++) {
-    lists[3 * i] = w;
+    lists[5 * i] = w;
     seen[i] = i;
     for (let p = adjPtr[i]; p < adjPtr[i + 1]; p++) {
       const j = adjIdx[p];
@@ -370,7 +373,7 @@ function symmetricLists(n: number, adjPtr: Int32Array, adjIdx: Int32Array, store
       const j = tIdx[p];
       if (seen[j] !== i) { seen[j] = i; store[w++] = j; }
     }
-    lists[3 * i + 1] = w - lists[3 * i];
+    lists[5 * i + 1] = w - lists[5 * i];
   }
 }
 
@@ -384,8 +387,8 @@ function hashSize(n: number): number {
 /** A fresh mark value for `tag`, `listMark` and `outside` (older marks read as unmarked). */
 function newStamp(q: QuotientGraph): number {
   if (q.stamp >= 0x3fffffff) {
-    const tag = q.tag;
-    for (let v = 0; v < q.n; v++) if (tag[v] !== GONE) tag[v] = 0;
+    const lists = q.lists;
+    for (let v = 0; v < q.n; v++) if (lists[5 * v + 3] !== GONE) lists[5 * v + 3] = 0;
     q.listMark.fill(0);
     const outside = q.outside;
     for (let e = 0; e < q.n; e++) outside[3 * e] = 0;
@@ -401,10 +404,10 @@ function newStamp(q: QuotientGraph): number {
 function withholdDense(q: QuotientGraph): void {
   const limit = Math.max(16, Math.floor(10 * Math.sqrt(q.n)));
   for (let i = 0; i < q.n; i++) {
-    if (q.lists[3 * i + 1] > limit) {
+    if (q.lists[5 * i + 1] > limit) {
       q.state[i] = DENSE;
-      q.tag[i] = GONE;
-      q.weightLeft -= q.weight[i];
+      q.lists[5 * i + 3] = GONE;
+      q.weightLeft -= q.lists[5 * i + 4];
       q.variablesLeft--;
     }
   }
@@ -418,16 +421,16 @@ function withholdDense(q: QuotientGraph): void {
  * j and i gains j's weight) and takes j's weight off i's own degree.
  */
 function degreesAndTwins(q: QuotientGraph): void {
-  const { store, lists, state, weight, degree, hashHead, hashNext } = q;
+  const { store, lists, state, degree, hashHead, hashNext } = q;
   const mask = hashHead.length - 1;
   for (let i = q.n - 1; i >= 0; i--) {
     if (state[i] !== VARIABLE) continue;
     let h = i;
     let d = 0;
-    for (let p = lists[3 * i], end = p + lists[3 * i + 1]; p < end; p++) {
+    for (let p = lists[5 * i], end = p + lists[5 * i + 1]; p < end; p++) {
       const j = store[p];
       h = (h + j) | 0;
-      if (state[j] === VARIABLE) d += weight[j];
+      if (state[j] === VARIABLE) d += lists[5 * j + 4];
     }
     degree[i] = d;
     const bucket = h & mask;
@@ -444,26 +447,26 @@ function degreesAndTwins(q: QuotientGraph): void {
 
 /** Compare the closed neighbourhoods of one hash bucket's vertices pairwise; merge the equal. */
 function mergeTwinsOfBucket(q: QuotientGraph, first: number): void {
-  const { store, lists, state, weight, degree, tag, listMark, hashNext } = q;
+  const { store, lists, state, degree, listMark, hashNext } = q;
   for (let i = first; i !== NONE; i = hashNext[i]) {
     if (state[i] !== VARIABLE) continue;
     let s = 0;
     for (let j = hashNext[i]; j !== NONE; j = hashNext[j]) {
-      if (state[j] !== VARIABLE || lists[3 * j + 1] !== lists[3 * i + 1]) continue;
+      if (state[j] !== VARIABLE || lists[5 * j + 1] !== lists[5 * i + 1]) continue;
       if (s === 0) {
         s = newStamp(q);
         listMark[i] = s;
-        for (let p = lists[3 * i], end = p + lists[3 * i + 1]; p < end; p++) listMark[store[p]] = s;
+        for (let p = lists[5 * i], end = p + lists[5 * i + 1]; p < end; p++) listMark[store[p]] = s;
       }
       if (listMark[j] !== s) continue;
       let same = true;
-      for (let p = lists[3 * j], end = p + lists[3 * j + 1]; p < end && same; p++) same = listMark[store[p]] === s;
+      for (let p = lists[5 * j], end = p + lists[5 * j + 1]; p < end && same; p++) same = listMark[store[p]] === s;
       if (!same) continue;
-      degree[i] -= weight[j];
-      weight[i] += weight[j];
+      degree[i] -= lists[5 * j + 4];
+      lists[5 * i + 4] += lists[5 * j + 4];
       joinMembers(q, i, j);
       state[j] = MERGED;
-      tag[j] = GONE;
+      lists[5 * j + 3] = GONE;
       q.variablesLeft--;
     }
   }
@@ -517,10 +520,10 @@ function takeMinDegree(q: QuotientGraph, b: DegreeBuckets): number {
 /** Entries L_p can have at most: A_p plus the lists of the elements of E_p. */
 function pivotListBound(q: QuotientGraph, p: number): number {
   const { store, lists, state } = q;
-  let bound = lists[3 * p + 1] - lists[3 * p + 2];
-  for (let t = lists[3 * p], end = t + lists[3 * p + 2]; t < end; t++) {
+  let bound = lists[5 * p + 1] - lists[5 * p + 2];
+  for (let t = lists[5 * p], end = t + lists[5 * p + 2]; t < end; t++) {
     const e = store[t];
-    if (state[e] === ELEMENT) bound += lists[3 * e + 1];
+    if (state[e] === ELEMENT) bound += lists[5 * e + 1];
   }
   return bound;
 }
@@ -536,19 +539,19 @@ function reserveStore(q: QuotientGraph, needed: number): void {
   const { n, lists, state } = q;
   const old = q.store;
   let live = 0;
-  for (let v = 0; v < n; v++) if (state[v] === VARIABLE || state[v] === ELEMENT) live += lists[3 * v + 1];
+  for (let v = 0; v < n; v++) if (state[v] === VARIABLE || state[v] === ELEMENT) live += lists[5 * v + 1];
   const capacity = Math.ceil(1.5 * (live + needed)) + n;
   const store = new Int32Array(capacity);
   let w = 0;
   for (let v = 0; v < n; v++) {
     const s = state[v];
     if (s !== VARIABLE && s !== ELEMENT) continue;
-    const from = lists[3 * v], nElements = s === VARIABLE ? lists[3 * v + 2] : 0;
-    lists[3 * v] = w;
+    const from = lists[5 * v], nElements = s === VARIABLE ? lists[5 * v + 2] : 0;
+    lists[5 * v] = w;
     for (let t = from; t < from + nElements; t++) if (state[old[t]] === ELEMENT) store[w++] = old[t];
-    if (s === VARIABLE) lists[3 * v + 2] = w - lists[3 * v];
-    for (let t = from + nElements; t < from + lists[3 * v + 1]; t++) if (state[old[t]] === VARIABLE) store[w++] = old[t];
-    lists[3 * v + 1] = w - lists[3 * v];
+    if (s === VARIABLE) lists[5 * v + 2] = w - lists[5 * v];
+    for (let t = from + nElements; t < from + lists[5 * v + 1]; t++) if (state[old[t]] === VARIABLE) store[w++] = old[t];
+    lists[5 * v + 1] = w - lists[5 * v];
   }
   q.store = store;
   q.storeEnd = w;
@@ -563,24 +566,24 @@ function reserveStore(q: QuotientGraph, needed: number): void {
  * off.
  */
 function formPivotElement(q: QuotientGraph, p: number): void {
-  const { store, lists, state, weight, parent, tag } = q;
+  const { store, lists, state, parent } = q;
   const inPivot = newStamp(q);
   state[p] = ELEMENT;
-  tag[p] = GONE;
+  lists[5 * p + 3] = GONE;
   q.variablesLeft--;
   const listStart = q.storeEnd;
   let w = listStart;
   let formedWeight = 0;
-  const pStart = lists[3 * p], pElements = lists[3 * p + 2], pEnd = pStart + lists[3 * p + 1];
+  const pStart = lists[5 * p], pElements = lists[5 * p + 2], pEnd = pStart + lists[5 * p + 1];
   for (let t = pStart; t < pStart + pElements; t++) {
     const e = store[t];
     if (state[e] !== ELEMENT) continue;
-    for (let u = lists[3 * e], end = u + lists[3 * e + 1]; u < end; u++) {
+    for (let u = lists[5 * e], end = u + lists[5 * e + 1]; u < end; u++) {
       const i = store[u];
-      if (tag[i] >= inPivot) continue; // in L_p already, or no longer a variable
-      tag[i] = inPivot;
+      if (lists[5 * i + 3] >= inPivot) continue; // in L_p already, or no longer a variable
+      lists[5 * i + 3] = inPivot;
       store[w++] = i;
-      formedWeight += weight[i];
+      formedWeight += lists[5 * i + 4];
       takeOffOutside(q, i, inPivot);
     }
     state[e] = ABSORBED;
@@ -588,10 +591,10 @@ function formPivotElement(q: QuotientGraph, p: number): void {
   }
   for (let t = pStart + pElements; t < pEnd; t++) {
     const i = store[t];
-    if (tag[i] >= inPivot) continue;
-    tag[i] = inPivot;
+    if (lists[5 * i + 3] >= inPivot) continue;
+    lists[5 * i + 3] = inPivot;
     store[w++] = i;
-    formedWeight += weight[i];
+    formedWeight += lists[5 * i + 4];
     takeOffOutside(q, i, inPivot);
   }
   q.pivotWeight = formedWeight;
@@ -599,9 +602,9 @@ function formPivotElement(q: QuotientGraph, p: number): void {
   q.pivotLength = w - listStart;
   q.pivotStamp = inPivot;
   q.storeEnd = w;
-  lists[3 * p] = listStart;
-  lists[3 * p + 1] = w - listStart;
-  lists[3 * p + 2] = 0;
+  lists[5 * p] = listStart;
+  lists[5 * p + 1] = w - listStart;
+  lists[5 * p + 2] = 0;
 }
 
 /**
@@ -610,9 +613,9 @@ function formPivotElement(q: QuotientGraph, p: number): void {
  * met here are about to be absorbed; their values are never read.
  */
 function takeOffOutside(q: QuotientGraph, i: number, stamp: number): void {
-  const { store, lists, state, weight, outside } = q;
-  const wi = weight[i];
-  for (let u = lists[3 * i], end = u + lists[3 * i + 2]; u < end; u++) {
+  const { store, lists, state, outside } = q;
+  const wi = lists[5 * i + 4];
+  for (let u = lists[5 * i], end = u + lists[5 * i + 2]; u < end; u++) {
     const e = store[u];
     if (state[e] !== ELEMENT) continue;
     if (outside[3 * e] !== stamp) {
@@ -636,13 +639,13 @@ function takeOffOutside(q: QuotientGraph, i: number, stamp: number): void {
  * back one slot: the write position then never passes the read position.
  */
 function updateVariableLists(q: QuotientGraph, p: number): number {
-  const { store, lists, state, weight, partialDegree, outside, parent, tag, candidates, candidateHash } = q;
+  const { store, lists, state, partialDegree, outside, parent, candidates, candidateHash } = q;
   const inPivot = q.pivotStamp;
   let massWeight = 0;
   let count = 0;
   for (let t = q.pivotStart, end = t + q.pivotLength; t < end; t++) {
     const i = store[t];
-    const from = lists[3 * i], to = from + lists[3 * i + 1], elementsEnd = from + lists[3 * i + 2];
+    const from = lists[5 * i], to = from + lists[5 * i + 1], elementsEnd = from + lists[5 * i + 2];
     let w = from;
     let held = p;
     let sum = 0;
@@ -665,27 +668,27 @@ function updateVariableLists(q: QuotientGraph, p: number): number {
     const elementsKept = w - from; // entries written so far = p and all kept elements but the held one
     for (let u = elementsEnd; u < to; u++) {
       const j = store[u];
-      if (tag[j] >= inPivot) continue; // reached through p now, or no longer a variable
+      if (lists[5 * j + 3] >= inPivot) continue; // reached through p now, or no longer a variable
       store[w++] = held;
       held = j;
-      sum += weight[j];
+      sum += lists[5 * j + 4];
       h = (h + j) | 0;
     }
     const kept = w - from; // kept entries, p not counted
     if (kept === 0) {
       // mass elimination: i is adjacent to p's element only
       state[i] = MERGED;
-      tag[i] = GONE;
+      lists[5 * i + 3] = GONE;
       joinMembers(q, p, i);
       q.variablesLeft--;
-      massWeight += weight[i];
+      massWeight += lists[5 * i + 4];
       continue;
     }
     // a list that did not shrink means a mirror entry was missing: the graph was not symmetric
     if (w >= to) throw new Error(`amdOrder: internal error, list of vertex ${i} did not shrink at pivot ${p}`);
     store[w++] = held;
-    lists[3 * i + 1] = kept + 1;
-    lists[3 * i + 2] = elementsKept + 1;
+    lists[5 * i + 1] = kept + 1;
+    lists[5 * i + 2] = elementsKept + 1;
     partialDegree[i] = sum;
     candidates[count] = i;
     candidateHash[count++] = h;
@@ -738,25 +741,25 @@ function sortByHash(ids: Int32Array, keys: Int32Array, count: number): void {
 
 /** Pairwise comparison within candidates[a…b) (equal hashes); merge the equal lists. */
 function mergeRun(q: QuotientGraph, a: number, b: number): void {
-  const { store, lists, state, weight, tag, listMark, candidates } = q;
+  const { store, lists, state, listMark, candidates } = q;
   for (let x = a; x < b; x++) {
     const i = candidates[x];
     if (state[i] !== VARIABLE) continue;
     let s = 0;
     for (let y = x + 1; y < b; y++) {
       const j = candidates[y];
-      if (state[j] !== VARIABLE || lists[3 * j + 1] !== lists[3 * i + 1] || lists[3 * j + 2] !== lists[3 * i + 2]) continue;
+      if (state[j] !== VARIABLE || lists[5 * j + 1] !== lists[5 * i + 1] || lists[5 * j + 2] !== lists[5 * i + 2]) continue;
       if (s === 0) {
         s = newStamp(q);
-        for (let u = lists[3 * i], uEnd = u + lists[3 * i + 1]; u < uEnd; u++) listMark[store[u]] = s;
+        for (let u = lists[5 * i], uEnd = u + lists[5 * i + 1]; u < uEnd; u++) listMark[store[u]] = s;
       }
       let same = true;
-      for (let u = lists[3 * j], uEnd = u + lists[3 * j + 1]; u < uEnd && same; u++) same = listMark[store[u]] === s;
+      for (let u = lists[5 * j], uEnd = u + lists[5 * j + 1]; u < uEnd && same; u++) same = listMark[store[u]] === s;
       if (!same) continue;
-      weight[i] += weight[j];
+      lists[5 * i + 4] += lists[5 * j + 4];
       joinMembers(q, i, j);
       state[j] = MERGED;
-      tag[j] = GONE;
+      lists[5 * j + 3] = GONE;
       q.variablesLeft--;
     }
   }
@@ -769,10 +772,10 @@ function mergeRun(q: QuotientGraph, a: number, b: number): void {
  * with p in this step leave theirs.
  */
 function finishPivot(q: QuotientGraph, buckets: DegreeBuckets, p: number, massWeight: number): void {
-  const { store, state, weight, outside, degree, partialDegree } = q;
+  const { store, state, lists, outside, degree, partialDegree } = q;
   const pivotWeight = q.pivotWeight - massWeight;
   outside[3 * p + 2] = pivotWeight;
-  q.weightLeft -= weight[p] + massWeight;
+  q.weightLeft -= lists[5 * p + 4] + massWeight;
   const left = q.weightLeft;
   const from = q.pivotStart;
   let w = from;
@@ -783,7 +786,7 @@ function finishPivot(q: QuotientGraph, buckets: DegreeBuckets, p: number, massWe
       continue;
     }
     store[w++] = i;
-    const wi = weight[i];
+    const wi = lists[5 * i + 4];
     const external = pivotWeight - wi;
     let d = degree[i] + external;
     const bound = partialDegree[i] + external;
@@ -795,7 +798,7 @@ function finishPivot(q: QuotientGraph, buckets: DegreeBuckets, p: number, massWe
       addToBucket(buckets, i, d);
     }
   }
-  q.lists[3 * p + 1] = w - from;
+  q.lists[5 * p + 1] = w - from;
   q.storeEnd = w;
 }
 
