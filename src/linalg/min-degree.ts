@@ -194,31 +194,31 @@ function breadthFirstRenumbering(
 ): { vertexOf: Int32Array; adjPtr: Int32Array; adjIdx: Int32Array; weights: Int32Array | undefined } {
   const vertexOf = new Int32Array(n);
   const numberOf = new Int32Array(n).fill(NONE);
-  let head = 0, tail = 0;
+  const ptr = new Int32Array(n + 1);
+  const idx = new Int32Array(adjPtr[n]);
+  const w = weights ? new Int32Array(n) : undefined;
+  // the k-th vertex taken from the queue is vertex k of the new numbering; its neighbours all
+  // have numbers once its list is scanned, so its renumbered list is written in the same pass
+  let head = 0, tail = 0, q = 0;
   for (let root = 0; root < n; root++) {
     if (numberOf[root] !== NONE) continue;
     numberOf[root] = tail;
     vertexOf[tail++] = root;
     while (head < tail) {
-      const v = vertexOf[head++];
+      const v = vertexOf[head];
+      if (w && weights) w[head] = weights[v];
       for (let p = adjPtr[v], end = adjPtr[v + 1]; p < end; p++) {
         const u = adjIdx[p];
-        if (numberOf[u] === NONE) {
-          numberOf[u] = tail;
-          vertexOf[tail++] = u;
+        let number = numberOf[u];
+        if (number === NONE) {
+          number = tail++;
+          numberOf[u] = number;
+          vertexOf[number] = u;
         }
+        idx[q++] = number;
       }
+      ptr[++head] = q;
     }
-  }
-  const ptr = new Int32Array(n + 1);
-  const idx = new Int32Array(adjPtr[n]);
-  const w = weights ? new Int32Array(n) : undefined;
-  let q = 0;
-  for (let k = 0; k < n; k++) {
-    const v = vertexOf[k];
-    if (w && weights) w[k] = weights[v];
-    for (let p = adjPtr[v], end = adjPtr[v + 1]; p < end; p++) idx[q++] = numberOf[adjIdx[p]];
-    ptr[k + 1] = q;
   }
   return { vertexOf, adjPtr: ptr, adjIdx: idx, weights: w };
 }
