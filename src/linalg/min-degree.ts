@@ -284,8 +284,10 @@ function quotientGraphOf(
   symmetricPattern: boolean,
 ): QuotientGraph {
   const nnz = adjPtr[n];
-  // elbow room (common practice): element lists are appended; garbage collection reclaims space
-  const capacity = (symmetricPattern ? nnz : 2 * nnz) + (nnz >> 2) + 2 * n + 16;
+  // elbow room (common practice): element lists are appended; garbage collection reclaims space.
+  // nnz/2 + 2n: no collection on the bench plates (nnz/4 + 2n needed one on the LST and hole
+  // plates at 200k dofs, and replacing the store array made V8 recompile the step functions)
+  const capacity = (symmetricPattern ? nnz : 2 * nnz) + (nnz >> 1) + 2 * n + 16;
   const q = emptyQuotientGraph(n, capacity, weights);
   if (symmetricPattern) {
     q.store.set(adjIdx.subarray(0, nnz));
