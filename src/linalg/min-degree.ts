@@ -26,6 +26,9 @@
  * (common practice for "dense" rows, which would make every step touch them; none occur in
  * finite element graphs).
  *
+ * A large graph whose numbering is scattered is first renumbered breadth first (cache
+ * locality; `breadthFirstRenumbering`), and the order mapped back.
+ *
  * The output is a postorder of the assembly tree (element e's parent = the pivot that absorbed
  * it), each pivot followed by the variables merged or mass-eliminated into it.
  */
