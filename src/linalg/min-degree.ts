@@ -26,6 +26,9 @@
  * (common practice for "dense" rows, which would make every step touch them; none occur in
  * finite element graphs).
  *
+ * A large graph whose numbering is scattered is first renumbered breadth first (cache
+ * locality; `breadthFirstRenumbering`), and the order mapped back.
+ *
  * The output is a postorder of the assembly tree (element e's parent = the pivot that absorbed
  * it), each pivot followed by the variables merged or mass-eliminated into it.
  */
@@ -47,7 +50,7 @@ const GONE = 0x7fffffff;
 
 /**
  * Quotient graph and the working arrays of one ordering. All lists live in `store`: vertex v
- * owns store[start[v] … start[v] + length[v]); a variable's first `elementCount[v]` entries are
+ * owns store[lists[5 * v] … lists[5 * v] + lists[5 * v + 1]); a variable's first `lists[5 * v + 2]` entries are
  * elements, the rest variables; an element's entries are variables. Entries of vertices that
  * left (merged, absorbed) stay in lists until the list is next rewritten; scans skip them
  * (elements by `state`, variables by `tag`).
@@ -57,21 +60,24 @@ interface QuotientGraph {
   store: Int32Array;
   /** first free slot of store */
   storeEnd: number;
-  readonly start: Int32Array;
-  readonly length: Int32Array;
-  readonly elementCount: Int32Array;
+  /**
+   * Per vertex v, side by side (one memory fetch for what a scan reads of a vertex):
+   * [5v] = start of its list in store, [5v + 1] = its length, [5v + 2] = how many of its first
+   * entries are elements, [5v + 3] = its tag (below), [5v + 4] = its weight: the rows a
+   * (super)variable stands for, kept by pivots and merged variables for the record
+   */
+  readonly lists: Int32Array;
   readonly state: Uint8Array;
-  /** rows a (super)variable stands for; kept by pivots and merged variables for the record */
-  readonly weight: Int32Array;
-  /** |L_e|: summed weight of the variables of element e */
-  readonly elementWeight: Int32Array;
+  /* Tag (lists[5v + 3]): variable v is in the current L_p when its tag is the step's stamp; GONE
+   * once v is no longer a variable. So one test, tag ≥ stamp, skips both in every scan of the
+   * current step. */
   /** approximate external degree d̄_i of each variable (weights of its neighbours) */
   readonly degree: Int32Array;
   /** |A_i| + Σ |L_e \ L_p| of the variables of the current L_p (step 4) */
   readonly partialDegree: Int32Array;
   /**
-   * Per element e, side by side (one memory fetch): [2e] = stamp of the step that last met e,
-   * [2e + 1] = |L_e \ L_p| in that step
+   * Per element e, side by side (one memory fetch): [3e] = stamp of the step that last met e,
+   * [3e + 1] = |L_e \ L_p| in that step, [3e + 2] = |L_e| (summed weight of its variables)
    */
   readonly outside: Int32Array;
   /** assembly tree: parent[e] = the pivot whose element absorbed element e (NONE for a root) */
@@ -82,11 +88,6 @@ interface QuotientGraph {
    */
   readonly memberNext: Int32Array;
   readonly memberTail: Int32Array;
-  /**
-   * Variable v is in the current L_p when tag[v] = the step's stamp; GONE once v is no longer a
-   * variable. So one test, tag[v] ≥ stamp, skips both in every scan of the current step.
-   */
-  readonly tag: Int32Array;
   /** stamp marks for comparing two lists (steps 5 and the initial twins) */
   readonly listMark: Int32Array;
   stamp: number;
@@ -144,7 +145,96 @@ export function amdOrder(
 ): Int32Array {
   checkGraph(n, adjPtr, adjIdx, weights);
   if (n === 0) return new Int32Array(0);
-  const q = quotientGraphOf(n, adjPtr, adjIdx, weights, options.symmetricPattern ?? false);
+  if (!isScattered(n, adjPtr, adjIdx)) return orderQuotientGraph(n, adjPtr, adjIdx, weights, options.symmetricPattern ?? false);
+  const local = breadthFirstRenumbering(n, adjPtr, adjIdx, weights);
+  const localPerm = orderQuotientGraph(n, local.adjPtr, local.adjIdx, local.weights, options.symmetricPattern ?? false);
+  const perm = new Int32Array(n);
+  for (let k = 0; k < n; k++) perm[k] = local.vertexOf[localPerm[k]];
+  return perm;
+}
+
+/**
+ * From this many vertices on, a scattered graph is renumbered breadth first before the
+ * elimination (see `breadthFirstRenumbering`). Below it the working arrays fit the processor
+ * caches whatever the numbering, and the caller's numbering decides the ties as before.
+ */
+const RENUMBER_MIN_VERTICES = 4096;
+
+/**
+ * Whether the numbering is scattered: at least RENUMBER_MIN_VERTICES vertices and a mean
+ * |i − j| over the entries above 4√n. A plane mesh numbered along a sweep keeps neighbours
+ * about a front's width (≈ √n) apart: the structured bench plates 151–215 for √n ≈ 317, so
+ * their numbering, and their order, stay as given; the hole plate's mesher numbering 32 791.
+ * One sequential pass over the adjacency.
+ */
+function isScattered(n: number, adjPtr: Int32Array, adjIdx: Int32Array): boolean {
+  if (n < RENUMBER_MIN_VERTICES) return false;
+  const nnz = adjPtr[n];
+  if (nnz === 0) return false;
+  let span = 0;
+  for (let v = 0; v < n; v++) {
+    for (let p = adjPtr[v], end = adjPtr[v + 1]; p < end; p++) span += Math.abs(adjIdx[p] - v);
+  }
+  return span / nnz > 4 * Math.sqrt(n);
+}
+
+/**
+ * The elimination touches, at each pivot, the per-vertex arrays of the pivot's neighbours and
+ * of their elements. A mesher's node numbering can be scattered over the whole range (the
+ * 105 319-node hole plate graph: mean |i − j| over its edges 32 791, two thirds of its edges
+ * span more than 4 096 numbers; the structured plates: 151–215), and then nearly every such
+ * access misses the caches. A breadth-first numbering (levels of the search from vertex 0, each
+ * further component from its lowest unreached vertex) keeps neighbours a front's width apart
+ * (mean 339 on the hole plate) at the cost of one pass over the adjacency. It changes which
+ * vertex wins a tie of degrees, hence the order, deterministically (docs/linalg.md).
+ * For an unsymmetric pattern the search follows the given entries only (still a permutation).
+ */
+function breadthFirstRenumbering(
+  n: number,
+  adjPtr: Int32Array,
+  adjIdx: Int32Array,
+  weights: Int32Array | undefined,
+): { vertexOf: Int32Array; adjPtr: Int32Array; adjIdx: Int32Array; weights: Int32Array | undefined } {
+  const vertexOf = new Int32Array(n);
+  const numberOf = new Int32Array(n).fill(NONE);
+  const ptr = new Int32Array(n + 1);
+  const idx = new Int32Array(adjPtr[n]);
+  const w = weights ? new Int32Array(n) : undefined;
+  // the k-th vertex taken from the queue is vertex k of the new numbering; its neighbours all
+  // have numbers once its list is scanned, so its renumbered list is written in the same pass
+  let head = 0, tail = 0, q = 0;
+  for (let root = 0; root < n; root++) {
+    if (numberOf[root] !== NONE) continue;
+    numberOf[root] = tail;
+    vertexOf[tail++] = root;
+    while (head < tail) {
+      const v = vertexOf[head];
+      if (w && weights) w[head] = weights[v];
+      for (let p = adjPtr[v], end = adjPtr[v + 1]; p < end; p++) {
+        const u = adjIdx[p];
+        let number = numberOf[u];
+        if (number === NONE) {
+          number = tail++;
+          numberOf[u] = number;
+          vertexOf[number] = u;
+        }
+        idx[q++] = number;
+      }
+      ptr[++head] = q;
+    }
+  }
+  return { vertexOf, adjPtr: ptr, adjIdx: idx, weights: w };
+}
+
+/** amdOrder on a checked, non-empty graph in the numbering it is given. */
+function orderQuotientGraph(
+  n: number,
+  adjPtr: Int32Array,
+  adjIdx: Int32Array,
+  weights: Int32Array | undefined,
+  symmetricPattern: boolean,
+): Int32Array {
+  const q = quotientGraphOf(n, adjPtr, adjIdx, weights, symmetricPattern);
   withholdDense(q);
   degreesAndTwins(q);
   const buckets = degreeBuckets(q);
@@ -197,22 +287,24 @@ function quotientGraphOf(
   symmetricPattern: boolean,
 ): QuotientGraph {
   const nnz = adjPtr[n];
-  // elbow room (common practice): element lists are appended; garbage collection reclaims space
-  const capacity = (symmetricPattern ? nnz : 2 * nnz) + (nnz >> 2) + 2 * n + 16;
+  // elbow room (common practice): element lists are appended; garbage collection reclaims space.
+  // nnz/2 + 2n: no collection on the bench plates (nnz/4 + 2n needed one on the LST and hole
+  // plates at 200k dofs, and replacing the store array made V8 recompile the step functions)
+  const capacity = (symmetricPattern ? nnz : 2 * nnz) + (nnz >> 1) + 2 * n + 16;
   const q = emptyQuotientGraph(n, capacity, weights);
   if (symmetricPattern) {
     q.store.set(adjIdx.subarray(0, nnz));
-    const { start, length } = q;
+    const { lists } = q;
     for (let i = 0; i < n; i++) {
-      start[i] = adjPtr[i];
-      length[i] = adjPtr[i + 1] - adjPtr[i];
+      lists[5 * i] = adjPtr[i];
+      lists[5 * i + 1] = adjPtr[i + 1] - adjPtr[i];
     }
   } else {
-    symmetricLists(n, adjPtr, adjIdx, q.store, q.start, q.length);
+    symmetricLists(n, adjPtr, adjIdx, q.store, q.lists);
   }
-  q.storeEnd = q.start[n - 1] + q.length[n - 1];
+  q.storeEnd = q.lists[5 * (n - 1)] + q.lists[5 * (n - 1) + 1];
   let total = 0;
-  for (let i = 0; i < n; i++) total += q.weight[i];
+  for (let i = 0; i < n; i++) total += q.lists[5 * i + 4];
   if (total > 0x3fffffff) throw new RangeError(`amdOrder: total vertex weight ${total} exceeds 2^30`);
   q.weightLeft = total;
   return q;
@@ -227,19 +319,14 @@ function emptyQuotientGraph(n: number, capacity: number, weights: Int32Array | u
     n,
     store: new Int32Array(capacity),
     storeEnd: 0,
-    start: new Int32Array(n),
-    length: new Int32Array(n),
-    elementCount: new Int32Array(n),
+    lists: vertexRecords(n, weights),
     state: new Uint8Array(n), // all VARIABLE
-    weight: weights ? weights.slice() : new Int32Array(n).fill(1),
-    elementWeight: new Int32Array(n),
     degree: new Int32Array(n),
     partialDegree: new Int32Array(n),
-    outside: new Int32Array(2 * n),
+    outside: new Int32Array(3 * n),
     parent: new Int32Array(n).fill(NONE),
     memberNext: new Int32Array(n).fill(NONE),
     memberTail: identity(n),
-    tag: new Int32Array(n),
     listMark: new Int32Array(n),
     stamp: 0,
     hashHead: new Int32Array(hashSize(n)).fill(NONE),
@@ -256,6 +343,13 @@ function emptyQuotientGraph(n: number, capacity: number, weights: Int32Array | u
   };
 }
 
+/** The per-vertex records of `lists`: lists empty, tags 0, weights given (default 1). */
+function vertexRecords(n: number, weights: Int32Array | undefined): Int32Array {
+  const records = new Int32Array(5 * n);
+  for (let v = 0; v < n; v++) records[5 * v + 4] = weights ? weights[v] : 1;
+  return records;
+}
+
 function identity(n: number): Int32Array {
   const a = new Int32Array(n);
   for (let i = 0; i < n; i++) a[i] = i;
@@ -263,7 +357,7 @@ function identity(n: number): Int32Array {
 }
 
 /** Lists of A + Aᵀ without self loops or repeats: row i of A merged with row i of Aᵀ. */
-function symmetricLists(n: number, adjPtr: Int32Array, adjIdx: Int32Array, store: Int32Array, start: Int32Array, length: Int32Array): void {
+function symmetricLists(n: number, adjPtr: Int32Array, adjIdx: Int32Array, store: Int32Array, lists: Int32Array): void {
   const nnz = adjPtr[n];
   const tPtr = new Int32Array(n + 1);
   for (let p = 0; p < nnz; p++) tPtr[adjIdx[p] + 1]++;
@@ -274,7 +368,7 @@ function symmetricLists(n: number, adjPtr: Int32Array, adjIdx: Int32Array, store
   const seen = new Int32Array(n).fill(NONE);
   let w = 0;
   for (let i = 0; i < n; i++) {
-    start[i] = w;
+    lists[5 * i] = w;
     seen[i] = i;
     for (let p = adjPtr[i]; p < adjPtr[i + 1]; p++) {
       const j = adjIdx[p];
@@ -284,7 +378,7 @@ function symmetricLists(n: number, adjPtr: Int32Array, adjIdx: Int32Array, store
       const j = tIdx[p];
       if (seen[j] !== i) { seen[j] = i; store[w++] = j; }
     }
-    length[i] = w - start[i];
+    lists[5 * i + 1] = w - lists[5 * i];
   }
 }
 
@@ -298,10 +392,11 @@ function hashSize(n: number): number {
 /** A fresh mark value for `tag`, `listMark` and `outside` (older marks read as unmarked). */
 function newStamp(q: QuotientGraph): number {
   if (q.stamp >= 0x3fffffff) {
-    const tag = q.tag;
-    for (let v = 0; v < q.n; v++) if (tag[v] !== GONE) tag[v] = 0;
+    const lists = q.lists;
+    for (let v = 0; v < q.n; v++) if (lists[5 * v + 3] !== GONE) lists[5 * v + 3] = 0;
     q.listMark.fill(0);
-    q.outside.fill(0);
+    const outside = q.outside;
+    for (let e = 0; e < q.n; e++) outside[3 * e] = 0;
     q.stamp = 0;
   }
   return ++q.stamp;
@@ -314,10 +409,10 @@ function newStamp(q: QuotientGraph): number {
 function withholdDense(q: QuotientGraph): void {
   const limit = Math.max(16, Math.floor(10 * Math.sqrt(q.n)));
   for (let i = 0; i < q.n; i++) {
-    if (q.length[i] > limit) {
+    if (q.lists[5 * i + 1] > limit) {
       q.state[i] = DENSE;
-      q.tag[i] = GONE;
-      q.weightLeft -= q.weight[i];
+      q.lists[5 * i + 3] = GONE;
+      q.weightLeft -= q.lists[5 * i + 4];
       q.variablesLeft--;
     }
   }
@@ -331,16 +426,16 @@ function withholdDense(q: QuotientGraph): void {
  * j and i gains j's weight) and takes j's weight off i's own degree.
  */
 function degreesAndTwins(q: QuotientGraph): void {
-  const { store, start, length, state, weight, degree, hashHead, hashNext } = q;
+  const { store, lists, state, degree, hashHead, hashNext } = q;
   const mask = hashHead.length - 1;
   for (let i = q.n - 1; i >= 0; i--) {
     if (state[i] !== VARIABLE) continue;
     let h = i;
     let d = 0;
-    for (let p = start[i], end = p + length[i]; p < end; p++) {
+    for (let p = lists[5 * i], end = p + lists[5 * i + 1]; p < end; p++) {
       const j = store[p];
       h = (h + j) | 0;
-      if (state[j] === VARIABLE) d += weight[j];
+      if (state[j] === VARIABLE) d += lists[5 * j + 4];
     }
     degree[i] = d;
     const bucket = h & mask;
@@ -357,26 +452,26 @@ function degreesAndTwins(q: QuotientGraph): void {
 
 /** Compare the closed neighbourhoods of one hash bucket's vertices pairwise; merge the equal. */
 function mergeTwinsOfBucket(q: QuotientGraph, first: number): void {
-  const { store, start, length, state, weight, degree, tag, listMark, hashNext } = q;
+  const { store, lists, state, degree, listMark, hashNext } = q;
   for (let i = first; i !== NONE; i = hashNext[i]) {
     if (state[i] !== VARIABLE) continue;
     let s = 0;
     for (let j = hashNext[i]; j !== NONE; j = hashNext[j]) {
-      if (state[j] !== VARIABLE || length[j] !== length[i]) continue;
+      if (state[j] !== VARIABLE || lists[5 * j + 1] !== lists[5 * i + 1]) continue;
       if (s === 0) {
         s = newStamp(q);
         listMark[i] = s;
-        for (let p = start[i], end = p + length[i]; p < end; p++) listMark[store[p]] = s;
+        for (let p = lists[5 * i], end = p + lists[5 * i + 1]; p < end; p++) listMark[store[p]] = s;
       }
       if (listMark[j] !== s) continue;
       let same = true;
-      for (let p = start[j], end = p + length[j]; p < end && same; p++) same = listMark[store[p]] === s;
+      for (let p = lists[5 * j], end = p + lists[5 * j + 1]; p < end && same; p++) same = listMark[store[p]] === s;
       if (!same) continue;
-      degree[i] -= weight[j];
-      weight[i] += weight[j];
+      degree[i] -= lists[5 * j + 4];
+      lists[5 * i + 4] += lists[5 * j + 4];
       joinMembers(q, i, j);
       state[j] = MERGED;
-      tag[j] = GONE;
+      lists[5 * j + 3] = GONE;
       q.variablesLeft--;
     }
   }
@@ -429,11 +524,11 @@ function takeMinDegree(q: QuotientGraph, b: DegreeBuckets): number {
 
 /** Entries L_p can have at most: A_p plus the lists of the elements of E_p. */
 function pivotListBound(q: QuotientGraph, p: number): number {
-  const { store, start, length, elementCount, state } = q;
-  let bound = length[p] - elementCount[p];
-  for (let t = start[p], end = t + elementCount[p]; t < end; t++) {
+  const { store, lists, state } = q;
+  let bound = lists[5 * p + 1] - lists[5 * p + 2];
+  for (let t = lists[5 * p], end = t + lists[5 * p + 2]; t < end; t++) {
     const e = store[t];
-    if (state[e] === ELEMENT) bound += length[e];
+    if (state[e] === ELEMENT) bound += lists[5 * e + 1];
   }
   return bound;
 }
@@ -446,22 +541,22 @@ function pivotListBound(q: QuotientGraph, p: number): number {
  */
 function reserveStore(q: QuotientGraph, needed: number): void {
   if (q.storeEnd + needed <= q.store.length) return;
-  const { n, start, length, elementCount, state } = q;
+  const { n, lists, state } = q;
   const old = q.store;
   let live = 0;
-  for (let v = 0; v < n; v++) if (state[v] === VARIABLE || state[v] === ELEMENT) live += length[v];
+  for (let v = 0; v < n; v++) if (state[v] === VARIABLE || state[v] === ELEMENT) live += lists[5 * v + 1];
   const capacity = Math.ceil(1.5 * (live + needed)) + n;
   const store = new Int32Array(capacity);
   let w = 0;
   for (let v = 0; v < n; v++) {
     const s = state[v];
     if (s !== VARIABLE && s !== ELEMENT) continue;
-    const from = start[v], nElements = s === VARIABLE ? elementCount[v] : 0;
-    start[v] = w;
+    const from = lists[5 * v], nElements = s === VARIABLE ? lists[5 * v + 2] : 0;
+    lists[5 * v] = w;
     for (let t = from; t < from + nElements; t++) if (state[old[t]] === ELEMENT) store[w++] = old[t];
-    if (s === VARIABLE) elementCount[v] = w - start[v];
-    for (let t = from + nElements; t < from + length[v]; t++) if (state[old[t]] === VARIABLE) store[w++] = old[t];
-    length[v] = w - start[v];
+    if (s === VARIABLE) lists[5 * v + 2] = w - lists[5 * v];
+    for (let t = from + nElements; t < from + lists[5 * v + 1]; t++) if (state[old[t]] === VARIABLE) store[w++] = old[t];
+    lists[5 * v + 1] = w - lists[5 * v];
   }
   q.store = store;
   q.storeEnd = w;
@@ -476,24 +571,24 @@ function reserveStore(q: QuotientGraph, needed: number): void {
  * off.
  */
 function formPivotElement(q: QuotientGraph, p: number): void {
-  const { store, start, length, elementCount, state, weight, parent, tag } = q;
+  const { store, lists, state, parent } = q;
   const inPivot = newStamp(q);
   state[p] = ELEMENT;
-  tag[p] = GONE;
+  lists[5 * p + 3] = GONE;
   q.variablesLeft--;
   const listStart = q.storeEnd;
   let w = listStart;
   let formedWeight = 0;
-  const pStart = start[p], pElements = elementCount[p], pEnd = pStart + length[p];
+  const pStart = lists[5 * p], pElements = lists[5 * p + 2], pEnd = pStart + lists[5 * p + 1];
   for (let t = pStart; t < pStart + pElements; t++) {
     const e = store[t];
     if (state[e] !== ELEMENT) continue;
-    for (let u = start[e], end = u + length[e]; u < end; u++) {
+    for (let u = lists[5 * e], end = u + lists[5 * e + 1]; u < end; u++) {
       const i = store[u];
-      if (tag[i] >= inPivot) continue; // in L_p already, or no longer a variable
-      tag[i] = inPivot;
+      if (lists[5 * i + 3] >= inPivot) continue; // in L_p already, or no longer a variable
+      lists[5 * i + 3] = inPivot;
       store[w++] = i;
-      formedWeight += weight[i];
+      formedWeight += lists[5 * i + 4];
       takeOffOutside(q, i, inPivot);
     }
     state[e] = ABSORBED;
@@ -501,10 +596,10 @@ function formPivotElement(q: QuotientGraph, p: number): void {
   }
   for (let t = pStart + pElements; t < pEnd; t++) {
     const i = store[t];
-    if (tag[i] >= inPivot) continue;
-    tag[i] = inPivot;
+    if (lists[5 * i + 3] >= inPivot) continue;
+    lists[5 * i + 3] = inPivot;
     store[w++] = i;
-    formedWeight += weight[i];
+    formedWeight += lists[5 * i + 4];
     takeOffOutside(q, i, inPivot);
   }
   q.pivotWeight = formedWeight;
@@ -512,9 +607,9 @@ function formPivotElement(q: QuotientGraph, p: number): void {
   q.pivotLength = w - listStart;
   q.pivotStamp = inPivot;
   q.storeEnd = w;
-  start[p] = listStart;
-  length[p] = w - listStart;
-  elementCount[p] = 0;
+  lists[5 * p] = listStart;
+  lists[5 * p + 1] = w - listStart;
+  lists[5 * p + 2] = 0;
 }
 
 /**
@@ -523,16 +618,16 @@ function formPivotElement(q: QuotientGraph, p: number): void {
  * met here are about to be absorbed; their values are never read.
  */
 function takeOffOutside(q: QuotientGraph, i: number, stamp: number): void {
-  const { store, start, elementCount, state, weight, elementWeight, outside } = q;
-  const wi = weight[i];
-  for (let u = start[i], end = u + elementCount[i]; u < end; u++) {
+  const { store, lists, state, outside } = q;
+  const wi = lists[5 * i + 4];
+  for (let u = lists[5 * i], end = u + lists[5 * i + 2]; u < end; u++) {
     const e = store[u];
     if (state[e] !== ELEMENT) continue;
-    if (outside[2 * e] !== stamp) {
-      outside[2 * e] = stamp;
-      outside[2 * e + 1] = elementWeight[e] - wi;
+    if (outside[3 * e] !== stamp) {
+      outside[3 * e] = stamp;
+      outside[3 * e + 1] = outside[3 * e + 2] - wi;
     } else {
-      outside[2 * e + 1] -= wi;
+      outside[3 * e + 1] -= wi;
     }
   }
 }
@@ -549,13 +644,13 @@ function takeOffOutside(q: QuotientGraph, i: number, stamp: number): void {
  * back one slot: the write position then never passes the read position.
  */
 function updateVariableLists(q: QuotientGraph, p: number): number {
-  const { store, start, length, elementCount, state, weight, partialDegree, outside, parent, tag, candidates, candidateHash } = q;
+  const { store, lists, state, partialDegree, outside, parent, candidates, candidateHash } = q;
   const inPivot = q.pivotStamp;
   let massWeight = 0;
   let count = 0;
   for (let t = q.pivotStart, end = t + q.pivotLength; t < end; t++) {
     const i = store[t];
-    const from = start[i], to = from + length[i], elementsEnd = from + elementCount[i];
+    const from = lists[5 * i], to = from + lists[5 * i + 1], elementsEnd = from + lists[5 * i + 2];
     let w = from;
     let held = p;
     let sum = 0;
@@ -563,7 +658,7 @@ function updateVariableLists(q: QuotientGraph, p: number): number {
     for (let u = from; u < elementsEnd; u++) {
       const e = store[u];
       if (state[e] !== ELEMENT) continue;
-      const ext = outside[2 * e + 1];
+      const ext = outside[3 * e + 1];
       if (ext === 0) {
         // aggressive absorption: L_e ⊆ L_p, so p's element covers e's
         state[e] = ABSORBED;
@@ -578,27 +673,27 @@ function updateVariableLists(q: QuotientGraph, p: number): number {
     const elementsKept = w - from; // entries written so far = p and all kept elements but the held one
     for (let u = elementsEnd; u < to; u++) {
       const j = store[u];
-      if (tag[j] >= inPivot) continue; // reached through p now, or no longer a variable
+      if (lists[5 * j + 3] >= inPivot) continue; // reached through p now, or no longer a variable
       store[w++] = held;
       held = j;
-      sum += weight[j];
+      sum += lists[5 * j + 4];
       h = (h + j) | 0;
     }
     const kept = w - from; // kept entries, p not counted
     if (kept === 0) {
       // mass elimination: i is adjacent to p's element only
       state[i] = MERGED;
-      tag[i] = GONE;
+      lists[5 * i + 3] = GONE;
       joinMembers(q, p, i);
       q.variablesLeft--;
-      massWeight += weight[i];
+      massWeight += lists[5 * i + 4];
       continue;
     }
     // a list that did not shrink means a mirror entry was missing: the graph was not symmetric
     if (w >= to) throw new Error(`amdOrder: internal error, list of vertex ${i} did not shrink at pivot ${p}`);
     store[w++] = held;
-    length[i] = kept + 1;
-    elementCount[i] = elementsKept + 1;
+    lists[5 * i + 1] = kept + 1;
+    lists[5 * i + 2] = elementsKept + 1;
     partialDegree[i] = sum;
     candidates[count] = i;
     candidateHash[count++] = h;
@@ -651,25 +746,25 @@ function sortByHash(ids: Int32Array, keys: Int32Array, count: number): void {
 
 /** Pairwise comparison within candidates[a…b) (equal hashes); merge the equal lists. */
 function mergeRun(q: QuotientGraph, a: number, b: number): void {
-  const { store, start, length, elementCount, state, weight, tag, listMark, candidates } = q;
+  const { store, lists, state, listMark, candidates } = q;
   for (let x = a; x < b; x++) {
     const i = candidates[x];
     if (state[i] !== VARIABLE) continue;
     let s = 0;
     for (let y = x + 1; y < b; y++) {
       const j = candidates[y];
-      if (state[j] !== VARIABLE || length[j] !== length[i] || elementCount[j] !== elementCount[i]) continue;
+      if (state[j] !== VARIABLE || lists[5 * j + 1] !== lists[5 * i + 1] || lists[5 * j + 2] !== lists[5 * i + 2]) continue;
       if (s === 0) {
         s = newStamp(q);
-        for (let u = start[i], uEnd = u + length[i]; u < uEnd; u++) listMark[store[u]] = s;
+        for (let u = lists[5 * i], uEnd = u + lists[5 * i + 1]; u < uEnd; u++) listMark[store[u]] = s;
       }
       let same = true;
-      for (let u = start[j], uEnd = u + length[j]; u < uEnd && same; u++) same = listMark[store[u]] === s;
+      for (let u = lists[5 * j], uEnd = u + lists[5 * j + 1]; u < uEnd && same; u++) same = listMark[store[u]] === s;
       if (!same) continue;
-      weight[i] += weight[j];
+      lists[5 * i + 4] += lists[5 * j + 4];
       joinMembers(q, i, j);
       state[j] = MERGED;
-      tag[j] = GONE;
+      lists[5 * j + 3] = GONE;
       q.variablesLeft--;
     }
   }
@@ -682,10 +777,10 @@ function mergeRun(q: QuotientGraph, a: number, b: number): void {
  * with p in this step leave theirs.
  */
 function finishPivot(q: QuotientGraph, buckets: DegreeBuckets, p: number, massWeight: number): void {
-  const { store, state, weight, elementWeight, degree, partialDegree } = q;
+  const { store, state, lists, outside, degree, partialDegree } = q;
   const pivotWeight = q.pivotWeight - massWeight;
-  elementWeight[p] = pivotWeight;
-  q.weightLeft -= weight[p] + massWeight;
+  outside[3 * p + 2] = pivotWeight;
+  q.weightLeft -= lists[5 * p + 4] + massWeight;
   const left = q.weightLeft;
   const from = q.pivotStart;
   let w = from;
@@ -696,7 +791,7 @@ function finishPivot(q: QuotientGraph, buckets: DegreeBuckets, p: number, massWe
       continue;
     }
     store[w++] = i;
-    const wi = weight[i];
+    const wi = lists[5 * i + 4];
     const external = pivotWeight - wi;
     let d = degree[i] + external;
     const bound = partialDegree[i] + external;
@@ -708,7 +803,7 @@ function finishPivot(q: QuotientGraph, buckets: DegreeBuckets, p: number, massWe
       addToBucket(buckets, i, d);
     }
   }
-  q.length[p] = w - from;
+  q.lists[5 * p + 1] = w - from;
   q.storeEnd = w;
 }
 
