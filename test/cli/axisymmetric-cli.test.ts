@@ -3,30 +3,12 @@
  * through the built binary, the numbers read back from field.csv; a section reaching r < 0 is an
  * error naming the file, line and key, exit status 1, no stack trace.
  */
-import { execFile } from 'node:child_process';
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { readFieldColumns, runCli } from '../pipeline/helpers.js';
 
-const root = join(import.meta.dirname, '..', '..');
-const bin = join(root, 'dist', 'cli', 'main.js');
-
-function run(args: string[], cwd: string): Promise<{ code: number; stdout: string; stderr: string }> {
-  return new Promise((resolve) => {
-    execFile(process.execPath, [bin, ...args], { cwd, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' }, timeout: 60_000, maxBuffer: 64 << 20 }, (err, stdout, stderr) => {
-      resolve({ code: err ? (typeof err.code === 'number' ? err.code : -1) : 0, stdout, stderr });
-    });
-  });
-}
-
-function readField(file: string): Record<string, number[]> {
-  const [, header, ...rows] = readFileSync(file, 'utf8').trim().split('\r\n');
-  const names = header.split(',').map((h) => h.replace(/"/g, ''));
-  const cols: Record<string, number[]> = Object.fromEntries(names.map((n) => [n, []]));
-  for (const r of rows) r.split(',').forEach((v, i) => cols[names[i]].push(Number(v)));
-  return cols;
-}
 
 const rod = (outline: string) => `
 title: round bar in tension
@@ -45,11 +27,11 @@ describe('peakwise solve on an axisymmetric section', () => {
   it('a bar in uniform tension: σz = 120, σr = σθ = 0 in field.csv, u_r = −νσ r/E, total force σπR² balanced', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'pw-axisym-'));
     writeFileSync(join(dir, 'rod.yaml'), rod('[[0, 0], [10, 0], [10, 40], [0, 40]]'));
-    const r = await run(['solve', 'rod.yaml', '--out', 'out'], dir);
+    const r = await runCli(['solve', 'rod.yaml', '--out', 'out'], dir);
     expect(r.code).toBe(0);
     // the sums are the whole revolution's: 120 · π · 10² along the axis, 0 radially
     expect(r.stdout).toMatch(/applied sum\s+\(0, 37699\.1\) N/);
-    const cols = readField(join(dir, 'out', 'field.csv'));
+    const cols = readFieldColumns(join(dir, 'out', 'field.csv'));
     // measured: round-off — a uniform state that every element reproduces
     for (const v of cols.syy_recovered_MPa) expect(Math.abs(v / 120 - 1)).toBeLessThan(1e-9);
     for (const name of ['sxx_recovered_MPa', 'stheta_recovered_MPa']) for (const v of cols[name]) expect(Math.abs(v)).toBeLessThan(1e-7);
@@ -59,7 +41,7 @@ describe('peakwise solve on an axisymmetric section', () => {
   it('material at r < 0: exit 1, file, line and key named, no stack trace', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'pw-axisym-'));
     writeFileSync(join(dir, 'bad.yaml'), rod('[[0, 0], [10, 0], [10, 40], [-2, 40]]'));
-    const r = await run(['solve', 'bad.yaml', '--out', 'out'], dir);
+    const r = await runCli(['solve', 'bad.yaml', '--out', 'out'], dir);
     expect(r.code).toBe(1);
     expect(r.stderr).toMatch(/bad\.yaml/);
     expect(r.stderr).toMatch(/plate\.outline\[3\]\[0\]/);

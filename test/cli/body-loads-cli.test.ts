@@ -2,31 +2,12 @@
  * The body-load keys end to end (issue 14): a model file in a temporary folder, `peakwise solve`
  * through the built binary, the numbers read back from --json and field.csv.
  */
-import { execFile } from 'node:child_process';
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { readFieldColumns, runCli } from '../pipeline/helpers.js';
 
-const root = join(import.meta.dirname, '..', '..');
-const bin = join(root, 'dist', 'cli', 'main.js');
-
-function run(args: string[], cwd: string): Promise<{ code: number; stdout: string; stderr: string }> {
-  return new Promise((resolve) => {
-    execFile(process.execPath, [bin, ...args], { cwd, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' }, timeout: 60_000, maxBuffer: 64 << 20 }, (err, stdout, stderr) => {
-      resolve({ code: err ? (typeof err.code === 'number' ? err.code : -1) : 0, stdout, stderr });
-    });
-  });
-}
-
-/** field.csv as columns by header name (after the stamp line). */
-function readField(file: string): Record<string, number[]> {
-  const [, header, ...rows] = readFileSync(file, 'utf8').trim().split('\r\n');
-  const names = header.split(',').map((h) => h.replace(/"/g, ''));
-  const cols: Record<string, number[]> = Object.fromEntries(names.map((n) => [n, []]));
-  for (const r of rows) r.split(',').forEach((v, i) => cols[names[i]].push(Number(v)));
-  return cols;
-}
 
 describe('peakwise solve with body loads', () => {
   it('plane strain, held in x and y, warmed by 80: σxx = σyy = σzz = −EαΔT/(1 − 2ν) in field.csv (Hooke\'s law)', async () => {
@@ -47,9 +28,9 @@ loads:
   - temperature: 80
 mesh: { size: 15 }
 `);
-    const r = await run(['solve', 'warm.yaml', '--json', '--out', 'out'], dir);
+    const r = await runCli(['solve', 'warm.yaml', '--json', '--out', 'out'], dir);
     expect(r.code).toBe(0);
-    const cols = readField(join(dir, 'out', 'field.csv'));
+    const cols = readFieldColumns(join(dir, 'out', 'field.csv'));
     const want = (-210000 * 1.2e-5 * 80) / (1 - 0.6);
     for (const name of ['sxx_recovered_MPa', 'syy_recovered_MPa', 'szz_recovered_MPa']) {
       expect(cols[name].length).toBeGreaterThan(10);
@@ -74,7 +55,7 @@ loads:
   - gravity: [0, -9810]
 mesh: { size: 20 }
 `);
-    const r = await run(['solve', 'hang.yaml', '--json', '--out', 'out'], dir);
+    const r = await runCli(['solve', 'hang.yaml', '--json', '--out', 'out'], dir);
     expect(r.code).toBe(0);
     const j = JSON.parse(r.stdout) as { solution: { appliedSum: number[]; reactionSum: number[] } };
     const weight = 7.85e-9 * 9810 * 100 * 200 * 10;
@@ -93,7 +74,7 @@ supports:
 loads:
   - gravity: [0, -9810]
 `);
-    const r = await run(['solve', 'bad.yaml'], dir);
+    const r = await runCli(['solve', 'bad.yaml'], dir);
     expect(r.code).toBe(1);
     expect(r.stderr).toMatch(/^peakwise: bad\.yaml:8:\d+ loads\[0\]\.gravity: a gravity load needs the material's density/);
     expect(r.stderr).not.toMatch(/\n\s+at /);

@@ -7,20 +7,12 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { runCli } from '../pipeline/helpers.js';
+import { holePlateModel } from '../helpers/hole-plate.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'peakwise-cases-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 const file = join(dir, 'plate.yaml');
-writeFileSync(file, `
-title: plate with a hole in two cases
-material: { E: 210000, nu: 0.3 }
-thickness: 1
-plate:
-  outline: [[0, 0], [100, 0], [100, 60], [0, 60]]
-  openings: [ { id: hole, circle: { center: [50, 30], radius: 8 } } ]
-supports:
-  - { where: { x: 0 }, fix: [x] }
-  - { where: { point: [0, 0] }, fix: [y] }
+writeFileSync(file, holePlateModel('plate with a hole in two cases', `
 cases:
   pull: [ { where: { x: 100 }, traction: [10, 0] } ]
   lift: [ { where: { y: 60 }, traction: [0, 25] } ]
@@ -28,7 +20,7 @@ combinations:
   both: "1.5*pull + lift"
 mesh: { size: 10, order: 2 }
 study: { levels: 2 }
-`);
+`));
 
 describe('--case', () => {
   it('study --case NAME --json prints the own result of that case; study.json keeps every case and the envelope', async () => {

@@ -3,22 +3,12 @@
  * with `--cut … --cut-other …`: the terminal column and lines, study.json's `reported` list, cut.csv's
  * other-analysis columns, and a bad reported table as one line with exit status 1.
  */
-import { execFile } from 'node:child_process';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { root, runCli as run } from '../pipeline/helpers.js';
 
-const root = join(import.meta.dirname, '..', '..');
-const bin = join(root, 'dist', 'cli', 'main.js');
-
-function run(args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
-  return new Promise((resolve) => {
-    execFile(process.execPath, [bin, ...args], { cwd: root, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' }, timeout: 120_000, maxBuffer: 64 << 20 }, (err, stdout, stderr) => {
-      resolve({ code: err ? (typeof err.code === 'number' ? err.code : -1) : 0, stdout, stderr });
-    });
-  });
-}
 
 describe('reported values on the command line', () => {
   const dir = mkdtempSync(join(tmpdir(), 'peakwise-reported-cli-'));

@@ -1,13 +1,15 @@
 /** Shared by the pipeline tests: the built binary, and a small plate with a far-field stress load. */
 import { execFile } from 'node:child_process';
+import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 
 export const root = join(import.meta.dirname, '..', '..');
 const bin = join(root, 'dist', 'cli', 'main.js');
 
-export function runCli(args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
+/** The built binary run with `args` in `cwd` (default the repository), colour off. */
+export function runCli(args: string[], cwd = root): Promise<{ code: number; stdout: string; stderr: string }> {
   return new Promise((resolve) => {
-    execFile(process.execPath, [bin, ...args], { cwd: root, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' }, timeout: 120_000, maxBuffer: 64 << 20 }, (err, stdout, stderr) => {
+    execFile(process.execPath, [bin, ...args], { cwd, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' }, timeout: 120_000, maxBuffer: 64 << 20 }, (err, stdout, stderr) => {
       resolve({ code: err ? (typeof err.code === 'number' ? err.code : -1) : 0, stdout, stderr });
     });
   });
@@ -41,4 +43,13 @@ study: { levels: 3 }
 export function comparable(study: { timings?: unknown; warnings?: unknown }): unknown {
   const { timings: _t, warnings: _w, ...rest } = study;
   return JSON.parse(JSON.stringify(rest, (_k, v: unknown) => (typeof v === 'number' && !Number.isFinite(v) ? null : v)));
+}
+
+/** A field.csv as columns by header name (after the run-id stamp line). */
+export function readFieldColumns(file: string): Record<string, number[]> {
+  const [, header, ...rows] = readFileSync(file, 'utf8').trim().split('\r\n');
+  const names = header.split(',').map((h) => h.replace(/"/g, ''));
+  const cols: Record<string, number[]> = Object.fromEntries(names.map((n) => [n, []]));
+  for (const r of rows) r.split(',').forEach((v, i) => cols[names[i]].push(Number(v)));
+  return cols;
 }

@@ -7,20 +7,12 @@ import { describe, expect, it } from 'vitest';
 import { reportHtml, sitesCsv, studyTable } from '../../src/report/index.js';
 import { parseModel } from '../../src/model/index.js';
 import { runStudy, type BaseSolve } from '../../src/study/index.js';
+import { holePlateModel } from '../helpers/hole-plate.js';
 
-const HEAD = `
-title: plate with a hole
-material: { E: 210000, nu: 0.3 }
-thickness: 1
-plate:
-  outline: [[0, 0], [100, 0], [100, 60], [0, 60]]
-  openings: [ { id: hole, circle: { center: [50, 30], radius: 8 } } ]
-supports:
-  - { where: { x: 0 }, fix: [x] }
-  - { where: { point: [0, 0] }, fix: [y] }
+const HEAD = holePlateModel('plate with a hole', `
 mesh: { size: 10, order: 2 }
 study: { levels: 2 }
-`;
+`);
 
 function report(text: string) {
   const model = parseModel(text, 'plate.yaml');

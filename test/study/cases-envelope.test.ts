@@ -8,6 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { parseModel } from '../../src/model/index.js';
 import { caseStudyResult, envelopeOf, runStudy } from '../../src/study/index.js';
 import type { SiteResult } from '../../src/study/types.js';
+import { holePlateModel } from '../helpers/hole-plate.js';
 
 function site(id: string, verdict: SiteResult['verdict'], value: number, atDistance?: number): SiteResult {
   return {
@@ -50,16 +51,7 @@ describe('envelope: the governing case', () => {
 });
 
 describe('a plate with a hole in two cases', () => {
-  const text = `
-title: plate with a hole, pulled lightly and hard
-material: { E: 210000, nu: 0.3 }
-thickness: 1
-plate:
-  outline: [[0, 0], [100, 0], [100, 60], [0, 60]]
-  openings: [ { id: hole, circle: { center: [50, 30], radius: 8 } } ]
-supports:
-  - { where: { x: 0 }, fix: [x] }
-  - { where: { point: [0, 0] }, fix: [y] }
+  const text = holePlateModel('plate with a hole, pulled lightly and hard', `
 cases:
   light: [ { where: { x: 100 }, traction: [10, 0] } ]
   hard: [ { where: { x: 100 }, traction: [30, 0] } ]
@@ -67,7 +59,7 @@ combinations:
   sum: "light + hard"
 mesh: { size: 8, order: 2 }
 study: { levels: 3 }
-`;
+`);
   const study = runStudy(parseModel(text, 'plate.yaml'));
 
   it('studies the same sites in every case, and every result scales with the load', () => {

@@ -6,28 +6,12 @@ import { parseModel } from '../../src/model/index.js';
 import { mesh, recover, solve } from '../../src/index.js';
 import { checkCutOptions, writeCutOutputs } from '../../src/cli/cut.js';
 import { PeakwiseError } from '../../src/errors.js';
+import { SIGN_PLATE_MODEL } from './sign-plate.js';
 
 // The signboard base plate of cut.test.ts (a wide plate, d/W = 0.1, so Kirsch applies); the "other
 // analysis" along the hole edge is Kirsch's (1898) σθ = S(1 − 2 cos 2θ) at 37 points, the same curve an exact
 // analysis would report.
-const MODEL = `
-title: Sign base plate, cable hole
-params: { W: 200, L: 400, a: 10, S: 100 }
-material: { E: 200000, nu: 0.3 }
-thickness: 6
-plate:
-  outline: [[0, 0], [L, 0], [L, W], [0, W], [0, W/2]]
-  openings:
-    - { id: cable, circle: { center: [L/2, W/2], radius: a } }
-supports:
-  - { where: { x: 0 }, fix: [x] }
-  - { where: { point: [0, W/2] }, fix: [y] }
-loads:
-  - { where: { x: L }, traction: [S, 0] }
-mesh:
-  size: 20
-  local: [ { near: [L/2, W/2], size: 0.8, radius: 25 } ]
-`;
+const MODEL = SIGN_PLATE_MODEL;
 
 describe('results along a cut from another analysis (issue 15 §5)', () => {
   const model = parseModel(MODEL, 'sign.yaml');

@@ -7,26 +7,10 @@ import { writeCutOutputs } from '../../src/cli/cut.js';
 import { mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { SIGN_PLATE_MODEL } from './sign-plate.js';
 
 // A signboard base plate with a cable hole: wide against the hole (d/W = 0.1) so Kirsch applies
-const MODEL = `
-title: Sign base plate, cable hole
-params: { W: 200, L: 400, a: 10, S: 100 }
-material: { E: 200000, nu: 0.3 }
-thickness: 6
-plate:
-  outline: [[0, 0], [L, 0], [L, W], [0, W], [0, W/2]]
-  openings:
-    - { id: cable, circle: { center: [L/2, W/2], radius: a } }
-supports:
-  - { where: { x: 0 }, fix: [x] }
-  - { where: { point: [0, W/2] }, fix: [y] }
-loads:
-  - { where: { x: L }, traction: [S, 0] }
-mesh:
-  size: 20
-  local: [ { near: [L/2, W/2], size: 0.8, radius: 25 } ]
-`;
+const MODEL = SIGN_PLATE_MODEL;
 
 describe('path specifications', () => {
   it('reads lines, sample counts and openings', () => {
