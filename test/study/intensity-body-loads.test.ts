@@ -16,14 +16,8 @@ import { meshPlate } from '../../src/mesh/index.js';
 import { intensityNorm, reciprocalIntensity, runStudy } from '../../src/study/index.js';
 import { parseModel } from '../../src/model/index.js';
 import { LAMBDA_270, williamsDisplacement } from '../recovery/williams-field.js';
+import { E, kappa, lPlate, mu, nu, section, setup } from './l-corner.js';
 
-const E = 1, nu = 0.3, mu = E / (2 * (1 + nu)), kappa = (3 - nu) / (1 + nu);
-const section = { E, nu, state: 'plane-stress' as const };
-const lPlate = { outline: { kind: 'polygon' as const, vertices: [[0, 0], [1, 0], [1, 1], [-1, 1], [-1, -1], [0, -1]].map((at) => ({ at: at as [number, number], round: 0 })) }, openings: [] };
-const setup = {
-  apex: [0, 0] as [number, number], bisector: [-Math.SQRT1_2, Math.SQRT1_2] as [number, number],
-  alphaDeg: 270, lambda: LAMBDA_270, mirrorFactor: 1, innerRadius: 0.25, outerRadius: 0.5,
-};
 
 describe('reciprocal work K with body loads: fields without a singular term leave K unchanged', () => {
   const geom = buildGeometry(lPlate);

@@ -4,6 +4,7 @@ import { meshPlate } from '../../src/mesh/index.js';
 import { parseModel } from '../../src/model/index.js';
 import { intensityNorm, reciprocalIntensity, runStudy } from '../../src/study/index.js';
 import { LAMBDA_270, williamsDisplacement } from '../recovery/williams-field.js';
+import { E, kappa, lPlate, mu, nu, section, setup } from './l-corner.js';
 
 /*
  * The exact mode-I Williams (1952) field of the re-entrant 270° corner of the L domain [−1, 1]² minus the
@@ -13,13 +14,6 @@ import { LAMBDA_270, williamsDisplacement } from '../recovery/williams-field.js'
  * (normal stress across the bisector) = 0.92993561 + 0.17820130.
  */
 const K_EXACT = Math.sqrt(2 * Math.PI) * Math.SQRT2 ** (1 - LAMBDA_270) * (0.92993561 + 0.17820130);
-const E = 1, nu = 0.3, mu = E / (2 * (1 + nu)), kappa = (3 - nu) / (1 + nu);
-const section = { E, nu, state: 'plane-stress' as const };
-const lPlate = { outline: { kind: 'polygon' as const, vertices: [[0, 0], [1, 0], [1, 1], [-1, 1], [-1, -1], [0, -1]].map((at) => ({ at: at as [number, number], round: 0 })) }, openings: [] };
-const setup = {
-  apex: [0, 0] as [number, number], bisector: [-Math.SQRT1_2, Math.SQRT1_2] as [number, number],
-  alphaDeg: 270, lambda: LAMBDA_270, mirrorFactor: 1, innerRadius: 0.25, outerRadius: 0.5,
-};
 
 describe('reciprocal work integral (Stern, Becker & Dunham 1976; Carpenter 1984) on exact nodal displacements', () => {
   const geom = buildGeometry(lPlate);
