@@ -24,14 +24,25 @@ export interface StiffnessPattern {
   elemOffsets?: Int32Array;
 }
 
-/** Builds the CSR pattern (full, both triangles, sorted columns) of the stiffness of `mesh`. */
+/**
+ * Builds the CSR pattern (full, both triangles, sorted columns) of the stiffness of `mesh`. The steps
+ * are small functions of their own: V8 compiles a long function with many loops once per loop on its
+ * first call (on-stack replacement), which makes the first, cold call of one big function slow.
+ */
 export function stiffnessPattern(mesh: Pick<Mesh, 'xy' | 'elemNodes' | 'nodesPerElem'>): StiffnessPattern {
   const nNodes = mesh.xy.length / 2;
   const npe = mesh.nodesPerElem;
   const { elemNodes } = mesh;
-  const nElem = elemNodes.length / npe;
+  const { elemPtr, elemList } = nodeElements(elemNodes, npe, nNodes);
+  const nodeRowPtr = neighbourCounts(elemNodes, npe, nNodes, elemPtr, elemList);
+  const { nodeCols, elemOffsets } = neighbourRows(elemNodes, npe, nNodes, elemPtr, elemList, nodeRowPtr);
+  const { rowPtr, colIdx } = dofRows(nNodes, nodeRowPtr, nodeCols);
+  return { n: 2 * nNodes, nodeRowPtr, nodeCols, rowPtr, colIdx, elemOffsets };
+}
 
-  // node → elements
+/** node → elements: the elements of node n are elemList[elemPtr[n] .. elemPtr[n+1]), ascending */
+function nodeElements(elemNodes: Mesh['elemNodes'], npe: number, nNodes: number): { elemPtr: Int32Array; elemList: Int32Array } {
+  const nElem = elemNodes.length / npe;
   const elemPtr = new Int32Array(nNodes + 1);
   for (let k = 0; k < elemNodes.length; k++) elemPtr[elemNodes[k] + 1]++;
   for (let n = 0; n < nNodes; n++) elemPtr[n + 1] += elemPtr[n];
@@ -40,8 +51,11 @@ export function stiffnessPattern(mesh: Pick<Mesh, 'xy' | 'elemNodes' | 'nodesPer
   for (let e = 0; e < nElem; e++) {
     for (let i = 0; i < npe; i++) elemList[fill[elemNodes[npe * e + i]]++] = e;
   }
+  return { elemPtr, elemList };
+}
 
-  // node adjacency: two passes with a marker (count, then fill and sort)
+/** row pointers of the node adjacency (each node's distinct neighbours, itself included), by a marker */
+function neighbourCounts(elemNodes: Mesh['elemNodes'], npe: number, nNodes: number, elemPtr: Int32Array, elemList: Int32Array): Int32Array {
   const marker = new Int32Array(nNodes).fill(-1);
   const nodeRowPtr = new Int32Array(nNodes + 1);
   for (let n = 0; n < nNodes; n++) {
@@ -58,17 +72,26 @@ export function stiffnessPattern(mesh: Pick<Mesh, 'xy' | 'elemNodes' | 'nodesPer
     }
     nodeRowPtr[n + 1] = nodeRowPtr[n] + deg;
   }
+  return nodeRowPtr;
+}
+
+/**
+ * The sorted neighbour lists and every element pair's place in them. A row is filled in order of first
+ * sight: seen[m] is m's place there (valid while marker[m] === n), and each element's pairs take those
+ * places; the row is then sorted and the places renamed.
+ */
+function neighbourRows(
+  elemNodes: Mesh['elemNodes'], npe: number, nNodes: number, elemPtr: Int32Array, elemList: Int32Array, nodeRowPtr: Int32Array,
+): { nodeCols: Int32Array; elemOffsets: Int32Array } {
   let maxDeg = 0;
   for (let n = 0; n < nNodes; n++) maxDeg = Math.max(maxDeg, nodeRowPtr[n + 1] - nodeRowPtr[n]);
   const nodeCols = new Int32Array(nodeRowPtr[nNodes]);
-  // a row is filled in order of first sight: seen[m] is m's place there (valid while marker[m] === n),
-  // and each element's pairs take those places; the row is then sorted and the places renamed
+  const marker = new Int32Array(nNodes).fill(-1);
   const seen = new Int32Array(nNodes);
   const npe2 = npe * npe;
-  const elemOffsets = new Int32Array(npe2 * nElem);
+  const elemOffsets = new Int32Array(npe2 * (elemNodes.length / npe));
   const firstSight = new Int32Array(maxDeg); // of the entry at each sorted place
   const sortedPlace = new Int32Array(maxDeg); // of the entry first seen at each place
-  marker.fill(-1);
   for (let n = 0; n < nNodes; n++) {
     const r0 = nodeRowPtr[n];
     let q = r0;
@@ -88,21 +111,7 @@ export function stiffnessPattern(mesh: Pick<Mesh, 'xy' | 'elemNodes' | 'nodesPer
         elemOffsets[at + j] = seen[m];
       }
     }
-    // insertion sort of the row (tens of entries), carrying each entry's place of first sight
-    const deg = q - r0;
-    for (let a = 0; a < deg; a++) firstSight[a] = a;
-    for (let a = 1; a < deg; a++) {
-      const c = nodeCols[r0 + a], w = firstSight[a];
-      let b = a - 1;
-      while (b >= 0 && nodeCols[r0 + b] > c) {
-        nodeCols[r0 + b + 1] = nodeCols[r0 + b];
-        firstSight[b + 1] = firstSight[b];
-        b--;
-      }
-      nodeCols[r0 + b + 1] = c;
-      firstSight[b + 1] = w;
-    }
-    for (let a = 0; a < deg; a++) sortedPlace[firstSight[a]] = a;
+    sortRow(nodeCols, r0, q - r0, firstSight, sortedPlace);
     for (let p = elemPtr[n]; p < elemPtr[n + 1]; p++) {
       const e = elemList[p];
       const base = npe * e;
@@ -112,8 +121,28 @@ export function stiffnessPattern(mesh: Pick<Mesh, 'xy' | 'elemNodes' | 'nodesPer
       for (let j = 0; j < npe; j++) elemOffsets[at + j] = sortedPlace[elemOffsets[at + j]];
     }
   }
+  return { nodeCols, elemOffsets };
+}
 
-  // dof level
+/** Insertion sort of one row (tens of entries); sortedPlace[k] is then the new place of the entry that was at k. */
+function sortRow(cols: Int32Array, r0: number, deg: number, firstSight: Int32Array, sortedPlace: Int32Array): void {
+  for (let a = 0; a < deg; a++) firstSight[a] = a;
+  for (let a = 1; a < deg; a++) {
+    const c = cols[r0 + a], w = firstSight[a];
+    let b = a - 1;
+    while (b >= 0 && cols[r0 + b] > c) {
+      cols[r0 + b + 1] = cols[r0 + b];
+      firstSight[b + 1] = firstSight[b];
+      b--;
+    }
+    cols[r0 + b + 1] = c;
+    firstSight[b + 1] = w;
+  }
+  for (let a = 0; a < deg; a++) sortedPlace[firstSight[a]] = a;
+}
+
+/** dof level: rows 2n and 2n+1 take node n's neighbour list, each neighbour m as columns 2m, 2m+1 */
+function dofRows(nNodes: number, nodeRowPtr: Int32Array, nodeCols: Int32Array): { rowPtr: Int32Array; colIdx: Int32Array } {
   const nDof = 2 * nNodes;
   const rowPtr = new Int32Array(nDof + 1);
   for (let n = 0; n < nNodes; n++) {
@@ -135,7 +164,7 @@ export function stiffnessPattern(mesh: Pick<Mesh, 'xy' | 'elemNodes' | 'nodesPer
       colIdx[r1 + 2 * k + 1] = 2 * m + 1;
     }
   }
-  return { n: nDof, nodeRowPtr, nodeCols, rowPtr, colIdx, elemOffsets };
+  return { rowPtr, colIdx };
 }
 
 /** position of node m in node n's sorted neighbour list, relative to the row start (binary search) */
@@ -178,29 +207,58 @@ export function assembleStiffness(
   const t = section.thickness;
   // the pattern's place of every element pair (a pattern made elsewhere may lack it: then search)
   const offsets = pattern.elemOffsets && pattern.elemOffsets.length === npe * npe * nElem ? pattern.elemOffsets : undefined;
+  // the element loop stays short and calls small functions: each is optimised on its own after a few
+  // hundred calls, where one long loop body waits for the whole function's on-stack replacement
   for (let e = 0; e < nElem; e++) {
     gatherElementXY(xy, elemNodes, npe, e, exy);
     if (axisymmetric) axisymmetricStiffness(exy, npe, D, ke);
     else if (npe === 3) elementStiffnessCst(exy, D, t, ke);
     else elementStiffnessLst(exy, D, t, ke);
-    const base = npe * e;
-    for (let i = 0; i < npe; i++) {
-      const a = elemNodes[base + i];
-      const ra = rowPtr[2 * a];
-      const rb = rowPtr[2 * a + 1];
-      const at = npe * npe * e + npe * i;
-      for (let j = 0; j < npe; j++) {
-        const o = 2 * (offsets ? offsets[at + j] : neighbourOffset(pattern, a, elemNodes[base + j]));
-        const k0 = 2 * i * nd + 2 * j;
-        const k1 = k0 + nd;
-        values[ra + o] += ke[k0];
-        values[ra + o + 1] += ke[k0 + 1];
-        values[rb + o] += ke[k1];
-        values[rb + o + 1] += ke[k1 + 1];
-      }
-    }
+    if (offsets) addByPlace(values, rowPtr, offsets, elemNodes, npe, e, ke);
+    else addBySearch(values, pattern, elemNodes, npe, e, ke);
   }
   return { n: pattern.n, rowPtr: pattern.rowPtr, colIdx: pattern.colIdx, values };
+}
+
+/** Adds element e's matrix `ke` into the values, each node pair at its place from the pattern. */
+function addByPlace(values: Float64Array, rowPtr: Int32Array, offsets: Int32Array, elemNodes: Mesh['elemNodes'], npe: number, e: number, ke: Float64Array): void {
+  const nd = 2 * npe;
+  const base = npe * e;
+  for (let i = 0; i < npe; i++) {
+    const a = elemNodes[base + i];
+    const ra = rowPtr[2 * a];
+    const rb = rowPtr[2 * a + 1];
+    const at = npe * npe * e + npe * i;
+    for (let j = 0; j < npe; j++) {
+      const o = 2 * offsets[at + j];
+      const k0 = 2 * i * nd + 2 * j;
+      const k1 = k0 + nd;
+      values[ra + o] += ke[k0];
+      values[ra + o + 1] += ke[k0 + 1];
+      values[rb + o] += ke[k1];
+      values[rb + o + 1] += ke[k1 + 1];
+    }
+  }
+}
+
+/** The same, finding each place by binary search (a pattern built without element places). */
+function addBySearch(values: Float64Array, pattern: StiffnessPattern, elemNodes: Mesh['elemNodes'], npe: number, e: number, ke: Float64Array): void {
+  const nd = 2 * npe;
+  const base = npe * e;
+  for (let i = 0; i < npe; i++) {
+    const a = elemNodes[base + i];
+    const ra = pattern.rowPtr[2 * a];
+    const rb = pattern.rowPtr[2 * a + 1];
+    for (let j = 0; j < npe; j++) {
+      const o = 2 * neighbourOffset(pattern, a, elemNodes[base + j]);
+      const k0 = 2 * i * nd + 2 * j;
+      const k1 = k0 + nd;
+      values[ra + o] += ke[k0];
+      values[ra + o + 1] += ke[k0 + 1];
+      values[rb + o] += ke[k1];
+      values[rb + o + 1] += ke[k1 + 1];
+    }
+  }
 }
 
 /** y = K x for a CSR matrix (full pattern) */
