@@ -100,96 +100,159 @@ export function numericFactor(A: Csr, sym: Symbolic, options: FactorOptions = {}
     L = new Float64Array(total);
     work = new Float64Array(workLen);
   }
-  const syrk = wk ? wk.syrk : null;
-  const scatter = wk ? wk.scatter : null;
-  const panel = wk ? wk.panel : null;
-  const workByte = workAt * 8;
-  const map = new Int32Array(n);
-  const link = new Int32Array(nSuper).fill(-1);
-  const nextLink = new Int32Array(nSuper).fill(-1);
-  const nextRow = new Int32Array(nSuper); // position in D's row list of the next row to update
-  const diag = new Float64Array(n);
-  const relRow = new Int32Array(maxRows);
-
+  const st: FactorState = {
+    A, sym, perm, iperm, pivotTol, L, work, rowOff, colAddr, tolv,
+    syrk: wk ? wk.syrk : null,
+    scatter: wk ? wk.scatter : null,
+    panel: wk ? wk.panel : null,
+    workByte: workAt * 8, rowOffAt, colAddrAt, tolAt,
+    map: new Int32Array(n),
+    link: new Int32Array(nSuper).fill(-1),
+    nextLink: new Int32Array(nSuper).fill(-1),
+    nextRow: new Int32Array(nSuper), // position in D's row list of the next row to update
+    diag: new Float64Array(n),
+    relRow: new Int32Array(maxRows),
+  };
+  // the loop calls one small function per step: each is optimised on its own after a few calls,
+  // where one long loop body would wait for the whole function's on-stack replacement (cold runs)
+  const { link, nextLink, nextRow } = st;
   for (let s = 0; s < nSuper; s++) {
-    const f = superStart[s];
-    const nc = superStart[s + 1] - f;
-    const rp = superRowPtr[s];
-    const nr = superRowPtr[s + 1] - rp;
-    const base = superValPtr[s];
-    for (let t = 0; t < nr; t++) map[superRows[rp + t]] = t;
-
-    // scatter A's columns f … f+nc-1 (lower part) into the panel
-    for (let c = 0; c < nc; c++) {
-      const col = f + c;
-      const row = perm[col];
-      const colBase = base + c * nr;
-      for (let p = A.rowPtr[row]; p < A.rowPtr[row + 1]; p++) {
-        const i = iperm[A.colIdx[p]];
-        if (i >= col) L[colBase + map[i]] += A.values[p];
-      }
-      diag[col] = L[colBase + c];
-    }
-
+    scatterColumns(st, s);
     // updates from descendants
     let d = link[s];
     link[s] = -1;
     while (d !== -1) {
       const dNext = nextLink[d];
-      const drp = superRowPtr[d];
-      const dnr = superRowPtr[d + 1] - drp;
-      const dnc = superStart[d + 1] - superStart[d];
-      const dBase = superValPtr[d];
-      const p1 = nextRow[d];
-      let p2 = p1;
-      const lEnd = f + nc;
-      while (p2 < dnr && superRows[drp + p2] < lEnd) p2++;
-      const m = dnr - p1; // rows of D at or below J's first column
-      const k = p2 - p1; // of which inside J's columns
-      if (syrk !== null && scatter !== null) {
-        // work (m4 × k4) = L_D[p1:, :] · L_D[p1:p2, :]ᵀ, then scatter-subtract, both in wasm
-        const m4 = roundUp4(m);
-        syrk((dBase + p1) * 8, dnr * 8, m4, roundUp4(k), dnc, workByte);
-        const rows = drp + p1;
-        for (let t = 0; t < m; t++) rowOff[t] = map[superRows[rows + t]] << 3;
-        for (let jj = 0; jj < k; jj++) colAddr[jj] = (base + (superRows[rows + jj] - f) * nr) * 8;
-        scatter(workByte, m4, m, k, rowOffAt, colAddrAt);
-      } else {
-        // work (m × k, column-major) = L_D[p1:, :] · L_D[p1:p2, :]ᵀ, lower part only
-        updateProduct(L, dBase + p1, dnr, m, k, dnc, work);
-        // scatter-subtract into J's panel
-        for (let t = 0; t < m; t++) relRow[t] = map[superRows[drp + p1 + t]];
-        for (let jj = 0; jj < k; jj++) {
-          const colBase = base + (superRows[drp + p1 + jj] - f) * nr;
-          const wBase = jj * m;
-          for (let ii = jj; ii < m; ii++) L[colBase + relRow[ii]] -= work[wBase + ii];
-        }
-      }
-      nextRow[d] = p2;
-      if (p2 < dnr) {
-        const target = superOfCol[superRows[drp + p2]];
-        nextLink[d] = link[target];
-        link[target] = d;
-      }
+      updateFrom(st, s, d);
       d = dNext;
     }
-
-    if (panel !== null) {
-      for (let c = 0; c < nc; c++) tolv[c] = pivotTol * Math.abs(diag[f + c]);
-      const bad = panel(base * 8, nr, nc, tolAt, workByte);
-      if (bad >= 0) throw new NotPositiveDefiniteError(perm[f + bad], L[base + bad * nr + bad], diag[f + bad]);
-    } else {
-      denseCholeskyPanel(L, base, nr, nc, f, diag, perm, pivotTol, work);
-    }
-
-    nextRow[s] = nc;
-    if (nc < nr) {
-      const target = superOfCol[superRows[rp + nc]];
-      nextLink[s] = link[target];
-      link[target] = s;
-    }
+    factorPanel(st, s);
+    nextRow[s] = superStart[s + 1] - superStart[s];
+    queueForNextRow(st, s);
   }
   return { n, nnzL: sym.nnzL, symbolic: sym, values: L };
+}
+
+/** What the steps of one factorisation share. */
+interface FactorState {
+  A: Csr;
+  sym: Symbolic;
+  perm: Int32Array;
+  iperm: Int32Array;
+  pivotTol: number;
+  L: Float64Array;
+  work: Float64Array;
+  rowOff: Int32Array;
+  colAddr: Int32Array;
+  tolv: Float64Array;
+  syrk: WasmKernels['syrk'] | null;
+  scatter: WasmKernels['scatter'] | null;
+  panel: WasmKernels['panel'] | null;
+  /** byte addresses in the wasm memory: work block, row offsets, column addresses, pivot tolerances */
+  workByte: number;
+  rowOffAt: number;
+  colAddrAt: number;
+  tolAt: number;
+  /** row → place in the current supernode's row list */
+  map: Int32Array;
+  /** supernodes waiting to update supernode s: link[s], then nextLink[…] */
+  link: Int32Array;
+  nextLink: Int32Array;
+  nextRow: Int32Array;
+  diag: Float64Array;
+  relRow: Int32Array;
+}
+
+/** Supernode s's row map, then A's columns f … f+nc-1 (lower part) scattered into its panel. */
+function scatterColumns(st: FactorState, s: number): void {
+  const { A, L, map, diag, perm, iperm } = st;
+  const { superStart, superRowPtr, superRows, superValPtr } = st.sym;
+  const f = superStart[s];
+  const nc = superStart[s + 1] - f;
+  const rp = superRowPtr[s];
+  const nr = superRowPtr[s + 1] - rp;
+  const base = superValPtr[s];
+  for (let t = 0; t < nr; t++) map[superRows[rp + t]] = t;
+  for (let c = 0; c < nc; c++) {
+    const col = f + c;
+    const row = perm[col];
+    const colBase = base + c * nr;
+    for (let p = A.rowPtr[row]; p < A.rowPtr[row + 1]; p++) {
+      const i = iperm[A.colIdx[p]];
+      if (i >= col) L[colBase + map[i]] += A.values[p];
+    }
+    diag[col] = L[colBase + c];
+  }
+}
+
+/** Subtract descendant d's update from supernode s's panel, then queue d for the supernode of its next row. */
+function updateFrom(st: FactorState, s: number, d: number): void {
+  const { L, map, syrk, scatter, rowOff, colAddr, relRow, work, nextRow } = st;
+  const { superStart, superRowPtr, superRows, superValPtr } = st.sym;
+  const f = superStart[s];
+  const nc = superStart[s + 1] - f;
+  const nr = superRowPtr[s + 1] - superRowPtr[s];
+  const base = superValPtr[s];
+  const drp = superRowPtr[d];
+  const dnr = superRowPtr[d + 1] - drp;
+  const dnc = superStart[d + 1] - superStart[d];
+  const dBase = superValPtr[d];
+  const p1 = nextRow[d];
+  let p2 = p1;
+  const lEnd = f + nc;
+  while (p2 < dnr && superRows[drp + p2] < lEnd) p2++;
+  const m = dnr - p1; // rows of D at or below J's first column
+  const k = p2 - p1; // of which inside J's columns
+  if (syrk !== null && scatter !== null) {
+    // work (m4 × k4) = L_D[p1:, :] · L_D[p1:p2, :]ᵀ, then scatter-subtract, both in wasm
+    const m4 = roundUp4(m);
+    syrk((dBase + p1) * 8, dnr * 8, m4, roundUp4(k), dnc, st.workByte);
+    const rows = drp + p1;
+    for (let t = 0; t < m; t++) rowOff[t] = map[superRows[rows + t]] << 3;
+    for (let jj = 0; jj < k; jj++) colAddr[jj] = (base + (superRows[rows + jj] - f) * nr) * 8;
+    scatter(st.workByte, m4, m, k, st.rowOffAt, st.colAddrAt);
+  } else {
+    // work (m × k, column-major) = L_D[p1:, :] · L_D[p1:p2, :]ᵀ, lower part only
+    updateProduct(L, dBase + p1, dnr, m, k, dnc, work);
+    // scatter-subtract into J's panel
+    for (let t = 0; t < m; t++) relRow[t] = map[superRows[drp + p1 + t]];
+    for (let jj = 0; jj < k; jj++) {
+      const colBase = base + (superRows[drp + p1 + jj] - f) * nr;
+      const wBase = jj * m;
+      for (let ii = jj; ii < m; ii++) L[colBase + relRow[ii]] -= work[wBase + ii];
+    }
+  }
+  nextRow[d] = p2;
+  queueForNextRow(st, d);
+}
+
+/** Put supernode d on the waiting list of the supernode that holds its next row, if it has one. */
+function queueForNextRow(st: FactorState, d: number): void {
+  const { superRowPtr, superRows, superOfCol } = st.sym;
+  const drp = superRowPtr[d];
+  const p = st.nextRow[d];
+  if (p < superRowPtr[d + 1] - drp) {
+    const target = superOfCol[superRows[drp + p]];
+    st.nextLink[d] = st.link[target];
+    st.link[target] = d;
+  }
+}
+
+/** Dense Cholesky of supernode s's panel, in wasm or in JavaScript. */
+function factorPanel(st: FactorState, s: number): void {
+  const { L, diag, perm, panel, tolv, pivotTol } = st;
+  const { superStart, superRowPtr, superValPtr } = st.sym;
+  const f = superStart[s];
+  const nc = superStart[s + 1] - f;
+  const nr = superRowPtr[s + 1] - superRowPtr[s];
+  const base = superValPtr[s];
+  if (panel !== null) {
+    for (let c = 0; c < nc; c++) tolv[c] = pivotTol * Math.abs(diag[f + c]);
+    const bad = panel(base * 8, nr, nc, st.tolAt, st.workByte);
+    if (bad >= 0) throw new NotPositiveDefiniteError(perm[f + bad], L[base + bad * nr + bad], diag[f + bad]);
+  } else {
+    denseCholeskyPanel(L, base, nr, nc, f, diag, perm, pivotTol, st.work);
+  }
 }
 
 /** Depth of one pass over the shared dimension: keeps the strided rows read in L1 cache. */
