@@ -92,6 +92,17 @@ export function csrSubmatrix(A: Csr, keep: Int32Array): Csr {
   }
   let ascending = true;
   for (let k = 1; k < m; k++) if (keep[k] < keep[k - 1]) { ascending = false; break; }
+  // counting and filling are functions of their own: a cold first call of one long many-loop function is slow
+  const rowPtr = keptRowPointers(A, keep, newIndex);
+  const colIdx = new Int32Array(rowPtr[m]);
+  const values = new Float64Array(rowPtr[m]);
+  fillKeptRows(A, keep, newIndex, rowPtr, colIdx, values, ascending);
+  return { n: m, rowPtr, colIdx, values };
+}
+
+/** Row pointers of A(keep, keep): each kept row's entries in kept columns. */
+function keptRowPointers(A: Csr, keep: Int32Array, newIndex: Int32Array): Int32Array {
+  const m = keep.length;
   const rowPtr = new Int32Array(m + 1);
   for (let k = 0; k < m; k++) {
     const i = keep[k];
@@ -99,9 +110,12 @@ export function csrSubmatrix(A: Csr, keep: Int32Array): Csr {
     for (let p = A.rowPtr[i]; p < A.rowPtr[i + 1]; p++) if (newIndex[A.colIdx[p]] >= 0) c++;
     rowPtr[k + 1] = rowPtr[k] + c;
   }
-  const colIdx = new Int32Array(rowPtr[m]);
-  const values = new Float64Array(rowPtr[m]);
-  for (let k = 0; k < m; k++) {
+  return rowPtr;
+}
+
+/** Columns (renumbered) and values of A(keep, keep), rows sorted unless `keep` is ascending. */
+function fillKeptRows(A: Csr, keep: Int32Array, newIndex: Int32Array, rowPtr: Int32Array, colIdx: Int32Array, values: Float64Array, ascending: boolean): void {
+  for (let k = 0; k < keep.length; k++) {
     const i = keep[k];
     let w = rowPtr[k];
     for (let p = A.rowPtr[i]; p < A.rowPtr[i + 1]; p++) {
@@ -110,7 +124,6 @@ export function csrSubmatrix(A: Csr, keep: Int32Array): Csr {
     }
     if (!ascending) sortRowSegment(colIdx, values, rowPtr[k], w);
   }
-  return { n: m, rowPtr, colIdx, values };
 }
 
 /** Insertion sort of one row's (col, value) pairs; rows are short (tens of entries). */

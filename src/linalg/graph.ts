@@ -31,6 +31,16 @@ function sameRowPattern(A: Csr, i: number, j: number): boolean {
  * numbers a node's dofs together, and this keeps the pass O(nnz).
  */
 export function compressGraph(A: Csr, maxGroup = 8): NodeGraph {
+  // small steps of their own: a cold first call of one long many-loop function is slow (numeric.ts)
+  const { nodeOfRow, rowStart } = groupRows(A, maxGroup);
+  const nNodes = rowStart.length - 1;
+  const adjPtr = adjacencyCounts(A, nodeOfRow, rowStart);
+  const adjIdx = adjacencyLists(A, nodeOfRow, rowStart, adjPtr[nNodes]);
+  return { n: nNodes, adjPtr, adjIdx, rowStart, nodeOfRow };
+}
+
+/** Runs of consecutive rows with identical patterns (at most maxGroup a run): the node of each row, each node's first row. */
+function groupRows(A: Csr, maxGroup: number): { nodeOfRow: Int32Array; rowStart: Int32Array } {
   const n = A.n;
   const nodeOfRow = new Int32Array(n);
   const starts = new Int32Array(n + 1);
@@ -48,7 +58,12 @@ export function compressGraph(A: Csr, maxGroup = 8): NodeGraph {
   const nNodes = v + 1;
   const rowStart = starts.slice(0, nNodes + 1);
   rowStart[nNodes] = n;
-  // adjacency of each node = distinct nodes of the columns of its first row (all rows alike)
+  return { nodeOfRow, rowStart };
+}
+
+/** Row pointers of the node adjacency: the distinct other nodes of the columns of each node's first row (all its rows alike). */
+function adjacencyCounts(A: Csr, nodeOfRow: Int32Array, rowStart: Int32Array): Int32Array {
+  const nNodes = rowStart.length - 1;
   const adjPtr = new Int32Array(nNodes + 1);
   const mark = new Int32Array(nNodes).fill(-1);
   let total = 0;
@@ -61,8 +76,14 @@ export function compressGraph(A: Csr, maxGroup = 8): NodeGraph {
     }
     adjPtr[t + 1] = total;
   }
+  return adjPtr;
+}
+
+/** The node adjacency lists, in the order adjacencyCounts counted them. */
+function adjacencyLists(A: Csr, nodeOfRow: Int32Array, rowStart: Int32Array, total: number): Int32Array {
+  const nNodes = rowStart.length - 1;
   const adjIdx = new Int32Array(total);
-  mark.fill(-1);
+  const mark = new Int32Array(nNodes).fill(-1);
   let w = 0;
   for (let t = 0; t < nNodes; t++) {
     const i = rowStart[t];
@@ -72,7 +93,7 @@ export function compressGraph(A: Csr, maxGroup = 8): NodeGraph {
       if (mark[u] !== t) { mark[u] = t; adjIdx[w++] = u; }
     }
   }
-  return { n: nNodes, adjPtr, adjIdx, rowStart, nodeOfRow };
+  return adjIdx;
 }
 
 /** Number of rows each node stands for. */
