@@ -130,14 +130,10 @@ export function probeLevel(
 ): LevelResult {
   const { site, radius, distance: d } = probe;
   const [sx, sy] = site.at;
-  let peak = -Infinity, pn = -1;
-  const outside = radius / LOWER_BOUND_SLACK; // a node this far off in x or y is outside for certain
-  for (let n = 0; n < mesh.xy.length / 2; n++) {
-    const ox = Math.abs(mesh.xy[2 * n] - sx), oy = Math.abs(mesh.xy[2 * n + 1] - sy);
-    if (ox > outside || oy > outside) continue;
-    if (Math.hypot(mesh.xy[2 * n] - sx, mesh.xy[2 * n + 1] - sy) > radius) continue;
-    if (nodal[n] > peak || (nodal[n] === peak && n < pn)) { peak = nodal[n]; pn = n; }
-  }
+  // the scans over nodes and Gauss points are functions of their own (a cold first call of one long
+  // many-loop function is slow: src/linalg/numeric.ts)
+  const pn = peakNode(mesh.xy, nodal, sx, sy, radius);
+  const peak = pn >= 0 ? nodal[pn] : -Infinity;
   const out: LevelResult = { h, dofs, peak, peakAt: [mesh.xy[2 * pn], mesh.xy[2 * pn + 1]], radius };
   const K = probe.intensity;
   if (K && u && K.innerRadius >= 2 * h) out.nsif = reciprocalIntensity(mesh, u, section, K, K.norm, body);
@@ -181,7 +177,26 @@ export function probeLevel(
       if (Number.isFinite(l)) out.lineMethod = l;
     }
   }
-  // area mean over the disk r ≤ d (Gauss points of the raw element stresses)
+  const average = diskMean(gauss, measure, sx, sy, d);
+  if (average !== undefined) out.average = average;
+  return out;
+}
+
+/** The node of the largest nodal value within `radius` of (sx, sy), the lowest-numbered on a tie; −1 when none. */
+function peakNode(xy: Float64Array, nodal: Float64Array, sx: number, sy: number, radius: number): number {
+  let peak = -Infinity, pn = -1;
+  const outside = radius / LOWER_BOUND_SLACK; // a node this far off in x or y is outside for certain
+  for (let n = 0; n < xy.length / 2; n++) {
+    const ox = Math.abs(xy[2 * n] - sx), oy = Math.abs(xy[2 * n + 1] - sy);
+    if (ox > outside || oy > outside) continue;
+    if (Math.hypot(xy[2 * n] - sx, xy[2 * n + 1] - sy) > radius) continue;
+    if (nodal[n] > peak || (nodal[n] === peak && n < pn)) { peak = nodal[n]; pn = n; }
+  }
+  return pn;
+}
+
+/** Area mean of the measure over the disk r ≤ d (Gauss points of the raw element stresses); undefined when none lies in it. */
+function diskMean(gauss: GaussStresses, measure: StressMeasure, sx: number, sy: number, d: number): number | undefined {
   let sw = 0, sv = 0;
   const beyond = d / LOWER_BOUND_SLACK;
   for (let k = 0; k < gauss.weight.length; k++) {
@@ -191,8 +206,7 @@ export function probeLevel(
     sv += gauss.weight[k] * measureValue(measure, a, b, c, gauss.szz[k]);
     sw += gauss.weight[k];
   }
-  if (sw > 0) out.average = sv / sw;
-  return out;
+  return sw > 0 ? sv / sw : undefined;
 }
 
 export type { Point };
