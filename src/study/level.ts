@@ -12,7 +12,7 @@ import type { PlateGeometry } from '../geometry/types.js';
 import type { Mesh } from '../mesh/types.js';
 import type { Model, Point } from '../model/types.js';
 import { buildPointLocator } from '../recovery/index.js';
-import { baseSizeField, problemOf, solveAt, type Problem, type SolveLimits } from '../pipeline/index.js';
+import { baseSizeField, contentKey, problemOf, solveAt, type Problem, type SolveLimits } from '../pipeline/index.js';
 import { factorBytes } from '../fem/health.js';
 import { bodyFields, type BodyFields } from '../fem/index.js';
 import { combinedBodyFields } from './cases.js';
@@ -120,6 +120,16 @@ export function loadSetBodyFields(problem: Problem): BodyFields[] {
   ];
 }
 
+/**
+ * What a level's size field is made of beyond the problem's geometry and mesh settings, as a key for
+ * reuse in a warm process (pipeline/reuse.ts): each site's position and flat-peak extent (all that
+ * levelSizeField and coarsenedOuterField read of a site), h₀, the ratio, the level and the far-field
+ * coarsening. The rosette seeds are in the mesh request's points, which the key holds as well.
+ */
+export function levelSizeKey(input: Pick<LevelInput, 'sites' | 'h0' | 'ratio' | 'k' | 'farFieldCoarsening'>): string {
+  return contentKey('study-level', input.sites.map((c) => [c.at, c.plateau ?? null]), input.h0, input.ratio, input.k, input.farFieldCoarsening ?? null);
+}
+
 /** Mesh, solve and read one level (or the far-field solve) of the ladder. `problem` may be passed when already built. */
 export function studyLevel(input: LevelInput, problem: Problem = levelProblem(input)): LevelReadings {
   const { sites, probes, h0, straight, ratio, k, order, limits } = input;
@@ -130,7 +140,7 @@ export function studyLevel(input: LevelInput, problem: Problem = levelProblem(in
   const field = input.farFieldCoarsening !== undefined
     ? coarsenedOuterField(base, sites, h0, ratio, k, input.farFieldCoarsening)
     : levelSizeField(base, sites, h0, ratio, k);
-  const s = solveAt(problem, field, order, limits, { points: [...sites.map((c) => c.at), ...seeds] });
+  const s = solveAt(problem, field, order, limits, { points: [...sites.map((c) => c.at), ...seeds], sizeKey: levelSizeKey(input) });
   const locator = buildPointLocator(s.mesh);
   const body = loadSetBodyFields(problem);
   const perSet = s.sets.map((set, j) => probes.map((p, i) =>
