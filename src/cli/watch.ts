@@ -99,6 +99,13 @@ function changed(files: Map<string, FileState>): string | undefined {
   return undefined;
 }
 
+/** ' (reused 8 meshes, 8 factors)' for what a run took from the reuse store, '' when nothing. */
+export function reusedWords(taken: Record<string, number>): string {
+  const n = (count: number | undefined, one: string, many: string): string => (count ? `${count} ${count === 1 ? one : many}` : '');
+  const parts = [n(taken.mesh, 'mesh', 'meshes'), n(taken.stiffness, 'factor', 'factors')].filter((p) => p !== '');
+  return parts.length > 0 ? ` (reused ${parts.join(', ')})` : '';
+}
+
 /** Study, then study again on every saved change, until Ctrl-C. */
 export async function watchStudy(ctx: CliContext, file: string, opts: WatchOptions): Promise<void> {
   const port = portOption(opts.port);
@@ -131,11 +138,11 @@ export async function watchStudy(ctx: CliContext, file: string, opts: WatchOptio
       if (reason) say(`${reason} changed: studying again`);
       try {
         await runStudy(ctx, file, { ...opts, out: outDir }, pool);
-        reuseStore.endRun();
+        const taken = reuseStore.endRun();
         closeOutputSets('done');
         const runId = stampOfFile(join(held.dir, MANIFEST_NAME));
         if (runId) server.announceRun(runId);
-        if (!opts.quiet) say(`run ${runId ? runId.slice(0, 12) : ''} written in ${((performance.now() - t0) / 1000).toFixed(2)} s; waiting for changes`);
+        if (!opts.quiet) say(`run ${runId ? runId.slice(0, 12) : ''} written in ${((performance.now() - t0) / 1000).toFixed(2)} s${reusedWords(taken)}; waiting for changes`);
       } catch (e) {
         if (e instanceof StudyInterrupted) {
           // the finished levels are written: complete the set while the lock is still held

@@ -122,6 +122,8 @@ export class ReuseStore {
   /** takes that found an entry / found none, since the store was made */
   hits = 0;
   misses = 0;
+  /** entries taken by the current run, by kind ('mesh', 'stiffness') */
+  private taken = new Map<string, number>();
 
   get enabled(): boolean {
     return this.on;
@@ -135,6 +137,7 @@ export class ReuseStore {
   disable(): void {
     this.on = false;
     this.entries.clear();
+    this.taken = new Map();
   }
 
   /** What is kept now. */
@@ -144,11 +147,12 @@ export class ReuseStore {
     return { entries: this.entries.size, bytes, dofs };
   }
 
-  /** The entry under `key`, marked as used by this run, or undefined. */
-  take<T>(key: string): T | undefined {
+  /** The entry under `key`, marked as used by this run, or undefined; `kind` is counted for `endRun`. */
+  take<T>(key: string, kind = 'entry'): T | undefined {
     const e = this.entries.get(key);
     if (!e) { this.misses++; return undefined; }
     this.hits++;
+    this.taken.set(kind, (this.taken.get(kind) ?? 0) + 1);
     e.run = this.run;
     // most recently used last: eviction takes from the front
     this.entries.delete(key);
@@ -184,10 +188,16 @@ export class ReuseStore {
     return held + bytes <= capBytes && heldDofs + dofs <= capDofs;
   }
 
-  /** A run has ended: drop what it did not use (unless it failed), and start counting the next. */
-  endRun(failed = false): void {
+  /**
+   * A run has ended: drop what it did not use (unless it failed), and start counting the next.
+   * Returns how many entries of each kind the run took from the store.
+   */
+  endRun(failed = false): Record<string, number> {
     if (!failed) for (const [k, e] of this.entries) if (e.run !== this.run) this.entries.delete(k);
     this.run++;
+    const taken = Object.fromEntries(this.taken);
+    this.taken = new Map();
+    return taken;
   }
 }
 
@@ -205,7 +215,7 @@ export function meshKey(
 
 /** A mesh from the store, or `make`'s, kept under `key` and known by it afterwards. */
 export function keptMesh(key: string, limits: SolveLimits, make: () => Mesh): Mesh {
-  const hit = reuseStore.take<Mesh>(key);
+  const hit = reuseStore.take<Mesh>(key, 'mesh');
   if (hit) return hit;
   const mesh = make();
   objectKeys.set(mesh, contentKey('mesh-made', key));
@@ -218,7 +228,7 @@ export function stiffnessReuse(mesh: Mesh, section: ElasticSection, limits: Solv
   const base = contentKey('stiffness', objectKey(mesh), section);
   const keyOf = (fixed: Uint8Array): string => contentKey(base, fixed);
   return {
-    find: (fixed) => reuseStore.take<KeptStiffness>(keyOf(fixed)),
+    find: (fixed) => reuseStore.take<KeptStiffness>(keyOf(fixed), 'stiffness'),
     room: (bytes) => { reuseStore.makeRoom(bytes, 0, limits); },
     keep: (fixed, kept) => reuseStore.keep(keyOf(fixed), kept, { bytes: keptStiffnessBytes(kept), dofs: 0 }, limits),
   };
