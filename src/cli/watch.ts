@@ -99,10 +99,10 @@ function changed(files: Map<string, FileState>): string | undefined {
   return undefined;
 }
 
-/** ' (reused 8 meshes, 8 factors)' for what a run took from the reuse store, '' when nothing. */
+/** ' (reused 7 levels, 1 mesh, 1 factor)' for what a run took from the reuse store (a level: its readings), '' when nothing. */
 export function reusedWords(taken: Record<string, number>): string {
   const n = (count: number | undefined, one: string, many: string): string => (count ? `${count} ${count === 1 ? one : many}` : '');
-  const parts = [n(taken.mesh, 'mesh', 'meshes'), n(taken.stiffness, 'factor', 'factors')].filter((p) => p !== '');
+  const parts = [n(taken.level, 'level', 'levels'), n(taken.mesh, 'mesh', 'meshes'), n(taken.stiffness, 'factor', 'factors')].filter((p) => p !== '');
   return parts.length > 0 ? ` (reused ${parts.join(', ')})` : '';
 }
 

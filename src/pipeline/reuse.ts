@@ -112,7 +112,7 @@ export function keptStiffnessBytes(kept: KeptStiffness): number {
   return arrayBytes(kept.K) + arrayBytes(kept.Kff) + arrayBytes(kept.fixedRows) + (f ? arrayBytes(f.symbolic) + f.values.buffer.byteLength : 0);
 }
 
-interface Entry { value: unknown; bytes: number; dofs: number; run: number }
+interface Entry { value: unknown; bytes: number; dofs: number; run: number; deps: readonly string[] }
 
 /** The store (see the file's note). One per thread; `reuseStore` is this process's. */
 export class ReuseStore {
@@ -124,6 +124,8 @@ export class ReuseStore {
   misses = 0;
   /** entries taken by the current run, by kind ('mesh', 'stiffness') */
   private taken = new Map<string, number>();
+  /** the keys taken or kept while each `kept` value on the stack is made (what it was made from) */
+  private readonly making: Set<string>[] = [];
 
   get enabled(): boolean {
     return this.on;
@@ -138,6 +140,7 @@ export class ReuseStore {
     this.on = false;
     this.entries.clear();
     this.taken = new Map();
+    this.making.length = 0;
   }
 
   /** What is kept now. */
@@ -153,22 +156,51 @@ export class ReuseStore {
     if (!e) { this.misses++; return undefined; }
     this.hits++;
     this.taken.set(kind, (this.taken.get(kind) ?? 0) + 1);
-    e.run = this.run;
-    // most recently used last: eviction takes from the front
-    this.entries.delete(key);
-    this.entries.set(key, e);
+    this.touch(key, e);
     return e.value as T;
   }
 
+  /** Mark an entry and what it was made from as used by this run, most recently used last (eviction takes from the front). */
+  private touch(key: string, e: Entry): void {
+    for (const m of this.making) m.add(key);
+    e.run = this.run;
+    this.entries.delete(key);
+    this.entries.set(key, e);
+    for (const d of e.deps) {
+      const de = this.entries.get(d);
+      if (de && de.run !== this.run) this.touch(d, de);
+    }
+  }
+
+  /**
+   * The value kept under `key`, or `make()`'s, kept with what it was made from (the entries taken or
+   * kept meanwhile): a hit keeps those in use too, so a later run that needs only them still finds them.
+   */
+  kept<T>(key: string, kind: string, make: () => T, size: (value: T) => { bytes: number; dofs: number }, limits: SolveLimits): T {
+    const hit = this.take<T>(key, kind);
+    if (hit !== undefined) return hit;
+    const deps = new Set<string>();
+    this.making.push(deps);
+    let value: T;
+    try {
+      value = make();
+    } finally {
+      this.making.pop();
+    }
+    this.keep(key, value, size(value), limits, [...deps]);
+    return value;
+  }
+
   /** Keep `value` under `key` when it fits within the limits beside the rest (evicting the least recently used). */
-  keep(key: string, value: unknown, size: { bytes: number; dofs: number }, limits: SolveLimits): void {
+  keep(key: string, value: unknown, size: { bytes: number; dofs: number }, limits: SolveLimits, deps: readonly string[] = []): void {
     if (!this.on) return;
+    for (const m of this.making) m.add(key);
     this.entries.delete(key);
     const capBytes = limits.maxFactorBytes ?? defaultFactorBytes();
     const capDofs = limits.maxDofs ?? DEFAULT_MAX_DOFS;
     // what cannot fit even alone is not kept, and costs the others nothing
     if (size.bytes > capBytes || size.dofs > capDofs || !this.makeRoom(size.bytes, size.dofs, limits)) return;
-    this.entries.set(key, { value, bytes: size.bytes, dofs: size.dofs, run: this.run });
+    this.entries.set(key, { value, bytes: size.bytes, dofs: size.dofs, run: this.run, deps });
   }
 
   /**

@@ -12,7 +12,7 @@ import type { PlateGeometry } from '../geometry/types.js';
 import type { Mesh } from '../mesh/types.js';
 import type { Model, Point } from '../model/types.js';
 import { buildPointLocator } from '../recovery/index.js';
-import { baseSizeField, contentKey, problemOf, solveAt, type Problem, type SolveLimits } from '../pipeline/index.js';
+import { baseSizeField, contentKey, problemOf, reuseStore, solveAt, type Problem, type SolveLimits } from '../pipeline/index.js';
 import { factorBytes } from '../fem/health.js';
 import { bodyFields, type BodyFields } from '../fem/index.js';
 import { combinedBodyFields } from './cases.js';
@@ -130,8 +130,27 @@ export function levelSizeKey(input: Pick<LevelInput, 'sites' | 'h0' | 'ratio' | 
   return contentKey('study-level', input.sites.map((c) => [c.at, c.plateau ?? null]), input.h0, input.ratio, input.k, input.farFieldCoarsening ?? null);
 }
 
-/** Mesh, solve and read one level (or the far-field solve) of the ladder. `problem` may be passed when already built. */
+/**
+ * Mesh, solve and read one level (or the far-field solve) of the ladder. `problem` may be passed when
+ * already built. In a warm process with reuse on (watch mode, pipeline/reuse.ts) the readings are kept
+ * under the content key of the whole input — the function is pure in it — so a rerun whose level
+ * inputs are all the same (a comment-only save) reads them back; a hit keeps the level's mesh and
+ * factor in use as well. What is kept and handed out is a structured clone, as a pool worker's answer.
+ */
 export function studyLevel(input: LevelInput, problem: Problem = levelProblem(input)): LevelReadings {
+  if (!reuseStore.enabled) return readLevel(input, problem);
+  const kept = reuseStore.kept(contentKey('study-level-readings', input), 'level', () => structuredClone(readLevel(input, problem)), readingsSize, input.limits);
+  return structuredClone(kept);
+}
+
+/** Bytes of a level's readings (the traces' arrays, and a generous allowance per reading). */
+function readingsSize(r: LevelReadings): { bytes: number; dofs: number } {
+  let bytes = 4096 * r.perSet.reduce((n, set) => n + set.length, 0);
+  for (const t of r.traces ?? []) bytes += t.xy.byteLength + t.boundaryEdges.byteLength + t.nodal.byteLength;
+  return { bytes, dofs: 0 };
+}
+
+function readLevel(input: LevelInput, problem: Problem): LevelReadings {
   const { sites, probes, h0, straight, ratio, k, order, limits } = input;
   const geom = problem.geometry;
   const base = baseSizeField(problem);

@@ -1,11 +1,12 @@
 /**
  * Watch mode's reuse between runs (src/pipeline/reuse.ts, docs/watch.md "Reuse"): the built binary
- * watches a copy of the l-bracket-sharp demo; after a load-only edit (the `tau` param), a comment-only
- * save and a geometry edit (the `leg` param) the watch's result set is compared with a fresh
+ * watches a copy of the l-bracket-sharp demo; after a comment-only save, a load-only edit (the `tau`
+ * param) and a geometry edit (the `leg` param) the watch's result set is compared with a fresh
  * `peakwise study` of the edited file in a new process: every file byte for byte, study.json save its
- * one timing (`"totalS"`, the only field two fresh runs of the same file differ in). The first two
- * reruns must take every mesh and factor from the store (six levels, the first solve, the far field:
- * 8 each), the geometry edit none.
+ * one timing (`"totalS"`, the only field two fresh runs of the same file differ in). The comment-only
+ * save must read every level back (six levels and the far field: 7) and take the first solve's mesh
+ * and factor; the load-only edit after it every mesh and factor (six levels, the first solve, the far
+ * field: 8 each), which the levels read back kept in use; the geometry edit nothing.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { copyFileSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -79,13 +80,13 @@ describe('study --watch reuses meshes and factors between runs', () => {
     expect(written()[0]).not.toMatch(/reused/);
   });
 
-  it('a load-only edit: every mesh and factor reused, the files those of a fresh run', async () => {
-    const line = await rerunMatchesFresh(demo.replace('tau: 6 ', 'tau: 9 '), 2, 'load');
-    expect(line).toMatch(/\(reused 8 meshes, 8 factors\)/);
+  it('a comment-only save: every level read back (and the first solve\'s mesh and factor), the files those of a fresh run', async () => {
+    const line = await rerunMatchesFresh(demo + '# a note\n', 2, 'comment');
+    expect(line).toMatch(/\(reused 7 levels, 1 mesh, 1 factor\)/);
   }, 150_000);
 
-  it('a comment-only save: every mesh and factor reused, the files those of a fresh run', async () => {
-    const line = await rerunMatchesFresh(demo.replace('tau: 6 ', 'tau: 9 ') + '# a note\n', 3, 'comment');
+  it('then a load-only edit: every mesh and factor reused (kept in use by the levels read back), the files those of a fresh run', async () => {
+    const line = await rerunMatchesFresh(demo.replace('tau: 6 ', 'tau: 9 ') + '# a note\n', 3, 'load');
     expect(line).toMatch(/\(reused 8 meshes, 8 factors\)/);
   }, 150_000);
 

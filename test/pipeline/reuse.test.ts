@@ -120,6 +120,20 @@ describe('the reuse store', () => {
     expect(reuseStore.endRun()).toEqual({ mesh: 1, stiffness: 1 });
   });
 
+  it('a value read back keeps what it was made from in use; one not read back lets it go', () => {
+    const store = new ReuseStore();
+    store.enable();
+    const size = () => ({ bytes: 1, dofs: 0 });
+    const make = (): object => { store.keep('mesh-of-level', {}, { bytes: 1, dofs: 1 }, {}); return {}; };
+    store.kept('level', 'level', make, size, {});
+    store.endRun();
+    expect(store.kept('level', 'level', () => { throw new Error('made again'); }, size, {})).toBeDefined();
+    expect(store.endRun()).toEqual({ level: 1 });
+    expect(store.size.entries).toBe(2); // the mesh was not taken, but the level read back holds it
+    store.endRun(); // a run that used neither
+    expect(store.size.entries).toBe(0);
+  });
+
   it('holds no more than the factor-memory cap and the dof cap allow', () => {
     reuseStore.enable();
     const a = solve({});
