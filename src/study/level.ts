@@ -159,7 +159,10 @@ function readLevel(input: LevelInput, problem: Problem): LevelReadings {
   const field = input.farFieldCoarsening !== undefined
     ? coarsenedOuterField(base, sites, h0, ratio, k, input.farFieldCoarsening)
     : levelSizeField(base, sites, h0, ratio, k);
-  const s = solveAt(problem, field, order, limits, { points: [...sites.map((c) => c.at), ...seeds], sizeKey: levelSizeKey(input) });
+  const s = solveAt(problem, field, order, limits, {
+    points: [...sites.map((c) => c.at), ...seeds],
+    ...(reuseStore.enabled ? { sizeKey: levelSizeKey(input) } : {}),
+  });
   const locator = buildPointLocator(s.mesh);
   const body = loadSetBodyFields(problem);
   const perSet = s.sets.map((set, j) => probes.map((p, i) =>

@@ -12,7 +12,7 @@ import { parseModel } from '../../src/model/index.js';
 import { baseSizeField, problemOf, solveAt, type SolveLimits } from '../../src/pipeline/index.js';
 import { contentKey, ReuseStore, reuseStore } from '../../src/pipeline/reuse.js';
 
-interface Variant { tau?: number; E?: number; nu?: number; t?: number; state?: string; fix?: string; w?: number; comment?: string }
+interface Variant { pull?: number; tau?: number; E?: number; nu?: number; t?: number; state?: string; fix?: string; w?: number; comment?: string }
 
 /** An invented gusset plate with a slot-shaped notch, held on its left edge, sheared on its right. */
 const text = (v: Variant = {}): string => `${v.comment ?? ''}
@@ -25,7 +25,7 @@ plate:
   outline: [[0, 0], [w, 0], [w, 30], [40, 30], { at: [36, 26], round: 2 }, [32, 30], [0, 30]]
 supports:
   - { where: { x: 0 }, fix: ${v.fix ?? '[x, y]'} }
-${v.fix === '[x]' ? '  - { where: { y: 0 }, fix: [y] }\n' : ''}loads:
+${v.fix === '[x]' ? '  - { where: { y: 0 }, fix: [y] }\n' : ''}${v.pull !== undefined ? `  - { where: { x: w }, displace: [null, ${v.pull}] }\n` : ''}loads:
   - { where: { x: w }, traction: [0, -tau] }
 mesh: { size: 6, order: 2 }
 `;
@@ -82,12 +82,24 @@ describe('the reuse store', () => {
     expect(same(b.solution.reaction, fresh({ tau: 10 }).solution.reaction)).toBe(true);
   });
 
+  it('an edited prescribed displacement takes the factor (the values reach only the right-hand side, K_fc u_c)', () => {
+    reuseStore.enable();
+    const a = solve({ pull: -0.01 });
+    reuseStore.endRun();
+    const b = solve({ pull: -0.02, tau: 10 });
+    expect(reuseStore.endRun()).toEqual({ mesh: 1, stiffness: 1 });
+    expect(b.solution.u.every((x, i) => x === 2 * a.solution.u[i])).toBe(true);
+    expect(same(b.solution.u, fresh({ pull: -0.02, tau: 10 }).solution.u)).toBe(true);
+    expect(same(b.solution.reaction, fresh({ pull: -0.02, tau: 10 }).solution.reaction)).toBe(true);
+  });
+
   it.each<[string, Variant]>([
     ['E', { E: 71000 }],
     ['ν', { nu: 0.3 }],
     ['thickness', { t: 5 }],
     ['state', { state: 'plane-strain' }],
     ['support (a roller instead of a clamp)', { fix: '[x]' }],
+    ['support (a prescribed displacement added)', { pull: -0.01 }],
   ])('a changed %s keeps the mesh and misses the factor; the solution is a fresh solve\'s', (_what, v) => {
     reuseStore.enable();
     solve({});
