@@ -11,6 +11,9 @@ import type { ElasticSection } from './types.js';
  * Node level: node n's neighbours (itself included) are nodeCols[nodeRowPtr[n] .. nodeRowPtr[n+1]),
  * sorted ascending. Dof level (2 dofs per node, u then v): each node pair is a 2×2 block, so
  * rows 2n and 2n+1 share the same sorted column list {2m, 2m+1 : m neighbour of n}.
+ * `elemOffsets` says where each element's node pairs land: for element e and local nodes i, j,
+ * elemOffsets[npe²·e + npe·i + j] is the place of node j in node i's sorted neighbour list
+ * (relative to the start of that list), so assembly writes by position without searching.
  */
 export interface StiffnessPattern {
   n: number;
@@ -18,6 +21,7 @@ export interface StiffnessPattern {
   nodeCols: Int32Array;
   rowPtr: Int32Array;
   colIdx: Int32Array;
+  elemOffsets?: Int32Array;
 }
 
 /** Builds the CSR pattern (full, both triangles, sorted columns) of the stiffness of `mesh`. */
@@ -54,21 +58,59 @@ export function stiffnessPattern(mesh: Pick<Mesh, 'xy' | 'elemNodes' | 'nodesPer
     }
     nodeRowPtr[n + 1] = nodeRowPtr[n] + deg;
   }
+  let maxDeg = 0;
+  for (let n = 0; n < nNodes; n++) maxDeg = Math.max(maxDeg, nodeRowPtr[n + 1] - nodeRowPtr[n]);
   const nodeCols = new Int32Array(nodeRowPtr[nNodes]);
+  // a row is filled in order of first sight: seen[m] is m's place there (valid while marker[m] === n),
+  // and each element's pairs take those places; the row is then sorted and the places renamed
+  const seen = new Int32Array(nNodes);
+  const npe2 = npe * npe;
+  const elemOffsets = new Int32Array(npe2 * nElem);
+  const firstSight = new Int32Array(maxDeg); // of the entry at each sorted place
+  const sortedPlace = new Int32Array(maxDeg); // of the entry first seen at each place
   marker.fill(-1);
   for (let n = 0; n < nNodes; n++) {
-    let q = nodeRowPtr[n];
+    const r0 = nodeRowPtr[n];
+    let q = r0;
     for (let p = elemPtr[n]; p < elemPtr[n + 1]; p++) {
-      const base = npe * elemList[p];
-      for (let i = 0; i < npe; i++) {
-        const m = elemNodes[base + i];
+      const e = elemList[p];
+      const base = npe * e;
+      let li = 0;
+      while (elemNodes[base + li] !== n) li++;
+      const at = npe2 * e + npe * li;
+      for (let j = 0; j < npe; j++) {
+        const m = elemNodes[base + j];
         if (marker[m] !== n) {
           marker[m] = n;
+          seen[m] = q - r0;
           nodeCols[q++] = m;
         }
+        elemOffsets[at + j] = seen[m];
       }
     }
-    nodeCols.subarray(nodeRowPtr[n], q).sort();
+    // insertion sort of the row (tens of entries), carrying each entry's place of first sight
+    const deg = q - r0;
+    for (let a = 0; a < deg; a++) firstSight[a] = a;
+    for (let a = 1; a < deg; a++) {
+      const c = nodeCols[r0 + a], w = firstSight[a];
+      let b = a - 1;
+      while (b >= 0 && nodeCols[r0 + b] > c) {
+        nodeCols[r0 + b + 1] = nodeCols[r0 + b];
+        firstSight[b + 1] = firstSight[b];
+        b--;
+      }
+      nodeCols[r0 + b + 1] = c;
+      firstSight[b + 1] = w;
+    }
+    for (let a = 0; a < deg; a++) sortedPlace[firstSight[a]] = a;
+    for (let p = elemPtr[n]; p < elemPtr[n + 1]; p++) {
+      const e = elemList[p];
+      const base = npe * e;
+      let li = 0;
+      while (elemNodes[base + li] !== n) li++;
+      const at = npe2 * e + npe * li;
+      for (let j = 0; j < npe; j++) elemOffsets[at + j] = sortedPlace[elemOffsets[at + j]];
+    }
   }
 
   // dof level
@@ -93,7 +135,7 @@ export function stiffnessPattern(mesh: Pick<Mesh, 'xy' | 'elemNodes' | 'nodesPer
       colIdx[r1 + 2 * k + 1] = 2 * m + 1;
     }
   }
-  return { n: nDof, nodeRowPtr, nodeCols, rowPtr, colIdx };
+  return { n: nDof, nodeRowPtr, nodeCols, rowPtr, colIdx, elemOffsets };
 }
 
 /** position of node m in node n's sorted neighbour list, relative to the row start (binary search) */
@@ -134,6 +176,8 @@ export function assembleStiffness(
   const exy = new Float64Array(2 * npe);
   const ke = new Float64Array(nd * nd);
   const t = section.thickness;
+  // the pattern's place of every element pair (a pattern made elsewhere may lack it: then search)
+  const offsets = pattern.elemOffsets && pattern.elemOffsets.length === npe * npe * nElem ? pattern.elemOffsets : undefined;
   for (let e = 0; e < nElem; e++) {
     gatherElementXY(xy, elemNodes, npe, e, exy);
     if (axisymmetric) axisymmetricStiffness(exy, npe, D, ke);
@@ -144,8 +188,9 @@ export function assembleStiffness(
       const a = elemNodes[base + i];
       const ra = rowPtr[2 * a];
       const rb = rowPtr[2 * a + 1];
+      const at = npe * npe * e + npe * i;
       for (let j = 0; j < npe; j++) {
-        const o = 2 * neighbourOffset(pattern, a, elemNodes[base + j]);
+        const o = 2 * (offsets ? offsets[at + j] : neighbourOffset(pattern, a, elemNodes[base + j]));
         const k0 = 2 * i * nd + 2 * j;
         const k1 = k0 + nd;
         values[ra + o] += ke[k0];

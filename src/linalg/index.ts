@@ -16,7 +16,7 @@ export {
 } from './ordering.js';
 export { eliminationTree, postorderTree, postorderedTree, columnCounts, symbolicFactor, type SupernodeOptions } from './symbolic.js';
 export { nodeEliminationTree } from './node-tree.js';
-export { factorKernels, type FactorOptions } from './numeric.js';
+export { factorKernels, releaseFactor, type FactorOptions } from './numeric.js';
 export { wasmKernelsAvailable } from './wasm.js';
 export { analyze, factorize, refactorize, solveFactor, solveFactorMany, solveSpd, type SpdSolution } from './solve.js';
 export { toMatrixMarket, vectorToMatrixMarket, matrixMarketChunks } from './matrix-market.js';

@@ -1,6 +1,6 @@
 import { NotPositiveDefiniteError } from './errors.js';
 import type { Csr, Factor, Symbolic } from './types.js';
-import { createWasmKernels, type WasmKernels } from './wasm.js';
+import { giveBackWasmKernels, takeWasmKernels, type WasmKernels } from './wasm.js';
 
 export interface FactorOptions {
   /** a pivot d ≤ pivotTol · |A_kk| counts as a breakdown (default 1e-12) */
@@ -14,6 +14,18 @@ export interface FactorOptions {
 
 /** Kernels and memory behind each wasm-held factor, so refactorize can reuse both. */
 const wasmOfValues = new WeakMap<Float64Array, WasmKernels>();
+
+/**
+ * Give a factor's WebAssembly memory back for the next factorisation (wasm.ts takeWasmKernels): a
+ * fresh memory costs a page fault per 4 KiB page on its first writes, a given-back one does not.
+ * The factor (its values) must not be used afterwards: the next factor overwrites them.
+ */
+export function releaseFactor(F: Factor): void {
+  const wk = wasmOfValues.get(F.values);
+  if (!wk) return;
+  wasmOfValues.delete(F.values);
+  giveBackWasmKernels(wk);
+}
 
 /** Which kernels produced a factor's values. */
 export function factorKernels(F: Factor): 'wasm' | 'js' {
@@ -57,17 +69,24 @@ export function numericFactor(A: Csr, sym: Symbolic, options: FactorOptions = {}
   const colAddrAt = rowOffAt + 4 * roundUp4(maxRows);
   const tolAt = colAddrAt + 4 * roundUp4(maxCols); // bytes, f64 per panel column
   const bytes = tolAt + 8 * roundUp4(maxCols) + 64;
-  let reused = false;
+  let dirtyBytes = 0;
   if (mode !== 'js') {
     const prior = reuse && reuse.length === total ? wasmOfValues.get(reuse) : undefined;
-    wk = prior && prior.memory.buffer.byteLength >= bytes ? prior : createWasmKernels(bytes);
-    reused = wk !== null && wk === prior;
+    if (prior && prior.memory.buffer.byteLength >= bytes) {
+      wk = prior;
+      dirtyBytes = bytes;
+    } else {
+      const taken = takeWasmKernels(bytes);
+      wk = taken?.kernels ?? null;
+      dirtyBytes = taken?.dirtyBytes ?? 0;
+    }
     if (!wk && mode === 'wasm') throw new TypeError('WebAssembly SIMD kernels are unavailable for this factor');
   }
   if (wk) {
     const buf = wk.memory.buffer;
     L = new Float64Array(buf, 0, total);
-    if (reused) new Float64Array(buf, 0, workAt).fill(0);
+    // the panels must start at zero (A is scattered in with +=); a spare memory may hold an old factor
+    if (dirtyBytes > 0) new Float64Array(buf, 0, Math.min(workAt, Math.floor(dirtyBytes / 8))).fill(0);
     work = new Float64Array(buf, workAt * 8, workLen);
     rowOff = new Int32Array(buf, rowOffAt, roundUp4(maxRows));
     colAddr = new Int32Array(buf, colAddrAt, roundUp4(maxCols));
