@@ -71,12 +71,14 @@ export interface KeptStiffness {
 /**
  * The store `solvePlateCases` asks before assembling (the caller binds it to the mesh and section and
  * keys it on their content): `find` the kept stiffness of these held dofs, `room` before a new factor
- * of `bytes` is made (the store lets go of what does not fit beside it), `keep` a new one.
+ * of `bytes` is made (the store lets go of what does not fit beside it), `keep` a new one — true when
+ * kept; `release` is called when the store lets it go (the factor's memory then serves the next
+ * factorisation, linalg's releaseFactor), and a factor not kept is released by the solve at once.
  */
 export interface StiffnessReuse {
   find(fixed: Uint8Array): KeptStiffness | undefined;
   room(bytes: number): void;
-  keep(fixed: Uint8Array, kept: KeptStiffness): void;
+  keep(fixed: Uint8Array, kept: KeptStiffness, release: () => void): boolean;
 }
 
 const now = (): number => performance.now() / 1000;
@@ -173,6 +175,8 @@ export function solvePlateCases(input: PlateProblem, cases: readonly PlateCase[]
   const us = constraints.map((c) => c.value);
   if (nFree > 0) {
     let factor = kept?.factor;
+    // true while the store holds the factor used here (taken from it, or kept now)
+    let keptFactor = factor !== undefined;
     if (factor) {
       // the cap is checked as for a new factor (the limits may differ from the solve that made it)
       t2 = t1;
@@ -193,13 +197,15 @@ export function solvePlateCases(input: PlateProblem, cases: readonly PlateCase[]
         if (err instanceof NotPositiveDefiniteError) throw sectionCulprit(section) ?? notHeldError(mesh, free, err.dof);
         throw err;
       }
-      if (input.reuse && K) input.reuse.keep(fixed, { K, Kff, fixedRows, factor });
+      // a kept factor's memory is given back when the store lets it go, never while it is kept
+      const made = factor;
+      keptFactor = input.reuse !== undefined && K !== undefined && input.reuse.keep(fixed, { K, Kff, fixedRows, factor }, () => releaseFactor(made));
     }
     nnzL = factor.nnzL;
     t3 = now();
     const uFrees = solveFactorMany(factor, bs);
     // the factor is used no more: its memory serves the next factorisation (no fresh pages to fault in)
-    releaseFactor(factor);
+    if (!keptFactor) releaseFactor(factor);
     const limit = input.residualLimit ?? RESIDUAL_LIMIT;
     const scaled = cases.length === 1 ? [residualNorm(Kff, uFrees[0], bs[0])] : residualNorms(Kff, uFrees, bs);
     uFrees.forEach((uFree, c) => {

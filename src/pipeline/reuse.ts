@@ -21,8 +21,10 @@
  *   WebAssembly memory keeps that memory, work area included) plus the factor being made stay within
  *   the run's `maxFactorBytes`, and the kept meshes' dofs within `maxDofs` (limits.ts; the command
  *   line's defaults where a limit is not given), least recently used first out: the store never lets
- *   a run hold more than one solve of it may. A factor is never refactorised in place (linalg's
- *   `factorize` gives each factor its own memory), so a kept one stays valid.
+ *   a run hold more than one solve of it may.
+ * - A kept factor stays valid: the solver gives a factor's WebAssembly memory back for the next
+ *   factorisation (linalg's releaseFactor) only when the store does not keep it, and the store gives
+ *   it back only when it lets the entry go (evicted, dropped after a run, or the store turned off).
  */
 import { createHash, type Hash } from 'node:crypto';
 import type { Mesh } from '../mesh/types.js';
@@ -112,7 +114,7 @@ export function keptStiffnessBytes(kept: KeptStiffness): number {
   return arrayBytes(kept.K) + arrayBytes(kept.Kff) + arrayBytes(kept.fixedRows) + (f ? arrayBytes(f.symbolic) + f.values.buffer.byteLength : 0);
 }
 
-interface Entry { value: unknown; bytes: number; dofs: number; run: number; deps: readonly string[] }
+interface Entry { value: unknown; bytes: number; dofs: number; run: number; deps: readonly string[]; release?: () => void }
 
 /** The store (see the file's note). One per thread; `reuseStore` is this process's. */
 export class ReuseStore {
@@ -138,6 +140,7 @@ export class ReuseStore {
   /** Turn it off and let go of everything. */
   disable(): void {
     this.on = false;
+    for (const e of this.entries.values()) e.release?.();
     this.entries.clear();
     this.taken = new Map();
     this.making.length = 0;
@@ -192,15 +195,27 @@ export class ReuseStore {
   }
 
   /** Keep `value` under `key` when it fits within the limits beside the rest (evicting the least recently used). */
-  keep(key: string, value: unknown, size: { bytes: number; dofs: number }, limits: SolveLimits, deps: readonly string[] = []): void {
-    if (!this.on) return;
+  keep(
+    key: string, value: unknown, size: { bytes: number; dofs: number }, limits: SolveLimits,
+    deps: readonly string[] = [], release?: () => void,
+  ): boolean {
+    if (!this.on) return false;
     for (const m of this.making) m.add(key);
-    this.entries.delete(key);
+    this.drop(key);
     const capBytes = limits.maxFactorBytes ?? defaultFactorBytes();
     const capDofs = limits.maxDofs ?? DEFAULT_MAX_DOFS;
     // what cannot fit even alone is not kept, and costs the others nothing
-    if (size.bytes > capBytes || size.dofs > capDofs || !this.makeRoom(size.bytes, size.dofs, limits)) return;
-    this.entries.set(key, { value, bytes: size.bytes, dofs: size.dofs, run: this.run, deps });
+    if (size.bytes > capBytes || size.dofs > capDofs || !this.makeRoom(size.bytes, size.dofs, limits)) return false;
+    this.entries.set(key, { value, bytes: size.bytes, dofs: size.dofs, run: this.run, deps, ...(release ? { release } : {}) });
+    return true;
+  }
+
+  /** Let go of one entry (its release, if any, is called: a factor's memory then serves the next one). */
+  private drop(key: string): void {
+    const e = this.entries.get(key);
+    if (!e) return;
+    this.entries.delete(key);
+    e.release?.();
   }
 
   /**
@@ -213,7 +228,7 @@ export class ReuseStore {
     let { bytes: held, dofs: heldDofs } = this.size;
     for (const [k, e] of this.entries) {
       if (held + bytes <= capBytes && heldDofs + dofs <= capDofs) break;
-      this.entries.delete(k);
+      this.drop(k);
       held -= e.bytes;
       heldDofs -= e.dofs;
     }
@@ -225,7 +240,7 @@ export class ReuseStore {
    * Returns how many entries of each kind the run took from the store.
    */
   endRun(failed = false): Record<string, number> {
-    if (!failed) for (const [k, e] of this.entries) if (e.run !== this.run) this.entries.delete(k);
+    if (!failed) for (const [k, e] of this.entries) if (e.run !== this.run) this.drop(k);
     this.run++;
     const taken = Object.fromEntries(this.taken);
     this.taken = new Map();
@@ -262,6 +277,6 @@ export function stiffnessReuse(mesh: Mesh, section: ElasticSection, limits: Solv
   return {
     find: (fixed) => reuseStore.take<KeptStiffness>(keyOf(fixed), 'stiffness'),
     room: (bytes) => { reuseStore.makeRoom(bytes, 0, limits); },
-    keep: (fixed, kept) => reuseStore.keep(keyOf(fixed), kept, { bytes: keptStiffnessBytes(kept), dofs: 0 }, limits),
+    keep: (fixed, kept, release) => reuseStore.keep(keyOf(fixed), kept, { bytes: keptStiffnessBytes(kept), dofs: 0 }, limits, [], release),
   };
 }

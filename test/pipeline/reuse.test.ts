@@ -82,6 +82,19 @@ describe('the reuse store', () => {
     expect(same(b.solution.reaction, fresh({ tau: 10 }).solution.reaction)).toBe(true);
   });
 
+  it('a kept factor is not overwritten by the factorisations after it (a factor let go gives its memory to the next one)', () => {
+    reuseStore.enable();
+    const a = solve({});
+    solve({ w: 90 });
+    solve({ E: 71000 });
+    const b = solve({ tau: 10 });
+    expect(reuseStore.endRun()).toEqual({ mesh: 2, stiffness: 1 }); // E: the w = 80 mesh again, a new factor
+    expect(b.solution.u.every((x, i) => x === 2 * a.solution.u[i])).toBe(true);
+    // the w = 90 and E = 71000 work was let go after the run; the memory it gave back serves these
+    expect(same(solve({ w: 100 }).solution.u, fresh({ w: 100 }).solution.u)).toBe(true);
+    expect(same(solve({ tau: 10 }).solution.u, b.solution.u)).toBe(true);
+  });
+
   it('an edited prescribed displacement takes the factor (the values reach only the right-hand side, K_fc u_c)', () => {
     reuseStore.enable();
     const a = solve({ pull: -0.01 });
@@ -156,8 +169,9 @@ describe('the reuse store', () => {
     reuseStore.disable();
     reuseStore.enable();
     solve({}, limits);
-    solve({ w: 90 }, limits);
+    const b = solve({ w: 90 }, limits);
     expect(reuseStore.size.bytes).toBeLessThanOrEqual(limits.maxFactorBytes);
+    expect(same(b.solution.u, fresh({ w: 90 }).solution.u)).toBe(true);
     expect(reuseStore.size.entries).toBeLessThan(4);
     // a dof cap below one mesh keeps no mesh
     const store = new ReuseStore();
