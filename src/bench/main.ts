@@ -1,12 +1,14 @@
 /**
  * `npm run bench`: speed and memory figures for this machine (never in tests).
  *
- *   node dist/bench/main.js [--quick] [--skip startup,commands,mesh,holes,solver,pipeline,cases,study,rates]
+ *   node dist/bench/main.js [--quick] [--skip startup,commands,watch,mesh,holes,solver,pipeline,cases,study,rates]
  *
  * 0. startup   `peakwise --version` and `--help` in a fresh process (src/bench/commands.ts)
  *    commands  whole `study` of every demo and `mesh` of a ~300 000-node plate in a fresh process,
  *              as ratios to the yardstick (plain delaunator, 1 000 000 random points, this run),
  *              with the study's breakdown start / mesh / solve / recover / study / write / gc
+ *    watch     warm reruns of `study --watch` on l-bracket-sharp: a comment-only save, a load-only
+ *              edit and a geometry edit, interleaved, as ratios to the yardstick (src/bench/watch-rerun.ts)
  * 1. mesh      quality mesh of a multi-opening plate (~300 000 vertices) against plain delaunator
  *    holes     perforated plate, 400 and 1 600 holes: time ratio (src/bench/holes.ts)
  * 2. solver    sparse Cholesky on clamped-rectangle stiffness matrices (anchor table sizes),
@@ -35,7 +37,8 @@ import { holePlateProblem } from './models.js';
 import { parseModel } from '../model/index.js';
 import { runStudy } from '../study/index.js';
 import { lShapeModeIField } from '../reference/index.js';
-import { goalsText, recordGoal } from './goals.js';
+import { goalsText, recordGoal, sampleYardstick, yardstick } from './goals.js';
+import { measureWatchRerun, watchRerunGoals, watchRerunText } from './watch-rerun.js';
 import { benchMeshCommand, benchStartup, benchStudyCommands } from './commands.js';
 
 const args = process.argv.slice(2);
@@ -167,6 +170,14 @@ async function main(): Promise<void> {
     heading('whole commands (fresh process) against the yardstick');
     benchStudyCommands(quick);
     benchMeshCommand(quick);
+  }
+  if (!skip.has('watch')) {
+    heading('watch mode: warm reruns (comment, load, geometry edits, interleaved) against the yardstick');
+    sampleYardstick();
+    const r = await measureWatchRerun(join(root, 'models', 'l-bracket-sharp.yaml'), quick ? 3 : 5);
+    sampleYardstick();
+    process.stdout.write(watchRerunText(r, yardstick()));
+    for (const g of watchRerunGoals(r, yardstick())) recordGoal(g);
   }
   if (!skip.has('mesh')) {
     heading('mesher');

@@ -12,13 +12,13 @@
  * well as those that write in place, and a save that leaves the bytes as they were (same SHA-256)
  * starts no run.
  */
-import { availableParallelism } from 'node:os';
 import { createHash } from 'node:crypto';
 import { readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { PeakwiseError, isPeakwiseError } from '../errors.js';
 import { studyPool } from '../study/index.js';
 import type { TaskPool } from '../pipeline/pool.js';
+import { reuseStore } from '../pipeline/reuse.js';
 import { jobsOption, runStudy, type StudyCliOptions } from './commands.js';
 import { StudyInterrupted, emitWarnings, stopRequested, type CliContext } from './common.js';
 import { clearInputs, inputsOfRun } from './inputs.js';
@@ -99,15 +99,25 @@ function changed(files: Map<string, FileState>): string | undefined {
   return undefined;
 }
 
+/** ' (reused 7 levels, 1 mesh, 1 factor)' for what a run took from the reuse store (a level: its readings), '' when nothing. */
+export function reusedWords(taken: Record<string, number>): string {
+  const n = (count: number | undefined, one: string, many: string): string => (count ? `${count} ${count === 1 ? one : many}` : '');
+  const parts = [n(taken.level, 'level', 'levels'), n(taken.mesh, 'mesh', 'meshes'), n(taken.stiffness, 'factor', 'factors')].filter((p) => p !== '');
+  return parts.length > 0 ? ` (reused ${parts.join(', ')})` : '';
+}
+
 /** Study, then study again on every saved change, until Ctrl-C. */
 export async function watchStudy(ctx: CliContext, file: string, opts: WatchOptions): Promise<void> {
   const port = portOption(opts.port);
-  const jobs = jobsOption(opts.jobs) ?? availableParallelism();
+  // one job by default: the levels run in this thread, which keeps their meshes and factors between
+  // runs (pipeline/reuse.ts); workers (--jobs n) stay warm but make everything afresh (docs/watch.md)
+  const jobs = jobsOption(opts.jobs) ?? 1;
   const outDir = opts.out ?? join('out', modelName(file));
   const say = (line: string): void => { process.stderr.write(`peakwise: ${line}\n`); };
   const held = holdOutputFolder(outDir, file, 'study', (line) => emitWarnings([line], opts));
   let pool: TaskPool | undefined;
   let server: Awaited<ReturnType<typeof serveFolder>> | undefined;
+  reuseStore.enable();
   try {
     // warm workers for every rerun (one job: each level in this thread, itself warm)
     pool = jobs > 1 ? studyPool(jobs) : undefined;
@@ -128,10 +138,11 @@ export async function watchStudy(ctx: CliContext, file: string, opts: WatchOptio
       if (reason) say(`${reason} changed: studying again`);
       try {
         await runStudy(ctx, file, { ...opts, out: outDir }, pool);
+        const taken = reuseStore.endRun();
         closeOutputSets('done');
         const runId = stampOfFile(join(held.dir, MANIFEST_NAME));
         if (runId) server.announceRun(runId);
-        if (!opts.quiet) say(`run ${runId ? runId.slice(0, 12) : ''} written in ${((performance.now() - t0) / 1000).toFixed(2)} s; waiting for changes`);
+        if (!opts.quiet) say(`run ${runId ? runId.slice(0, 12) : ''} written in ${((performance.now() - t0) / 1000).toFixed(2)} s${reusedWords(taken)}; waiting for changes`);
       } catch (e) {
         if (e instanceof StudyInterrupted) {
           // the finished levels are written: complete the set while the lock is still held
@@ -139,6 +150,7 @@ export async function watchStudy(ctx: CliContext, file: string, opts: WatchOptio
           throw e;
         }
         closeOutputSets('failed');
+        reuseStore.endRun(true); // keeps the last good run's work for when the edit is fixed
         const line = isPeakwiseError(e) ? describeError(e, ctx.file, ctx.model) : `internal error: ${e instanceof Error ? e.message : String(e)}`;
         process.stderr.write(`peakwise: ${line}\n`);
         server.announceError(plain(line));
@@ -166,6 +178,7 @@ export async function watchStudy(ctx: CliContext, file: string, opts: WatchOptio
   } finally {
     await server?.close();
     await pool?.close();
+    reuseStore.disable();
     held.release();
   }
 }

@@ -17,7 +17,7 @@ export { bodyForceLoad, type BodyForceField } from './body-load.js';
 export { bodyFields, temperatureField, thermalLoad, thermalStrainPerDegree, type BodyFields, type TemperatureField } from './thermal.js';
 export { checkRigidRestraint, supportedDofs } from './supports.js';
 export { validateSolverMesh, validateSection } from './validate.js';
-export { solvePlate, solvePlateCases, largestDisplacement, type PlateProblem, type PlateCase, type PrescribedDisplacement } from './solve.js';
+export { solvePlate, solvePlateCases, largestDisplacement, type PlateProblem, type PlateCase, type PrescribedDisplacement, type KeptStiffness, type StiffnessReuse, type CsrRows } from './solve.js';
 export { farFieldStressLoad } from './farfield.js';
 export { pinForceLoad } from './pin-force.js';
 export { prescribedFromSupports, supportConstraints, interpolateTable, TABLE_TOLERANCE_RELATIVE, type PrescribedValue, type SupportConstraints } from './prescribe.js';

@@ -11,7 +11,7 @@ import {
   residualNorms,
   solveFactorMany,
 } from '../linalg/index.js';
-import type { Csr } from '../linalg/types.js';
+import type { Csr, Factor } from '../linalg/types.js';
 import type { Mesh } from '../mesh/types.js';
 import type { Load, Support } from '../model/types.js';
 import { supportConstraints } from './prescribe.js';
@@ -49,6 +49,36 @@ export interface PlateProblem {
   maxFactorBytes?: number;
   /** largest accepted scaled residual (default RESIDUAL_LIMIT, 1e-8); above it the solve is a SolveError */
   residualLimit?: number;
+  /**
+   * a store of stiffness and factors kept from earlier solves of this mesh and section (watch mode:
+   * pipeline/reuse.ts); absent, every solve assembles and factorises afresh
+   */
+  reuse?: StiffnessReuse;
+}
+
+/**
+ * What a solve keeps of one mesh, section and set of held dofs, for a later solve of the same three:
+ * the assembled K (for K_fc u_c of prescribed values), its free-dof block K_ff and fixed rows, and the
+ * factor of K_ff (with its ordering and analysis; undefined when no dof is free). Only read after.
+ */
+export interface KeptStiffness {
+  K: Csr;
+  Kff: Csr;
+  fixedRows: CsrRows;
+  factor: Factor | undefined;
+}
+
+/**
+ * The store `solvePlateCases` asks before assembling (the caller binds it to the mesh and section and
+ * keys it on their content): `find` the kept stiffness of these held dofs, `room` before a new factor
+ * of `bytes` is made (the store lets go of what does not fit beside it), `keep` a new one — true when
+ * kept; `release` is called when the store lets it go (the factor's memory then serves the next
+ * factorisation, linalg's releaseFactor), and a factor not kept is released by the solve at once.
+ */
+export interface StiffnessReuse {
+  find(fixed: Uint8Array): KeptStiffness | undefined;
+  room(bytes: number): void;
+  keep(fixed: Uint8Array, kept: KeptStiffness, release: () => void): boolean;
 }
 
 const now = (): number => performance.now() / 1000;
@@ -125,9 +155,11 @@ export function solvePlateCases(input: PlateProblem, cases: readonly PlateCase[]
   const free = new Int32Array(nFree);
   for (let i = 0, k = 0; i < nDof; i++) if (!fixed[i]) free[k++] = i;
 
-  const pattern = input.pattern ?? stiffnessPattern(mesh);
-  if (pattern.n !== nDof) throw new FemError(`stiffness pattern has ${pattern.n} dofs; the mesh has ${nDof}`);
-  const { bs, Kff, fixedRows } = reducedSystem(mesh, section, pattern, forces, fixed, constraints.map((c) => c.value), free);
+  // kept from an earlier solve of this mesh, section and held dofs (watch mode), else assembled now
+  const kept = input.reuse?.find(fixed);
+  const pattern = kept ? undefined : input.pattern ?? stiffnessPattern(mesh);
+  if (pattern && pattern.n !== nDof) throw new FemError(`stiffness pattern has ${pattern.n} dofs; the mesh has ${nDof}`);
+  const { bs, Kff, fixedRows, K } = reducedSystem(mesh, section, pattern, forces, fixed, constraints.map((c) => c.value), free, kept, input.reuse !== undefined);
   const t1 = now();
 
   const rowXY = new Float64Array(2 * nFree);
@@ -142,24 +174,38 @@ export function solvePlateCases(input: PlateProblem, cases: readonly PlateCase[]
   const residuals = cases.map(() => 0);
   const us = constraints.map((c) => c.value);
   if (nFree > 0) {
-    const ordering = chooseOrdering(Kff, rowXY);
-    t2 = now();
-    const symbolic = analyze(Kff, ordering);
-    if (input.maxFactorBytes !== undefined && factorBytes(symbolic.nnzStored) > input.maxFactorBytes) {
-      throw memoryLimitError(factorBytes(symbolic.nnzStored), input.maxFactorBytes, nDof);
-    }
-    let factor;
-    try {
-      factor = factorize(Kff, symbolic);
-    } catch (err) {
-      if (err instanceof NotPositiveDefiniteError) throw sectionCulprit(section) ?? notHeldError(mesh, free, err.dof);
-      throw err;
+    let factor = kept?.factor;
+    // true while the store holds the factor used here (taken from it, or kept now)
+    let keptFactor = factor !== undefined;
+    if (factor) {
+      // the cap is checked as for a new factor (the limits may differ from the solve that made it)
+      t2 = t1;
+      if (input.maxFactorBytes !== undefined && factorBytes(factor.symbolic.nnzStored) > input.maxFactorBytes) {
+        throw memoryLimitError(factorBytes(factor.symbolic.nnzStored), input.maxFactorBytes, nDof);
+      }
+    } else {
+      const ordering = chooseOrdering(Kff, rowXY);
+      t2 = now();
+      const symbolic = analyze(Kff, ordering);
+      if (input.maxFactorBytes !== undefined && factorBytes(symbolic.nnzStored) > input.maxFactorBytes) {
+        throw memoryLimitError(factorBytes(symbolic.nnzStored), input.maxFactorBytes, nDof);
+      }
+      input.reuse?.room(factorBytes(symbolic.nnzStored));
+      try {
+        factor = factorize(Kff, symbolic);
+      } catch (err) {
+        if (err instanceof NotPositiveDefiniteError) throw sectionCulprit(section) ?? notHeldError(mesh, free, err.dof);
+        throw err;
+      }
+      // a kept factor's memory is given back when the store lets it go, never while it is kept
+      const made = factor;
+      keptFactor = input.reuse !== undefined && K !== undefined && input.reuse.keep(fixed, { K, Kff, fixedRows, factor }, () => releaseFactor(made));
     }
     nnzL = factor.nnzL;
     t3 = now();
     const uFrees = solveFactorMany(factor, bs);
     // the factor is used no more: its memory serves the next factorisation (no fresh pages to fault in)
-    releaseFactor(factor);
+    if (!keptFactor) releaseFactor(factor);
     const limit = input.residualLimit ?? RESIDUAL_LIMIT;
     const scaled = cases.length === 1 ? [residualNorm(Kff, uFrees[0], bs[0])] : residualNorms(Kff, uFrees, bs);
     uFrees.forEach((uFree, c) => {
@@ -232,20 +278,22 @@ function axialOnly(section: ElasticSection, sum: [number, number]): [number, num
 }
 
 /**
- * Assembles K and reduces it to the free dofs: K_ff, b = f_f − K_fc u_c for each case, and the fixed rows of K
- * (all the reactions need). The full K lives only inside this call, so it can be collected before
- * the factorisation claims its memory.
+ * Assembles K (or takes the kept one) and reduces it to the free dofs: K_ff, b = f_f − K_fc u_c for each
+ * case, and the fixed rows of K (all the reactions need). Unless `returnK` (a store will keep it), the
+ * full K lives only inside this call, so it can be collected before the factorisation claims its memory.
  */
 function reducedSystem(
   mesh: Mesh,
   section: ElasticSection,
-  pattern: StiffnessPattern,
+  pattern: StiffnessPattern | undefined,
   forces: readonly Float64Array[],
   fixed: Uint8Array,
   uFixeds: readonly Float64Array[],
   free: Int32Array,
-): { bs: Float64Array[]; Kff: Csr; fixedRows: ReturnType<typeof csrRows> } {
-  const K = assembleStiffness(mesh, section, pattern);
+  kept: KeptStiffness | undefined,
+  returnK: boolean,
+): { bs: Float64Array[]; Kff: Csr; fixedRows: CsrRows; K?: Csr } {
+  const K = kept ? kept.K : assembleStiffness(mesh, section, pattern ?? stiffnessPattern(mesh));
   const bs = forces.map((f, c) => {
     const b = new Float64Array(free.length);
     // held at zero everywhere (the usual case): K_fc u_c vanishes and the product is skipped
@@ -257,11 +305,15 @@ function reducedSystem(
     for (let k = 0; k < free.length; k++) b[k] = f[free[k]] - KuFixed[free[k]];
     return b;
   });
-  return { bs, Kff: csrSubmatrix(K, free), fixedRows: csrRows(K, fixed) };
+  if (kept) return { bs, Kff: kept.Kff, fixedRows: kept.fixedRows, K };
+  return { bs, Kff: csrSubmatrix(K, free), fixedRows: csrRows(K, fixed), ...(returnK ? { K } : {}) };
 }
 
+/** Rows of K (those of the held dofs), with their original column indices. */
+export interface CsrRows { rows: Int32Array; rowPtr: Int32Array; colIdx: Int32Array; values: Float64Array }
+
 /** the rows of K marked in `mask`, with their original column indices */
-function csrRows(K: Csr, mask: Uint8Array): { rows: Int32Array; rowPtr: Int32Array; colIdx: Int32Array; values: Float64Array } {
+function csrRows(K: Csr, mask: Uint8Array): CsrRows {
   let nRows = 0;
   let nnz = 0;
   for (let i = 0; i < K.n; i++) {

@@ -6,5 +6,6 @@ export { problemOf, sectionOf, uniquePoints, SAME_POINT_RELATIVE, type Problem, 
 export { baseSizeField, meshAt, solveMesh, solveAt, solveProblem, estimateOf, type SolvedLevel, type MeshRequest } from './solve.js';
 export { adaptiveSolve, type AdaptiveOptions, type AdaptiveCycle, type AdaptiveCycleResult, type AdaptiveResult } from './adapt.js';
 export { checkLimits, defaultLimits, defaultFactorBytes, DEFAULT_MAX_DOFS, type SolveLimits } from './limits.js';
+export { reuseStore, contentKey, objectKey, ReuseStore } from './reuse.js';
 export { modelFromParts, type ModelParts } from './model-parts.js';
 export { combineLevel, superposeSolutions, type LoadSetLevel, type ProblemCase } from './cases.js';

@@ -15,6 +15,7 @@ import type { ErrorEstimate, NodalStress } from '../recovery/types.js';
 import { checkLimits, type SolveLimits } from './limits.js';
 import { SAME_POINT_RELATIVE, uniquePoints, type Problem } from './problem.js';
 import { combineLevel, type LoadSetLevel } from './cases.js';
+import { keptMesh, meshKey, reuseStore, stiffnessReuse } from './reuse.js';
 
 /** One mesh of a problem, solved and recovered. */
 export interface SolvedLevel {
@@ -48,6 +49,13 @@ export interface MeshRequest {
    * that has predicted the size itself, as the adaptive loop does
    */
   predicted?: boolean;
+  /**
+   * the size field `sizeAt` described as a content key of what it is made of beyond the problem's
+   * geometry and mesh settings (`contentKey` of pipeline/reuse.ts; 'base' for `baseSizeField`): with
+   * it, a warm process with reuse on takes the mesh kept by an earlier run with the same inputs.
+   * Describe every input of the field; without it the mesh is always made afresh.
+   */
+  sizeKey?: string;
 }
 
 const now = (): number => performance.now() / 1000;
@@ -65,20 +73,28 @@ export function meshAt(problem: Problem, sizeAt: SizeField, order: 1 | 2, limits
   checkLimits(limits);
   const { maxDofs } = limits;
   const size = problem.meshSettings.size;
-  if (maxDofs !== undefined && !request.predicted) {
-    const est = estimateMeshSize(problem.geometry, sizeAt, order, 4 * maxDofs);
-    if (est.dofs > maxDofs) throw dofLimitError(est.dofs, maxDofs, size, est.exceeded ? 'more-than' : 'estimated', narrowSide(problem));
-  }
   const points = request.points && request.points.length > 0
     ? uniquePoints([...problem.requiredPoints, ...request.points], SAME_POINT_RELATIVE * problem.geometry.scale)
     : problem.requiredPoints;
-  const mesh = meshPlate(problem.geometry, {
-    sizeAt,
-    order,
-    requiredPoints: points,
-    ...(request.minAngleDeg !== undefined ? { minAngleDeg: request.minAngleDeg } : {}),
-    ...(request.maxVertices !== undefined ? { maxVertices: request.maxVertices } : {}),
-  });
+  const make = (): Mesh => {
+    if (maxDofs !== undefined && !request.predicted) {
+      const est = estimateMeshSize(problem.geometry, sizeAt, order, 4 * maxDofs);
+      if (est.dofs > maxDofs) throw dofLimitError(est.dofs, maxDofs, size, est.exceeded ? 'more-than' : 'estimated', narrowSide(problem));
+    }
+    return meshPlate(problem.geometry, {
+      sizeAt,
+      order,
+      requiredPoints: points,
+      ...(request.minAngleDeg !== undefined ? { minAngleDeg: request.minAngleDeg } : {}),
+      ...(request.maxVertices !== undefined ? { maxVertices: request.maxVertices } : {}),
+    });
+  };
+  // warm process (watch mode): the same inputs give the same mesh, kept from an earlier run; the dof
+  // cap and its estimate rule are in the key, so a kept mesh passed the estimate as this one would
+  const sizeKey = request.sizeKey;
+  const mesh = reuseStore.enabled && sizeKey !== undefined
+    ? keptMesh(meshKey(problem.geometry, problem.meshSettings, order, points, { ...request, sizeKey }, limits), limits, make)
+    : make();
   if (maxDofs !== undefined && mesh.xy.length > maxDofs) throw dofLimitError(mesh.xy.length, maxDofs, size, 'counted', narrowSide(problem));
   return mesh;
 }
@@ -102,6 +118,7 @@ export function solveMesh(problem: Problem, mesh: Mesh, limits: SolveLimits = {}
     ...(problem.extraLoad ? { extraLoad: problem.extraLoad(mesh) } : {}),
     ...(limits.maxFactorBytes !== undefined ? { maxFactorBytes: limits.maxFactorBytes } : {}),
     ...(limits.residualLimit !== undefined ? { residualLimit: limits.residualLimit } : {}),
+    ...(reuseStore.enabled ? { reuse: stiffnessReuse(mesh, problem.section, limits) } : {}),
   }, problem.cases);
   const t0 = now();
   const cases: LoadSetLevel[] = problem.cases.map((c, i) => {

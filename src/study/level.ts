@@ -11,8 +11,8 @@ import { closestOnCurve, pointInMaterial } from '../geometry/index.js';
 import type { PlateGeometry } from '../geometry/types.js';
 import type { Mesh } from '../mesh/types.js';
 import type { Model, Point } from '../model/types.js';
-import { buildPointLocator } from '../recovery/index.js';
-import { baseSizeField, problemOf, solveAt, type Problem, type SolveLimits } from '../pipeline/index.js';
+import { buildPointLocator, type PointHit, type PointLocator } from '../recovery/index.js';
+import { baseSizeField, contentKey, objectKey, problemOf, reuseStore, solveAt, type Problem, type SolveLimits } from '../pipeline/index.js';
 import { factorBytes } from '../fem/health.js';
 import { bodyFields, type BodyFields } from '../fem/index.js';
 import { combinedBodyFields } from './cases.js';
@@ -120,8 +120,65 @@ export function loadSetBodyFields(problem: Problem): BodyFields[] {
   ];
 }
 
-/** Mesh, solve and read one level (or the far-field solve) of the ladder. `problem` may be passed when already built. */
+/**
+ * What a level's size field is made of beyond the problem's geometry and mesh settings, as a key for
+ * reuse in a warm process (pipeline/reuse.ts): each site's position and flat-peak extent (all that
+ * levelSizeField and coarsenedOuterField read of a site), h₀, the ratio, the level and the far-field
+ * coarsening. The rosette seeds are in the mesh request's points, which the key holds as well.
+ */
+export function levelSizeKey(input: Pick<LevelInput, 'sites' | 'h0' | 'ratio' | 'k' | 'farFieldCoarsening'>): string {
+  return contentKey('study-level', input.sites.map((c) => [c.at, c.plateau ?? null]), input.h0, input.ratio, input.k, input.farFieldCoarsening ?? null);
+}
+
+/**
+ * Mesh, solve and read one level (or the far-field solve) of the ladder. `problem` may be passed when
+ * already built. In a warm process with reuse on (watch mode, pipeline/reuse.ts) the readings are kept
+ * under the content key of the whole input — the function is pure in it — so a rerun whose level
+ * inputs are all the same (a comment-only save) reads them back; a hit keeps the level's mesh and
+ * factor in use as well. What is kept and handed out is a structured clone, as a pool worker's answer.
+ */
 export function studyLevel(input: LevelInput, problem: Problem = levelProblem(input)): LevelReadings {
+  if (!reuseStore.enabled) return readLevel(input, problem);
+  const kept = reuseStore.kept(contentKey('study-level-readings', input), 'level', () => structuredClone(readLevel(input, problem)), readingsSize, input.limits);
+  return structuredClone(kept);
+}
+
+/** Answers a kept locator remembers at most (a level's probes ask a few thousand points). */
+const LOCATOR_MEMO = 16_384;
+
+/**
+ * The point locator of a mesh in a warm process: kept with the mesh (pipeline/reuse.ts), and
+ * remembering its answers, which depend on the mesh and the point alone — a load-only rerun reads its
+ * probes at the same points of the same meshes (each answer is handed out as a copy).
+ */
+function keptLocator(mesh: Mesh, limits: SolveLimits): PointLocator {
+  const nElem = mesh.elemNodes.length / mesh.nodesPerElem;
+  return reuseStore.kept(contentKey('point-locator', objectKey(mesh)), 'locator', () => {
+    const inner = buildPointLocator(mesh);
+    const memo = new Map<string, PointHit | null>();
+    return {
+      locate(x: number, y: number): PointHit | null {
+        // Object.is keeps -0 apart from 0: the key is the point's exact coordinates
+        const key = `${Object.is(x, -0) ? '-0' : x},${Object.is(y, -0) ? '-0' : y}`;
+        let hit = memo.get(key);
+        if (hit === undefined) {
+          hit = inner.locate(x, y);
+          if (memo.size < LOCATOR_MEMO) memo.set(key, hit);
+        }
+        return hit && { elem: hit.elem, xi: hit.xi, eta: hit.eta };
+      },
+    };
+  }, () => ({ bytes: 32 * nElem + 160 * LOCATOR_MEMO, dofs: 0 }), limits);
+}
+
+/** Bytes of a level's readings (the traces' arrays, and a generous allowance per reading). */
+function readingsSize(r: LevelReadings): { bytes: number; dofs: number } {
+  let bytes = 4096 * r.perSet.reduce((n, set) => n + set.length, 0);
+  for (const t of r.traces ?? []) bytes += t.xy.byteLength + t.boundaryEdges.byteLength + t.nodal.byteLength;
+  return { bytes, dofs: 0 };
+}
+
+function readLevel(input: LevelInput, problem: Problem): LevelReadings {
   const { sites, probes, h0, straight, ratio, k, order, limits } = input;
   const geom = problem.geometry;
   const base = baseSizeField(problem);
@@ -130,8 +187,11 @@ export function studyLevel(input: LevelInput, problem: Problem = levelProblem(in
   const field = input.farFieldCoarsening !== undefined
     ? coarsenedOuterField(base, sites, h0, ratio, k, input.farFieldCoarsening)
     : levelSizeField(base, sites, h0, ratio, k);
-  const s = solveAt(problem, field, order, limits, { points: [...sites.map((c) => c.at), ...seeds] });
-  const locator = buildPointLocator(s.mesh);
+  const s = solveAt(problem, field, order, limits, {
+    points: [...sites.map((c) => c.at), ...seeds],
+    ...(reuseStore.enabled ? { sizeKey: levelSizeKey(input) } : {}),
+  });
+  const locator = reuseStore.enabled ? keptLocator(s.mesh, limits) : buildPointLocator(s.mesh);
   const body = loadSetBodyFields(problem);
   const perSet = s.sets.map((set, j) => probes.map((p, i) =>
     probeLevel(s.mesh, set.field, set.nodal, set.gauss, problem.section, input.model.study.measure, p, hk[i], s.solution.dofs, locator, set.solution.u, body[j])));

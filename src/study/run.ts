@@ -121,7 +121,7 @@ export function prepareStudy(model: Model, opts: StudyOptions = {}): StudySetup 
   const total = 2 + levels;
 
   opts.onProgress?.(0, total, 'first solve');
-  const first = solveAt(problem, base, order, limits, { points: [...listed, ...reportedAt] });
+  const first = solveAt(problem, base, order, limits, { points: [...listed, ...reportedAt], sizeKey: 'base' });
   opts.onBase?.({ mesh: first.mesh, geometry: geom, solution: first.solution, field: first.field, nodal: first.nodal, sets: first.sets });
   opts.onProgress?.(1, total, 'sites');
   // the sites of every case and combination, studied in all (docs/study.md, "Load cases and the envelope")
