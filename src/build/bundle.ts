@@ -1,0 +1,100 @@
+/**
+ * The bundled command line, dist/bundle/: the second build output, made from tsc's dist/ by
+ * rolldown, and the one `bin` and `npm start` run. Node 20's ESM loader pays per module file
+ * (resolve, read, compile, link); the CLI is some 220 files (95 of them zod's locales), and that
+ * per-file cost was most of a short command's start (docs/speed.md, "Start-up"). The library
+ * export (`exports: ./dist/index.js`) stays unbundled.
+ *
+ * Run after tsc by `npm run build` and `prepare`: `node dist/build/bundle.js`.
+ *
+ * Layout (DEVELOPERS.md, "Build"): one flat folder, every file at the depth of tsc's
+ * dist/<stage>/x.js, so that every URL the code builds from its own `import.meta.url` resolves
+ * the same in both outputs — `../../docs/verification.json` to the package's docs/, and the two
+ * workers by file names that are unique over the program, `./sweep-worker.js` and
+ * `./study-worker.js`. Entries: `peakwise.js` (the CLI, also the study/solve worker, which is the
+ * CLI's own file), `sweep-worker.js`, `study-worker.js`. The actions' dynamic imports stay chunks
+ * of their own, so `--version` still loads only the command definitions.
+ *
+ * Written atomically: the bundle is built into a fresh sibling folder, its URLs checked, and only
+ * then put in place of the old one.
+ */
+import { chmodSync, existsSync, mkdtempSync, readFileSync, readdirSync, renameSync, rmSync } from 'node:fs';
+import { dirname, join, resolve } from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { build } from 'rolldown';
+
+/** Entry name (file name without .js) → tsc's output it bundles, relative to dist/. */
+export const BUNDLE_ENTRIES: Readonly<Record<string, string>> = {
+  peakwise: 'cli/main.js',
+  'sweep-worker': 'sweep/sweep-worker.js',
+  'study-worker': 'study/study-worker.js',
+};
+
+/** `new URL('<literal>', import.meta.url)` in a bundle file. */
+const SELF_URL = /new URL\(\s*(["'])([^"']+)\1\s*,\s*import\.meta\.url\s*\)/g;
+
+/**
+ * Every relative URL literal a bundle file builds from its own location, resolved as the file
+ * would at run time, that names no existing file: a path the bundle's layout broke.
+ */
+export function brokenSelfUrls(dir: string): string[] {
+  const broken: string[] = [];
+  for (const name of readdirSync(dir).filter((n) => n.endsWith('.js')).sort()) {
+    const file = join(dir, name);
+    for (const m of readFileSync(file, 'utf8').matchAll(SELF_URL)) {
+      const target = fileURLToPath(new URL(m[2], pathToFileURL(file)));
+      if (!existsSync(target)) broken.push(`${name}: new URL('${m[2]}') → ${target}`);
+    }
+  }
+  return broken;
+}
+
+/** Bundle `<dist>/` into `<dist>/bundle/`; returns the files written. */
+export async function bundleCli(dist: string): Promise<string[]> {
+  for (const [name, from] of Object.entries(BUNDLE_ENTRIES)) {
+    if (!existsSync(join(dist, from))) throw new Error(`bundle: entry ${name} needs ${join(dist, from)}; run tsc first`);
+  }
+  const target = join(dist, 'bundle');
+  // a sibling folder: the same depth, so the URL check below holds for the final place too
+  const tmp = mkdtempSync(join(dist, 'bundle-tmp-'));
+  try {
+    const out = await build({
+      input: Object.fromEntries(Object.entries(BUNDLE_ENTRIES).map(([name, from]) => [name, join(dist, from)])),
+      cwd: dirname(dist),
+      platform: 'node',
+      logLevel: 'warn',
+      output: {
+        dir: tmp,
+        format: 'esm',
+        entryFileNames: '[name].js',
+        chunkFileNames: 'chunk-[name]-[hash].js',
+        // maps back to tsc's dist/ files: for `node --enable-source-maps` and the benchmark's breakdown
+        sourcemap: true,
+      },
+    });
+    const broken = brokenSelfUrls(tmp);
+    if (broken.length > 0) throw new Error(`bundle: URLs that would not resolve from dist/bundle/:\n  ${broken.join('\n  ')}`);
+    chmodSync(join(tmp, 'peakwise.js'), 0o755);
+    rmSync(target, { recursive: true, force: true });
+    renameSync(tmp, target);
+    return out.output.map((o) => o.fileName).sort();
+  } catch (e) {
+    rmSync(tmp, { recursive: true, force: true });
+    throw e;
+  }
+}
+
+if (process.argv[1] && resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {
+  const dist = resolve(import.meta.dirname, '..');
+  const t0 = performance.now();
+  bundleCli(dist).then(
+    (files) => {
+      const js = files.filter((f) => f.endsWith('.js')).length;
+      process.stdout.write(`bundle: dist/bundle/ written, ${js} files (${Object.keys(BUNDLE_ENTRIES).join('.js, ')}.js and their chunks) in ${((performance.now() - t0) / 1000).toFixed(1)} s\n`);
+    },
+    (e: unknown) => {
+      process.stderr.write(`${e instanceof Error ? e.message : String(e)}\n`);
+      process.exitCode = 1;
+    },
+  );
+}
