@@ -18,36 +18,11 @@
  * Written atomically: the bundle is built into a fresh sibling folder, its URLs checked, and only
  * then put in place of the old one.
  */
-import { chmodSync, existsSync, mkdtempSync, readFileSync, readdirSync, renameSync, rmSync } from 'node:fs';
+import { chmodSync, existsSync, mkdtempSync, renameSync, rmSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
-import { fileURLToPath, pathToFileURL } from 'node:url';
+import { fileURLToPath } from 'node:url';
 import { build } from 'rolldown';
-
-/** Entry name (file name without .js) → tsc's output it bundles, relative to dist/. */
-export const BUNDLE_ENTRIES: Readonly<Record<string, string>> = {
-  peakwise: 'cli/main.js',
-  'sweep-worker': 'sweep/sweep-worker.js',
-  'study-worker': 'study/study-worker.js',
-};
-
-/** `new URL('<literal>', import.meta.url)` in a bundle file. */
-const SELF_URL = /new URL\(\s*(["'])([^"']+)\1\s*,\s*import\.meta\.url\s*\)/g;
-
-/**
- * Every relative URL literal a bundle file builds from its own location, resolved as the file
- * would at run time, that names no existing file: a path the bundle's layout broke.
- */
-export function brokenSelfUrls(dir: string): string[] {
-  const broken: string[] = [];
-  for (const name of readdirSync(dir).filter((n) => n.endsWith('.js')).sort()) {
-    const file = join(dir, name);
-    for (const m of readFileSync(file, 'utf8').matchAll(SELF_URL)) {
-      const target = fileURLToPath(new URL(m[2], pathToFileURL(file)));
-      if (!existsSync(target)) broken.push(`${name}: new URL('${m[2]}') → ${target}`);
-    }
-  }
-  return broken;
-}
+import { BUNDLE_ENTRIES, brokenSelfUrls } from './layout.js';
 
 /** Bundle `<dist>/` into `<dist>/bundle/`; returns the files written. */
 export async function bundleCli(dist: string): Promise<string[]> {

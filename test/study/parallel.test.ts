@@ -12,12 +12,11 @@ import { pathToFileURL } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { keptRun } from '../../src/study/parallel.js';
 import type { TaskPool } from '../../src/pipeline/pool.js';
+import { bin, root } from '../helpers/bin.js';
 
 type StudyModule = typeof import('../../src/study/index.js');
 type ModelModule = typeof import('../../src/model/index.js');
 
-const root = join(import.meta.dirname, '..', '..');
-const bin = join(root, 'dist', 'cli', 'main.js');
 const modelFile = join(root, 'models', 'l-bracket-sharp.yaml');
 const out = mkdtempSync(join(tmpdir(), 'peakwise-parallel-'));
 

@@ -1,0 +1,48 @@
+/**
+ * The bundled CLI (src/build/bundle.ts, DEVELOPERS.md "Build"): its three entries are where
+ * package.json and the code look for them, and every URL a built file makes from its own location
+ * (the two workers, docs/verification.json) names an existing file, in the bundle and in tsc's
+ * unbundled dist/.
+ */
+import { mkdtempSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import { BUNDLE_ENTRIES, brokenSelfUrls, selfUrls } from '../../src/build/layout.js';
+import { bin, root } from '../helpers/bin.js';
+
+const scratch = mkdtempSync(join(tmpdir(), 'pw-self-urls-'));
+afterAll(() => rmSync(scratch, { recursive: true, force: true }));
+
+describe('the bundle', () => {
+  it('is the bin of package.json, with the two workers beside it', () => {
+    expect(bin).toBe(join(root, 'dist', 'bundle', 'peakwise.js'));
+    expect(Object.keys(BUNDLE_ENTRIES).sort()).toEqual(['peakwise', 'study-worker', 'sweep-worker']);
+    for (const name of Object.keys(BUNDLE_ENTRIES)) expect(readFileSync(join(root, 'dist', 'bundle', `${name}.js`), 'utf8')).toMatch(/\S/);
+  });
+
+  it('its URLs to the workers and to docs/verification.json resolve to the bundled workers and the package docs', () => {
+    const urls = selfUrls(join(root, 'dist', 'bundle'));
+    const targets = [...new Set(urls.map((u) => u.target))].sort();
+    expect(targets).toEqual([
+      join(root, 'dist', 'bundle', 'study-worker.js'),
+      join(root, 'dist', 'bundle', 'sweep-worker.js'),
+      join(root, 'docs', 'verification.json'),
+    ]);
+    expect(urls.every((u) => u.exists)).toBe(true);
+  });
+
+  it('tsc\'s unbundled cli, sweep and study folders keep theirs', () => {
+    for (const d of ['cli', 'sweep', 'study']) expect(brokenSelfUrls(join(root, 'dist', d)), d).toEqual([]);
+    const targets = ['cli', 'sweep', 'study'].flatMap((d) => selfUrls(join(root, 'dist', d)).map((u) => u.target));
+    expect(new Set(targets)).toEqual(new Set([join(root, 'dist', 'sweep', 'sweep-worker.js'), join(root, 'dist', 'study', 'study-worker.js'), join(root, 'docs', 'verification.json')]));
+  });
+
+  it('the check sees a URL that a layout broke, and passes one that resolves', () => {
+    const dir = join(scratch, 'bundle');
+    mkdirSync(dir);
+    writeFileSync(join(scratch, 'record.json'), '{}');
+    writeFileSync(join(dir, 'a.js'), `const ok = new URL('../record.json', import.meta.url);\nconst gone = new URL("./sweep-worker.js", import.meta.url);\n`);
+    expect(brokenSelfUrls(dir)).toEqual([`a.js: new URL('./sweep-worker.js') → ${join(dir, 'sweep-worker.js')}`]);
+  });
+});
