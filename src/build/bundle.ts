@@ -33,6 +33,7 @@ export async function bundleCli(dist: string): Promise<string[]> {
   // a sibling folder: the same depth, so the URL check below holds for the final place too
   const tmp = mkdtempSync(join(dist, 'bundle-tmp-'));
   try {
+    chmodSync(tmp, 0o755); // mkdtemp makes it private; the bundle is read by every user, as dist/ is
     const out = await build({
       input: Object.fromEntries(Object.entries(BUNDLE_ENTRIES).map(([name, from]) => [name, join(dist, from)])),
       cwd: dirname(dist),

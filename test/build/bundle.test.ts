@@ -4,7 +4,7 @@
  * (the two workers, docs/verification.json) names an existing file, in the bundle and in tsc's
  * unbundled dist/.
  */
-import { mkdtempSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, mkdirSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
@@ -19,6 +19,12 @@ describe('the bundle', () => {
     expect(bin).toBe(join(root, 'dist', 'bundle', 'peakwise.js'));
     expect(Object.keys(BUNDLE_ENTRIES).sort()).toEqual(['peakwise', 'study-worker', 'sweep-worker']);
     for (const name of Object.keys(BUNDLE_ENTRIES)) expect(readFileSync(join(root, 'dist', 'bundle', `${name}.js`), 'utf8')).toMatch(/\S/);
+  });
+
+  it('is readable and enterable by every user, as tsc\'s dist/ is (a user other than the builder runs it)', () => {
+    const dir = join(root, 'dist', 'bundle');
+    expect(statSync(dir).mode & 0o005).toBe(0o005);
+    for (const f of readdirSync(dir)) expect(statSync(join(dir, f)).mode & 0o004, f).toBe(0o004);
   });
 
   it('its URLs to the workers and to docs/verification.json resolve to the bundled workers and the package docs', () => {
