@@ -142,6 +142,8 @@ async function main(argv: string[]): Promise<number> {
 async function runInWorker(argv: string[], graceful: boolean): Promise<void> {
   const { adoptWorkerLock, releaseAllLocks } = await import('./lock.js');
   const flag = new Int32Array(new SharedArrayBuffer(4));
+  // this very file: dist/cli/main.js, or in the bundle its entry dist/bundle/peakwise.js (an entry's
+  // own code stays in the entry's file; test/build/bundle.test.ts checks it)
   const worker = new Worker(new URL(import.meta.url), {
     argv: argv.slice(2),
     workerData: { flag, stdoutTTY: process.stdout.isTTY === true, stderrTTY: process.stderr.isTTY === true, columns: process.stderr.columns },

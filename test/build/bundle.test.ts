@@ -17,6 +17,8 @@ afterAll(() => rmSync(scratch, { recursive: true, force: true }));
 describe('the bundle', () => {
   it('is the bin of package.json, with the two workers beside it', () => {
     expect(bin).toBe(join(root, 'dist', 'bundle', 'peakwise.js'));
+    // the study/solve worker is the CLI's own file: that code must be in the entry, not in a chunk
+    expect(readFileSync(bin, 'utf8')).toContain('new Worker(new URL(import.meta.url)');
     expect(Object.keys(BUNDLE_ENTRIES).sort()).toEqual(['peakwise', 'study-worker', 'sweep-worker']);
     for (const name of Object.keys(BUNDLE_ENTRIES)) expect(readFileSync(join(root, 'dist', 'bundle', `${name}.js`), 'utf8')).toMatch(/\S/);
   });
