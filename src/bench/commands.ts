@@ -67,8 +67,9 @@ class FrameSources {
   private readonly maps = new Map<string, SourceMap | null>();
 
   path(f: CallFrame): string {
-    if (!/\/dist\/bundle\/[^/]+\.js$/.test(f.url)) return f.url;
-    const file = fileURLToPath(f.url);
+    if (!/\/dist\/bundle\/[^/]+\.c?js$/.test(f.url)) return f.url;
+    // the code-cached worker body is compiled by vm.Script under its plain path
+    const file = f.url.startsWith('file:') ? fileURLToPath(f.url) : f.url;
     let map = this.maps.get(file);
     if (map === undefined) {
       map = existsSync(`${file}.map`) ? new SourceMap(JSON.parse(readFileSync(`${file}.map`, 'utf8')) as SourceMapPayload) : null;
@@ -86,7 +87,8 @@ function phaseOf(stack: readonly { frame: CallFrame; path: string }[]): Phase | 
   if (top.functionName === '(idle)') return 'idle';
   if (top.functionName === '(garbage collector)') return 'gc';
   for (const { frame: f, path } of stack) {
-    if (f.functionName === '' && f.lineNumber === 0 && /\/dist\/bundle\//.test(f.url)) return 'start'; // a bundle file's top-level code
+    // a bundle file's top-level code, or a module's top-level code the bundler wrapped in its init_… function
+    if (/\/dist\/bundle\//.test(f.url) && ((f.functionName === '' && f.lineNumber === 0) || f.functionName.startsWith('init_'))) return 'start';
     const m = /\/dist\/([^/]+)\/([^/]+)\.js$/.exec(path);
     if (!m) continue;
     if (f.functionName === '' && f.lineNumber === 0) return 'start'; // a module's top-level code

@@ -15,6 +15,10 @@
  * CLI's own file), `sweep-worker.js`, `study-worker.js`. The actions' dynamic imports stay chunks
  * of their own, so `--version` still loads only the command definitions.
  *
+ * The study/solve worker's code is built a second time as one CommonJS file, `worker-body.cjs`
+ * (from dist/cli/worker-run.js, every dynamic import inlined), which the worker compiles with V8's
+ * code cache (src/cli/code-cache.ts): Node 20 keeps no compiled code for ES modules.
+ *
  * Written atomically: the bundle is built into a fresh sibling folder, its URLs checked, and only
  * then put in place of the old one.
  */
@@ -22,7 +26,7 @@ import { chmodSync, existsSync, mkdtempSync, renameSync, rmSync } from 'node:fs'
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { build } from 'rolldown';
-import { BUNDLE_ENTRIES, brokenSelfUrls } from './layout.js';
+import { BUNDLE_ENTRIES, WORKER_BODY, brokenSelfUrls } from './layout.js';
 
 /** Bundle `<dist>/` into `<dist>/bundle/`; returns the files written. */
 export async function bundleCli(dist: string): Promise<string[]> {
@@ -48,6 +52,15 @@ export async function bundleCli(dist: string): Promise<string[]> {
         sourcemap: true,
       },
     });
+    // the worker's code once more, as one CommonJS file that V8 can compile from its code cache
+    const body = await build({
+      input: { [WORKER_BODY.file.replace(/\.cjs$/, '')]: join(dist, WORKER_BODY.from) },
+      cwd: dirname(dist),
+      platform: 'node',
+      logLevel: 'warn',
+      output: { dir: tmp, format: 'cjs', entryFileNames: '[name].cjs', codeSplitting: false, sourcemap: true },
+    });
+    out.output.push(...body.output);
     const broken = brokenSelfUrls(tmp);
     if (broken.length > 0) throw new Error(`bundle: URLs that would not resolve from dist/bundle/:\n  ${broken.join('\n  ')}`);
     chmodSync(join(tmp, 'peakwise.js'), 0o755);
@@ -66,7 +79,7 @@ if (process.argv[1] && resolve(process.argv[1]) === fileURLToPath(import.meta.ur
   bundleCli(dist).then(
     (files) => {
       const js = files.filter((f) => f.endsWith('.js')).length;
-      process.stdout.write(`bundle: dist/bundle/ written, ${js} files (${Object.keys(BUNDLE_ENTRIES).join('.js, ')}.js and their chunks) in ${((performance.now() - t0) / 1000).toFixed(1)} s\n`);
+      process.stdout.write(`bundle: dist/bundle/ written, ${js} .js files (${Object.keys(BUNDLE_ENTRIES).join('.js, ')}.js and their chunks) and ${WORKER_BODY.file}, in ${((performance.now() - t0) / 1000).toFixed(1)} s\n`);
     },
     (e: unknown) => {
       process.stderr.write(`${e instanceof Error ? e.message : String(e)}\n`);

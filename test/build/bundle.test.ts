@@ -8,7 +8,7 @@ import { mkdtempSync, mkdirSync, readFileSync, readdirSync, rmSync, statSync, wr
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { BUNDLE_ENTRIES, brokenSelfUrls, selfUrls } from '../../src/build/layout.js';
+import { BUNDLE_ENTRIES, WORKER_BODY, brokenSelfUrls, selfUrls } from '../../src/build/layout.js';
 import { bin, root } from '../helpers/bin.js';
 
 const scratch = mkdtempSync(join(tmpdir(), 'pw-self-urls-'));
@@ -29,20 +29,22 @@ describe('the bundle', () => {
     for (const f of readdirSync(dir)) expect(statSync(join(dir, f)).mode & 0o004, f).toBe(0o004);
   });
 
-  it('its URLs to the workers and to docs/verification.json resolve to the bundled workers and the package docs', () => {
+  it('its URLs to the workers, the worker body and docs/verification.json resolve to the bundle\'s files and the package docs', () => {
     const urls = selfUrls(join(root, 'dist', 'bundle'));
     const targets = [...new Set(urls.map((u) => u.target))].sort();
     expect(targets).toEqual([
       join(root, 'dist', 'bundle', 'study-worker.js'),
       join(root, 'dist', 'bundle', 'sweep-worker.js'),
+      join(root, 'dist', 'bundle', WORKER_BODY.file),
       join(root, 'docs', 'verification.json'),
     ]);
     expect(urls.every((u) => u.exists)).toBe(true);
   });
 
   it('tsc\'s unbundled cli, sweep and study folders keep theirs', () => {
-    for (const d of ['cli', 'sweep', 'study']) expect(brokenSelfUrls(join(root, 'dist', d)), d).toEqual([]);
-    const targets = ['cli', 'sweep', 'study'].flatMap((d) => selfUrls(join(root, 'dist', d)).map((u) => u.target));
+    // the CommonJS worker body exists only in the bundle; main.js falls back to worker-run.js without it
+    for (const d of ['cli', 'sweep', 'study']) expect(brokenSelfUrls(join(root, 'dist', d), [`./${WORKER_BODY.file}`]), d).toEqual([]);
+    const targets = ['cli', 'sweep', 'study'].flatMap((d) => selfUrls(join(root, 'dist', d)).filter((u) => u.exists).map((u) => u.target));
     expect(new Set(targets)).toEqual(new Set([join(root, 'dist', 'sweep', 'sweep-worker.js'), join(root, 'dist', 'study', 'study-worker.js'), join(root, 'docs', 'verification.json')]));
   });
 

@@ -15,9 +15,9 @@ import { farFieldPlateText } from '../pipeline/helpers.js';
 const dir = mkdtempSync(join(tmpdir(), 'pw-unbundled-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-function run(file: string, args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
+function run(file: string, args: string[], env: Record<string, string> = {}): Promise<{ code: number; stdout: string; stderr: string }> {
   return new Promise((resolve) => {
-    execFile(process.execPath, [file, ...args], { cwd: dir, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' }, timeout: 120_000 }, (err, stdout, stderr) => {
+    execFile(process.execPath, [file, ...args], { cwd: dir, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1', ...env }, timeout: 120_000 }, (err, stdout, stderr) => {
       resolve({ code: err ? (typeof err.code === 'number' ? err.code : -1) : 0, stdout, stderr });
     });
   });
@@ -31,11 +31,17 @@ describe('the unbundled dist/cli/main.js', () => {
     expect(r.stdout.trim()).toBe(pkg.version);
   });
 
-  it('studies a small plate on two workers to the same bytes as the bundle', async () => {
+  it('studies a small plate on two workers to the same bytes as the bundle (its worker without, then twice with the code cache)', async () => {
     writeFileSync(join(dir, 'plate.yaml'), farFieldPlateText());
     const outputs: Record<string, string>[] = [];
-    for (const [name, file] of [['unbundled', unbundledBin], ['bundle', bin]]) {
-      const r = await run(file, ['study', 'plate.yaml', '--out', name, '--quiet', '--jobs', '2']);
+    const runs: [string, string, Record<string, string>][] = [
+      ['unbundled', unbundledBin, {}],
+      ['bundle-no-cache', bin, { PEAKWISE_CODE_CACHE: '0' }],
+      ['bundle', bin, {}],
+      ['bundle-again', bin, {}], // the cache the run before wrote, if it was not there already
+    ];
+    for (const [name, file, env] of runs) {
+      const r = await run(file, ['study', 'plate.yaml', '--out', name, '--quiet', '--jobs', '2'], env);
       expect(r.stderr).toBe('');
       expect(r.code).toBe(0);
       const read = (f: string) => readFileSync(join(dir, name, f), 'utf8');
@@ -44,6 +50,6 @@ describe('the unbundled dist/cli/main.js', () => {
     // the verification strip is there (the first recorded case of docs/verification.json), not the "no record" note
     const first = (JSON.parse(readFileSync(join(root, 'docs', 'verification.json'), 'utf8')) as { cases: { name: string }[] }).cases[0].name;
     expect(outputs[0].html).toContain(first);
-    expect(outputs[1]).toEqual(outputs[0]);
+    for (const o of outputs.slice(1)) expect(o).toEqual(outputs[0]);
   });
 });
