@@ -3,7 +3,8 @@
  * so that both medians come from the same minutes (docs/speed.md, "Start-up"):
  * `--version` and `--help` (median of 21), `mesh` of the benchmark's ~306 000-node machine-base
  * plate (median of 5, with plain delaunator on as many random points between the runs), and
- * `study models/l-bracket-sharp.yaml --quiet` (median of 5).
+ * `study models/l-bracket-sharp.yaml --quiet` (median of 5), the last also with the bundle's code
+ * cache off (`PEAKWISE_CODE_CACHE=0`, src/cli/code-cache.ts).
  *
  *   node dist/bench/bundle-compare.js [--runs-scale k] [--only version,help,mesh,study]
  *
@@ -18,38 +19,46 @@ import { basePlateModel, bin } from './commands.js';
 import { median, randomPoints } from './goals.js';
 
 const root = join(import.meta.dirname, '..', '..');
-const builds = { bundle: bin, unbundled: join(root, 'dist', 'cli', 'main.js') } as const;
+const builds = {
+  bundle: { file: bin, env: {} },
+  unbundled: { file: join(root, 'dist', 'cli', 'main.js'), env: {} },
+  'bundle without code cache': { file: bin, env: { PEAKWISE_CODE_CACHE: '0' } },
+} as const;
 type Build = keyof typeof builds;
 
-function seconds(file: string, args: string[]): number {
+function seconds(build: Build, args: string[]): number {
+  const { file, env } = builds[build];
   const t0 = performance.now();
-  const r = spawnSync(process.execPath, [file, ...args], { cwd: root, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' }, maxBuffer: 64 << 20 });
+  const r = spawnSync(process.execPath, [file, ...args], { cwd: root, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1', ...env }, maxBuffer: 64 << 20 });
   const s = (performance.now() - t0) / 1000;
   if (r.status !== 0) throw new Error(`${file} ${args.join(' ')} failed (status ${r.status}): ${r.stderr}`);
   return s;
 }
 
-interface Timed extends Record<Build, number> {
-  /** the median over the rounds of bundle ÷ unbundled within a round (drift between rounds cancels) */
-  pairRatio: number;
-}
+type Timed = Partial<Record<Build, number[]>>;
 
-/** `runs` of each build in turn (the order alternating), medians in seconds. */
-function interleaved(args: string[], runs: number, between?: () => void): Timed {
-  const t: Record<Build, number[]> = { bundle: [], unbundled: [] };
+/** `runs` of each build in turn (the order reversed every other round), seconds. */
+function interleaved(args: string[], runs: number, which: Build[], between?: () => void): Timed {
+  const t: Timed = Object.fromEntries(which.map((b) => [b, [] as number[]]));
   for (let k = 0; k < runs; k++) {
-    const order: Build[] = k % 2 === 0 ? ['bundle', 'unbundled'] : ['unbundled', 'bundle'];
-    for (const b of order) {
+    for (const b of k % 2 === 0 ? which : [...which].reverse()) {
       between?.();
-      t[b].push(seconds(builds[b], args));
+      t[b]!.push(seconds(b, args));
     }
   }
-  return { bundle: median(t.bundle), unbundled: median(t.unbundled), pairRatio: median(t.bundle.map((b, k) => b / t.unbundled[k])) };
+  return t;
 }
 
-function line(what: string, m: Timed, runs: number, extra = ''): void {
+/** Medians of each build, and each against the unbundled build: ratio of the medians, and the median of the rounds' ratios (drift between rounds cancels). */
+function line(what: string, t: Timed, runs: number, extra = ''): void {
   const ms = (s: number) => `${(s * 1000).toFixed(0)} ms`;
-  process.stdout.write(`${what}: bundle ${ms(m.bundle)}, unbundled ${ms(m.unbundled)} (medians of ${runs}) → ${(m.bundle / m.unbundled).toFixed(2)}×, median of the rounds' ratios ${m.pairRatio.toFixed(2)}×${extra}\n`);
+  const base = t.unbundled!;
+  const parts = (Object.keys(t) as Build[]).map((b) => {
+    const xs = t[b]!;
+    const vs = b === 'unbundled' ? '' : ` (${(median(xs) / median(base)).toFixed(2)}×, rounds ${median(xs.map((x, k) => x / base[k])).toFixed(2)}×)`;
+    return `${b} ${ms(median(xs))}${vs}`;
+  });
+  process.stdout.write(`${what}, medians of ${runs}: ${parts.join(', ')}${extra}\n`);
 }
 
 function main(argv: string[]): void {
@@ -70,23 +79,28 @@ function main(argv: string[]): void {
       }
       process.stdout.write(`node -e 0 (Node's own start): ${(median(floor) * 1000).toFixed(0)} ms (median of ${short})\n`);
     }
-    if (only.has('version')) line('--version', interleaved(['--version'], short), short);
-    if (only.has('help')) line('--help', interleaved(['--help'], short), short);
+    const two: Build[] = ['bundle', 'unbundled'];
+    if (only.has('version')) line('--version', interleaved(['--version'], short, two), short);
+    if (only.has('help')) line('--help', interleaved(['--help'], short, two), short);
     if (only.has('mesh')) {
       const file = join(dir, 'base-plate.yaml');
       writeFileSync(file, basePlateModel(1.5));
       const nodes = (JSON.parse(spawnSync(process.execPath, [bin, 'mesh', file, '--json'], { cwd: root, encoding: 'utf8', maxBuffer: 64 << 20 }).stdout) as { mesh: { nodes: number } }).mesh.nodes;
       const pts = randomPoints(nodes);
       const del: number[] = [];
-      const m = interleaved(['mesh', file], long, () => {
+      const m = interleaved(['mesh', file], long, two, () => {
         const t0 = performance.now();
         new Delaunator(pts);
         del.push((performance.now() - t0) / 1000);
       });
       const d = median(del);
-      line(`mesh, ${nodes} nodes`, m, long, `; delaunator on as many random points ${(d * 1000).toFixed(0)} ms: bundle ${(m.bundle / d).toFixed(2)}×, unbundled ${(m.unbundled / d).toFixed(2)}×`);
+      line(`mesh, ${nodes} nodes`, m, long, `; delaunator on as many random points ${(d * 1000).toFixed(0)} ms: bundle ${(median(m.bundle!) / d).toFixed(2)}×, unbundled ${(median(m.unbundled!) / d).toFixed(2)}×`);
     }
-    if (only.has('study')) line('study models/l-bracket-sharp.yaml --quiet', interleaved(['study', 'models/l-bracket-sharp.yaml', '--quiet', '--out', join(dir, 'study')], long), long);
+    if (only.has('study')) {
+      const args = ['study', 'models/l-bracket-sharp.yaml', '--quiet', '--out', join(dir, 'study')];
+      seconds('bundle', args); // the code cache of this build, if it was not there yet
+      line('study models/l-bracket-sharp.yaml --quiet', interleaved(args, long, ['bundle', 'bundle without code cache', 'unbundled']), long);
+    }
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
