@@ -2,11 +2,12 @@
  * The bundled CLI against tsc's unbundled build, whole commands in fresh processes, taken in turn
  * so that both medians come from the same minutes (docs/speed.md, "Start-up"):
  * `--version` and `--help` (median of 21), `mesh` of the benchmark's ~306 000-node machine-base
- * plate (median of 5, with plain delaunator on as many random points between the runs), and
+ * plate (median of 5, with plain delaunator on as many random points between the runs), `mesh` of
+ * the demo models/l-bracket-sharp.yaml (median of 21), and
  * `study models/l-bracket-sharp.yaml --quiet` (median of 5), the last also with the bundle's code
  * cache off (`PEAKWISE_CODE_CACHE=0`, src/cli/code-cache.ts).
  *
- *   node dist/bench/bundle-compare.js [--runs-scale k] [--only version,help,mesh,study]
+ *   node dist/bench/bundle-compare.js [--runs-scale k] [--only version,help,mesh,mesh-demo,study]
  *
  * Not part of `npm run bench` (which times the bin only): it is the measurement behind the choice.
  */
@@ -63,7 +64,7 @@ function line(what: string, t: Timed, runs: number, extra = ''): void {
 
 function main(argv: string[]): void {
   const at = argv.indexOf('--only');
-  const only = new Set(at >= 0 ? argv[at + 1].split(',') : ['version', 'help', 'mesh', 'study']);
+  const only = new Set(at >= 0 ? argv[at + 1].split(',') : ['version', 'help', 'mesh', 'mesh-demo', 'study']);
   const sc = argv.indexOf('--runs-scale');
   const scale = sc >= 0 ? Number(argv[sc + 1]) : 1;
   const short = Math.max(1, Math.round(21 * scale));
@@ -96,6 +97,7 @@ function main(argv: string[]): void {
       const d = median(del);
       line(`mesh, ${nodes} nodes`, m, long, `; delaunator on as many random points ${(d * 1000).toFixed(0)} ms: bundle ${(median(m.bundle!) / d).toFixed(2)}×, unbundled ${(median(m.unbundled!) / d).toFixed(2)}×`);
     }
+    if (only.has('mesh-demo')) line('mesh models/l-bracket-sharp.yaml', interleaved(['mesh', 'models/l-bracket-sharp.yaml'], short, two), short);
     if (only.has('study')) {
       const args = ['study', 'models/l-bracket-sharp.yaml', '--quiet', '--out', join(dir, 'study')];
       seconds('bundle', args); // the code cache of this build, if it was not there yet
