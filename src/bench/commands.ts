@@ -1,5 +1,6 @@
 /**
- * Whole commands as a user runs them (the built CLI in a fresh process, dist/cli/main.js):
+ * Whole commands as a user runs them: the `bin` of package.json (the bundled CLI,
+ * dist/bundle/peakwise.js, src/build/bundle.ts) in a fresh process each time:
  *
  * - start-up: `--version` and `--help`, median of 11 (goal ≤ 0.1 s each, issue 16);
  * - `study` of every demo model, median of 3, as a ratio to the yardstick (goals.ts): ≤ 1.2× for
@@ -14,17 +15,22 @@
  * linalg "solve"; recovery "recover"; report, output files and the file system "write"; the study's
  * own logic (sites, fits, verdicts) and the pipeline glue "study"; garbage collection "gc". Idle
  * time (the main thread waiting for the worker) is left out. The shares are of CPU time; the
- * profiler slows the run a little, so they are shares, not a second wall time.
+ * profiler slows the run a little, so they are shares, not a second wall time. A frame of the
+ * bundle is placed by the bundle's source map, which names the tsc output (dist/<stage>/x.js) its
+ * code came from.
  */
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { SourceMap, type SourceMapPayload } from 'node:module';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 import Delaunator from 'delaunator';
 import { delaunaySeconds, median, randomPoints, recordGoal, sampleYardstick, yardstick } from './goals.js';
 
 const root = join(import.meta.dirname, '..', '..');
-const bin = join(root, 'dist', 'cli', 'main.js');
+/** What users run: the bin of package.json. */
+export const bin = join(root, (JSON.parse(readFileSync(join(root, 'package.json'), 'utf8')) as { bin: { peakwise: string } }).bin.peakwise);
 
 function runOnce(args: string[], nodeFlags: string[] = []): { seconds: number; stdout: string; status: number | null } {
   const t0 = performance.now();
@@ -43,7 +49,8 @@ function timeCommand(args: string[], runs: number): number {
 export const PHASES = ['start', 'mesh', 'solve', 'recover', 'study', 'write', 'gc'] as const;
 export type Phase = (typeof PHASES)[number];
 
-interface ProfileNode { id: number; callFrame: { functionName: string; url: string; lineNumber: number }; children?: number[] }
+interface CallFrame { functionName: string; url: string; lineNumber: number; columnNumber: number }
+interface ProfileNode { id: number; callFrame: CallFrame; children?: number[] }
 interface Profile { nodes: ProfileNode[]; samples: number[]; timeDeltas: number[] }
 
 const STAGE_PHASE: Record<string, Phase> = {
@@ -51,13 +58,38 @@ const STAGE_PHASE: Record<string, Phase> = {
   report: 'write', study: 'study', pipeline: 'study', reference: 'study', sweep: 'study', check: 'study',
 };
 
-/** The phase of one stack, innermost frame first. */
-function phaseOf(stack: readonly ProfileNode['callFrame'][]): Phase | 'idle' {
-  const top = stack[0];
+/**
+ * The file a profiled frame's code was written in: its own URL, or for a file of the bundle the
+ * tsc output (dist/<stage>/x.js, or a dependency's file) that the bundle's source map gives for the
+ * start of the frame's function.
+ */
+class FrameSources {
+  private readonly maps = new Map<string, SourceMap | null>();
+
+  path(f: CallFrame): string {
+    if (!/\/dist\/bundle\/[^/]+\.c?js$/.test(f.url)) return f.url;
+    // the code-cached worker body is compiled by vm.Script under its plain path
+    const file = f.url.startsWith('file:') ? fileURLToPath(f.url) : f.url;
+    let map = this.maps.get(file);
+    if (map === undefined) {
+      map = existsSync(`${file}.map`) ? new SourceMap(JSON.parse(readFileSync(`${file}.map`, 'utf8')) as SourceMapPayload) : null;
+      this.maps.set(file, map);
+    }
+    const entry = map?.findEntry(f.lineNumber, f.columnNumber);
+    if (!entry || !('originalSource' in entry)) return f.url;
+    return new URL(entry.originalSource, pathToFileURL(`${file}.map`)).pathname;
+  }
+}
+
+/** The phase of one stack, innermost frame first, each frame with the file its code came from. */
+function phaseOf(stack: readonly { frame: CallFrame; path: string }[]): Phase | 'idle' {
+  const top = stack[0].frame;
   if (top.functionName === '(idle)') return 'idle';
   if (top.functionName === '(garbage collector)') return 'gc';
-  for (const f of stack) {
-    const m = /\/dist\/([^/]+)\/([^/]+)\.js$/.exec(f.url);
+  for (const { frame: f, path } of stack) {
+    // a bundle file's top-level code, or a module's top-level code the bundler wrapped in its init_… function
+    if (/\/dist\/bundle\//.test(f.url) && ((f.functionName === '' && f.lineNumber === 0) || f.functionName.startsWith('init_'))) return 'start';
+    const m = /\/dist\/([^/]+)\/([^/]+)\.js$/.exec(path);
     if (!m) continue;
     if (f.functionName === '' && f.lineNumber === 0) return 'start'; // a module's top-level code
     const [, stage, file] = m;
@@ -71,6 +103,7 @@ function phaseOf(stack: readonly ProfileNode['callFrame'][]): Phase | 'idle' {
 /** CPU milliseconds per phase over every profile file in `dir`. */
 export function profilePhases(dir: string): Record<Phase, number> {
   const out = Object.fromEntries(PHASES.map((p) => [p, 0])) as Record<Phase, number>;
+  const sources = new FrameSources();
   for (const f of readdirSync(dir).filter((n) => n.endsWith('.cpuprofile'))) {
     const p = JSON.parse(readFileSync(join(dir, f), 'utf8')) as Profile;
     const byId = new Map(p.nodes.map((n) => [n.id, n]));
@@ -80,8 +113,11 @@ export function profilePhases(dir: string): Record<Phase, number> {
     const phaseOfNode = (id: number): Phase | 'idle' => {
       let ph = cache.get(id);
       if (ph === undefined) {
-        const stack: ProfileNode['callFrame'][] = [];
-        for (let at: number | undefined = id; at !== undefined; at = parent.get(at)) stack.push(byId.get(at)!.callFrame);
+        const stack: { frame: CallFrame; path: string }[] = [];
+        for (let at: number | undefined = id; at !== undefined; at = parent.get(at)) {
+          const frame = byId.get(at)!.callFrame;
+          stack.push({ frame, path: sources.path(frame) });
+        }
         ph = phaseOf(stack);
         cache.set(id, ph);
       }

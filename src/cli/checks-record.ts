@@ -14,7 +14,8 @@ interface RecordedCase {
  * in docs/verification.json (written with docs/verification.md by `node dist/check/generate-doc.js`).
  * Each row carries its figures to 6 significant digits, what they are, and when and by which
  * version they were recorded. A record of another version, or none, gives an empty strip — the
- * page then says so and points to `peakwise check`.
+ * page then says so and points to `peakwise check`. The default path is relative to this code's
+ * file: tsc's dist/cli/ and the bundle's dist/bundle/ sit at the same depth (DEVELOPERS.md, "Build").
  */
 export function recordedChecks(file: URL = new URL('../../docs/verification.json', import.meta.url)): ReportCheck[] {
   let text: string;

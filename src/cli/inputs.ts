@@ -63,7 +63,11 @@ export function modelInputReader(modelFile: string): { readFile: (path: string) 
   return { readFile, inputs };
 }
 
-/** The verification record every report reads (docs/verification.json of the package). */
+/**
+ * The verification record every report reads (docs/verification.json of the package), relative to
+ * this code's file: tsc's dist/cli/ and the bundle's dist/bundle/ sit at the same depth
+ * (DEVELOPERS.md, "Build").
+ */
 export const VERIFICATION_RECORD = fileURLToPath(new URL('../../docs/verification.json', import.meta.url));
 
 /**

@@ -2,134 +2,12 @@
 /**
  * peakwise command line. Wires the stages to commands; the only place that touches argv,
  * files and the console. Errors of ours become one line and exit status 1, never a stack trace.
+ * The commands are defined in program.ts; this file decides which thread runs them.
  */
-import { Command, CommanderError, Option } from 'commander';
-import { Worker, isMainThread, parentPort, workerData } from 'node:worker_threads';
-import { writeSync } from 'node:fs';
-import { PeakwiseError, isPeakwiseError } from '../errors.js';
-import { VERSION } from '../version.js';
-import { maxDofsArgument } from './options.js';
-import { registerCheck, registerCutOptions, registerResults, registerSweep } from './register.js';
-import type { CliContext } from './common.js';
+import { Worker, isMainThread } from 'node:worker_threads';
+import { runCommandLine } from './program.js';
 
-// Only commander and the command definitions load up front: each action imports the modules it
-// needs when it runs, so --version and --help start in well under 0.1 s (docs/speed.md).
-const commands = (): Promise<typeof import('./commands.js')> => import('./commands.js');
-
-const ctx: CliContext = { file: undefined, model: undefined };
-
-function sharedOptions(cmd: Command): Command {
-  return cmd
-    .option('--out <dir>', 'output folder (default out/<model-name>)')
-    .option('--json', 'print the machine-readable result on stdout')
-    .addOption(new Option('--order <n>', 'element order: 1 = 3-node, 2 = 6-node triangles').choices(['1', '2']))
-    .option('--size <h>', 'target element size far from features (overrides mesh.size)')
-    .option('--quiet', 'no progress bar, only the result')
-    .option('--no-color', 'plain text without colours (also honours NO_COLOR)');
-}
-
-export function buildProgram(): Command {
-  const program = new Command();
-  program
-    .name('peakwise')
-    .description('Plate-detail finite elements that tell converging stress concentrations from singularities.')
-    .version(VERSION, '-v, --version', 'print the version')
-    .showHelpAfterError('(run peakwise --help for the commands)')
-    .exitOverride();
-
-  sharedOptions(
-    program
-      .command('mesh <model>')
-      .description('mesh a model and print counts and quality')
-      .option('--svg <file>', 'draw the mesh as SVG (boundary tags coloured)'),
-  ).action(async (model: string, opts) => (await import('./mesh-command.js')).runMesh(ctx, model, opts));
-
-  registerCutOptions(sharedOptions(
-    program
-      .command('solve <model>')
-      .description('one solve: displacements, stresses, reaction check, error estimate, field.csv')
-      .option('--export-matrix <file>', 'write the stiffness matrix of the free dofs (Matrix Market, lower triangle)')
-      .option('--export-load <file>', 'write the load vector of the free dofs (Matrix Market)')
-      .option('--adapt <percent>', 'refine adaptively until the estimated energy error is below this')
-      .option('--max-dofs <n>', 'cap on degrees of freedom (a whole number)', maxDofsArgument, '2000000')
-      .option('--report', 'also write report.html')
-      .option('--case <name>', 'show this load case or combination (default: the first case)'),
-  )).action(async (model: string, opts) => (await commands()).runSolve(ctx, model, opts));
-
-  registerCutOptions(sharedOptions(
-    program
-      .command('study <model>')
-      .description('study the sites (theory features, stress maxima above 1.3 × the median, or the listed points): refine each level after level and give a verdict')
-      .option('--levels <n>', 'refinement levels per site (overrides study.levels)')
-      .option('--ratio <r>', 'element size ratio between levels (overrides study.ratio)')
-      .option('--max-dofs <n>', 'cap on degrees of freedom per solve (a whole number)', maxDofsArgument, '2000000')
-      .option('--case <name>', 'show this load case or combination instead of the envelope (study.json holds every case)')
-      .option('--jobs <n>', 'worker threads for the levels (default: one per core for a long ladder, else one; 1 solves every level in one thread)')
-      .option('--watch', 'stay running: study again whenever the model (or a file it reads) is saved, and serve the report')
-      .option('--port <n>', 'with --watch: the local port of the report (default: any free one)'),
-  )).action(async (model: string, opts) => {
-    if (opts.port !== undefined && !opts.watch) throw new PeakwiseError('usage', '--port serves the report of --watch; add --watch or leave --port out');
-    // watch mode (and its server) loads only when asked for
-    return opts.watch ? (await import('./watch.js')).watchStudy(ctx, model, opts) : (await commands()).runStudy(ctx, model, opts);
-  });
-
-  registerSweep(program, ctx);
-  registerCheck(program, ctx);
-  registerResults(program);
-
-  return program;
-}
-
-/** Options of earlier versions and their present names: an old option gets a hint, not "unknown option". */
-const RENAMED_OPTIONS: Readonly<Record<string, string>> = { '--path': '--cut' };
-
-function renamedOptionHint(argv: readonly string[]): string | undefined {
-  for (const a of argv.slice(2)) {
-    const name = a.split('=')[0];
-    const now = RENAMED_OPTIONS[name];
-    if (now !== undefined) return `option ${name} is now called ${now} (same meaning); rename it`;
-  }
-  return undefined;
-}
-
-async function main(argv: string[]): Promise<number> {
-  const hint = renamedOptionHint(argv);
-  if (hint !== undefined) {
-    process.stderr.write(`peakwise: ${hint}\n`);
-    return 1;
-  }
-  const program = buildProgram();
-  try {
-    await program.parseAsync(argv);
-    // a command ran, so the output-set module is loaded already; help and version never get here
-    (await import('./output-set.js')).closeOutputSets('done'); // the result set's manifest, written last
-    return 0;
-  } catch (e) {
-    if (e instanceof CommanderError) {
-      // help and version are "errors" to commander with exit code 0
-      return e.exitCode === 0 ? 0 : 1;
-    }
-    const { closeOutputSets } = await import('./output-set.js');
-    const { describeError } = await import('./report-error.js');
-    const { StudyInterrupted } = await import('./common.js');
-    if (e instanceof StudyInterrupted) {
-      try {
-        closeOutputSets('interrupted');
-      } catch (e2) {
-        if (isPeakwiseError(e2)) process.stderr.write(`peakwise: ${describeError(e2, ctx.file, ctx.model)}\n`);
-      }
-      return 130;
-    }
-    closeOutputSets('failed');
-    if (isPeakwiseError(e)) {
-      process.stderr.write(`peakwise: ${describeError(e, ctx.file, ctx.model)}\n`);
-      return 1;
-    }
-    const msg = e instanceof Error ? e.message : String(e);
-    process.stderr.write(`peakwise: internal error: ${msg}\n(this is a bug in peakwise, not in your model; please report it with the model file)\n`);
-    return 2;
-  }
-}
+export { buildProgram } from './program.js';
 
 /**
  * A study (and a solve) runs in a worker thread so that Ctrl-C can reach it: the work is
@@ -142,6 +20,8 @@ async function main(argv: string[]): Promise<number> {
 async function runInWorker(argv: string[], graceful: boolean): Promise<void> {
   const { adoptWorkerLock, releaseAllLocks } = await import('./lock.js');
   const flag = new Int32Array(new SharedArrayBuffer(4));
+  // this very file: dist/cli/main.js, or in the bundle its entry dist/bundle/peakwise.js (an entry's
+  // own code stays in the entry's file; test/build/bundle.test.ts checks it)
   const worker = new Worker(new URL(import.meta.url), {
     argv: argv.slice(2),
     workerData: { flag, stdoutTTY: process.stdout.isTTY === true, stderrTTY: process.stderr.isTTY === true, columns: process.stderr.columns },
@@ -178,27 +58,6 @@ async function runInWorker(argv: string[], graceful: boolean): Promise<void> {
   });
 }
 
-/**
- * A worker's stderr is a message port to the main thread that passes a chunk on only when the
- * worker is idle: during a long synchronous solve, the adaptive cycle lines and the progress bar
- * would all arrive at the end. Written straight to the process's stderr (fd 2) they show as they
- * happen.
- */
-function writeStderrDirectly(): void {
-  const direct = (chunk: string | Uint8Array, encoding?: BufferEncoding | ((e?: Error | null) => void), done?: (e?: Error | null) => void): boolean => {
-    const cb = typeof encoding === 'function' ? encoding : done;
-    try {
-      if (typeof chunk === 'string') writeSync(2, chunk);
-      else writeSync(2, chunk);
-      cb?.(null);
-    } catch (e) {
-      cb?.(e as Error);
-    }
-    return true;
-  };
-  process.stderr.write = direct as typeof process.stderr.write;
-}
-
 if (isMainThread) {
   // `peakwise … | head` closes the pipe early: that is not an error
   process.stdout.on('error', (e: NodeJS.ErrnoException) => {
@@ -212,21 +71,12 @@ if (isMainThread) {
     const adapt = process.argv.some((a) => a === '--adapt' || a.startsWith('--adapt='));
     void runInWorker(process.argv, command === 'study' || adapt);
   } else {
-    main(process.argv).then((code) => {
+    runCommandLine(process.argv).then((code) => {
       // an action may have set a failure status itself (check: a case failed); keep it
       if (code !== 0) process.exitCode = code;
     });
   }
 } else {
-  const data = workerData as { flag: Int32Array; stdoutTTY: boolean; stderrTTY: boolean; columns?: number };
-  (await import('./common.js')).setStopFlag(data.flag);
-  // the worker's streams are pipes to the main thread's; let colours and the progress bar
-  // follow the real terminal
-  if (data.stdoutTTY) Object.defineProperty(process.stdout, 'isTTY', { value: true });
-  if (data.stderrTTY) {
-    Object.defineProperty(process.stderr, 'isTTY', { value: true });
-    if (data.columns) Object.defineProperty(process.stderr, 'columns', { value: data.columns });
-  }
-  writeStderrDirectly();
-  main(process.argv).then((code) => parentPort?.postMessage(code));
+  // the worker: from the bundle's code-cached CommonJS build when it is there, else the module
+  void (await import('./worker-start.js')).startWorker(new URL('./worker-body.cjs', import.meta.url));
 }

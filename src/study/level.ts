@@ -21,7 +21,7 @@ import type { SiteCandidate } from './sites.js';
 import { levelSizeField, probeLevel, rosettePoints, type SiteProbe } from './ladder.js';
 import { coarsenedOuterField } from './far-field.js';
 
-/** The name the level function is registered under in the study's worker (src/study/worker.ts). */
+/** The name the level function is registered under in the study's worker (src/study/study-worker.ts). */
 export const LEVEL_TASK = 'study-level';
 
 /** Everything one level needs, as plain data. */

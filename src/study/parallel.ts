@@ -33,8 +33,12 @@ import { levelSizeField } from './ladder.js';
 import { LEVEL_TASK, type LevelReadings } from './level.js';
 import { failedWords, finishStudy, interruptedWords, levelInput, prepareStudy, runStudy, serialLadder, type LadderOutcome, type StudyOptions, type StudySetup } from './run.js';
 
-/** The compiled worker next to this file; absent when running from the TypeScript sources. */
-export const STUDY_WORKER_URL = new URL('./worker.js', import.meta.url);
+/**
+ * The compiled worker next to this file; absent when running from the TypeScript sources. Its name
+ * is unique over the whole program so that the same URL finds it in tsc's dist/study/ and in the
+ * bundle's flat dist/bundle/ (DEVELOPERS.md, "Build").
+ */
+export const STUDY_WORKER_URL = new URL('./study-worker.js', import.meta.url);
 
 /** Levels a convergence verdict needs (verdict.ts: fewer leave a site undecided). */
 const FIT_LEVELS = 3;

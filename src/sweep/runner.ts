@@ -15,7 +15,7 @@ import { matchSites } from './match.js';
 import { fromJson, pointKey, runPoint, toJson, type PointOutcome, type PointTask } from './point.js';
 import type { SweepPoint, SweepResult, SweepStudyOptions, VaryAxis } from './types.js';
 import { cartesian } from './values.js';
-import type { WorkerReply } from './worker.js';
+import type { WorkerReply } from './sweep-worker.js';
 import { checkLimits, type SolveLimits } from '../pipeline/index.js';
 
 /** Where finished points are kept between runs (the CLI's is a folder of JSON files). */
@@ -59,8 +59,12 @@ export function parseShard(text: string, option = '--shard'): Shard {
   return { index: k - 1, count: n };
 }
 
-/** The compiled worker next to this file; absent when running from the TypeScript sources. */
-export const WORKER_URL = new URL('./worker.js', import.meta.url);
+/**
+ * The compiled worker next to this file; absent when running from the TypeScript sources. Its name
+ * is unique over the whole program so that the same URL finds it in tsc's dist/sweep/ and in the
+ * bundle's flat dist/bundle/ (DEVELOPERS.md, "Build").
+ */
+export const WORKER_URL = new URL('./sweep-worker.js', import.meta.url);
 
 function paramsText(params: Record<string, number>): string {
   return Object.entries(params).map(([k, v]) => `${k} = ${v}`).join(', ');

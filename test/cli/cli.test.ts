@@ -1,15 +1,14 @@
 /**
- * The command line as a user meets it: the built binary (dist/, made by `npm install` /
- * `prepare`), exit codes, one-line messages with file:line:col and key path, no stack traces.
+ * The command line as a user meets it: the bin of package.json (the bundle dist/bundle/peakwise.js,
+ * made by `npm install` / `prepare`; test/helpers/bin.ts), exit codes, one-line messages with
+ * file:line:col and key path, no stack traces.
  */
 import { execFile } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, readdirSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-
-const root = join(import.meta.dirname, '..', '..');
-const bin = join(root, 'dist', 'cli', 'main.js');
+import { bin, root } from '../helpers/bin.js';
 
 function run(args: string[], env: Record<string, string> = {}): Promise<{ code: number; stdout: string; stderr: string }> {
   return new Promise((resolve) => {

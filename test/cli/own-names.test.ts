@@ -9,9 +9,7 @@ import { mkdtempSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-
-const root = join(import.meta.dirname, '..', '..');
-const bin = join(root, 'dist', 'cli', 'main.js');
+import { bin, root } from '../helpers/bin.js';
 
 function run(args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
   return new Promise((resolve) => {

@@ -17,12 +17,11 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { chromium, type Browser, type Page } from 'playwright-core';
+import { bin, root } from '../helpers/bin.js';
 
 const CHROMIUM = '/usr/bin/chromium';
 const haveChromium = existsSync(CHROMIUM);
 const inCi = Boolean(process.env.CI);
-const root = join(import.meta.dirname, '..', '..');
-const bin = join(root, 'dist', 'cli', 'main.js');
 
 const OUTLINE = 'x,y\n0,0\n120,0\n120,40\n40,40\n40,120\n0,120\n';
 const model = (tau: string) => `title: Shelf hanger under watch

@@ -9,9 +9,8 @@ import { copyFileSync, existsSync, mkdtempSync, readFileSync, readdirSync, write
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { bin, root } from '../helpers/bin.js';
 
-const root = join(import.meta.dirname, '..', '..');
-const bin = join(root, 'dist', 'cli', 'main.js');
 const STACK = /\n\s+at .+\(.+:\d+:\d+\)|\n\s+at file:/;
 
 function run(args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {

@@ -11,9 +11,8 @@ import { chmodSync, existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSyn
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { bin, root } from '../helpers/bin.js';
 
-const root = join(import.meta.dirname, '..', '..');
-const bin = join(root, 'dist', 'cli', 'main.js');
 const STACK = /\n\s+at .+\(.+:\d+:\d+\)|\n\s+at file:/;
 
 interface Run { code: number | null; signal: NodeJS.Signals | null; stdout: string; stderr: string }

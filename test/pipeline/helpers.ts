@@ -1,10 +1,8 @@
 /** Shared by the pipeline tests: the built binary, and a small plate with a far-field stress load. */
 import { execFile } from 'node:child_process';
 import { readFileSync } from 'node:fs';
-import { join } from 'node:path';
-
-export const root = join(import.meta.dirname, '..', '..');
-const bin = join(root, 'dist', 'cli', 'main.js');
+import { bin, root } from '../helpers/bin.js';
+export { root };
 
 /** The built binary run with `args` in `cwd` (default the repository), colour off. */
 export function runCli(args: string[], cwd = root): Promise<{ code: number; stdout: string; stderr: string }> {

@@ -2,7 +2,7 @@
  * The generic worker pool (src/pipeline/pool.ts): tasks by name on worker threads, our errors raised
  * again in the caller's thread as the class they were thrown as (with key path, line, column, the
  * limit's kind), a task given up ends its worker and the pool goes on. Uses the compiled study
- * worker (dist/study/worker.js), which serves the per-level function.
+ * worker (dist/study/study-worker.js), which serves the per-level function.
  */
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';

@@ -2,7 +2,7 @@
  * Levels in parallel (issue 16 §1): the ladder's levels on worker threads give the serial study's
  * result byte for byte — the built binary's study.json (its one clock reading, timings.totalS,
  * masked), sites.csv and report.html — and the library's stop and failure paths keep the levels a
- * serial run would keep. Runs the compiled code (dist/): the workers load dist/study/worker.js.
+ * serial run would keep. Runs the compiled code (dist/): the library's workers load dist/study/study-worker.js, the binary's dist/bundle/study-worker.js.
  */
 import { execFile } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
@@ -12,12 +12,11 @@ import { pathToFileURL } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { keptRun } from '../../src/study/parallel.js';
 import type { TaskPool } from '../../src/pipeline/pool.js';
+import { bin, root } from '../helpers/bin.js';
 
 type StudyModule = typeof import('../../src/study/index.js');
 type ModelModule = typeof import('../../src/model/index.js');
 
-const root = join(import.meta.dirname, '..', '..');
-const bin = join(root, 'dist', 'cli', 'main.js');
 const modelFile = join(root, 'models', 'l-bracket-sharp.yaml');
 const out = mkdtempSync(join(tmpdir(), 'peakwise-parallel-'));
 

@@ -7,9 +7,8 @@ import { existsSync, mkdtempSync, readFileSync, readdirSync, rmSync } from 'node
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { bin, root } from '../helpers/bin.js';
 
-const root = join(import.meta.dirname, '..', '..');
-const bin = join(root, 'dist', 'cli', 'main.js');
 const model = join(root, 'models', 'l-bracket-sharp.yaml');
 const out = mkdtempSync(join(tmpdir(), 'peakwise-sweep-'));
 const POINT_FILE = /^[0-9a-f]{64}\.json$/;

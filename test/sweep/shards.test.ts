@@ -10,9 +10,8 @@ import { existsSync, mkdtempSync, readFileSync, readdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { bin, root } from '../helpers/bin.js';
 
-const root = join(import.meta.dirname, '..', '..');
-const bin = join(root, 'dist', 'cli', 'main.js');
 const model = 'models/l-bracket-sharp.yaml';
 const out = mkdtempSync(join(tmpdir(), 'peakwise-shards-'));
 const POINT_FILE = /^[0-9a-f]{64}\.json$/;

@@ -8,9 +8,8 @@ import { existsSync, mkdtempSync, readFileSync, readdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { bin, root } from '../helpers/bin.js';
 
-const root = join(import.meta.dirname, '..', '..');
-const bin = join(root, 'dist', 'cli', 'main.js');
 const VARY = ['--vary', 'r=0,1,2,3,4,6,8,10,12,14', '--levels', '5', '--jobs', '1'];
 
 function points(dir: string): string[] {
