@@ -21,7 +21,7 @@ export interface StiffnessPattern {
   nodeCols: Int32Array;
   rowPtr: Int32Array;
   colIdx: Int32Array;
-  elemOffsets?: Int32Array;
+  elemOffsets: Int32Array;
 }
 
 /**
@@ -98,9 +98,7 @@ function neighbourRows(
     for (let p = elemPtr[n]; p < elemPtr[n + 1]; p++) {
       const e = elemList[p];
       const base = npe * e;
-      let li = 0;
-      while (elemNodes[base + li] !== n) li++;
-      const at = npe2 * e + npe * li;
+      const at = pairRow(elemNodes, npe, e, n);
       for (let j = 0; j < npe; j++) {
         const m = elemNodes[base + j];
         if (marker[m] !== n) {
@@ -113,15 +111,18 @@ function neighbourRows(
     }
     sortRow(nodeCols, r0, q - r0, firstSight, sortedPlace);
     for (let p = elemPtr[n]; p < elemPtr[n + 1]; p++) {
-      const e = elemList[p];
-      const base = npe * e;
-      let li = 0;
-      while (elemNodes[base + li] !== n) li++;
-      const at = npe2 * e + npe * li;
+      const at = pairRow(elemNodes, npe, elemList[p], n);
       for (let j = 0; j < npe; j++) elemOffsets[at + j] = sortedPlace[elemOffsets[at + j]];
     }
   }
   return { nodeCols, elemOffsets };
+}
+
+/** Where element e's pairs of row node n start in elemOffsets: npe²·e + npe·(n's place in e). */
+function pairRow(elemNodes: Mesh['elemNodes'], npe: number, e: number, n: number): number {
+  let li = 0;
+  while (elemNodes[npe * e + li] !== n) li++;
+  return npe * npe * e + npe * li;
 }
 
 /** Insertion sort of one row (tens of entries); sortedPlace[k] is then the new place of the entry that was at k. */
@@ -167,22 +168,6 @@ function dofRows(nNodes: number, nodeRowPtr: Int32Array, nodeCols: Int32Array): 
   return { rowPtr, colIdx };
 }
 
-/** position of node m in node n's sorted neighbour list, relative to the row start (binary search) */
-function neighbourOffset(pattern: StiffnessPattern, n: number, m: number): number {
-  const start = pattern.nodeRowPtr[n];
-  let lo = start;
-  let hi = pattern.nodeRowPtr[n + 1] - 1;
-  const cols = pattern.nodeCols;
-  while (lo <= hi) {
-    const mid = (lo + hi) >> 1;
-    const c = cols[mid];
-    if (c < m) lo = mid + 1;
-    else if (c > m) hi = mid - 1;
-    else return mid - start;
-  }
-  return -1;
-}
-
 /**
  * Global stiffness K (whole thickness: element matrices are multiplied by t; an axisymmetric
  * section: the whole revolution, thickness unused) written into
@@ -205,8 +190,8 @@ export function assembleStiffness(
   const exy = new Float64Array(2 * npe);
   const ke = new Float64Array(nd * nd);
   const t = section.thickness;
-  // the pattern's place of every element pair (a pattern made elsewhere may lack it: then search)
-  const offsets = pattern.elemOffsets && pattern.elemOffsets.length === npe * npe * nElem ? pattern.elemOffsets : undefined;
+  const offsets = pattern.elemOffsets;
+  if (offsets.length !== npe * npe * nElem) throw new RangeError(`stiffness pattern has places for ${offsets.length / (npe * npe)} elements; the mesh has ${nElem}`);
   // the element loop stays short and calls small functions: each is optimised on its own after a few
   // hundred calls, where one long loop body waits for the whole function's on-stack replacement
   for (let e = 0; e < nElem; e++) {
@@ -214,8 +199,7 @@ export function assembleStiffness(
     if (axisymmetric) axisymmetricStiffness(exy, npe, D, ke);
     else if (npe === 3) elementStiffnessCst(exy, D, t, ke);
     else elementStiffnessLst(exy, D, t, ke);
-    if (offsets) addByPlace(values, rowPtr, offsets, elemNodes, npe, e, ke);
-    else addBySearch(values, pattern, elemNodes, npe, e, ke);
+    addByPlace(values, rowPtr, offsets, elemNodes, npe, e, ke);
   }
   return { n: pattern.n, rowPtr: pattern.rowPtr, colIdx: pattern.colIdx, values };
 }
@@ -231,26 +215,6 @@ function addByPlace(values: Float64Array, rowPtr: Int32Array, offsets: Int32Arra
     const at = npe * npe * e + npe * i;
     for (let j = 0; j < npe; j++) {
       const o = 2 * offsets[at + j];
-      const k0 = 2 * i * nd + 2 * j;
-      const k1 = k0 + nd;
-      values[ra + o] += ke[k0];
-      values[ra + o + 1] += ke[k0 + 1];
-      values[rb + o] += ke[k1];
-      values[rb + o + 1] += ke[k1 + 1];
-    }
-  }
-}
-
-/** The same, finding each place by binary search (a pattern built without element places). */
-function addBySearch(values: Float64Array, pattern: StiffnessPattern, elemNodes: Mesh['elemNodes'], npe: number, e: number, ke: Float64Array): void {
-  const nd = 2 * npe;
-  const base = npe * e;
-  for (let i = 0; i < npe; i++) {
-    const a = elemNodes[base + i];
-    const ra = pattern.rowPtr[2 * a];
-    const rb = pattern.rowPtr[2 * a + 1];
-    for (let j = 0; j < npe; j++) {
-      const o = 2 * neighbourOffset(pattern, a, elemNodes[base + j]);
       const k0 = 2 * i * nd + 2 * j;
       const k1 = k0 + nd;
       values[ra + o] += ke[k0];

@@ -23,7 +23,7 @@ describe('stiffness pattern', () => {
         for (let i = 0; i < npe; i++) {
           const a = mesh.elemNodes[npe * e + i];
           for (let j = 0; j < npe; j++) {
-            const off = p.elemOffsets![npe * npe * e + npe * i + j];
+            const off = p.elemOffsets[npe * npe * e + npe * i + j];
             if (p.nodeCols[p.nodeRowPtr[a] + off] !== mesh.elemNodes[npe * e + j]) wrong++;
           }
         }
