@@ -3,11 +3,15 @@
  * dist/bundle/peakwise.js, src/build/bundle.ts) in a fresh process each time:
  *
  * - start-up: `--version` and `--help`, median of 11 (goal ≤ 0.1 s each, issue 16);
- * - `study` of every demo model, median of 3, as a ratio to the yardstick (goals.ts): ≤ 1.2× for
+ * - `study` of every demo model, 3 runs, as a ratio to the yardstick (goals.ts): ≤ 1.2× for
  *   models/l-bracket-sharp.yaml, ≤ 1.7× for every demo with a single load case; and its breakdown
  *   (start, mesh, solve, recover, write) from a CPU profile of one more run;
- * - `mesh` of a plate of about 300 000 nodes, median of 3, against plain delaunator on as many
- *   random points in this process (goal ≤ 3×).
+ * - `mesh` of a plate of about 300 000 nodes, 5 runs, against plain delaunator on as many random
+ *   points in this process (goal ≤ 3×).
+ *
+ * Every timed run comes right after a reference timing of its own (the yardstick, or delaunator on
+ * as many points), and the ratio is the median of those pairs: the machine's speed drifts by up to
+ * 2× within minutes, and a pair taken within a second or two sees the same machine.
  *
  * The breakdown: one extra run under `node --cpu-prof` (both threads: the command's work runs in a
  * worker), every sample charged to the innermost frame of ours on its stack, by stage folder:
@@ -44,6 +48,23 @@ function timeCommand(args: string[], runs: number): number {
   const ts: number[] = [];
   for (let k = 0; k < runs; k++) ts.push(runOnce(args).seconds);
   return median(ts);
+}
+
+/**
+ * `runs` runs of a command, each right after a reference timing of its own (`reference()`, in this
+ * process): the ratio is the median of the paired ratios, so that the machine's drift — up to 2× within
+ * minutes on this shared machine — cancels in each pair instead of landing on one side of a ratio of medians.
+ */
+function timePaired(args: string[], runs: number, reference: () => number): { s: number; ref: number; ratio: number } {
+  const ts: number[] = [], refs: number[] = [], ratios: number[] = [];
+  for (let k = 0; k < runs; k++) {
+    const r = reference();
+    const t = runOnce(args).seconds;
+    ts.push(t);
+    refs.push(r);
+    ratios.push(t / r);
+  }
+  return { s: median(ts), ref: median(refs), ratio: median(ratios) };
 }
 
 export const PHASES = ['start', 'mesh', 'solve', 'recover', 'study', 'write', 'gc'] as const;
@@ -173,30 +194,26 @@ function demoModels(): { file: string; singleCase: boolean }[] {
 export function benchStudyCommands(quick: boolean): void {
   const out = mkdtempSync(join(tmpdir(), 'peakwise-bench-study-'));
   const runs = quick ? 1 : 3;
-  const timed: { file: string; singleCase: boolean; s: number }[] = [];
+  const timed: { file: string; singleCase: boolean; s: number; ref: number; ratio: number }[] = [];
   try {
     const demos = demoModels().filter((d) => !quick || d.file === 'models/l-bracket-sharp.yaml');
-    sampleYardstick();
     for (const { file, singleCase } of demos) {
       const args = ['study', file, '--out', join(out, file.replace(/\W/g, '-')), '--quiet'];
-      sampleYardstick(); // one yardstick sample beside every command
-      const s = timeCommand(args, runs);
-      timed.push({ file, singleCase, s });
-      process.stdout.write(`  study ${file}: ${s.toFixed(2)} s (median of ${runs})${singleCase ? '' : ' (several load cases)'}\n`);
+      // each run right after a yardstick sample of its own: the ratio is the median of the pairs
+      const t = timePaired(args, runs, sampleYardstick);
+      timed.push({ file, singleCase, ...t });
+      process.stdout.write(`  study ${file}: ${t.s.toFixed(2)} s (median of ${runs})${singleCase ? '' : ' (several load cases)'}, yardstick beside it ${t.ref.toFixed(3)} s\n`);
       process.stdout.write(`    breakdown: ${breakdown(args)}\n`);
     }
-    sampleYardstick();
   } finally {
     rmSync(out, { recursive: true, force: true });
   }
-  const y = yardstick();
-  process.stdout.write(`  yardstick: plain delaunator on 1 000 000 random points ${y.toFixed(3)} s (median of the samples so far)\n`);
-  for (const { file, singleCase, s } of timed) {
-    const ratio = s / y;
-    process.stdout.write(`  study ${file}: ${ratio.toFixed(2)}× the yardstick\n`);
-    const measured = `${s.toFixed(2)} s (median of ${runs})`;
-    if (file === 'models/l-bracket-sharp.yaml') recordGoal({ what: `study ${file} (whole command)`, measured, value: ratio, limit: 1.2, unit: '×', against: 'the yardstick' });
-    else if (singleCase) recordGoal({ what: `study ${file} (whole command)`, measured, value: ratio, limit: 1.7, unit: '×', against: 'the yardstick' });
+  process.stdout.write(`  yardstick: plain delaunator on 1 000 000 random points ${yardstick().toFixed(3)} s (median of the samples so far)\n`);
+  for (const { file, singleCase, s, ref, ratio } of timed) {
+    process.stdout.write(`  study ${file}: ${ratio.toFixed(2)}× the yardstick (median of ${runs} pairs, each run against the sample taken just before it)\n`);
+    const measured = `${s.toFixed(2)} s (median of ${runs}; yardstick beside it ${ref.toFixed(3)} s)`;
+    if (file === 'models/l-bracket-sharp.yaml') recordGoal({ what: `study ${file} (whole command)`, measured, value: ratio, limit: 1.2, unit: '×', against: 'the yardstick (paired runs)' });
+    else if (singleCase) recordGoal({ what: `study ${file} (whole command)`, measured, value: ratio, limit: 1.7, unit: '×', against: 'the yardstick (paired runs)' });
   }
 }
 
@@ -228,24 +245,18 @@ export function benchMeshCommand(quick: boolean): void {
     // size 1.5 gives about 306 000 nodes (order 1: nodes = vertices); quick: about 40 000
     const file = join(dir, 'base-plate.yaml');
     writeFileSync(file, basePlateModel(quick ? 4 : 1.5));
-    const runs = quick ? 1 : 3;
+    const runs = quick ? 1 : 5;
     const first = runOnce(['mesh', file, '--json']);
     const q = JSON.parse(first.stdout) as { mesh: { nodes: number; minAngleDeg: number } };
-    // the command and plain delaunator on as many random points taken in turn, so that both
-    // medians come from the same minutes
+    // the command and plain delaunator on as many random points taken in turn, the ratio the median
+    // of the pairs (the machine's drift cancels in each pair)
     delaunaySeconds(100_000, 1); // warm-up
     const pts = randomPoints(q.mesh.nodes);
-    const cmd: number[] = [];
-    const del: number[] = [];
-    for (let k = 0; k < runs; k++) {
+    const { s, ref: d, ratio } = timePaired(['mesh', file], runs, () => {
       const t0 = performance.now();
       new Delaunator(pts);
-      del.push((performance.now() - t0) / 1000);
-      cmd.push(runOnce(['mesh', file]).seconds);
-    }
-    const s = median(cmd);
-    const d = median(del);
-    const ratio = s / d;
+      return (performance.now() - t0) / 1000;
+    });
     process.stdout.write(
       `  peakwise mesh (machine-base plate, ${q.mesh.nodes} nodes, min angle ${q.mesh.minAngleDeg.toFixed(2)}°): ${s.toFixed(3)} s (median of ${runs}), ` +
         `delaunator on ${q.mesh.nodes} random points ${d.toFixed(3)} s → ${ratio.toFixed(2)}×\n`,
