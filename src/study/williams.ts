@@ -212,6 +212,22 @@ export function familyRoots(family: Family, alpha: number, kappa: number, reMax:
  * `kappa` is the Kolosov constant (only the clamped families depend on it).
  */
 export function williamsRoots(alphaDeg: number, faces: WedgeFaces = 'free-free', kappa = (3 - 0.3) / 1.3): WilliamsRoots {
+  // a pure function of its three arguments and some 10 ms of root finding a call: a study asks for the same
+  // wedge at several sites and levels, a sweep or a watch at every point and rerun (String(x) is exact)
+  const key = `${String(alphaDeg)}|${faces}|${String(kappa)}`;
+  const known = rootsMemo.get(key);
+  if (known) return structuredClone(known);
+  const roots = computeWilliamsRoots(alphaDeg, faces, kappa);
+  if (rootsMemo.size >= ROOTS_MEMO_SIZE) rootsMemo.delete(rootsMemo.keys().next().value as string);
+  rootsMemo.set(key, roots);
+  return structuredClone(roots);
+}
+
+/** Wedges remembered by williamsRoots (the oldest goes first beyond this many). */
+const ROOTS_MEMO_SIZE = 256;
+const rootsMemo = new Map<string, WilliamsRoots>();
+
+function computeWilliamsRoots(alphaDeg: number, faces: WedgeFaces, kappa: number): WilliamsRoots {
   if (!(alphaDeg > 0 && alphaDeg <= 360)) throw new RangeError(`wedge angle must be in (0°, 360°], got ${alphaDeg}°`);
   if (!(kappa >= 1 && kappa <= 3)) throw new RangeError(`Kolosov constant κ must be in [1, 3], got ${kappa}`);
   const alpha = (alphaDeg * Math.PI) / 180;

@@ -95,3 +95,17 @@ describe('Williams (1952) clamped faces (independent roots, ν = 0.3)', () => {
     expect(() => williamsRoots(400)).toThrow(RangeError);
   });
 });
+
+// williamsRoots remembers each wedge it has solved (a pure function of its arguments): a second call
+// must give the same roots, as a copy of its own, whatever the caller did to the first.
+describe('remembered wedges', () => {
+  it('a repeated wedge gives equal roots in a new object', () => {
+    const a = williamsRoots(250, 'free-clamped', 2.2);
+    const first = structuredClone(a);
+    a.lambdaMin = -1;
+    if (a.complex) a.complex.re = -1;
+    const b = williamsRoots(250, 'free-clamped', 2.2);
+    expect(b).toEqual(first);
+    expect(b).not.toBe(a);
+  });
+});
