@@ -16,7 +16,7 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Delaunator from 'delaunator';
-import { basePlateModel, bin } from './commands.js';
+import { basePlateModel, bin, nodeStartSeconds } from './commands.js';
 import { median, randomPoints } from './goals.js';
 
 const root = join(import.meta.dirname, '..', '..');
@@ -72,13 +72,7 @@ function main(argv: string[]): void {
   const dir = mkdtempSync(join(tmpdir(), 'peakwise-bundle-compare-'));
   try {
     if (only.has('version') || only.has('help')) {
-      const floor: number[] = [];
-      for (let k = 0; k < short; k++) {
-        const t0 = performance.now();
-        spawnSync(process.execPath, ['-e', '0']);
-        floor.push((performance.now() - t0) / 1000);
-      }
-      process.stdout.write(`node -e 0 (Node's own start): ${(median(floor) * 1000).toFixed(0)} ms (median of ${short})\n`);
+      process.stdout.write(`node -e 0 (Node's own start): ${(nodeStartSeconds(short) * 1000).toFixed(0)} ms (median of ${short})\n`);
     }
     const two: Build[] = ['bundle', 'unbundled'];
     if (only.has('version')) line('--version', interleaved(['--version'], short, two), short);
