@@ -48,6 +48,11 @@ export function inCircle(ax: number, ay: number, bx: number, by: number, cx: num
   return incircle(ax, ay, bx, by, cx, cy, dx, dy);
 }
 
+/** −1, 0 or 1 by the sign of d (NaN stays NaN, so every comparison with it stays false) */
+function signOf(d: number): number {
+  return d > 0 ? 1 : d < 0 ? -1 : d === 0 ? 0 : d;
+}
+
 /** a vertex in the interior of no piece / at a junction of two pieces */
 export const V_FREE = -1;
 export const V_JUNCTION = -2;
@@ -165,24 +170,34 @@ export class TriMesh {
     this.mark = g(this.mark, c);
   }
 
-  /** orientation of (a, b, c): > 0 counter-clockwise (exact sign) */
+  // The predicate methods return the sign as a small integer (−1, 0, 1) and take vertices by index where
+  // they can: a double passed to or returned from a call that is not inlined is boxed as a heap number,
+  // and the cavity loops of insertVertex make some ten such calls per new vertex (200 MB of garbage for
+  // a 300 000-vertex mesh when they returned the determinant).
+
+  /** orientation of (a, b, c): 1 counter-clockwise, −1 clockwise, 0 collinear (exact sign) */
   orient(a: number, b: number, c: number): number {
     const xy = this.xy;
-    return orientCcw(xy[2 * a], xy[2 * a + 1], xy[2 * b], xy[2 * b + 1], xy[2 * c], xy[2 * c + 1]);
+    return signOf(orientCcw(xy[2 * a], xy[2 * a + 1], xy[2 * b], xy[2 * b + 1], xy[2 * c], xy[2 * c + 1]));
   }
 
   orientP(a: number, b: number, px: number, py: number): number {
     const xy = this.xy;
-    return orientCcw(xy[2 * a], xy[2 * a + 1], xy[2 * b], xy[2 * b + 1], px, py);
+    return signOf(orientCcw(xy[2 * a], xy[2 * a + 1], xy[2 * b], xy[2 * b + 1], px, py));
   }
 
-  /** > 0 when (px, py) is strictly inside the circumcircle of triangle t */
+  /** 1 when (px, py) is strictly inside the circumcircle of triangle t, −1 outside, 0 on it */
   inCircum(t: number, px: number, py: number): number {
     const xy = this.xy;
     const a = this.tri[3 * t];
     const b = this.tri[3 * t + 1];
     const c = this.tri[3 * t + 2];
-    return inCircle(xy[2 * a], xy[2 * a + 1], xy[2 * b], xy[2 * b + 1], xy[2 * c], xy[2 * c + 1], px, py);
+    return signOf(inCircle(xy[2 * a], xy[2 * a + 1], xy[2 * b], xy[2 * b + 1], xy[2 * c], xy[2 * c + 1], px, py));
+  }
+
+  /** inCircum for vertex p */
+  inCircumOf(t: number, p: number): number {
+    return this.inCircum(t, this.xy[2 * p], this.xy[2 * p + 1]);
   }
 
   /** true when (px, py) lies strictly inside the diametral circle of half-edge e */
@@ -238,7 +253,12 @@ export class TriMesh {
   }
 
   private growScratch(n: number): void {
-    if (n <= this.cav.length) return;
+    // the growth is a function of its own: its closure's context would otherwise be allocated on
+    // every call, before the test (some ten calls per new vertex: 200 MB of garbage per 300 000)
+    if (n > this.cav.length) this.regrowScratch(n);
+  }
+
+  private regrowScratch(n: number): void {
     const c = 2 * n;
     const gi = (a: Int32Array) => {
       const b = new Int32Array(c);
@@ -294,7 +314,7 @@ export class TriMesh {
           const ot = (o / 3) | 0;
           const m = this.mark[ot];
           if (m === st || (banStamp !== 0 && m === banStamp)) continue;
-          if (this.inCircum(ot, px, py) > 0) {
+          if (this.inCircumOf(ot, p) > 0) {
             this.growScratch(nc + 1);
             this.cav[nc++] = ot;
             this.mark[ot] = st;
