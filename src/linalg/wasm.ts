@@ -91,6 +91,9 @@ export function takeWasmKernels(bytes: number): { kernels: WasmKernels; dirtyByt
     const [kernels] = spares.splice(fit, 1);
     return { kernels, dirtyBytes: bytes };
   }
+  // every spare is too small: let them go before the new memory is made, so that they do not stay
+  // resident beside it (a ladder's factors grow level by level)
+  spares.length = 0;
   const kernels = createWasmKernels(Math.min(HEADROOM * bytes, MAX_PAGES * PAGE)) ?? createWasmKernels(bytes);
   return kernels ? { kernels, dirtyBytes: 0 } : null;
 }
