@@ -9,6 +9,20 @@ import { describe, expect, it } from 'vitest';
 import { readFieldColumns, runCli } from '../pipeline/helpers.js';
 
 
+
+/** A 100 × 200 plate held along its top edge under self-weight; `head` leads (title, material), `tail` follows. */
+function hangingPlate(head: string, tail = ''): string {
+  return `${head}
+thickness: 10
+plate:
+  outline: { rect: { center: [50, 100], width: 100, height: 200 } }
+supports:
+  - { where: { y: 200 }, fix: [x, y] }
+loads:
+  - gravity: [0, -9810]
+${tail}`;
+}
+
 describe('peakwise solve with body loads', () => {
   it('plane strain, held in x and y, warmed by 80: σxx = σyy = σzz = −EαΔT/(1 − 2ν) in field.csv (Hooke\'s law)', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'pw-thermal-'));
@@ -43,18 +57,7 @@ mesh: { size: 15 }
 
   it('a plate hanging from its top edge: the supports carry its weight ρ g W L t (statics)', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'pw-weight-'));
-    writeFileSync(join(dir, 'hang.yaml'), `
-title: hanging plate
-material: { E: 210000, nu: 0.3, density: 7.85e-9 }
-thickness: 10
-plate:
-  outline: { rect: { center: [50, 100], width: 100, height: 200 } }
-supports:
-  - { where: { y: 200 }, fix: [x, y] }
-loads:
-  - gravity: [0, -9810]
-mesh: { size: 20 }
-`);
+    writeFileSync(join(dir, 'hang.yaml'), hangingPlate('title: hanging plate\nmaterial: { E: 210000, nu: 0.3, density: 7.85e-9 }', 'mesh: { size: 20 }\n'));
     const r = await runCli(['solve', 'hang.yaml', '--json', '--out', 'out'], dir);
     expect(r.code).toBe(0);
     const j = JSON.parse(r.stdout) as { solution: { appliedSum: number[]; reactionSum: number[] } };
@@ -65,15 +68,7 @@ mesh: { size: 20 }
 
   it('a gravity load without material.density: exit 1, file:line and key path, no stack trace', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'pw-nodensity-'));
-    writeFileSync(join(dir, 'bad.yaml'), `material: { E: 210000, nu: 0.3 }
-thickness: 10
-plate:
-  outline: { rect: { center: [50, 100], width: 100, height: 200 } }
-supports:
-  - { where: { y: 200 }, fix: [x, y] }
-loads:
-  - gravity: [0, -9810]
-`);
+    writeFileSync(join(dir, 'bad.yaml'), hangingPlate('material: { E: 210000, nu: 0.3 }'));
     const r = await runCli(['solve', 'bad.yaml'], dir);
     expect(r.code).toBe(1);
     expect(r.stderr).toMatch(/^peakwise: bad\.yaml:8:\d+ loads\[0\]\.gravity: a gravity load needs the material's density/);
