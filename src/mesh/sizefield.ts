@@ -50,10 +50,12 @@ export function sizeFieldFromSettings(geom: PlateGeometry, settings: SizeSetting
   });
   // circular arcs: cx, cy, R, h, startAngle, sweep, end-point coordinates (x0, y0, x1, y1)
   const arcs: number[] = [];
-  // ellipse arcs, sampled: per group [cx, cy, bounding radius, min h, first sample, end sample]
+  // ellipse arcs, sampled: per group [cx, cy, bounding radius, min h, first chunk, end chunk]
   const groups: number[] = [];
   // samples: x, y, h
   const samples: number[] = [];
+  // runs of CHUNK consecutive samples of one arc: [cx, cy, bounding radius, min h, first sample, end sample]
+  const chunks: number[] = [];
   const p = [0, 0];
   for (const piece of geom.pieces) {
     const c = piece.curve;
@@ -80,7 +82,11 @@ export function sizeFieldFromSettings(geom: PlateGeometry, settings: SizeSetting
         samples.push(p[0], p[1], h);
         hMin = Math.min(hMin, h);
       }
-      if (samples.length > first) groups.push(c.center[0], c.center[1], Math.max(c.a, c.b), hMin, first, samples.length);
+      if (samples.length > first) {
+        const firstChunk = chunks.length / 6;
+        for (let i = first; i < samples.length; i += 3 * CHUNK) chunkOf(samples, i, Math.min(samples.length, i + 3 * CHUNK), h0 / g, chunks);
+        groups.push(c.center[0], c.center[1], Math.max(c.a, c.b), hMin, firstChunk, chunks.length / 6);
+      }
     }
   }
   const nd = disks.length / 4;
@@ -108,7 +114,7 @@ export function sizeFieldFromSettings(geom: PlateGeometry, settings: SizeSetting
   }
   for (let k = 0; k < ng; k++) {
     let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
-    for (let i = groups[6 * k + 4]; i < groups[6 * k + 5]; i += 3) {
+    for (let i = chunks[6 * groups[6 * k + 4] + 4]; i < chunks[6 * groups[6 * k + 5] - 1]; i += 3) {
       const reach = (h0 - samples[i + 2]) / g;
       x0 = Math.min(x0, samples[i] - reach); x1 = Math.max(x1, samples[i] + reach);
       y0 = Math.min(y0, samples[i + 1] - reach); y1 = Math.max(y1, samples[i + 1] + reach);
@@ -146,9 +152,14 @@ export function sizeFieldFromSettings(geom: PlateGeometry, settings: SizeSetting
     const k = 6 * (item - nd - na);
     const dl = Math.hypot(x - groups[k], y - groups[k + 1]) - groups[k + 2];
     if (groups[k + 3] + g * Math.max(0, dl) >= h) return h;
-    for (let i = groups[k + 4]; i < groups[k + 5]; i += 3) {
-      const hi = samples[i + 2] + g * Math.hypot(x - samples[i], y - samples[i + 1]);
-      if (hi < h) h = hi;
+    for (let j = 6 * groups[k + 4], end = 6 * groups[k + 5]; j < end; j += 6) {
+      // a run whose every sample asks for at least h is passed over: the minimum is the same
+      const dc = Math.hypot(x - chunks[j], y - chunks[j + 1]) - chunks[j + 2];
+      if (chunks[j + 3] + g * (dc > 0 ? dc : 0) >= h) continue;
+      for (let i = chunks[j + 4]; i < chunks[j + 5]; i += 3) {
+        const hi = samples[i + 2] + g * Math.hypot(x - samples[i], y - samples[i + 1]);
+        if (hi < h) h = hi;
+      }
     }
     return h;
   };
@@ -161,6 +172,28 @@ export function sizeFieldFromSettings(geom: PlateGeometry, settings: SizeSetting
     for (let k = start[c]; k < start[c + 1]; k++) h = lower(items[k], x, y, h);
     return h;
   };
+}
+
+/** Consecutive samples of an ellipse arc looked at together by the size field. */
+const CHUNK = 8;
+
+/**
+ * Append the run of samples [from, to) (x, y, h triples) to `chunks` as its box centre, a radius
+ * that reaches every sample, its least h, from and to. The radius is widened by a hair (relative,
+ * and `slack`·1e-9 absolute, slack = h₀/g) so that rounding never lets a run be passed over that
+ * holds a sample asking for less.
+ */
+function chunkOf(samples: readonly number[], from: number, to: number, slack: number, chunks: number[]): void {
+  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity, hMin = Infinity;
+  for (let i = from; i < to; i += 3) {
+    x0 = Math.min(x0, samples[i]); x1 = Math.max(x1, samples[i]);
+    y0 = Math.min(y0, samples[i + 1]); y1 = Math.max(y1, samples[i + 1]);
+    hMin = Math.min(hMin, samples[i + 2]);
+  }
+  const cx = 0.5 * (x0 + x1), cy = 0.5 * (y0 + y1);
+  let r = 0;
+  for (let i = from; i < to; i += 3) r = Math.max(r, Math.hypot(samples[i] - cx, samples[i + 1] - cy));
+  chunks.push(cx, cy, r * (1 + 1e-9) + 1e-9 * slack, hMin, from, to);
 }
 
 function angleWithin(ang: number, start: number, sweep: number): boolean {

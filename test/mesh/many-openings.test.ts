@@ -7,6 +7,7 @@
 import { describe, expect, it } from 'vitest';
 import { buildGeometry, closestOnCurve } from '../../src/geometry/index.js';
 import { CURVE_SEGMENT_ANGLE, meshPlate, meshQuality, sizeFieldFromSettings } from '../../src/mesh/index.js';
+import { curvatureRadius, curveLen, curveXY } from '../../src/mesh/curves.js';
 import { perforatedPlate } from '../../src/bench/holes.js';
 import type { Opening, Plate } from '../../src/model/types.js';
 import { seededRandom } from '../helpers/random.js';
@@ -80,5 +81,50 @@ describe('a 100-hole perforated plate', () => {
       perHole.set(loop, (perHole.get(loop) ?? 0) + 1);
     }
     for (const o of geom.loops.filter((l) => l.hole)) expect(perHole.get(o.id)!).toBeGreaterThanOrEqual(32);
+  });
+});
+
+describe('size field near ellipses', () => {
+  it('equals, to the last bit, the lower envelope of every ellipse sample cone (runs of samples passed over change nothing)', () => {
+    const rnd = seededRandom(4407);
+    // slender and round ellipses, rotated, small enough that their curvature asks for refinement
+    const shapes = [
+      { a: 12, b: 1.5, ang: 20, c: [40, 40] }, { a: 6, b: 4, ang: -35, c: [100, 50] }, { a: 20, b: 0.8, ang: 90, c: [160, 60] },
+    ];
+    const openings: Opening[] = shapes.map((s, i) => ({ id: `e${i}`, shape: { kind: 'ellipse', center: s.c as [number, number], a: s.a, b: s.b, angleDeg: s.ang }, keyPath: `plate.openings[${i}]` }));
+    const geom = buildGeometry({ outline: { kind: 'rect', center: [100, 50], width: 200, height: 100, round: 0 }, openings });
+    const h0 = 6, g = 0.3;
+    const field = sizeFieldFromSettings(geom, { size: h0, local: [] }, g);
+    // the sampling rule of sizefield.ts: n + 1 points evenly in the parameter, each asking for
+    // CURVE_SEGMENT_ANGLE × the radius of curvature there, kept when that is below h0
+    // (about the plate's centre, as the field itself is built: see PlateGeometry.local)
+    const local = geom.local?.geometry ?? geom, [ox, oy] = geom.local?.origin ?? [0, 0];
+    const cones: number[] = [];
+    const p = [0, 0];
+    for (const piece of local.pieces) {
+      const c = piece.curve;
+      if (c.kind !== 'ellipse-arc') continue;
+      const rhoMin = Math.min(c.a, c.b) ** 2 / Math.max(c.a, c.b);
+      const n = Math.min(400, Math.max(8, Math.ceil(curveLen(c) / (CURVE_SEGMENT_ANGLE * rhoMin * 2))));
+      for (let i = 0; i <= n; i++) {
+        const h = CURVE_SEGMENT_ANGLE * curvatureRadius(c, i / n);
+        if (h >= h0) continue;
+        curveXY(c, i / n, p);
+        cones.push(p[0], p[1], h);
+      }
+    }
+    expect(cones.length / 3).toBeGreaterThan(300);
+    let differ = 0;
+    for (let k = 0; k < 3000; k++) {
+      // most points close to an ellipse, where only some runs of its samples can matter
+      const s = shapes[k % 3];
+      const t = 2 * Math.PI * rnd(), rho = 0.5 + 1.5 * rnd();
+      const x = k % 5 === 0 ? 200 * rnd() : s.c[0] + rho * s.a * Math.cos(t);
+      const y = k % 5 === 0 ? 100 * rnd() : s.c[1] + rho * s.a * Math.sin(t);
+      let h = h0;
+      for (let i = 0; i < cones.length; i += 3) h = Math.min(h, cones[i + 2] + g * Math.hypot(x - ox - cones[i], y - oy - cones[i + 1]));
+      if (field(x, y) !== h) differ++;
+    }
+    expect(differ).toBe(0);
   });
 });
