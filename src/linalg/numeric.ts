@@ -391,6 +391,10 @@ export function solveWithFactor(F: Factor, b: ArrayLike<number>): Float64Array {
   const L = F.values;
   const y = new Float64Array(n);
   for (let k = 0; k < n; k++) y[k] = b[perm[k]];
+  // the entries of y at a supernode's rows below its columns, gathered once per supernode: the
+  // updates then run over contiguous memory, and each entry sees the same operations in the same
+  // order as when updated in place (no other column touches it meanwhile), so x is the same to the bit
+  const below = new Float64Array(maxBelow(sym));
   // forward: L y = P b
   for (let s = 0; s < nSuper; s++) {
     const f = superStart[s];
@@ -398,12 +402,16 @@ export function solveWithFactor(F: Factor, b: ArrayLike<number>): Float64Array {
     const rp = superRowPtr[s];
     const nr = superRowPtr[s + 1] - rp;
     const base = superValPtr[s];
+    const nb = nr - nc;
+    for (let i = 0; i < nb; i++) below[i] = y[superRows[rp + nc + i]];
     for (let j = 0; j < nc; j++) {
       const cj = base + j * nr;
       const yj = (y[f + j] /= L[cj + j]);
       for (let i = j + 1; i < nc; i++) y[f + i] -= L[cj + i] * yj;
-      for (let i = nc; i < nr; i++) y[superRows[rp + i]] -= L[cj + i] * yj;
+      const cb = cj + nc;
+      for (let i = 0; i < nb; i++) below[i] -= L[cb + i] * yj;
     }
+    for (let i = 0; i < nb; i++) y[superRows[rp + nc + i]] = below[i];
   }
   // backward: Lᵀ x = y
   for (let s = nSuper - 1; s >= 0; s--) {
@@ -412,17 +420,31 @@ export function solveWithFactor(F: Factor, b: ArrayLike<number>): Float64Array {
     const rp = superRowPtr[s];
     const nr = superRowPtr[s + 1] - rp;
     const base = superValPtr[s];
+    const nb = nr - nc;
+    for (let i = 0; i < nb; i++) below[i] = y[superRows[rp + nc + i]];
     for (let j = nc - 1; j >= 0; j--) {
       const cj = base + j * nr;
       let sum = y[f + j];
       for (let i = j + 1; i < nc; i++) sum -= L[cj + i] * y[f + i];
-      for (let i = nc; i < nr; i++) sum -= L[cj + i] * y[superRows[rp + i]];
+      const cb = cj + nc;
+      for (let i = 0; i < nb; i++) sum -= L[cb + i] * below[i];
       y[f + j] = sum / L[cj + j];
     }
   }
   const x = new Float64Array(n);
   for (let k = 0; k < n; k++) x[perm[k]] = y[k];
   return x;
+}
+
+/** The most rows any supernode has below its own columns. */
+function maxBelow(sym: Symbolic): number {
+  const { nSuper, superStart, superRowPtr } = sym;
+  let most = 0;
+  for (let s = 0; s < nSuper; s++) {
+    const nb = superRowPtr[s + 1] - superRowPtr[s] - (superStart[s + 1] - superStart[s]);
+    if (nb > most) most = nb;
+  }
+  return most;
 }
 
 /**
