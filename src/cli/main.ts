@@ -19,6 +19,8 @@ export { buildProgram } from './program.js';
  */
 async function runInWorker(argv: string[], graceful: boolean): Promise<void> {
   const { adoptWorkerLock, releaseAllLocks } = await import('./lock.js');
+  // before the worker exists, so that all its compilations see it (compiler-tuning.ts)
+  (await import('./compiler-tuning.js')).tuneCompiler();
   const flag = new Int32Array(new SharedArrayBuffer(4));
   // this very file: dist/cli/main.js, or in the bundle its entry dist/bundle/peakwise.js (an entry's
   // own code stays in the entry's file; test/build/bundle.test.ts checks it)
@@ -71,6 +73,8 @@ if (isMainThread) {
     const adapt = process.argv.some((a) => a === '--adapt' || a.startsWith('--adapt='));
     void runInWorker(process.argv, command === 'study' || adapt);
   } else {
+    // a sweep's points are studies on worker threads started from this thread (compiler-tuning.ts)
+    if (command === 'sweep') (await import('./compiler-tuning.js')).tuneCompiler();
     runCommandLine(process.argv).then((code) => {
       // an action may have set a failure status itself (check: a case failed); keep it
       if (code !== 0) process.exitCode = code;
