@@ -147,11 +147,13 @@ function meshOverlayPath(mesh: Mesh, f: Frame, maxEdges: number): string | undef
   for (let e = 0; e < nElems; e++) {
     for (const [i, j, m] of pairs) {
       const a = en[npe * e + i], b = en[npe * e + j];
+      const xa = xy[2 * a], ya = xy[2 * a + 1], xb = xy[2 * b], yb = xy[2 * b + 1];
+      // an edge outside the window is never drawn: it need not be remembered either (an inset's
+      // window holds a small part of the mesh)
+      if (!meetsBox(f.box, Math.min(xa, xb), Math.min(ya, yb), Math.max(xa, xb), Math.max(ya, yb))) continue;
       const key = a < b ? a * nNodes + b : b * nNodes + a;
       if (seen.has(key)) continue;
       seen.add(key);
-      const xa = xy[2 * a], ya = xy[2 * a + 1], xb = xy[2 * b], yb = xy[2 * b + 1];
-      if (!meetsBox(f.box, Math.min(xa, xb), Math.min(ya, yb), Math.max(xa, xb), Math.max(ya, yb))) continue;
       if (++count > maxEdges) return undefined;
       d += `M${c1(px(f, xa))} ${c1(py(f, ya))}`;
       if (npe === 6) {
